@@ -1,0 +1,1 @@
+"""gaugewalk's job model, calculations and file I/O. Never imports Textual."""
