@@ -105,6 +105,8 @@ def scheme_for_system(line_volts: float, phases: int, neutral: bool) -> ColourSc
     if phases == 1:
         if volts in (240, 120):
             return SCHEMES["120/240"]
+        if volts == 277:  # one leg of a 480Y/277 system
+            return SCHEMES["480Y/277"]
         if volts == 208:  # two legs of a 208Y/120 system
             return SCHEMES["208Y/120"]
     elif phases == 3:

@@ -11,6 +11,9 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from tables.errors import TableLookupError
+from tables.raceway import parse_raceway
+
 #: Connectors counted at each end of each raceway: the requirement of the takeoff brief
 #: (common practice for a rough count: the termination plus one more, e.g. at a pull box,
 #: conduit body or transition along the way). A job-level number, not code.
@@ -43,9 +46,11 @@ class InstallRule:
     support_source: str             # the section(s) the end distance and spacing come from
     bends_section: str              # the xxx.26 section limiting bends between pull points
 
-    def max_spacing_ft(self, trade_size: str) -> float:
-        """Largest distance between supports for ``trade_size`` [ft]."""
+    def max_spacing_ft(self, trade_size: str) -> float | None:
+        """Largest distance between supports for ``trade_size`` [ft]; None: no supports counted."""
         value = trade_size_value(trade_size)
+        if not self.spacing:
+            return None
         for row in self.spacing:
             if value <= row.up_to + 1e-9:
                 return row.max_ft
@@ -118,6 +123,12 @@ RULES: dict[str, InstallRule] = {
             "NEC 362.26",
         ),
         InstallRule(
+            "HDPE", "NEC Article 353", None, "sold in coils and reels (common practice)", False,
+            0.0, (),
+            "none counted: HDPE is installed underground or encased (NEC 353.10)",
+            "NEC 353.26",
+        ),
+        InstallRule(
             "FMC", "NEC Article 348", None, "sold in coils (common practice)", False,
             1.0, (Spacing(float("inf"), 4.5),),
             "NEC 348.30(A): within 12 in of each box or termination, at most every 4-1/2 ft",
@@ -140,11 +151,17 @@ RULES: dict[str, InstallRule] = {
 
 # Longest names first so "LFMC" is not read as "FMC".
 _FAMILY_ORDER = sorted(RULES, key=len, reverse=True)
+#: Raceway types of tables.raceway that share another type's article.
+_SAME_ARTICLE = {"ARMC": "RMC"}  # aluminum RMC is also Article 344
 
 
 def install_rule(raceway: str) -> InstallRule:
-    """The rule for a raceway type such as "EMT", "PVC-40", "PVC Sch 80" or "RMC"."""
-    name = raceway.strip().upper().replace(" ", "")
+    """The rule for a raceway type such as "EMT", "PVC-40", "PVC Sch 80", "ARMC" or "rigid"."""
+    try:
+        name = parse_raceway(raceway)
+    except TableLookupError:
+        name = raceway.strip().upper().replace(" ", "")
+    name = _SAME_ARTICLE.get(name, name)
     for family in _FAMILY_ORDER:
         if name.startswith(family):
             return RULES[family]
@@ -153,11 +170,11 @@ def install_rule(raceway: str) -> InstallRule:
     )
 
 
-def supports_for(length_ft: float, end_ft: float, spacing_ft: float) -> int:
+def supports_for(length_ft: float, end_ft: float, spacing_ft: float | None) -> int:
     """Supports for one straight raceway of ``length_ft`` [ft]: one within ``end_ft`` of each end,
     and none further than ``spacing_ft`` apart between them (the xxx.30 rules). A raceway no
-    longer than twice ``end_ft`` needs one support; none for zero length."""
-    if length_ft <= 0:
+    longer than twice ``end_ft`` needs one support; none for zero length or no spacing rule."""
+    if length_ft <= 0 or spacing_ft is None:
         return 0
     if length_ft <= 2 * end_ft:
         return 1

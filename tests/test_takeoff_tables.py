@@ -78,7 +78,8 @@ def test_a_put_up_of_no_length_is_refused():
 @pytest.mark.parametrize(
     ("raceway", "family"),
     [("EMT", "EMT"), ("PVC-40", "PVC"), ("PVC Sch 80", "PVC"), ("rmc", "RMC"),
-     ("LFMC", "LFMC"), ("FMC", "FMC"), ("LFNC-B", "LFNC")],
+     ("LFMC", "LFMC"), ("FMC", "FMC"), ("LFNC-B", "LFNC"), ("ARMC", "RMC"), ("rigid", "RMC"),
+     ("sch 80 pvc", "PVC"), ("HDPE", "HDPE")],
 )
 def test_raceway_names_find_their_article(raceway, family):
     assert install_rule(raceway).family == family
@@ -132,6 +133,20 @@ def test_sticks_and_couplings_of_ten_foot_lengths():
     assert (sticks_for(95, 10), joints_for(95, 10)) == (10, 9)
     assert (sticks_for(100, 10), joints_for(100, 10)) == (10, 9)
     assert (sticks_for(100.0000000001, 10), joints_for(5, 10)) == (10, 0)
+
+
+def test_underground_hdpe_gets_no_supports():
+    # NEC 353.10: HDPE is for underground and encased use, so no xxx.30 spacing applies
+    rule = install_rule("HDPE")
+    assert rule.max_spacing_ft("2") is None
+    assert supports_for(100, rule.end_ft, None) == 0
+
+
+def test_every_raceway_type_of_the_fill_tables_has_installation_data():
+    from tables.raceway import RACEWAY_TYPES
+    for name, kind in RACEWAY_TYPES.items():
+        # the article of the installation rule is the article of the fill table row
+        assert install_rule(name).article == f"NEC Article {kind.article}", name
 
 
 def test_rigid_conduit_sticks_carry_their_coupling():
