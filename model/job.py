@@ -34,6 +34,11 @@ from typing import Literal
 from pydantic import BaseModel, ConfigDict, Field, PrivateAttr, field_validator, model_validator
 
 from model.lengths import LengthError, parse_length
+from model.systems import CircuitError, parse_system
+from tables.errors import TableLookupError
+from tables.ampacity import parse_insulation
+from tables.raceway import parse_raceway
+from tables.sizes import parse_size
 
 SCHEMA_VERSION = 1
 """Version of the walk file format written by this code (the ``schema`` key)."""
@@ -61,6 +66,15 @@ def _check_id(value: str) -> str:
 
 class _Strict(BaseModel):
     model_config = ConfigDict(extra="forbid", populate_by_name=True, validate_assignment=True)
+
+
+def _canonical(parse, value):
+    if value is None:
+        return None
+    try:
+        return parse(value)
+    except TableLookupError as exc:
+        raise ValueError(str(exc)) from None
 
 
 class JobHeader(_Strict):
@@ -116,6 +130,16 @@ class Defaults(_Strict):
     """Conductor colours for the takeoff. ``common``: black/red/blue on 120/240 V and 208Y/120 V,
     brown/orange/yellow on 480Y/277 V and 480 V, white or grey neutrals, green EGC (common
     practice; only the neutral and EGC colours are code rules, NEC 200.6 and 250.119)."""
+
+    @field_validator("insulation")
+    @classmethod
+    def _known_insulation(cls, value: str) -> str:
+        return _canonical(parse_insulation, value)
+
+    @field_validator("raceway")
+    @classmethod
+    def _known_raceway(cls, value: str) -> str:
+        return _canonical(parse_raceway, value)
 
 
 class Load(_Strict):
@@ -189,6 +213,14 @@ class Source(_Strict):
     def _usable_id(cls, value: str) -> str:
         return _check_id(value)
 
+    @field_validator("system")
+    @classmethod
+    def _known_system(cls, value: str) -> str:
+        try:
+            return parse_system(value)
+        except CircuitError as exc:
+            raise ValueError(str(exc)) from None
+
 
 class Run(_Strict):
     """One run of conductors from a source to a panel (a feeder) or to a load (a branch)."""
@@ -255,6 +287,21 @@ class Run(_Strict):
             raise ValueError(f"the length '{value}' cannot be read {exc}") from None
         return value
 
+    @field_validator("size")
+    @classmethod
+    def _known_size(cls, value: str | None) -> str | None:
+        return _canonical(parse_size, value)
+
+    @field_validator("insulation")
+    @classmethod
+    def _known_insulation(cls, value: str | None) -> str | None:
+        return _canonical(parse_insulation, value)
+
+    @field_validator("raceway")
+    @classmethod
+    def _known_raceway(cls, value: str | None) -> str | None:
+        return _canonical(parse_raceway, value)
+
     @model_validator(mode="after")
     def _feet(self) -> Run:
         feet = parse_length(self.length)
@@ -304,6 +351,11 @@ with warnings.catch_warnings():
         """Every run walked (``[[run]]``)."""
 
         _index_cache: tuple | None = PrivateAttr(default=None)
+
+        def __eq__(self, other: object) -> bool:  # the lookup cache is not part of the walk
+            return type(other) is type(self) and self.__dict__ == other.__dict__
+
+        __hash__ = None
 
         # -- lookups -------------------------------------------------------------------------
         def _index(self) -> tuple[dict[str, Source], dict[str, Run]]:
