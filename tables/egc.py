@@ -8,11 +8,16 @@ and 1200 kcmil at 5000 and 6000 A; older reprints show other values in these row
 ungrounded conductors are increased in size (other than for the ampacity corrections of 310.15(B)
 or (C), 2020 and later), the EGC increases in proportion to circular mil area; that rule is in
 ``model/``.
+
+The aluminum rows for 5000 and 6000 A print 1200 kcmil, which is not a building-wire size of
+Ch. 9 Table 8; ``egc_size`` returns the next Table 8 size up (1250 kcmil) and ``egc_printed``
+the table's own text.
 """
 
 from __future__ import annotations
 
 from tables.errors import TableLookupError
+from tables.sizes import KCMIL_NUMBERS, SIZES
 
 # NEC 2023 Table 250.122: (rating not exceeding [A], copper, aluminum or copper-clad aluminum).
 EGC_TABLE: tuple[tuple[int, str, str], ...] = (
@@ -40,7 +45,17 @@ EGC_TABLE: tuple[tuple[int, str, str], ...] = (
 
 def egc_size(ocpd_a: float, material: str) -> str:
     """Minimum EGC size for an overcurrent device of ``ocpd_a`` [A], NEC Table 250.122: the first
-    row whose rating is at or above the device. ``material`` is ``"cu"`` or ``"al"``."""
+    row whose rating is at or above the device. ``material`` is ``"cu"`` or ``"al"``. Always a
+    size of ``tables.sizes.SIZES`` (a printed 1200 kcmil becomes 1250 kcmil)."""
+    printed = egc_printed(ocpd_a, material)
+    if printed in SIZES:
+        return printed
+    kcmil = int(printed.split()[0])
+    return f"{min(k for k in KCMIL_NUMBERS if k >= kcmil)} kcmil"
+
+
+def egc_printed(ocpd_a: float, material: str) -> str:
+    """The EGC size as NEC Table 250.122 prints it for ``ocpd_a`` [A] (may be 1200 kcmil)."""
     if material not in ("cu", "al"):
         raise TableLookupError(f"no conductor material '{material}'; materials are cu, al")
     if isinstance(ocpd_a, bool) or not isinstance(ocpd_a, (int, float)) or not ocpd_a > 0:
