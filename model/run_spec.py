@@ -61,6 +61,8 @@ class RunSpec:
     max_total_drop_pct: float = 5.0        # [%] service to load
     egc: bool = True                       # run an equipment grounding conductor
     egc_material: Material | None = None   # None: same as the phase conductors
+    egc_bare: bool = False                 # a bare EGC (Ch. 9 Table 8 area) instead of insulated
+    stranded: bool = True                  # stranded conductors (Ch. 9 Table 8 DC resistance)
 
 
 @dataclass(frozen=True)
