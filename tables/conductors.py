@@ -5,9 +5,10 @@ table lists it) solid conductors, and DC resistance at 75 C [ohm/kft] for uncoat
 (tinned) copper and aluminum. Table 8 lists solid conductors for 18 AWG through 8 AWG only.
 
 Typed from the 2023 edition; these columns have been unchanged since at least the 2011 edition.
-Values marked "from memory" below could not be checked against a printed copy while typing; the
-tests cross-check them against the ASTM B258 gauge formula, IACS resistivity and their own
-diameters.
+Provenance: the uncoated-copper and aluminum resistances of 14 AWG - 600 kcmil agree with a
+published reproduction of the table; everything else (700 kcmil and up, diameters, stranding,
+mm^2, the coated column) is from memory. The tests cross-check all of it against the ASTM B258
+gauge formula, IACS resistivity with the stranding increment, and each row's own diameters.
 
 Temperature: NEC Ch. 9 Table 8 note 2, R2 = R1 [1 + alpha (T2 - 75)], alpha per ``ALPHA``.
 """

@@ -4,7 +4,8 @@ areas of insulated conductors.
 Table 4 is typed as the internal diameter [in] and the total (100 %) area [in^2] of each trade
 size; the percent columns follow from Table 1. Table 5 gives approximate areas of insulated
 conductors [in^2] for the common building-wire types. These tables have been stable since at
-least the 2011 edition. The tests check every area against pi/4 * d^2 of its own diameter.
+least the 2011 edition. Tables 4 and 5 are typed from memory; the tests check every area against
+pi/4 * d^2 of its own diameter and every Table 5 conductor against the bare one of Table 8.
 """
 
 from __future__ import annotations

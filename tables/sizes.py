@@ -21,7 +21,7 @@ SIZES: tuple[str, ...] = tuple(f"{n} AWG" for n in AWG_NUMBERS) + tuple(
 
 _INDEX = {size: i for i, size in enumerate(SIZES)}
 _ZEROS = {"0": "1/0", "00": "2/0", "000": "3/0", "0000": "4/0"}
-_PATTERN = re.compile(r"^#?\s*(\d+(?:/0)?)\s*(awg|ga|kcmil|mcm|kcm)?$")
+_PATTERN = re.compile(r"^#?\s*([0-9]+(?:/0)?)\s*(awg|ga|kcmil|mcm|kcm)?$", re.ASCII)
 
 
 def _reject(text: object) -> TableLookupError:

@@ -1,8 +1,11 @@
 """Conductor size names and spellings (tables.sizes)."""
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from tables.errors import TableLookupError
+from tables.raceway import RACEWAY_TYPES, parse_raceway
 from tables.sizes import SIZES, is_awg, next_larger, parse_size, size_index
 
 
@@ -26,7 +29,7 @@ def test_common_spellings_parse_to_the_canonical_size(typed, canonical):
 @pytest.mark.parametrize(
     "typed",
     ["5", "5 AWG", "7", "20 AWG", "12 kcmil", "250 awg", "0250", "275 kcmil", "1/0 kcmil",
-     "5/0", "00000", "abc", "", "12.5", "-4", "4/0/0"],
+     "5/0", "00000", "abc", "", "12.5", "-4", "4/0/0", "\u0661\u0662"],
 )
 def test_sizes_outside_the_table_are_rejected_with_the_list_of_valid_sizes(typed):
     with pytest.raises(TableLookupError) as err:
@@ -62,3 +65,22 @@ def test_size_index_and_is_awg_accept_any_spelling():
     assert is_awg("0000") and not is_awg("250 MCM")
     with pytest.raises(TableLookupError):
         size_index("5")
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text(max_size=12))
+def test_any_typed_text_gives_a_size_or_a_clear_refusal(text):
+    # rule: user mistakes give a message, never a traceback of another kind
+    try:
+        assert parse_size(text) in SIZES
+    except TableLookupError as err:
+        assert "sizes are 18 AWG" in str(err)
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text(max_size=16))
+def test_any_typed_text_gives_a_raceway_or_a_clear_refusal(text):
+    try:
+        assert parse_raceway(text) in RACEWAY_TYPES
+    except TableLookupError as err:
+        assert "types are EMT" in str(err)
