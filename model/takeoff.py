@@ -329,9 +329,10 @@ def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = T
             add_wire(run, run.egc_material or run.material, run.egc_size, "EGC", run.egc_colour, 1)
 
     function_order = {"phase": 0, "neutral": 1, "EGC": 2}
+    first_seen = {key: i for i, key in enumerate(wire_net)}  # phase colours stay in A, B, C order
     wire_lines = []
     for key in sorted(wire_net, key=lambda k: (k[0] != "cu", k[0], size_index(k[2]), k[1],
-                                               function_order[k[3]], k[4])):
+                                               function_order[k[3]], first_seen[k])):
         material, insulation, size, function, colour = key
         net = wire_net[key]
         need = _with_waste(net, waste)
@@ -375,7 +376,7 @@ def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = T
         if rule.stick_ft is not None and not rule.coupling_attached:
             add_fitting("coupling", *key,
                         raceway_install.joints_for(run.length_ft, rule.stick_ft) * run.sets,
-                        f"one per joint of {rule.stick_ft:g} ft lengths ({rule.stick_source})")
+                        f"one per joint between lengths; {rule.stick_source}")
         add_fitting("connector", *key, 2 * settings.connectors_per_end * run.sets,
                     f"{settings.connectors_per_end} per raceway end (takeoff assumption)")
         if spacing is not None:
@@ -461,3 +462,103 @@ def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.
                     else (" One coupling per joint between lengths." if rule.stick_ft else ""))
         out.append(f"{family} ({rule.article}): {sticks}.{coupling} Supports: {rule.support_source}.")
     return tuple(out)
+
+
+# --------------------------------------------------------------------------------------------
+# From a walk
+
+
+COLOUR_SCHEMES = ("common",)
+"""Colour scheme names a job may give: ``common`` picks ``tables.colours`` by each source's
+system (common practice for phases; NEC 200.6 and 250.119 for neutral and EGC)."""
+
+
+def scheme_for_source_system(system_id: str) -> colour_table.ColourScheme:
+    """The default colour scheme of a source's system (a ``model.systems.SYSTEMS`` id)."""
+    from model.systems import SYSTEMS, parse_system
+
+    system = SYSTEMS.get(system_id) or SYSTEMS[parse_system(system_id)]
+    return colour_table.scheme_for_system(system.line_to_line_v, system.phases, system.has_neutral)
+
+
+def settings_for(job) -> TakeoffSettings:
+    """The takeoff settings of a ``model.job.Job``: its slack, waste and put-ups."""
+    d = job.defaults
+    if d.colour_scheme not in COLOUR_SCHEMES:
+        raise TakeoffError(
+            f"defaults, colour_scheme: no colour scheme '{d.colour_scheme}'; schemes are "
+            f"{', '.join(COLOUR_SCHEMES)}"
+        )
+    putups = getattr(d, "putups", None)
+    return TakeoffSettings(
+        slack_per_end_ft=d.slack_per_end_ft,
+        waste_pct=d.waste_pct,
+        putups=tuple(putups) if putups else DEFAULT_PUTUPS,
+    )
+
+
+def materials_from_job(job, job_result) -> tuple[list[RunMaterial], list[str], tuple[str, ...]]:
+    """One ``RunMaterial`` per sized run of ``job`` (a ``model.job.Job``) from ``job_result``
+    (a ``model.compute.JobResult``), the warnings for runs left out, and the colour rules used."""
+    materials: list[RunMaterial] = []
+    left_out: list[str] = []
+    schemes: dict[str, colour_table.ColourScheme] = {}
+    for run in job.runs:
+        result = job_result.runs.get(run.id)
+        if result is None:
+            left_out.append(f"run {run.id}: not sized, so left out of the takeoff")
+            continue
+        source = job.source(run.from_)
+        try:
+            scheme = scheme_for_source_system(source.system)
+        except KeyError as exc:
+            left_out.append(f"run {run.id}: no colours: {exc.args[0]}")
+            continue
+        schemes[scheme.key] = scheme
+        per_set = result.conductors or {}
+        has_neutral = bool(per_set.get("neutral")) and result.neutral_size is not None
+        has_egc = bool(per_set.get("egc")) and result.egc_size is not None
+        try:
+            phases = phase_colours_for(scheme, int(per_set.get("hot", 0)), has_neutral)
+        except TakeoffError as exc:
+            left_out.append(f"run {run.id}: {exc}")
+            continue
+        materials.append(RunMaterial(
+            run_id=run.id,
+            length_ft=run.length_ft,
+            sets=result.sets,
+            material=result.material,
+            insulation=job.effective(run, "insulation"),
+            size=result.size,
+            phase_colours=phases,
+            neutral_size=result.neutral_size if has_neutral else None,
+            neutral_colour=scheme.neutral or "white",
+            egc_size=result.egc_size if has_egc else None,
+            egc_colour=scheme.egc,
+            raceway=result.raceway,
+            raceway_size=result.raceway_size,
+            bends=run.bends or 0,
+        ))
+    sources = tuple(
+        f"{s.label}: {'; '.join(s.sources())}" for s in sorted(schemes.values(), key=lambda s: s.key)
+    )
+    return materials, left_out, sources
+
+
+def build_takeoff(job, job_result) -> Takeoff:
+    """The takeoff of a computed walk: ``job`` a ``model.job.Job``, ``job_result`` what
+    ``model.compute.compute_job(job)`` returned. Runs that could not be sized are left out and
+    named in ``warnings``. Raises ``TakeoffError`` for a job setting it cannot use."""
+    settings = settings_for(job)
+    materials, left_out, scheme_sources = materials_from_job(job, job_result)
+    settings = TakeoffSettings(
+        settings.slack_per_end_ft, settings.waste_pct, settings.putups,
+        settings.connectors_per_end, scheme_sources,
+    )
+    takeoff = takeoff_from_runs(materials, settings)
+    if left_out:
+        takeoff = Takeoff(
+            takeoff.wire_lines, takeoff.raceway_lines, takeoff.fitting_lines,
+            takeoff.assumptions, tuple(left_out) + takeoff.warnings, settings,
+        )
+    return takeoff

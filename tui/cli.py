@@ -15,6 +15,8 @@ import sys
 # Subcommand modules, in the order ``gaugewalk --help`` lists them.
 COMMAND_MODULES: tuple[str, ...] = (
     "tui.cmd_calc",
+    "tui.cmd_takeoff",
+    "tui.cmd_report",
 )
 
 CAUTION = (
