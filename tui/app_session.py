@@ -1,0 +1,421 @@
+"""One open walk in the app: the job, its computed results, saving and undo.
+
+No Textual here, so it can be tested and timed on its own. Runs, sources and defaults are never
+changed in place: every change puts new objects into the job's lists, so an undo step is just the
+previous lists (copies of references, cheap even with thousands of runs).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from model.job import Defaults, Job, JobHeader, Run, Source
+from model.run_spec import RunResult
+
+# Statuses shown in the run sheet: a symbol AND words, never colour alone.
+STATUS_OK = "✓ ok"
+STATUS_DROP = "▲ over drop"
+STATUS_TOTAL = "▲ over total"
+STATUS_AMPS = "✗ short amps"
+STATUS_ERROR = "✗ not sized"
+
+
+@dataclass
+class Snapshot:
+    """The walk's lists before (or after) one change, and what the change was."""
+
+    label: str
+    runs: list[Run]
+    sources: list[Source]
+    defaults: Defaults
+    header: JobHeader
+    focus: str | None = None
+
+
+@dataclass
+class RunStatus:
+    """What is wrong with a run, in short words for the sheet and sentences for the detail."""
+
+    words: str
+    flag: bool
+    problems: tuple[str, ...] = ()
+
+
+@dataclass
+class Preview:
+    """A run sized in the context of the walk before it is stored: its result, or the problems
+    (field name or None, sentence) that stop it."""
+
+    result: RunResult | None
+    problems: list[tuple[str | None, str]] = field(default_factory=list)
+    cannot_size: str | None = None   # why it cannot be sized yet (does not stop storing)
+
+
+@dataclass
+class TrialOutcome:
+    """A trial change computed on a copy of the walk. ``downstream`` lists, for runs fed through
+    the changed run: (run id, total drop before, after [%], flagged before, after)."""
+
+    result: object | None
+    problems: list[str] = field(default_factory=list)
+    downstream: list[tuple[str, float, float, bool, bool]] = field(default_factory=list)
+
+
+@dataclass
+class SaveState:
+    saved: bool = True
+    message: str | None = None     # why the last save failed, if it did
+    notice: str | None = None      # said once after a save (e.g. comments were dropped)
+
+
+class WalkSession:
+    """A walk file opened for editing."""
+
+    def __init__(self, path: Path, job: Job, *, compute: bool = True) -> None:
+        self.path = Path(path)
+        self.job = job
+        self.result = None
+        self.job_problems: list[str] = []
+        self.state = SaveState()
+        self.history: list[Snapshot] = []
+        self.future: list[Snapshot] = []
+        self.draft: dict[str, str] | None = None
+        self.busy = False   # True while the whole walk is being sized in the background
+        if compute:
+            self.recompute()
+
+    # ----- opening ----------------------------------------------------------------------
+    @classmethod
+    def open(cls, path: str | Path, *, compute: bool = True) -> "WalkSession":
+        """Read a walk; raises ``model.walkfile.WalkFileError`` for a bad file. With
+        ``compute=False`` the runs are not sized yet (call ``recompute``)."""
+        from model.walkfile import load_walk
+
+        return cls(Path(path), load_walk(path), compute=compute)
+
+    @classmethod
+    def create(
+        cls, path: str | Path, name: str = "", service_id: str = "SVC",
+        service_system: str | None = "208Y/120V 3ph 4w",
+    ) -> "WalkSession":
+        """Start a new walk at ``path`` (with its service) and write it at once."""
+        from datetime import date
+
+        from model.walkfile import new_walk
+
+        job = new_walk(
+            name=name or Path(path).stem, service_system=service_system, service_id=service_id,
+            walked_on=date.today(),
+        )
+        session = cls(Path(path), job)
+        session.save()
+        return session
+
+    # ----- computing --------------------------------------------------------------------
+    def recompute(self, edited: str | None = None) -> None:
+        """Compute the walk again; after one run was edited in place (same from and to), only
+        what that run touches."""
+        from model.compute import compute_job, recompute_run
+
+        if edited is not None and self.result is not None:
+            self.result = recompute_run(self.job, self.result, edited)
+        else:
+            self.result = compute_job(self.job)
+        self.job_problems = [str(p) for p in self.result.problems if not p.where.startswith("run ")]
+
+    def result_for(self, run_id: str) -> RunResult | None:
+        if self.result is None:
+            return None
+        return self.result.runs.get(run_id)
+
+    def source_drop(self, source_id: str) -> float | None:
+        """Cumulative drop from the service to this source's bus [%], if known."""
+        if self.result is None:
+            return None
+        return self.result.source_drop_pct.get(source_id)
+
+    def targets(self, run: Run) -> tuple[float, float]:
+        """(drop target for this run, total target) [%]."""
+        d = self.job.defaults
+        if run.max_drop_pct is not None:
+            own = run.max_drop_pct
+        else:
+            own = d.feeder_drop_pct if self.job.is_feeder(run) else d.branch_drop_pct
+        return own, d.total_drop_pct
+
+    def status(self, run: Run, res: RunResult | None = None) -> RunStatus:
+        """Classify a run: short of ampacity, over its drop target, over the total, or ok."""
+        if self.result is None:
+            return RunStatus("… sizing", False, ())
+        res = res if res is not None else self.result_for(run.id)
+        extra = tuple(p.message for p in self.result.run_problems(run.id)) if self.result else ()
+        if res is None:
+            return RunStatus(STATUS_ERROR, True, extra or ("this run could not be sized",))
+        problems = tuple(res.problems) + tuple(p for p in extra if p not in res.problems)
+        own, total = self.targets(run)
+        if res.ampacity_a + 1e-9 < res.required_ampacity_a:
+            words = STATUS_AMPS
+        elif res.voltage_drop_pct > own + 1e-9:
+            words = STATUS_DROP
+        elif res.total_drop_pct > total + 1e-9:
+            words = STATUS_TOTAL
+        elif problems:
+            words = "✗ " + _short(problems[0])
+        else:
+            return RunStatus(STATUS_OK, False, ())
+        return RunStatus(words, True, problems)
+
+    # ----- trying before storing ---------------------------------------------------------
+    def _with(self, run: Run, replaces: str | None, new_source: Source | None) -> Job:
+        """A copy of the job (sharing unchanged runs) with ``run`` stored."""
+        runs = list(self.job.runs)
+        if replaces is not None:
+            for i, r in enumerate(runs):
+                if r.id == replaces:
+                    runs[i] = run
+                    break
+            else:
+                runs.append(run)
+        else:
+            runs.append(run)
+        sources = list(self.job.sources)
+        if new_source is not None:
+            sources.append(new_source)
+        trial = self.job.model_copy(update={"runs": runs, "sources": sources})
+        trial._index_cache = None
+        return trial
+
+    def _reference_problems(self, trial: Job, run: Run) -> list[tuple[str | None, str]]:
+        from model.walk_problems import Locator, check_references
+
+        mine = f"run {run.id}"
+        out = []
+        for p in check_references(trial, Locator(""), self.path.name):
+            if p.where == mine or (p.where.startswith("source ") and p.where[7:] in (run.to, run.from_)):
+                out.append((p.field if p.where == mine else "to", p.message))
+        return out
+
+    def preview(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> Preview:
+        """Size ``run`` as if stored (nothing is changed or saved).
+
+        Problems that would make the walk file invalid (a source that does not exist, a branch
+        without a load...) stop it. The run is sized alone against the drop at its source now;
+        the small change its load makes to the feeders above shows once it is stored."""
+        from model.compute import run_spec_for
+        from model.loads import LoadError
+        from model.sizing import evaluate
+        from model.systems import CircuitError
+
+        trial = self._with(run, replaces, new_source)
+        problems = self._reference_problems(trial, run)
+        if problems:
+            return Preview(None, problems)
+        source = trial.source(run.from_)
+        upstream = self.source_drop(run.from_) or 0.0
+        if source is not None and source.kind == "transformer":
+            upstream = 0.0
+        try:
+            res = evaluate(run_spec_for(trial, run, upstream))
+        except CircuitError as exc:
+            return Preview(None, [("connection", str(exc))])
+        except (LoadError, ValueError) as exc:
+            return Preview(None, [], cannot_size=str(exc))
+        return Preview(res)
+
+    def trial(self, run: Run) -> TrialOutcome:
+        """Compute the walk with ``run`` in place of the stored run of the same id."""
+        trial = self._with(run, run.id, None)
+        problems = [m for _, m in self._reference_problems(trial, run)]
+        if problems:
+            return TrialOutcome(None, problems)
+        from model.compute import compute_job
+
+        result = compute_job(trial)
+        if run.id not in result.runs:
+            return TrialOutcome(result, ["this change leaves the run impossible to size"])
+        down: list[tuple[str, float, float, bool, bool]] = []
+        if self.job.is_feeder(run):
+            before_ids = self._downstream_ids(run.to)
+            for rid in before_ids:
+                r = self.job.run(rid)
+                b = self.result_for(rid)
+                a = result.runs.get(rid)
+                if r is None or b is None or a is None:
+                    continue
+                down.append((rid, b.total_drop_pct, a.total_drop_pct,
+                             self.status(r, b).flag, self.status(r, a).flag))
+        return TrialOutcome(result, [], down)
+
+    def _downstream_ids(self, source_id: str) -> list[str]:
+        out: list[str] = []
+        stack = [source_id]
+        seen = set()
+        while stack:
+            sid = stack.pop()
+            if sid in seen:
+                continue
+            seen.add(sid)
+            for r in self.job.runs_from(sid):
+                out.append(r.id)
+                if self.job.source(r.to) is not None:
+                    stack.append(r.to)
+        return out
+
+    # ----- changing ---------------------------------------------------------------------
+    def _snapshot(self, label: str, focus: str | None) -> Snapshot:
+        job = self.job
+        return Snapshot(label, list(job.runs), list(job.sources), job.defaults, job.job, focus)
+
+    def _restore(self, snap: Snapshot) -> None:
+        self.job.runs[:] = snap.runs
+        self.job.sources[:] = snap.sources
+        if self.job.defaults is not snap.defaults:
+            self.job.defaults = snap.defaults
+        if self.job.job is not snap.header:
+            self.job.job = snap.header
+        self._touch()
+
+    def _touch(self) -> None:
+        # The job caches its id lookups by list identity and length; lists changed in place.
+        self.job._index_cache = None
+
+    def _commit(self, label: str, focus: str | None, change, edited: str | None = None) -> None:
+        before = self._snapshot(label, focus)
+        change()
+        self._touch()
+        self.history.append(before)
+        self.future.clear()
+        self.recompute(edited)
+        self.save()
+
+    def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> None:
+        """Store a new run, or put ``run`` in place of the run ``replaces``; optionally declare
+        the panel the run feeds."""
+
+        def change() -> None:
+            runs = self.job.runs
+            if replaces is not None:
+                for i, r in enumerate(runs):
+                    if r.id == replaces:
+                        runs[i] = run
+                        break
+                else:
+                    runs.append(run)
+            else:
+                runs.append(run)
+            if new_source is not None:
+                self.job.sources.append(new_source)
+
+        label = f"edit {run.id}" if replaces else f"add {run.id}"
+        old = self.job.run(replaces) if replaces else None
+        in_place = (
+            old is not None and old.id == run.id and old.from_ == run.from_ and old.to == run.to
+            and new_source is None
+        )
+        self._commit(label, run.id, change, edited=run.id if in_place else None)
+
+    def delete_run(self, run_id: str) -> bool:
+        if self.job.run(run_id) is None:
+            return False
+
+        def change() -> None:
+            self.job.runs[:] = [r for r in self.job.runs if r.id != run_id]
+
+        self._commit(f"delete {run_id}", run_id, change)
+        return True
+
+    def set_job(self, header: JobHeader, defaults: Defaults) -> None:
+        """Store new job settings; every run recomputes."""
+
+        def change() -> None:
+            self.job.job = header
+            self.job.defaults = defaults
+
+        self._commit("job settings", None, change)
+
+    def undo(self) -> Snapshot | None:
+        """Go back one change; returns what was undone (its label and run) or None."""
+        if not self.history:
+            return None
+        snap = self.history.pop()
+        self.future.append(self._snapshot(snap.label, snap.focus))
+        self._restore(snap)
+        self.recompute()
+        self.save()
+        return snap
+
+    def redo(self) -> Snapshot | None:
+        if not self.future:
+            return None
+        snap = self.future.pop()
+        self.history.append(self._snapshot(snap.label, snap.focus))
+        self._restore(snap)
+        self.recompute()
+        self.save()
+        return snap
+
+    # ----- saving -----------------------------------------------------------------------
+    def save(self) -> bool:
+        """Write the walk now (atomic, with a backup). On failure the walk stays in memory,
+        marked unsaved, with the reason in ``state.message``."""
+        from model.walkfile import save_walk
+
+        try:
+            notice = save_walk(self.job, self.path)
+        except OSError as exc:
+            self.state = SaveState(False, f"cannot write {self.path}: {exc.strerror or exc}")
+            return False
+        except Exception as exc:  # a walk the file code refuses: keep it in memory, say why
+            self.state = SaveState(False, f"not saved: {exc}")
+            return False
+        self.state = SaveState(True, None, notice or None)
+        return True
+
+    @property
+    def lose_on_quit(self) -> str | None:
+        """What quitting now would lose, in words, or None."""
+        if not self.state.saved:
+            return "changes that could not be saved to " + self.path.name
+        if self.draft:
+            return "a run card that was not stored"
+        return None
+
+    # ----- ids and names ----------------------------------------------------------------
+    def source_ids(self) -> list[str]:
+        return [s.id for s in self.job.sources]
+
+    def known_names(self) -> list[str]:
+        """Sources and every destination already in the walk, for completion."""
+        seen: dict[str, None] = {}
+        for s in self.job.sources:
+            seen.setdefault(s.id, None)
+        for r in self.job.runs:
+            seen.setdefault(r.to, None)
+        return list(seen)
+
+    def previous_like(self, source_id: str | None) -> Run | None:
+        """The last run from the same source (else the last run): the card copies its circuit."""
+        runs = self.job.runs
+        if source_id:
+            for r in reversed(runs):
+                if r.from_ == source_id and not self.job.is_feeder(r):
+                    return r
+        return runs[-1] if runs else None
+
+
+def _short(text: str, width: int = 12) -> str:
+    return text if len(text) <= width else text[: width - 1] + "…"
+
+
+def fmt_pct(value: float | None) -> str:
+    if value is None or not math.isfinite(value):
+        return "—"
+    return f"{value:.2f}"
+
+
+def fmt_ft(value: float | None) -> str:
+    if value is None or not math.isfinite(value):
+        return "—"
+    return f"{value:,.0f}" if value >= 100 else f"{value:.1f}".rstrip("0").rstrip(".")

@@ -1,0 +1,584 @@
+"""The run card: record or edit one run at walking pace, with the answer live beside it.
+
+Fields come in walking order (from, to, length, load); the rest are filled from the job defaults
+and from the last run from the same source, and can be reached with Tab or ctrl+o. Every keystroke
+re-checks the field (reason shown at the field) and re-sizes the run. Enter stores the run and
+starts the next one; a run with an invalid field is not stored.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from rich.markup import escape
+from textual import on
+from textual.app import ComposeResult
+from textual.containers import Horizontal, Vertical
+from textual.screen import Screen
+from textual.suggester import SuggestFromList
+from textual.widgets import Footer, Header, Input, Label, Static
+
+from model.job import Load, Run, Source
+from model.lengths import LengthError, parse_length
+from model.loads import LoadError, parse_load
+from tui.app_keys import bindings_for
+from tui.app_session import WalkSession, fmt_ft
+from tui.app_rows import size_text
+
+
+@dataclass(frozen=True)
+class Field:
+    key: str
+    label: str
+    placeholder: str
+    main: bool = False
+
+
+FIELDS: tuple[Field, ...] = (
+    Field("from", "From", "source id", True),
+    Field("to", "To", "load name or panel id", True),
+    Field("length", "Length", "85+12+2*6, 36m+8ft", True),
+    Field("load", "Load", "16A, 1.8kVA, 5kW", True),
+    Field("panel", "New panel", "system, if To is a new panel"),
+    Field("circuit", "Circuit", "LN LL LLN MW 3P 3PN"),
+    Field("continuous", "Continuous", "yes / no"),
+    Field("spread", "Spread", "no: load at the end"),
+    Field("sets", "Sets", "1"),
+    Field("size", "Size", "blank: picked"),
+    Field("material", "Material", "cu / al"),
+    Field("raceway", "Raceway", "EMT, PVC-40, ..."),
+    Field("id", "Run id", ""),
+    Field("notes", "Notes", ""),
+)
+FIELD_KEYS = tuple(f.key for f in FIELDS)
+COPIED_FROM_PREVIOUS = ("circuit", "continuous", "material", "raceway")
+YES = {"y", "yes", "true", "1", "on"}
+NO = {"", "n", "no", "false", "0", "off"}
+
+
+def _yes_no(text: str) -> bool | None:
+    t = text.strip().lower()
+    if t in YES:
+        return True
+    if t in NO:
+        return False
+    return None
+
+
+def run_to_fields(run: Run) -> dict[str, str]:
+    """The card's texts for an existing run."""
+    load = ""
+    if run.load is not None:
+        load = f"{run.load.value:g}{run.load.unit}"
+        if run.load.pf is not None:
+            load += f" pf{run.load.pf:g}"
+    return {
+        "from": run.from_,
+        "to": run.to,
+        "length": run.length,
+        "load": load,
+        "panel": "",
+        "circuit": run.connection or "",
+        "continuous": "yes" if run.continuous else "no",
+        "spread": "yes" if run.distributed else "no",
+        "sets": str(run.sets),
+        "size": run.size or "",
+        "material": run.material or "",
+        "raceway": run.raceway or "",
+        "id": run.id,
+        "notes": run.notes,
+    }
+
+
+def parse_load_text(text: str) -> tuple[float, str, float | None]:
+    """``16A``, ``5kW pf0.9`` -> (value, unit, pf or None). Raises LoadError."""
+    t = text.strip()
+    pf = None
+    low = t.lower()
+    if " pf" in low:
+        i = low.rindex(" pf")
+        pf_text = t[i + 3:].strip().lstrip("=").strip()
+        t = t[:i].strip()
+        try:
+            pf = float(pf_text)
+        except ValueError:
+            raise LoadError(f"'pf{pf_text}' is not a power factor; write e.g. pf0.9") from None
+        if not 0 < pf <= 1:
+            raise LoadError("a power factor is above 0 and at most 1")
+    value, unit = parse_load(t)
+    return value, unit, pf
+
+
+class RunCard(Screen):
+    """Record a new run (``run_id`` None) or edit one."""
+
+    BINDINGS = bindings_for("card")
+
+    def __init__(self, session: WalkSession, run_id: str | None = None) -> None:
+        super().__init__()
+        self.session = session
+        self.run_id = run_id
+        self.errors: dict[str, str] = {}
+        self.touched: set[str] = set()
+        self.stored: list[str] = []
+        self._filling = False
+        self._candidate: Run | None = None
+        self.soft: set[str] = set()
+        self._store_tried = False
+        self._sticky: str | None = None
+        self._cannot: str | None = None
+        self._new_source: Source | None = None
+
+    # ----- layout -----------------------------------------------------------------------
+    def compose(self) -> ComposeResult:
+        yield Header()
+        names = self.session.known_names()
+        with Horizontal(id="card-body"):
+            with Vertical(id="card-fields"):
+                for f in FIELDS:
+                    if f.key == "panel":
+                        yield Static("─ more (ctrl+o) ─", classes="card-rule")
+                    with Horizontal(classes="card-row" + (" card-main" if f.main else "")):
+                        yield Label(f.label, classes="card-label")
+                        suggester = None
+                        if f.key == "from":
+                            suggester = SuggestFromList(self.session.source_ids(), case_sensitive=False)
+                        elif f.key == "to":
+                            suggester = SuggestFromList(names, case_sensitive=False)
+                        elif f.key == "circuit":
+                            suggester = SuggestFromList(["LN", "LL", "LLN", "MW", "3P", "3PN"], case_sensitive=False)
+                        elif f.key == "material":
+                            suggester = SuggestFromList(["cu", "al"], case_sensitive=False)
+                        yield Input(
+                            placeholder=f.placeholder, id=f"f-{f.key}", compact=True,
+                            suggester=suggester, classes="card-input",
+                        )
+                        yield Static("", id=f"h-{f.key}", classes="card-hint")
+            with Vertical(id="card-answer"):
+                yield Static("", id="answer")
+        yield Static("", id="card-msg")
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self._fill_start()
+
+    def _input(self, key: str) -> Input:
+        return self.query_one(f"#f-{key}", Input)
+
+    def _focus_field(self, key: str) -> None:
+        """Focus a field with its text selected, so typing replaces it."""
+        inp = self._input(key)
+        inp.focus()
+        inp.select_all()
+
+    def values(self) -> dict[str, str]:
+        return {k: self._input(k).value for k in FIELD_KEYS}
+
+    def _set_values(self, values: dict[str, str]) -> None:
+        self._filling = True
+        try:
+            for k in FIELD_KEYS:
+                self._input(k).value = values.get(k, "")
+        finally:
+            self._filling = False
+
+    def _fill_start(self) -> None:
+        s = self.session
+        if self.run_id is not None:
+            run = s.job.run(self.run_id)
+            if run is None:
+                self.dismiss()
+                return
+            self._set_values(run_to_fields(run))
+            focus = "length"
+        elif s.draft:
+            self._set_values(s.draft)
+            self.touched = {k for k, v in s.draft.items() if v}
+            focus = "from"
+            self._sticky = "Your unstored card is back. Enter stores it; Esc keeps it for later."
+        else:
+            self._set_values(self._fresh_values(None))
+            focus = "to" if s.job.source(self._input("from").value) is not None else "from"
+        self._update_title()
+        self.recheck()
+        if focus == "to":
+            self._sticky = f"From {self._input('from').value} (shift+tab to change it). Type where the run goes."
+        self._focus_field(focus)
+        self._message_for_focus()
+
+    def _fresh_values(self, source_id: str | None) -> dict[str, str]:
+        s = self.session
+        prev = s.previous_like(source_id)
+        values = {k: "" for k in FIELD_KEYS}
+        values["from"] = source_id or (prev.from_ if prev else (s.source_ids()[:1] or [""])[0])
+        same = s.previous_like(values["from"])
+        if same is not None and same.from_ == values["from"]:
+            copied = run_to_fields(same)
+            for k in COPIED_FROM_PREVIOUS:
+                values[k] = copied[k]
+        values["continuous"] = values["continuous"] or "no"
+        values["spread"] = "no"
+        values["sets"] = "1"
+        values["id"] = s.job.next_run_id("R")
+        return values
+
+    def _update_title(self) -> None:
+        if self.run_id is not None:
+            self.app.sub_title = f"Run card: editing {self.run_id}"
+        else:
+            n = len(self.stored)
+            extra = f" ({n} stored this time)" if n else ""
+            self.app.sub_title = f"Run card: new run{extra}"
+
+    # ----- live checking ----------------------------------------------------------------
+    @on(Input.Changed, ".card-input")
+    def _changed(self, event: Input.Changed) -> None:
+        if self._filling:
+            return
+        key = (event.input.id or "")[2:]
+        self.touched.add(key)
+        self._sticky = None
+        if key == "from" and self.run_id is None:
+            self._copy_circuit_from(event.value.strip())
+        self.recheck()
+
+    def _copy_circuit_from(self, source_id: str) -> None:
+        s = self.session
+        if s.job.source(source_id) is None:
+            return
+        same = s.previous_like(source_id)
+        if same is None or same.from_ != source_id:
+            return
+        copied = run_to_fields(same)
+        self._filling = True
+        try:
+            for k in COPIED_FROM_PREVIOUS:
+                if k not in self.touched:
+                    self._input(k).value = copied[k]
+        finally:
+            self._filling = False
+
+    def recheck(self) -> None:
+        """Check every field, build the run if possible and size it."""
+        v = self.values()
+        errors: dict[str, str] = {}
+        hints: dict[str, str] = {}
+        s = self.session
+        job = s.job
+
+        src = v["from"].strip()
+        if not src:
+            errors["from"] = "give the source the run starts at"
+        elif job.source(src) is None:
+            known = ", ".join(s.source_ids()[:8]) or "none yet"
+            errors["from"] = f"no source '{src}' in this walk (sources: {known})"
+        else:
+            source = job.source(src)
+            hints["from"] = f"{source.kind}, {source.system}"
+
+        to = v["to"].strip()
+        new_panel_system = v["panel"].strip()
+        dest = job.source(to) if to else None
+        if not to:
+            errors["to"] = "name the load or the panel the run goes to"
+        elif dest is not None:
+            hints["to"] = f"feeds {dest.kind} {dest.id}"
+        else:
+            hints["to"] = "a load" if not new_panel_system else "new panel"
+
+        feet = None
+        try:
+            feet = parse_length(v["length"])
+            hints["length"] = f"= {fmt_ft(feet)} ft"
+        except LengthError as exc:
+            errors["length"] = str(exc) if v["length"].strip() else "type the length along the route"
+
+        load = None
+        if v["load"].strip():
+            try:
+                value, unit, pf = parse_load_text(v["load"])
+                load = Load(value=value, unit=unit, pf=pf)
+            except LoadError as exc:
+                errors["load"] = str(exc)
+            except Exception as exc:  # pydantic range check
+                errors["load"] = _first_error(exc)
+        elif dest is None and not new_panel_system:
+            errors["load"] = "a branch run needs its load (16A, 1.8kVA, 5kW)"
+        else:
+            hints["load"] = "what the panel serves"
+
+        self._new_source = None
+        if new_panel_system:
+            from model.systems import CircuitError, parse_system
+
+            if dest is not None:
+                errors["panel"] = f"'{to}' is already a {dest.kind}; leave this blank"
+            else:
+                try:
+                    system = parse_system(new_panel_system)
+                    hints["panel"] = system
+                    try:
+                        self._new_source = Source(id=to, kind="panel", system=system)
+                    except Exception as exc:
+                        errors["to"] = _first_error(exc)
+                except CircuitError as exc:
+                    errors["panel"] = str(exc)
+
+        circuit = v["circuit"].strip().upper()
+        if circuit and circuit not in ("LN", "LL", "LLN", "MW", "3P", "3PN"):
+            errors["circuit"] = "one of LN, LL, LLN, MW, 3P, 3PN (blank: all the source offers)"
+        cont = _yes_no(v["continuous"])
+        if cont is None:
+            errors["continuous"] = "yes or no"
+        spread = _yes_no(v["spread"])
+        if spread is None:
+            errors["spread"] = "yes or no"
+        sets = 1
+        if v["sets"].strip():
+            try:
+                sets = int(v["sets"])
+                if not 1 <= sets <= 20:
+                    raise ValueError
+            except ValueError:
+                errors["sets"] = "a whole number from 1 to 20"
+        size = None
+        if v["size"].strip():
+            from tables.sizes import parse_size
+
+            try:
+                size = parse_size(v["size"])
+                hints["size"] = f"fixed {size}"
+            except Exception as exc:
+                errors["size"] = str(exc)
+        material = v["material"].strip().lower() or None
+        if material not in (None, "cu", "al"):
+            errors["material"] = "cu or al (blank: the job default)"
+        if material is None:
+            hints["material"] = f"job: {job.defaults.material}"
+        raceway = v["raceway"].strip() or None
+        if raceway is None:
+            hints["raceway"] = f"job: {job.defaults.raceway}"
+        run_id = v["id"].strip()
+        if not run_id:
+            errors["id"] = "every run needs an id"
+        elif run_id != self.run_id and job.run(run_id) is not None:
+            errors["id"] = f"'{run_id}' is taken; next free is {job.next_run_id('R')}"
+
+        candidate = None
+        if not errors:
+            try:
+                candidate = Run.model_validate({
+                    "id": run_id, "from": src, "to": to, "length": v["length"].strip(),
+                    "load": load, "continuous": bool(cont), "distributed": bool(spread),
+                    "connection": circuit or None, "sets": sets, "size": size,
+                    "material": material, "raceway": raceway, "notes": v["notes"].strip(),
+                })
+            except Exception as exc:
+                errors.update(_pydantic_fields(exc))
+        result = None
+        self._cannot = None
+        if candidate is not None:
+            preview = s.preview(candidate, replaces=self.run_id, new_source=self._new_source)
+            result = preview.result
+            self._cannot = preview.cannot_size
+            for field_key, message in preview.problems:
+                key = _CARD_FIELD.get(field_key or "", "to" if field_key is None else "from")
+                errors.setdefault(key, message)
+        self.errors = errors
+        self._candidate = candidate if not errors else None
+        # an empty field nobody has reached yet is "needed", not wrong
+        self.soft = {
+            k for k in errors
+            if not v[k].strip() and k not in self.touched and not self._store_tried
+        }
+        for k in FIELD_KEYS:
+            inp = self._input(k)
+            hint = self.query_one(f"#h-{k}", Static)
+            if k in self.soft:
+                inp.remove_class("-invalid")
+                hint.update("needed")
+                hint.remove_class("bad")
+            elif k in errors:
+                inp.add_class("-invalid")
+                hint.update("✗ " + escape(errors[k]))
+                hint.add_class("bad")
+            else:
+                inp.remove_class("-invalid")
+                hint.update(escape(hints.get(k, "")))
+                hint.remove_class("bad")
+        self._show_answer(candidate, result, feet)
+        self._message_for_focus()
+
+    def _show_answer(self, run: Run | None, res, feet: float | None) -> None:
+        lines = ["[b]Answer[/b] (live)"]
+        if run is None or res is None:
+            lines.append("")
+            if run is not None and self._cannot:
+                lines.append("[b]Cannot size it yet:[/b]")
+                lines.append(escape(self._cannot))
+                lines.append("")
+                lines.append("It can still be stored.")
+            else:
+                lines.append("Fill from, to, length and load;")
+                lines.append("the size appears here.")
+            if self.errors:
+                lines.append("")
+                lines.append(f"[b]✗ {len(self.errors)} field(s) to fix[/b]")
+        else:
+            st = self.session.status(run, res)
+            own, total = self.session.targets(run)
+            race = f"{res.raceway_size} {res.raceway}" if res.raceway_size else f"no {res.raceway} fits"
+            lines += [
+                f"Size     [b]{escape(size_text(res))}[/b]",
+                f"Load     {res.amps:.1f} A (design {res.design_amps:.1f})",
+                f"Drop     [b]{res.voltage_drop_pct:.2f}%[/b] run (≤{own:g})",
+                f"Total    [b]{res.total_drop_pct:.2f}%[/b] from service (≤{total:g})",
+                f"Governs  {escape(res.governed_by)}",
+                f"EGC      {escape(res.egc_size or 'none')}",
+                f"Raceway  {escape(race)}",
+                f"OCPD     {res.ocpd_a} A",
+                "",
+                ("[b]✓ meets its targets[/b]" if not st.flag else f"[b]{escape(st.words)}[/b]"),
+            ]
+            for p in st.problems[:3]:
+                lines.append("• " + escape(p))
+        lines.append("")
+        lines.append("[dim]Estimates for planning; see F2.[/dim]")
+        self.query_one("#answer", Static).update("\n".join(lines))
+
+    def _message_for_focus(self) -> None:
+        if self._sticky:
+            self._say(self._sticky, bad=self._sticky.startswith("Not stored"))
+            return
+        focused = self.focused
+        key = (focused.id or "")[2:] if isinstance(focused, Input) else ""
+        hard = [k for k in self.errors if k not in self.soft]
+        if key in self.errors and key not in self.soft:
+            self._say(f"{_label(key)}: {self.errors[key]}", bad=True)
+        elif hard:
+            k = hard[0]
+            self._say(f"{len(hard)} to fix — {_label(k)}: {self.errors[k]}", bad=True)
+        elif self.errors:
+            needed = ", ".join(_label(k) for k in self.errors)
+            self._say(f"Still needed: {needed}. Tab moves on; Enter stores when all is there.")
+        else:
+            self._say("Enter stores this run and starts the next.")
+
+    def _say(self, text: str, bad: bool = False) -> None:
+        msg = self.query_one("#card-msg", Static)
+        msg.update(("✗ " if bad else "") + escape(text))
+        msg.set_class(bad, "bad")
+
+    def on_descendant_focus(self) -> None:
+        if self.is_mounted:
+            self._message_for_focus()
+
+    # ----- keys -------------------------------------------------------------------------
+    def action_next_field(self) -> None:
+        focused = self.focused
+        if isinstance(focused, Input) and focused._suggestion and focused.cursor_at_end:
+            if focused._suggestion != focused.value:
+                focused.value = focused._suggestion
+                focused.cursor_position = len(focused.value)
+        self.focus_next()
+
+    def action_prev_field(self) -> None:
+        self.focus_previous()
+
+    def action_toggle_more(self) -> None:
+        focused = self.focused
+        key = (focused.id or "")[2:] if isinstance(focused, Input) else ""
+        main = [f.key for f in FIELDS if f.main]
+        target = "circuit" if key in main else "from"
+        self._focus_field(target)
+
+    @on(Input.Submitted, ".card-input")
+    def _submitted(self, event: Input.Submitted) -> None:
+        event.stop()
+        self.action_store()
+
+    def action_store(self) -> None:
+        self._store_tried = True
+        self._sticky = None
+        self.recheck()
+        self._store_tried = False
+        if self.errors or self._candidate is None:
+            first = next(iter(self.errors), None)
+            if first:
+                self._sticky = f"Not stored — {_label(first)}: {self.errors[first]}"
+                self._focus_field(first)
+                self._message_for_focus()
+            return
+        run = self._candidate
+        self.session.put_run(run, replaces=self.run_id, new_source=self._new_source)
+        self.session.draft = None
+        state = self.session.state
+        self.app.refresh_title()
+        if not state.saved:
+            self.notify(f"Stored {run.id} but NOT SAVED: {state.message}", severity="error", timeout=10)
+        elif state.notice:
+            self.notify(str(state.notice), timeout=10)
+        if self.run_id is not None:
+            self.notify(f"Stored {run.id}.")
+            self.dismiss()
+            return
+        self.stored.append(run.id)
+        self.touched = set()
+        self._set_values(self._fresh_values(run.from_))
+        self._update_title()
+        self._sticky = (
+            f"Stored {run.id} ({run.from_} → {run.to}). Next run from {run.from_}; "
+            "shift+tab changes the source."
+        )
+        self.recheck()
+        self._focus_field("to")
+
+    def action_close_card(self) -> None:
+        if self.run_id is None:
+            v = self.values()
+            fresh = self._fresh_values(v["from"].strip() or None)
+            typed = any(v[k].strip() for k in ("to", "length", "load", "notes", "panel"))
+            self.session.draft = v if typed else None
+            if typed:
+                self.notify("The unstored run is kept: n brings it back.")
+            del fresh
+        self.app.refresh_title()
+        self.dismiss()
+
+
+_CARD_FIELD = {
+    "from": "from", "to": "to", "length": "length", "load": "load", "load.value": "load",
+    "load.unit": "load", "load.pf": "load", "connection": "circuit", "sets": "sets",
+    "size": "size", "material": "material", "raceway": "raceway", "id": "id",
+    "continuous": "continuous", "distributed": "spread", "notes": "notes",
+}
+
+
+def _label(key: str) -> str:
+    for f in FIELDS:
+        if f.key == key:
+            return f.label
+    return key
+
+
+def _first_error(exc: Exception) -> str:
+    errors = getattr(exc, "errors", None)
+    if callable(errors):
+        try:
+            first = errors()[0]
+            return str(first.get("msg", exc)).removeprefix("Value error, ")
+        except Exception:
+            pass
+    return str(exc)
+
+
+def _pydantic_fields(exc: Exception) -> dict[str, str]:
+    out: dict[str, str] = {}
+    errors = getattr(exc, "errors", None)
+    if not callable(errors):
+        return {"to": str(exc)}
+    for e in errors():
+        loc = ".".join(str(x) for x in e.get("loc", ()))
+        key = _CARD_FIELD.get(loc.replace("from_", "from"), _CARD_FIELD.get(loc.split(".")[0], "notes"))
+        out.setdefault(key, str(e.get("msg", "")).removeprefix("Value error, "))
+    return out or {"to": str(exc)}

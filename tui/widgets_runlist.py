@@ -1,0 +1,305 @@
+"""The run sheet: a virtualised list of runs that stays fast with thousands of rows.
+
+Only the lines on screen are drawn (Textual's line API), so opening, scrolling, sorting and
+filtering cost the same whether the walk has 40 runs or 50,000. Rows are plain tuples of
+already formatted cells; the sheet keeps a view order (filtered and sorted indices) over them.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Callable, Sequence
+
+from rich.segment import Segment
+from rich.style import Style
+from textual import events
+from textual.binding import Binding
+from textual.geometry import Size
+from textual.message import Message
+from textual.scroll_view import ScrollView
+from textual.strip import Strip
+from textual.widget import Widget
+
+
+@dataclass(frozen=True)
+class SheetColumn:
+    """One column: key, heading, width [cells], right-aligned or not."""
+
+    key: str
+    title: str
+    width: int
+    right: bool = False
+
+
+@dataclass
+class SheetRow:
+    """One row of the sheet.
+
+    ``cells`` are formatted strings in column order; ``flag`` marks a row that fails a limit
+    (drawn in the warning style, but the words are in the cells too); ``sort`` holds the raw
+    values used for sorting by column key; ``search`` is the lower-case text the filter matches.
+    """
+
+    key: str
+    cells: tuple[str, ...]
+    flag: bool = False
+    sort: dict[str, object] = field(default_factory=dict)
+    search: str = ""
+    group: str = ""
+
+
+def _fit(text: str, width: int, right: bool) -> str:
+    if len(text) > width:
+        return text[: max(width - 1, 0)] + "…" if width > 0 else ""
+    return text.rjust(width) if right else text.ljust(width)
+
+
+def format_line(columns: Sequence[SheetColumn], cells: Sequence[str]) -> str:
+    """Cells fitted to their columns, separated by one space."""
+    return " ".join(_fit(c, col.width, col.right) for col, c in zip(columns, cells))
+
+
+class SheetHeading(Widget):
+    """The column headings above the sheet, with the sort column marked."""
+
+    DEFAULT_CSS = """
+    SheetHeading { height: 1; text-style: bold; }
+    """
+
+    def __init__(self, sheet: "RunSheet", **kwargs) -> None:
+        super().__init__(**kwargs)
+        self._sheet = sheet
+
+    def render(self) -> str:
+        sheet = self._sheet
+        titles = []
+        for col in sheet.columns:
+            mark = ""
+            if col.key == sheet.sort_key:
+                mark = "▼" if sheet.sort_reverse else "▲"
+            titles.append(col.title + mark)
+        return "  " + format_line(sheet.columns, titles)
+
+
+class RunSheet(ScrollView, can_focus=True):
+    """A scrolling, filterable, sortable list of runs drawn line by line."""
+
+    BINDINGS = [
+        Binding("up", "cursor(-1)", "Up", show=False),
+        Binding("down", "cursor(1)", "Down", show=False),
+        Binding("pageup", "page(-1)", "Page up", show=False),
+        Binding("pagedown", "page(1)", "Page down", show=False),
+        Binding("home", "edge(0)", "First", show=False),
+        Binding("end", "edge(1)", "Last", show=False),
+    ]
+
+    COMPONENT_CLASSES = {"runsheet--cursor", "runsheet--flag", "runsheet--group"}
+
+    DEFAULT_CSS = """
+    RunSheet { height: 1fr; }
+    RunSheet > .runsheet--cursor { text-style: reverse bold; }
+    RunSheet > .runsheet--flag { color: $warning; text-style: bold; }
+    RunSheet > .runsheet--group { text-style: bold underline; }
+    """
+
+    class Highlighted(Message):
+        """The cursor moved to the run ``key`` (None when the view is empty)."""
+
+        def __init__(self, sheet: "RunSheet", key: str | None) -> None:
+            super().__init__()
+            self.sheet = sheet
+            self.key = key
+
+    class Chosen(Message):
+        """Enter was pressed on the run ``key``."""
+
+        def __init__(self, sheet: "RunSheet", key: str) -> None:
+            super().__init__()
+            self.sheet = sheet
+            self.key = key
+
+    def __init__(self, columns: Sequence[SheetColumn], **kwargs) -> None:
+        super().__init__(**kwargs)
+        self.columns: list[SheetColumn] = list(columns)
+        self.rows: list[SheetRow] = []
+        self.view: list[int] = []
+        self.cursor: int = 0
+        self.sort_key: str | None = None
+        self.sort_reverse: bool = False
+        self.filter_text: str = ""
+        self.filter_pred: Callable[[SheetRow], bool] | None = None
+        self._index: dict[str, int] = {}
+
+    # ----- data -------------------------------------------------------------------------
+    def set_rows(self, rows: list[SheetRow], keep_key: str | None = None) -> None:
+        """Replace every row; keep the cursor on ``keep_key`` (or the current run) if present."""
+        if keep_key is None:
+            keep_key = self.cursor_key
+        self.rows = rows
+        self._index = {r.key: i for i, r in enumerate(rows)}
+        self._rebuild_view(keep_key)
+
+    def update_row(self, row: SheetRow) -> None:
+        """Replace one row in place (same key); cheap, no re-sort."""
+        i = self._index.get(row.key)
+        if i is None:
+            self.rows.append(row)
+            self._index[row.key] = len(self.rows) - 1
+            self._rebuild_view(self.cursor_key)
+            return
+        self.rows[i] = row
+        self.refresh()
+
+    def set_filter(self, text: str = "", pred: Callable[[SheetRow], bool] | None = None) -> None:
+        self.filter_text = text.lower().strip()
+        self.filter_pred = pred
+        self._rebuild_view(self.cursor_key)
+
+    def sort_by(self, key: str | None, reverse: bool = False) -> None:
+        self.sort_key = key
+        self.sort_reverse = reverse
+        self._rebuild_view(self.cursor_key)
+
+    def _rebuild_view(self, keep_key: str | None) -> None:
+        rows = self.rows
+        idx = range(len(rows))
+        text = self.filter_text
+        pred = self.filter_pred
+        if text or pred:
+            words = text.split()
+            idx = [
+                i for i in idx
+                if (not words or all(w in rows[i].search for w in words))
+                and (pred is None or pred(rows[i]))
+            ]
+        view = list(idx)
+        if self.sort_key:
+            key = self.sort_key
+
+            def sort_value(i: int) -> tuple:
+                v = rows[i].sort.get(key)
+                if v is None:
+                    return (1, 0, "")
+                if isinstance(v, (int, float)):
+                    return (0, v, "")
+                return (0, 0, str(v))
+
+            view.sort(key=sort_value, reverse=self.sort_reverse)
+        self.view = view
+        self.virtual_size = Size(self._line_width(), len(view))
+        new_cursor = 0
+        if keep_key is not None and keep_key in self._index:
+            pos = self._index[keep_key]
+            try:
+                new_cursor = view.index(pos)
+            except ValueError:
+                new_cursor = min(self.cursor, max(len(view) - 1, 0))
+        self.cursor = min(new_cursor, max(len(view) - 1, 0))
+        self.refresh()
+        self._scroll_cursor_into_view()
+        self.post_message(self.Highlighted(self, self.cursor_key))
+        heading = self._heading()
+        if heading is not None:
+            heading.refresh()
+
+    def _heading(self) -> SheetHeading | None:
+        parent = self.parent
+        if parent is None:
+            return None
+        for child in parent.children:
+            if isinstance(child, SheetHeading):
+                return child
+        return None
+
+    def _line_width(self) -> int:
+        return 2 + sum(c.width + 1 for c in self.columns)
+
+    @property
+    def cursor_key(self) -> str | None:
+        if 0 <= self.cursor < len(self.view):
+            return self.rows[self.view[self.cursor]].key
+        return None
+
+    def visible_keys(self) -> list[str]:
+        return [self.rows[i].key for i in self.view]
+
+    def move_to(self, key: str) -> bool:
+        i = self._index.get(key)
+        if i is None:
+            return False
+        try:
+            pos = self.view.index(i)
+        except ValueError:
+            return False
+        self._set_cursor(pos)
+        return True
+
+    # ----- drawing ----------------------------------------------------------------------
+    def render_line(self, y: int) -> Strip:
+        scroll_x, scroll_y = self.scroll_offset
+        pos = scroll_y + y
+        width = self.size.width
+        if pos >= len(self.view):
+            return Strip.blank(width, self.rich_style)
+        row = self.rows[self.view[pos]]
+        marker = "▶ " if pos == self.cursor else "  "
+        text = marker + format_line(self.columns, row.cells)
+        base = self.rich_style
+        if pos == self.cursor:
+            style = base + self.get_component_rich_style("runsheet--cursor")
+        elif row.flag:
+            style = base + self.get_component_rich_style("runsheet--flag")
+        else:
+            style = base
+        strip = Strip([Segment(text, style)]).crop(scroll_x, scroll_x + width)
+        return strip.extend_cell_length(width, base)
+
+    # ----- cursor -----------------------------------------------------------------------
+    def _set_cursor(self, pos: int) -> None:
+        if not self.view:
+            return
+        pos = max(0, min(pos, len(self.view) - 1))
+        if pos == self.cursor:
+            return
+        old = self.cursor
+        self.cursor = pos
+        self.refresh_line(old)
+        self.refresh_line(pos)
+        self._scroll_cursor_into_view()
+        self.post_message(self.Highlighted(self, self.cursor_key))
+
+    def _scroll_cursor_into_view(self) -> None:
+        height = self.scrollable_content_region.height or self.size.height
+        if height <= 0:
+            return
+        top = round(self.scroll_y)
+        if self.cursor < top:
+            self.scroll_to(y=self.cursor, animate=False, immediate=True)
+        elif self.cursor >= top + height:
+            self.scroll_to(y=self.cursor - height + 1, animate=False, immediate=True)
+
+    def action_cursor(self, delta: int) -> None:
+        self._set_cursor(self.cursor + delta)
+
+    def action_page(self, direction: int) -> None:
+        height = max(self.scrollable_content_region.height - 1, 1)
+        self._set_cursor(self.cursor + direction * height)
+
+    def action_edge(self, end: int) -> None:
+        self._set_cursor(len(self.view) - 1 if end else 0)
+
+    def on_resize(self, event: events.Resize) -> None:
+        self._scroll_cursor_into_view()
+
+    async def _on_click(self, event: events.Click) -> None:
+        pos = round(self.scroll_y) + event.y
+        if 0 <= pos < len(self.view):
+            if pos == self.cursor and event.chain >= 2:
+                self.post_message(self.Chosen(self, self.rows[self.view[pos]].key))
+            self._set_cursor(pos)
+
+    def key_enter(self, event: events.Key) -> None:
+        key = self.cursor_key
+        if key is not None:
+            event.stop()
+            self.post_message(self.Chosen(self, key))

@@ -1,0 +1,172 @@
+"""The supply tree and the footage tally: the two other ways to look at a walk.
+
+The tree goes from each service through feeders, transformers and panels to the branch runs, with
+the cumulative drop at every node; a panel's runs are added only when it is opened, so a walk of
+thousands of runs opens at once. The footage tally adds up conductor feet by material and size and
+draws a bar for each in text blocks (readable without colour).
+"""
+
+from __future__ import annotations
+
+from collections import defaultdict
+
+from rich.text import Text
+from textual.widgets import Tree
+
+from model.job import Run, Source
+from tui.app_rows import size_text
+from tui.app_session import WalkSession, fmt_ft, fmt_pct
+
+_EIGHTHS = " ▏▎▍▌▋▊▉"
+
+
+def text_bar(value: float, top: float, width: int) -> str:
+    """A bar of ``width`` cells at most, in eighth-cell steps."""
+    if top <= 0 or value <= 0:
+        return ""
+    cells = value / top * width
+    full = int(cells)
+    rest = int(round((cells - full) * 8))
+    if rest == 8:
+        full, rest = full + 1, 0
+    return "█" * full + (_EIGHTHS[rest] if rest else "")
+
+
+# ----- supply tree ---------------------------------------------------------------------------
+class SupplyTree(Tree):
+    """Sources and runs, nested by what feeds what."""
+
+    def __init__(self, **kwargs) -> None:
+        super().__init__("walk", **kwargs)
+        self.show_root = False
+        self.guide_depth = 3
+        self.session: WalkSession | None = None
+
+    def build(self, session: WalkSession) -> None:
+        self.session = session
+        self.clear()
+        job = session.job
+        fed: set[str] = {r.to for r in job.runs if job.source(r.to) is not None}
+        tops = [s for s in job.sources if s.id not in fed]
+        for src in tops:
+            node = self.root.add(self._source_label(src, None), data=("source", src.id), expand=False)
+            self._fill(node, src.id, depth=0)
+        if not tops:
+            self.root.add_leaf("No sources yet: the service is declared in the job settings or the walk file.")
+
+    def _fill(self, node, source_id: str, depth: int) -> None:
+        session = self.session
+        assert session is not None
+        job = session.job
+        runs = job.runs_from(source_id)
+        feeders = [r for r in runs if job.source(r.to) is not None]
+        branches = [r for r in runs if job.source(r.to) is None]
+        for r in feeders:
+            dest = job.source(r.to)
+            child = node.add(self._source_label(dest, r), data=("run", r.id), expand=False)
+            if depth < 8:
+                self._fill(child, dest.id, depth + 1)
+        if branches:
+            for r in branches:
+                node.add_leaf(self._branch_label(r), data=("run", r.id))
+        node.data = node.data
+        if depth < 2:
+            node.expand()
+
+    def _source_label(self, src: Source, feeder: Run | None) -> Text:
+        session = self.session
+        assert session is not None
+        at = session.source_drop(src.id)
+        kind = src.kind
+        t = Text()
+        t.append(f"{src.id}", style="bold")
+        t.append(f" {kind} · {src.system}")
+        if feeder is not None:
+            res = session.result_for(feeder.id)
+            st = session.status(feeder, res)
+            t.append(f" · via {feeder.id} {fmt_ft(feeder.length_ft)} ft {size_text(res)}")
+            if res is not None:
+                t.append(f" · run {fmt_pct(res.voltage_drop_pct)}%")
+            if st.flag:
+                t.append(f" · {st.words}", style="bold")
+        t.append(f" · at bus {fmt_pct(at)}%", style="bold")
+        return t
+
+    def _branch_label(self, r: Run) -> Text:
+        session = self.session
+        assert session is not None
+        res = session.result_for(r.id)
+        st = session.status(r, res)
+        t = Text()
+        t.append(f"{r.id}", style="bold")
+        t.append(f" → {r.to} · {fmt_ft(r.length_ft)} ft {size_text(res)}")
+        if res is not None:
+            t.append(f" · total {fmt_pct(res.total_drop_pct)}%", style="bold")
+        t.append(f" · {st.words}", style="bold" if st.flag else "")
+        return t
+
+
+# ----- footage ---------------------------------------------------------------------------------
+def footage_by_size(session: WalkSession) -> list[tuple[str, str, float]]:
+    """(material, size, conductor feet) for the whole walk: route length x conductors x sets,
+    phase and neutral at their sizes, the EGC at its own size. No slack or waste (the takeoff
+    adds those)."""
+    totals: dict[tuple[str, str], float] = defaultdict(float)
+    for run in session.job.runs:
+        res = session.result_for(run.id)
+        if res is None:
+            continue
+        mat = "Al" if res.material == "al" else "Cu"
+        per_set = res.conductors or {}
+        feet = run.length_ft * res.sets
+        hots = per_set.get("hot", 0)
+        neutral = per_set.get("neutral", 0)
+        egc = per_set.get("egc", 0)
+        if hots:
+            totals[(mat, res.size)] += feet * hots
+        if neutral:
+            totals[(mat, res.neutral_size or res.size)] += feet * neutral
+        if egc and res.egc_size:
+            egc_mat = mat
+            totals[(egc_mat, res.egc_size)] += feet * egc
+    from tables.sizes import size_index
+
+    def rank(item):
+        (mat, size), _ = item
+        try:
+            return (mat, size_index(size))
+        except Exception:
+            return (mat, 10_000)
+
+    return [(m, s, ft) for (m, s), ft in sorted(totals.items(), key=rank)]
+
+
+def footage_text(session: WalkSession, width: int = 78) -> str:
+    rows = footage_by_size(session)
+    lines = ["[b]Conductor feet by material and size[/b]  (route length × conductors × sets; "
+             "no slack or waste)", ""]
+    if not rows:
+        lines.append("No sized runs yet.")
+        return "\n".join(lines)
+    top = max(ft for _, _, ft in rows)
+    bar_w = max(width - 30, 10)
+    total = 0.0
+    for mat, size, ft in rows:
+        total += ft
+        lines.append(f"{mat} {size:<10} {ft:>9,.0f} ft  {text_bar(ft, top, bar_w)}")
+    lines.append(f"{'':14}{'─' * 9}")
+    lines.append(f"{'all':<13} {total:>9,.0f} ft")
+    route = sum(r.length_ft for r in session.job.runs)
+    lines.append("")
+    lines.append(f"Route length of {len(session.job.runs)} runs: {route:,.0f} ft")
+    lines.extend(_takeoff_lines(session))
+    return "\n".join(lines)
+
+
+def _takeoff_lines(session: WalkSession) -> list[str]:
+    """The takeoff, once ``model.takeoff`` is there; nothing otherwise."""
+    try:
+        from model import takeoff  # noqa: F401
+    except ImportError:
+        return ["", "(The material takeoff with slack, waste and put-ups: gaugewalk takeoff FILE.)"]
+    return []
