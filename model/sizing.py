@@ -149,7 +149,10 @@ def resolve_raceway(text: str) -> tuple[str, str, str | None]:
     if key in FAMILY_REPRESENTATIVE:
         rtype = t_race.parse_raceway(FAMILY_REPRESENTATIVE[key])
         return rtype, key, f"raceway family '{key}': conduit fill figured for {rtype}"
-    rtype = t_race.parse_raceway(text)
+    try:
+        rtype = t_race.parse_raceway(text)
+    except TableLookupError as exc:
+        raise TableLookupError(f"{exc}; families are {', '.join(FAMILY_REPRESENTATIVE)}") from None
     return rtype, t_race.raceway_family(rtype), None
 
 
