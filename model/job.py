@@ -53,6 +53,9 @@ _ID_HELP = (
     "starting with a letter or digit"
 )
 
+_TEXT_OR_NUMBER = {"type": ["string", "number"]}
+"""A length may be written as a bare number of feet in the file (``length = 85``)."""
+
 Material = Literal["cu", "al"]
 Method = Literal["dc", "kfactor", "ac"]
 TerminalTemp = Literal[60, 75, 90]
@@ -65,7 +68,10 @@ def _check_id(value: str) -> str:
 
 
 class _Strict(BaseModel):
-    model_config = ConfigDict(extra="forbid", populate_by_name=True, validate_assignment=True)
+    model_config = ConfigDict(
+        extra="forbid", populate_by_name=True, validate_assignment=True,
+        use_attribute_docstrings=True,
+    )
 
 
 def _canonical(parse, value):
@@ -156,7 +162,7 @@ class Load(_Strict):
 class Segment(_Strict):
     """One stretch of a run's route, with a note on where it goes."""
 
-    length: str = Field(min_length=1, max_length=200)
+    length: str = Field(min_length=1, max_length=200, json_schema_extra=_TEXT_OR_NUMBER)
     """Length as typed (same grammar as the run's length)."""
     note: str = ""
     """Where this stretch goes."""
@@ -231,7 +237,7 @@ class Run(_Strict):
     """Id of the source the run starts at."""
     to: str = Field(min_length=1, max_length=120)
     """A source id of this job (the run is then its feeder) or the load's name."""
-    length: str = Field(min_length=1, max_length=200)
+    length: str = Field(min_length=1, max_length=200, json_schema_extra=_TEXT_OR_NUMBER)
     """One-way route length as typed: ``85+12+2*6``, ``36m+8ft`` [ft unless a unit is given]."""
     segments: list[Segment] = Field(default_factory=list)
     """Optional stretches of the route with notes; they must add up to ``length``."""
@@ -251,12 +257,19 @@ class Run(_Strict):
     ocpd_a: int | None = Field(None, gt=0, le=6000)
     """Breaker or fuse rating fixed by the user [A]; None: next standard rating (NEC 240.6(A))."""
     material: Material | None = None
+    """Conductor material; None: the job default."""
     insulation: str | None = None
+    """Insulation type; None: the job default."""
     raceway: str | None = None
+    """Raceway type; None: the job default."""
     terminal_temp: TerminalTemp | None = None
+    """Terminal rating [C]; None: the job default."""
     ambient_c: float | None = Field(None, ge=-40.0, le=90.0)
+    """Ambient temperature [C]; None: the job default."""
     conductor_temp_c: float | None = Field(None, ge=20.0, le=150.0)
+    """Conductor temperature for resistance [C]; None: the job default."""
     method: Method | None = None
+    """Drop method; None: the job default."""
     max_drop_pct: float | None = Field(None, gt=0.0, le=20.0)
     """Drop target for this run [%]; None: the job's branch or feeder target."""
     bends: int | None = Field(None, ge=0, le=100)

@@ -311,8 +311,7 @@ def check_references(
             circuit = resolve_circuit(source.system, connection)
         except CircuitError as exc:
             at_run(r, "connection" if r.connection else "from",
-                   f"source {source.id} ({source.system}) cannot supply a {connection} "
-                   f"connection: {exc}")
+                   f"{connection} from source {source.id}: {exc}")
             continue
         if target is None:
             if r.to in skip_sources:

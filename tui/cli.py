@@ -15,6 +15,12 @@ import sys
 # Subcommand modules, in the order ``gaugewalk --help`` lists them.
 COMMAND_MODULES: tuple[str, ...] = (
     "tui.cmd_calc",
+    "tui.cmd_new",
+    "tui.cmd_source",
+    "tui.cmd_add",
+    "tui.cmd_check",
+    "tui.cmd_merge",
+    "tui.cmd_schema",
     "tui.cmd_takeoff",
     "tui.cmd_report",
 )

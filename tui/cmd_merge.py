@@ -1,0 +1,55 @@
+"""``gaugewalk merge A B -o OUT [--prefer a|b]``: merge two walks of one job.
+
+Runs and sources are matched by id. The same id with different content is a conflict: they are
+all listed and nothing is written unless ``--prefer`` picks a side. Every run and source of both
+files ends up in OUT (the side taken for each conflict is listed). An existing OUT is kept as
+``OUT~``.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from model.merge import merge_jobs
+from model.walkfile import check_walk_text, dumps_walk, save_walk
+from tui.walk_cli import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems, read_job
+
+NAME = "merge"
+HELP = "Merge two walk files by run and source id; conflicts stop the merge unless --prefer."
+
+
+def add_arguments(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("a", metavar="A", help="first walk file")
+    parser.add_argument("b", metavar="B", help="second walk file")
+    parser.add_argument("-o", "--output", metavar="OUT", required=True, help="merged walk file")
+    parser.add_argument("--prefer", choices=("a", "b"),
+                        help="on a conflict take this side (conflicts are still listed)")
+
+
+def run(args: argparse.Namespace) -> int:
+    a = read_job(args.a)
+    b = read_job(args.b)
+    if a is None or b is None:
+        return EXIT_INVALID
+    merged = merge_jobs(a, b, prefer=args.prefer)
+    for conflict in merged.conflicts:
+        print(f"conflict: {conflict}", file=sys.stderr)
+    if merged.job is None:
+        print(f"{len(merged.conflicts)} conflict(s); nothing written. Fix one side, or choose "
+              "with --prefer a or --prefer b", file=sys.stderr)
+        return EXIT_LIMITS
+    _, problems = check_walk_text(dumps_walk(merged.job), args.output)
+    if problems:
+        print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
+        print("the merged walk would not be valid; nothing written", file=sys.stderr)
+        return EXIT_INVALID
+    notice = save_walk(merged.job, Path(args.output))
+    if notice is not None:
+        print(f"warning: {notice.message}", file=sys.stderr)
+    t = merged.taken
+    print(f"wrote {args.output}: {len(t['both'])} in both, {len(t['a only'])} from A only, "
+          f"{len(t['b only'])} from B only, {len(merged.conflicts)} conflict(s)"
+          + (f" settled by --prefer {args.prefer}" if merged.conflicts else ""))
+    return EXIT_OK
