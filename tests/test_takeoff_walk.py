@@ -14,25 +14,15 @@ from model.compute import compute_job
 from model.takeoff import ROW_FIELDS, build_takeoff
 from model.walkfile import load_walk
 from tui import cmd_takeoff
-from tui.cli import CAUTION, UsageError, _Parser
+from tui.cli import CAUTION, main
 
 GOLDEN = Path(__file__).parent / "golden"
 WALK = GOLDEN / "takeoff_walk.toml"   # invented job: a bakery fit-out, 208Y/120 V
 
 
 def gaugewalk(module, argv: list[str]) -> int:
-    """Dispatch one subcommand the way ``tui.cli.main`` does: usage mistakes exit 2."""
-    parser = _Parser(prog="gaugewalk")
-    sub = parser.add_subparsers(dest="command", parser_class=_Parser)
-    one = sub.add_parser(module.NAME)
-    module.add_arguments(one)
-    try:
-        args = parser.parse_args([module.NAME, *argv])
-        return module.run(args)
-    except UsageError as exc:
-        import sys
-        print(str(exc), file=sys.stderr)
-        return 2
+    """Run ``gaugewalk MODULE.NAME ARGV...`` through the real dispatcher (``tui.cli.main``)."""
+    return main([module.NAME, *argv])
 
 
 def check_golden(name: str, text: str) -> None:
