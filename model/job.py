@@ -98,6 +98,22 @@ class JobHeader(_Strict):
     """Anything the crew should know about the job."""
 
 
+class PutUp(_Strict):
+    """A box or reel the supplier sells conductor sizes in, for the takeoff's order."""
+
+    label: str = Field(min_length=1, max_length=40)
+    """What the order calls it, e.g. ``500 ft box``."""
+    length_ft: int = Field(gt=0, le=100_000)
+    """Conductor on one box or reel [ft]."""
+    sizes: list[str] = Field(min_length=1)
+    """Sizes sold this way, e.g. ``["12 AWG", "10 AWG"]``."""
+
+    @field_validator("sizes")
+    @classmethod
+    def _known_sizes(cls, value: list[str]) -> list[str]:
+        return [_canonical(parse_size, v) for v in value]
+
+
 class Defaults(_Strict):
     """What every run inherits unless it says otherwise.
 
@@ -136,6 +152,9 @@ class Defaults(_Strict):
     """Conductor colours for the takeoff. ``common``: black/red/blue on 120/240 V and 208Y/120 V,
     brown/orange/yellow on 480Y/277 V and 480 V, white or grey neutrals, green EGC (common
     practice; only the neutral and EGC colours are code rules, NEC 200.6 and 250.119)."""
+    putups: list[PutUp] | None = None
+    """Boxes and reels the takeoff orders in; None: 500 ft boxes for 14-10 AWG and 1,000 and
+    2,500 ft reels (common practice, ``tables.putups``)."""
 
     @field_validator("insulation")
     @classmethod

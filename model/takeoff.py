@@ -422,6 +422,16 @@ def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = T
     )
 
 
+def _size_span(sizes: tuple[str, ...]) -> str:
+    """"14 AWG to 10 AWG" for a run of consecutive sizes, else the sizes listed."""
+    from tables.sizes import SIZES
+
+    idx = sorted(size_index(s) for s in sizes)
+    if len(idx) > 2 and idx == list(range(idx[0], idx[-1] + 1)):
+        return f"{SIZES[idx[0]]} to {SIZES[idx[-1]]}"
+    return ", ".join(SIZES[i] for i in idx)
+
+
 def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.InstallRule],
                  parallel: bool, any_egc: bool, wire_lines: list[WireLine]) -> tuple[str, ...]:
     out = [
@@ -432,7 +442,9 @@ def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.
         f"Waste allowance {settings.waste_pct:g} % added to each line, rounded up to whole feet "
         f"(the job's setting).",
         "Put-ups chosen to leave the least over, then the fewest pieces; pieces are cut from any "
-        f"put-up of the line. Put-up lengths: {PUTUP_SOURCE}.",
+        "put-up of the line. Put-up lengths: "
+        + (PUTUP_SOURCE if settings.putups == DEFAULT_PUTUPS else "as the job lists them")
+        + ": " + "; ".join(f"{p.label} ({_size_span(p.sizes)})" for p in settings.putups) + ".",
         "Phase colours are assigned in phase order A, B, C per circuit; balance them against the "
         "panel schedule.",
     ]
@@ -489,11 +501,13 @@ def settings_for(job) -> TakeoffSettings:
             f"defaults, colour_scheme: no colour scheme '{d.colour_scheme}'; schemes are "
             f"{', '.join(COLOUR_SCHEMES)}"
         )
-    putups = getattr(d, "putups", None)
+    listed = getattr(d, "putups", None)
+    putups = (tuple(PutUp(p.label, p.length_ft, tuple(p.sizes)) for p in listed)
+              if listed is not None else DEFAULT_PUTUPS)
     return TakeoffSettings(
         slack_per_end_ft=d.slack_per_end_ft,
         waste_pct=d.waste_pct,
-        putups=tuple(putups) if putups else DEFAULT_PUTUPS,
+        putups=putups,
     )
 
 

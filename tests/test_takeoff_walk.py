@@ -165,3 +165,34 @@ def test_an_unknown_colour_scheme_exits_2(tmp_path, capsys):
         "waste_pct = 10.0", 'waste_pct = 10.0\ncolour_scheme = "rainbow"'), encoding="utf-8")
     assert gaugewalk(cmd_takeoff, [str(odd)]) == 2
     assert "colour_scheme" in capsys.readouterr().err
+
+
+def test_put_ups_the_job_lists_are_the_ones_ordered(tmp_path):
+    from model.walkfile import dumps_walk, loads_walk
+
+    text = WALK.read_text(encoding="utf-8").replace("waste_pct = 10.0", (
+        "waste_pct = 10.0\n"
+        'putups = [{ label = "250 ft coil", length_ft = 250, sizes = ["12", "3"] },'
+        ' { label = "cut reel", length_ft = 400, sizes = ["3/0 AWG"] }]'))
+    job = loads_walk(text, "listed.toml")
+    assert loads_walk(dumps_walk(job)).defaults == job.defaults   # survives a save
+    takeoff = build_takeoff(job, compute_job(job))
+    order = {(w.size, w.colour): ([(p.label, p.count) for p in w.order], w.left_over_ft)
+             for w in takeoff.wire_lines}
+    # 12 AWG: 119 ft -> one 250 ft coil, 131 ft over; 3 AWG: 339 ft -> two coils, 161 ft over
+    assert order["12 AWG", "black"] == ([("250 ft coil", 1)], 131)
+    assert order["3 AWG", "green"] == ([("250 ft coil", 2)], 161)
+    # 3/0 AWG: 339 ft -> one 400 ft reel, 61 ft over
+    assert order["3/0 AWG", "red"] == ([("cut reel", 1)], 61)
+    assert any("as the job lists them" in a and "250 ft coil (12 AWG, 3 AWG)" in a
+               for a in takeoff.assumptions)
+
+
+def test_a_put_up_with_an_unknown_size_is_refused_with_its_field(tmp_path, capsys):
+    bad = tmp_path / "bad.toml"
+    bad.write_text(WALK.read_text(encoding="utf-8").replace("waste_pct = 10.0", (
+        'waste_pct = 10.0\nputups = [{ label = "box", length_ft = 500, sizes = ["5 AWG"] }]')),
+        encoding="utf-8")
+    assert gaugewalk(cmd_takeoff, [str(bad)]) == 2
+    err = capsys.readouterr().err
+    assert "putups" in err and "5 AWG" in err and err.count("\n") == 1
