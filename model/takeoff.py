@@ -391,7 +391,8 @@ def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = T
                 warnings.append(
                     f"run {run.run_id}: {run.bends} bends ({degrees} degrees) exceed "
                     f"{raceway_install.MAX_BEND_DEGREES} degrees between pull points "
-                    f"({rule.bends_section}); add a pull point"
+                    f"({rule.bends_section}) unless a pull point (box or conduit body) "
+                    f"breaks the route"
                 )
 
     def race_sort(key: tuple[str, str]) -> tuple[str, float]:

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+import os
 from html.parser import HTMLParser
 from pathlib import Path
 
@@ -231,3 +232,29 @@ def test_a_bad_walk_writes_no_report(tmp_path, capsys):
     assert gaugewalk(cmd_report, [str(bad), "-o", str(tmp_path / "r.html")]) == 2
     assert "bad.toml" in capsys.readouterr().err
     assert not (tmp_path / "r.html").exists()
+
+
+def test_a_run_that_cannot_be_sized_is_listed_and_left_out_of_the_takeoff(tmp_path):
+    walk = tmp_path / "unsized.toml"
+    # 14 AWG is not an aluminum power conductor size (NEC Table 310.16 lists Al from 12 AWG)
+    head, tail = WALK.read_text(encoding="utf-8").rsplit('size = "12 AWG"', 1)  # B2 is last
+    walk.write_text(head + 'material = "al"\nsize = "14 AWG"' + tail, encoding="utf-8")
+    out = tmp_path / "r.html"
+    assert gaugewalk(cmd_report, [str(walk), "-o", str(out)]) == 0
+    parsed = _Page()
+    parsed.feed(out.read_text(encoding="utf-8"))
+    b2 = _rows(parsed, "Runs")["B2"]
+    assert b2["Governed by"] == "not sized" and "14 AWG" in b2["Problems"]
+    text = " ".join(parsed.text)
+    assert "run B2: not sized, so left out of the takeoff" in text
+    # only B1 is left on 12 AWG: 60 + 4 = 64 ft per conductor
+    footage = {r[1]: r[2] for r in parsed.tables["Conductor footage by size"][1:]}
+    assert footage["12 AWG"] == f"{3 * 64:.1f}"
+
+
+def test_a_new_report_gets_ordinary_file_permissions(tmp_path):
+    rc, out = _write(tmp_path, "perm.html")
+    assert rc == 0
+    umask = os.umask(0)
+    os.umask(umask)
+    assert out.stat().st_mode & 0o777 == 0o666 & ~umask

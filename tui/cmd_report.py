@@ -60,8 +60,15 @@ def check_output(walk: str, out: str, replace: bool) -> str:
 
 def write_atomically(path: Path, text: str) -> None:
     """Write ``text`` beside ``path`` in a temporary file, flush, fsync, then rename over it."""
+    if path.exists():
+        mode = path.stat().st_mode & 0o777          # a replaced report keeps its permissions
+    else:
+        umask = os.umask(0)
+        os.umask(umask)
+        mode = 0o666 & ~umask                       # what an ordinary new file would get
     fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=path.parent)
     try:
+        os.chmod(tmp, mode)
         with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as handle:
             handle.write(text)
             handle.flush()
