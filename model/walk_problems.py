@@ -221,11 +221,13 @@ def check_references(
     file: str,
     skip_sources: set[str] = frozenset(),
     skip_runs: set[str] = frozenset(),
+    failed_targets: set[str] = frozenset(),
 ) -> list[Problem]:
     """Everything that needs more than one table: duplicate ids, a run from a source that does not
     exist, sources without a feeder or with two, a chain that loops, a connection the source's
     system cannot supply, a feeder that does not deliver its panel's system, a branch without a
-    load. ``skip_*`` are ids of tables that already failed, so one mistake is reported once."""
+    load. ``skip_*`` are ids of tables that already failed, and ``failed_targets`` the ``to`` of runs
+that failed, so one mistake is reported once."""
     problems: list[Problem] = []
     source_index = {id(s): i for i, s in enumerate(job.sources)}
     run_index = {id(r): i for i, r in enumerate(job.runs)}
@@ -272,7 +274,7 @@ def check_references(
             if s.id in feeders:
                 at_source(s, "kind", f"a service is fed by the utility, but run "
                           f"{feeders[s.id].id} feeds it; make it a panel or switchboard")
-        elif s.id not in feeders:
+        elif s.id not in feeders and s.id not in failed_targets:
             at_source(s, None, f"nothing feeds this {s.kind}; add a run to it from its source, "
                       "or make it the service")
 

@@ -8,12 +8,16 @@ Public API:
   ``gaugewalk check`` (the Job is None when the file cannot be built at all).
 - ``dumps_walk(job) -> str``: the file text; keys in a fixed order, defaults left out, so saving
   twice gives the same bytes and a reload gives the same Job.
-- ``save_walk(job, path, *, allow_comment_loss=True) -> SaveNotice | None``: atomic write with a
-  backup of the previous file at ``backup_path(path)`` (``walk.toml~``). The TOML writer cannot
+- ``save_walk(job, path, *, allow_comment_loss=True, expected=None) -> SaveNotice | None``: atomic
+  write with a backup of the previous file at ``backup_path(path)`` (``walk.toml~``). With
+  ``expected`` (the ``Fingerprint`` taken when the walk was read) it raises ``ChangedOnDisk`` and
+  writes nothing if the file's content is no longer what was read. The TOML writer cannot
   keep comments: when the file on disk has comments the save returns a ``SaveNotice`` saying so
   (the backup keeps them), or, with ``allow_comment_loss=False``, raises ``CommentsWouldBeLost``
   before writing anything.
 - ``comment_lines(text) -> int``: lines of the text that hold a comment.
+- ``fingerprint(path) -> Fingerprint | None``: size, mtime and SHA-256 of the file now.
+- ``MAX_WALK_BYTES``, ``MAX_RUNS``: the largest walk file and the most runs read or written.
 - ``new_walk(name=..., site=..., walked_by=..., walked_on=..., service_system=...) -> Job``.
 - ``MIGRATIONS``: ``{N: function(dict) -> dict}`` turning schema N into N+1.
 
@@ -61,6 +65,12 @@ from model.walk_problems import Locator, Problem, check_references, problems_fro
 BACKUP_SUFFIX = "~"
 """The previous version of ``walk.toml`` is kept beside it as ``walk.toml~``."""
 
+MAX_WALK_BYTES = 20 * 1024 * 1024
+"""Largest walk file read or written [bytes] (20 MiB: 50,000 runs of about 400 bytes each)."""
+MAX_RUNS = 50_000
+"""Most runs in one walk: ten times the 5,000-run walk the app is built to scroll; reading and
+checking takes about 0.12 ms a run (about 6 s at the limit on a 2-core laptop)."""
+
 
 class WalkFileError(Exception):
     """A walk file that cannot be used; ``problems`` lists every reason with its place."""
@@ -91,6 +101,48 @@ class SaveNotice:
 
     def __str__(self) -> str:
         return self.message
+
+
+@dataclass(frozen=True)
+class Fingerprint:
+    """What a walk file held when it was read: ``size`` [bytes], ``mtime_ns`` and ``sha256``.
+    Two fingerprints match when size and hash do (a touch that changes only the time is not a
+    change of content)."""
+
+    size: int
+    mtime_ns: int
+    sha256: str
+
+    @classmethod
+    def of(cls, data: bytes, mtime_ns: int = 0) -> "Fingerprint":
+        import hashlib
+
+        return cls(len(data), mtime_ns, hashlib.sha256(data).hexdigest())
+
+    def matches(self, other: "Fingerprint | None") -> bool:
+        return other is not None and (self.size, self.sha256) == (other.size, other.sha256)
+
+
+def fingerprint(path: str | os.PathLike) -> Fingerprint | None:
+    """The file's fingerprint now; None when there is no file."""
+    try:
+        with open(path, "rb") as handle:
+            mtime = os.fstat(handle.fileno()).st_mtime_ns
+            return Fingerprint.of(handle.read(), mtime)
+    except FileNotFoundError:
+        return None
+
+
+class ChangedOnDisk(Exception):
+    """Raised by ``save_walk(..., expected=...)`` when someone else changed the file since it was
+    read; nothing is written."""
+
+    def __init__(self, path: Path) -> None:
+        self.path = Path(path)
+        super().__init__(
+            f"{self.path}: changed on disk since you opened it (another program or person saved "
+            "it); not saved, so their changes are not overwritten. Open it again to see them"
+        )
 
 
 class CommentsWouldBeLost(Exception):
@@ -176,10 +228,18 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml") -> tuple[J
     problem found. Tables that fail on their own are left out of the cross-checks so one mistake
     is reported once."""
     file = str(path)
+    if len(text) > MAX_WALK_BYTES:
+        return None, [Problem(file, None, "file", None, _too_big(len(text.encode("utf-8"))))]
+    if not text.strip():
+        return None, [Problem(file, None, "file", None,
+                              "the file is empty; a walk file starts with 'schema = 1'")]
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         return None, [_syntax_problem(exc, file)]
+    except RecursionError:
+        return None, [Problem(file, None, "file", None,
+                              "has lists or tables nested too deep to be a walk file")]
     locator = Locator(text)
     try:
         data = migrate(data)
@@ -204,8 +264,11 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml") -> tuple[J
     header = one(JobHeader, data.get("job", {}), "job", None, "job")
     defaults = one(Defaults, data.get("defaults", {}), "defaults", None, "defaults")
 
+    failed_targets: set[str] = set()
+
     def many(kind: str, model: type[BaseModel]):
         items, positions, bad = [], [], set()
+        targets = failed_targets
         raw_list = data.get(kind, [])
         if not isinstance(raw_list, list):
             problems.append(Problem(file, locator.key_line("", None, kind), "file", kind,
@@ -218,11 +281,16 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml") -> tuple[J
             if item is None:
                 if isinstance(ident, str):
                     bad.add(ident)
+                if isinstance(raw, dict) and isinstance(raw.get("to"), str):
+                    targets.add(raw["to"])
             else:
                 items.append(item)
                 positions.append(i)
         return items, positions, bad
 
+    raw_runs = data.get("run", [])
+    if isinstance(raw_runs, list) and len(raw_runs) > MAX_RUNS:
+        return None, [Problem(file, None, "file", "run", _too_many(len(raw_runs)))]
     sources, source_positions, bad_sources = many("source", Source)
     runs, run_positions, bad_runs = many("run", Run)
 
@@ -232,7 +300,7 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml") -> tuple[J
               sources=sources, runs=runs)
     # cross-checks see only the tables that validated; map their positions back to the file
     shifted = _Shifted(locator, source_positions, run_positions)
-    problems.extend(check_references(job, shifted, file, bad_sources, bad_runs))
+    problems.extend(check_references(job, shifted, file, bad_sources, bad_runs, failed_targets))
     problems.sort(key=lambda p: (p.line is None, p.line or 0))
     return job, problems
 
@@ -261,6 +329,16 @@ class _Shifted(Locator):
         return self._base.key_line(table, self._map(table, index), key)
 
 
+def _too_big(size: int) -> str:
+    return (f"the file is {size / 1048576:.1f} MB; gaugewalk reads walk files up to "
+            f"{MAX_WALK_BYTES // 1048576} MB (split the job into walks and merge what you need)")
+
+
+def _too_many(runs: int) -> str:
+    return (f"the walk has {runs:,} runs; gaugewalk takes at most {MAX_RUNS:,} runs in one walk "
+            "(split the job into walks)")
+
+
 def loads_walk(text: str, path: str | os.PathLike = "walk.toml") -> Job:
     """Read a walk from its text; ``path`` is only for messages. Raises ``WalkFileError``."""
     job, problems = check_walk_text(text, path)
@@ -273,7 +351,11 @@ def read_walk_text(path: str | os.PathLike) -> str:
     """The file's text; a missing or unreadable file raises ``WalkFileError``."""
     p = Path(path)
     try:
-        raw = p.read_bytes()
+        with open(p, "rb") as handle:
+            raw = handle.read(MAX_WALK_BYTES + 1)
+            if len(raw) > MAX_WALK_BYTES:
+                size = os.fstat(handle.fileno()).st_size
+                raise WalkFileError([Problem(str(p), None, "file", None, _too_big(size))])
     except FileNotFoundError:
         raise WalkFileError([Problem(str(p), None, "file", None, "there is no such file")]) from None
     except IsADirectoryError:
@@ -454,23 +536,34 @@ def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = Tr
     _fsync_dir(folder)
 
 
-def save_walk(job: Job, path: str | os.PathLike, *, allow_comment_loss: bool = True) -> SaveNotice | None:
+def save_walk(
+    job: Job, path: str | os.PathLike, *, allow_comment_loss: bool = True,
+    expected: Fingerprint | None = None,
+) -> SaveNotice | None:
     """Write the walk atomically, keeping the previous file as ``walk.toml~``.
 
     Returns a ``SaveNotice`` when the file on disk had comments (they are not in the new file;
     the backup keeps them), else None. With ``allow_comment_loss=False`` and comments on disk,
     raises ``CommentsWouldBeLost`` and writes nothing. Saving an unchanged walk leaves the file
-    and its backup alone.
+    and its backup alone. With ``expected`` (the fingerprint of what was read) a file whose
+    content differs now raises ``ChangedOnDisk``; over ``MAX_RUNS`` or ``MAX_WALK_BYTES`` raises
+    ``WalkFileError``; in both cases nothing is written.
     """
     path = Path(path)
+    if len(job.runs) > MAX_RUNS:
+        raise WalkFileError([Problem(str(path), None, "file", "run", _too_many(len(job.runs)))])
     text = dumps_walk(job)
     data = text.encode("utf-8")
+    if len(data) > MAX_WALK_BYTES:
+        raise WalkFileError([Problem(str(path), None, "file", None, _too_big(len(data)))])
     try:
         old = path.read_bytes()
     except FileNotFoundError:
         old = None
     if old == data:
         return None
+    if expected is not None and not expected.matches(None if old is None else Fingerprint.of(old)):
+        raise ChangedOnDisk(path)
     notice = None
     if old is not None:
         n = comment_lines(old.decode("utf-8", errors="replace"))
