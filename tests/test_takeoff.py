@@ -231,3 +231,38 @@ def test_rows_have_one_quantity_per_unit_and_no_totals(takeoff):
     assert len(wire) == len(takeoff.wire_lines)
     boxes = [r for r in rows if r["section"] == "wire order" and r["item"] == "500 ft box"]
     assert [r["quantity_each"] for r in boxes] == [1, 1, 1]
+
+
+# --- put-up search against brute force ---------------------------------------------------------
+
+from hypothesis import given, settings, strategies as st  # noqa: E402
+
+from tables.putups import PutUp  # noqa: E402
+
+
+def _brute_force(need: int, lengths: list[int]) -> tuple[int, int]:
+    """Least left over, then fewest pieces, by trying every count up to covering the need alone."""
+    import itertools
+    import math as m
+
+    best = None
+    ranges = [range(m.ceil(need / n) + 1) for n in lengths]
+    for counts in itertools.product(*ranges):
+        total = sum(c * n for c, n in zip(counts, lengths))
+        if total >= need:
+            key = (total - need, sum(counts))
+            best = key if best is None or key < best else best
+    return best
+
+
+@settings(max_examples=150, deadline=None)
+@given(
+    need=st.integers(min_value=1, max_value=6000),
+    lengths=st.lists(st.sampled_from([250, 300, 500, 1000, 1500, 2500]), min_size=1, max_size=3,
+                     unique=True),
+)
+def test_put_up_search_matches_brute_force(need, lengths):
+    putups = tuple(PutUp(f"{n} ft", n, ("12 AWG",)) for n in lengths)
+    order, total = order_putups(need, putups)
+    assert total == sum(p.count * p.length_ft for p in order) >= need
+    assert (total - need, sum(p.count for p in order)) == _brute_force(need, sorted(lengths))

@@ -11,6 +11,7 @@ from __future__ import annotations
 import argparse
 import csv
 import json
+import os
 import sys
 from pathlib import Path
 
@@ -96,6 +97,14 @@ def write_csv(takeoff: Takeoff, stream) -> None:
 
 def run(args: argparse.Namespace) -> int:
     job, _result, takeoff = load_computed(args.file)
+    try:
+        _write(args, job, takeoff)
+    except BrokenPipeError:  # the reader stopped early (``| head``): not an error
+        sys.stdout = open(os.devnull, "w")  # noqa: SIM115 - keeps Python's exit flush quiet
+    return 0
+
+
+def _write(args: argparse.Namespace, job, takeoff: Takeoff) -> None:
     if args.csv:
         write_csv(takeoff, sys.stdout)
     elif args.json:
@@ -105,4 +114,4 @@ def run(args: argparse.Namespace) -> int:
     else:
         title = f"Takeoff: {job.job.name or Path(args.file).name}"
         sys.stdout.write(render_text(takeoff, title))
-    return 0
+    sys.stdout.flush()
