@@ -118,6 +118,8 @@ def _defaults(job: Job) -> tuple[tuple[str, str], ...]:
         ("Slack per end [ft]", f"{d.slack_per_end_ft:g}"),
         ("Waste allowance [%]", f"{d.waste_pct:g}"),
         ("Colour scheme", d.colour_scheme),
+        ("Put-ups", "as the job lists them" if d.putups is not None
+         else "500 ft boxes (14-10 AWG), 1,000 and 2,500 ft reels (common practice)"),
     )
 
 
