@@ -121,7 +121,7 @@ def conductor_z(size: str, material: str, method: str, *, pf: float = 0.85,
     ------
     tables.errors.TableLookupError
         A size outside the table the method needs (Table 9 covers 14 AWG Cu / 12 AWG Al to
-        1000 kcmil).
+        1000 kcmil and skips 700, 800 and 900 kcmil).
     """
     if method == "dc":
         return conductors.dc_resistance(size, material, stranded=stranded, temp_c=temp_c)

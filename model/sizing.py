@@ -24,12 +24,13 @@ from bisect import bisect_left
 from dataclasses import MISSING, dataclass, fields
 from functools import lru_cache
 
-from model.drop import conductor_z
+from model.drop import conductor_z, effective_z, temperature_corrected
 from model.run_spec import RunResult, RunSpec
 from model.systems import current_carrying_conductors
 from tables import ampacity as t_amp
 from tables import conductors as t_cond
 from tables import egc as t_egc
+from tables import impedance as t_imp
 from tables import ocpd as t_ocpd
 from tables import raceway as t_race
 from tables.errors import TableLookupError
@@ -112,18 +113,35 @@ def _ampacity_columns(material: str, ins_col: int, term_col: int, factor: float,
                             tuple(corr), tuple(allow), tuple(prot))
 
 
-@lru_cache(maxsize=4096)
-def _z_table(material: str, method: str, family: str, pf: float, temp_c: float,
-             stranded: bool) -> tuple[float | None, ...]:
-    """Impedance per conductor [ohm/kft] for each size; None where the method's table lacks it."""
-    out = []
+@lru_cache(maxsize=256)
+def _rx_table(material: str, method: str, family: str, temp_c: float,
+              stranded: bool) -> tuple[tuple[float, float] | None, ...]:
+    """(R at ``temp_c``, XL) per conductor [ohm/kft] for each size; XL is 0 for the DC and
+    K-factor methods; None where the method's table lacks the size."""
+    out: list[tuple[float, float] | None] = []
     for s in _material_table(material).sizes:
         try:
-            out.append(conductor_z(s, material, method, pf=pf, family=family, temp_c=temp_c,
-                                   stranded=stranded))
+            if method == "ac":
+                r = temperature_corrected(t_imp.ac_resistance(s, material, family),
+                                          t_cond.ALPHA[material], temp_c)
+                out.append((r, t_imp.reactance(s, family)))
+            else:
+                out.append((conductor_z(s, material, method, temp_c=temp_c, stranded=stranded),
+                            0.0))
         except TableLookupError:
             out.append(None)
     return tuple(out)
+
+
+@lru_cache(maxsize=4096)
+def _z_table(material: str, method: str, family: str, pf: float, temp_c: float,
+             stranded: bool) -> tuple[float | None, ...]:
+    """Impedance per conductor [ohm/kft] for each size (``model.drop.conductor_z``, from cached
+    R and XL columns); None where the method's table lacks the size."""
+    rx = _rx_table(material, method, family, temp_c, stranded)
+    if method != "ac":
+        return tuple(None if v is None else v[0] for v in rx)
+    return tuple(None if v is None else effective_z(v[0], v[1], pf) for v in rx)
 
 
 @lru_cache(maxsize=256)

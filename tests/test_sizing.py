@@ -186,6 +186,24 @@ def test_specs_that_cannot_be_evaluated_raise_a_sizing_error(field, value):
         evaluate(replace(spec(amps=20), **{field: value}))
 
 
+def test_sizes_table_9_lacks_are_skipped_by_the_ac_method_or_fall_back_to_table_8():
+    # NEC Ch. 9 Table 9 lists no 700, 800 or 900 kcmil: a fixed 700 kcmil gets the Table 8 DC
+    # resistance (0.0184 ohm/kft Cu at 75 C) and says so
+    r = evaluate(spec(circuit=C480_3, amps=400, length_ft=100, size="700 kcmil", method="ac"))
+    assert r.method == "dc" and any("Table 9 lists no" in n for n in r.notes)
+    assert r.voltage_drop_v == pytest.approx(math.sqrt(3) * 400 * 100 * 0.0184 / 1000, rel=1e-9)
+
+
+def test_the_engine_uses_table_9_impedance_at_the_runs_power_factor():
+    # NEC Ch. 9 Table 9, 4/0 Cu in PVC: R 0.062, XL 0.041 ohm/kft; pf 0.9:
+    # Ze = 0.062 x 0.9 + 0.041 x sqrt(1 - 0.81) = 0.0558 + 0.01787 = 0.07367 ohm/kft;
+    # VD = sqrt(3) x 200 A x 0.07367 x 250 ft / 1000 = 6.380 V
+    r = evaluate(spec(circuit=C480_3, amps=200, length_ft=250, size="4/0", pf=0.9,
+                      raceway="PVC-40"))
+    ze = 0.062 * 0.9 + 0.041 * math.sqrt(1 - 0.81)
+    assert r.voltage_drop_v == pytest.approx(math.sqrt(3) * 200 * ze * 250 / 1000, rel=1e-12)
+
+
 # ------------------------------------------------------------------ properties
 
 
