@@ -12,6 +12,10 @@ The phase conductor is the smallest size (14 AWG Cu, 12 AWG Al and up; NEC 2023)
 3. the voltage-drop targets: this run's drop and the drop from the service (informational notes
    to 210.19(A) and 215.2(A); recommendations, made binding here as the job's targets).
 
+Terminals (110.14(C)(1)) are taken by the circuit rating: 60 C for a device of 100 A or less,
+75 C above; equipment marked otherwise (75 C lugs on a small breaker, or lugs marked for 14-1 AWG
+on a larger one) is given with ``RunSpec.terminal_temp``.
+
 Then the EGC (Table 250.122 with 250.122(B) and (F)) and the raceway trade size (Ch. 9 Tables 1,
 4 and 5). Pure: no I/O. Table lookups are cached per material, column and drop method so that
 thousands of runs evaluate quickly.
