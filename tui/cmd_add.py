@@ -17,7 +17,7 @@ from model.compute import compute_job
 from model.job import Run
 from model.walk_problems import Locator, problems_from_errors
 from model.walkfile import check_walk_text, dumps_walk, save_walk
-from tui.walk_cli import EXIT_INVALID, EXIT_OK, print_problems, read_job
+from tui.walk_cli import EXIT_INVALID, EXIT_OK, print_problems, read_job, writes_walk
 
 NAME = "add"
 HELP = "Add a run to a walk file (same length grammar as 'calc')."
@@ -84,6 +84,7 @@ def _run_data(args: argparse.Namespace, run_id: str) -> dict:
     return data
 
 
+@writes_walk("file", "gaugewalk add")
 def run(args: argparse.Namespace) -> int:
     job = read_job(args.file)
     if job is None:
@@ -109,7 +110,7 @@ def run(args: argparse.Namespace) -> int:
         # the file on disk is untouched; line numbers would point into the unsaved text
         print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
         return EXIT_INVALID
-    notice = save_walk(job, args.file)
+    notice = save_walk(job, args.file, expected=args.expected)
     if notice is not None:
         print(f"warning: {notice.message}", file=sys.stderr)
     result = compute_job(job)

@@ -14,7 +14,7 @@ from pathlib import Path
 
 from model.merge import merge_jobs
 from model.walkfile import check_walk_text, dumps_walk, save_walk
-from tui.walk_cli import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems, read_job
+from tui.walk_cli import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems, read_job, writes_walk
 
 NAME = "merge"
 HELP = "Merge two walk files by run and source id; conflicts stop the merge unless --prefer."
@@ -28,6 +28,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="on a conflict take this side (conflicts are still listed)")
 
 
+@writes_walk("output", "gaugewalk merge")
 def run(args: argparse.Namespace) -> int:
     a = read_job(args.a)
     b = read_job(args.b)
@@ -45,7 +46,7 @@ def run(args: argparse.Namespace) -> int:
         print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
         print("the merged walk would not be valid; nothing written", file=sys.stderr)
         return EXIT_INVALID
-    notice = save_walk(merged.job, Path(args.output))
+    notice = save_walk(merged.job, Path(args.output), expected=args.expected)
     if notice is not None:
         print(f"warning: {notice.message}", file=sys.stderr)
     t = merged.taken

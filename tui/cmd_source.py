@@ -15,7 +15,7 @@ from pydantic import ValidationError
 from model.job import Run, Source
 from model.walk_problems import Locator, problems_from_errors
 from model.walkfile import check_walk_text, dumps_walk, save_walk
-from tui.walk_cli import EXIT_INVALID, EXIT_OK, print_problems, read_job
+from tui.walk_cli import EXIT_INVALID, EXIT_OK, print_problems, read_job, writes_walk
 
 NAME = "source"
 HELP = "Add a service, switchboard, panel or transformer to a walk file."
@@ -40,6 +40,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--sets", type=int, help="feeder conductors in parallel per phase")
 
 
+@writes_walk("file", "gaugewalk source")
 def run(args: argparse.Namespace) -> int:
     job = read_job(args.file)
     if job is None:
@@ -81,7 +82,7 @@ def run(args: argparse.Namespace) -> int:
     if problems:
         print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
         return EXIT_INVALID
-    notice = save_walk(job, args.file)
+    notice = save_walk(job, args.file, expected=args.expected)
     if notice is not None:
         print(f"warning: {notice.message}", file=sys.stderr)
     fed = f", fed by run {job.runs[-1].id}" if source.kind != "service" else ""
