@@ -65,7 +65,7 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("card.prev", "shift+tab", "prev_field", "Prev field", "Previous field.", "card", footer=False, key_display="S-Tab"),
     KeyAction("card.more", "ctrl+o", "toggle_more", "More fields", "Jump to the other fields (circuit, sets, size, material...) and back.", "card", key_display="^o"),
     # trial change
-    KeyAction("trial.keep", "ctrl+k", "keep", "Keep", "Keep the trial change (it can be undone).", "trial", key_display="^k"),
+    KeyAction("trial.keep", "ctrl+s", "keep", "Keep", "Keep the trial change (it can be undone).", "trial", key_display="^s"),
     KeyAction("trial.drop", "escape", "close_trial", "Discard", "Leave without changing the walk.", "trial", key_display="Esc"),
 )
 

@@ -16,6 +16,7 @@ from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
 from textual.suggester import SuggestFromList
+from textual.widget import Widget
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from model.job import Load, Run, Source
@@ -109,6 +110,23 @@ def parse_load_text(text: str) -> tuple[float, str, float | None]:
     return value, unit, pf
 
 
+class Note(Widget):
+    """Markup text of a fixed-size box: changing it repaints the box only (no layout pass,
+    which would cost a few milliseconds on every keystroke)."""
+
+    def __init__(self, text: str = "", **kwargs) -> None:
+        super().__init__(**kwargs)
+        self._text = text
+
+    def update(self, text: str) -> None:
+        if text != self._text:
+            self._text = text
+            self.refresh()
+
+    def render(self) -> str:
+        return self._text
+
+
 class RunCard(Screen):
     """Record a new run (``run_id`` None) or edit one."""
 
@@ -121,9 +139,12 @@ class RunCard(Screen):
         self.errors: dict[str, str] = {}
         self.touched: set[str] = set()
         self.stored: list[str] = []
-        self._filling = False
+        self._auto: dict[str, str] = {}
         self._candidate: Run | None = None
         self.soft: set[str] = set()
+        self._hints: dict[str, tuple[str, bool]] = {}
+        self._answer_text = ""
+        self._said: tuple[str, bool] | None = None
         self._store_tried = False
         self._sticky: str | None = None
         self._cannot: str | None = None
@@ -153,10 +174,10 @@ class RunCard(Screen):
                             placeholder=f.placeholder, id=f"f-{f.key}", compact=True,
                             suggester=suggester, classes="card-input",
                         )
-                        yield Static("", id=f"h-{f.key}", classes="card-hint")
+                        yield Note("", id=f"h-{f.key}", classes="card-hint")
             with Vertical(id="card-answer"):
-                yield Static("", id="answer")
-        yield Static("", id="card-msg")
+                yield Note("", id="answer")
+        yield Note("", id="card-msg")
         yield Footer()
 
     def on_mount(self) -> None:
@@ -174,13 +195,14 @@ class RunCard(Screen):
     def values(self) -> dict[str, str]:
         return {k: self._input(k).value for k in FIELD_KEYS}
 
+    def _set(self, key: str, value: str) -> None:
+        """Put a value in a field on the person's behalf (not counted as typed)."""
+        self._auto[key] = value
+        self._input(key).value = value
+
     def _set_values(self, values: dict[str, str]) -> None:
-        self._filling = True
-        try:
-            for k in FIELD_KEYS:
-                self._input(k).value = values.get(k, "")
-        finally:
-            self._filling = False
+        for k in FIELD_KEYS:
+            self._set(k, values.get(k, ""))
 
     def _fill_start(self) -> None:
         s = self.session
@@ -212,7 +234,7 @@ class RunCard(Screen):
         values = {k: "" for k in FIELD_KEYS}
         values["from"] = source_id or (prev.from_ if prev else (s.source_ids()[:1] or [""])[0])
         same = s.previous_like(values["from"])
-        if same is not None and same.from_ == values["from"]:
+        if same is not None and same.from_ == values["from"] and not s.job.is_feeder(same):
             copied = run_to_fields(same)
             for k in COPIED_FROM_PREVIOUS:
                 values[k] = copied[k]
@@ -233,30 +255,34 @@ class RunCard(Screen):
     # ----- live checking ----------------------------------------------------------------
     @on(Input.Changed, ".card-input")
     def _changed(self, event: Input.Changed) -> None:
-        if self._filling:
-            return
         key = (event.input.id or "")[2:]
+        if event.value == self._auto.get(key):
+            self.recheck()  # a value the card put there itself (messages arrive later)
+            return
+        self._auto.pop(key, None)
         self.touched.add(key)
         self._sticky = None
-        if key == "from" and self.run_id is None:
-            self._copy_circuit_from(event.value.strip())
+        if key in ("from", "to", "panel") and self.run_id is None:
+            self._auto_fill()
         self.recheck()
 
-    def _copy_circuit_from(self, source_id: str) -> None:
+    def _auto_fill(self) -> None:
+        """Fields nobody typed in follow the run: a feeder takes every hot and the neutral its
+        source offers (circuit blank); a branch copies the last branch from the same source."""
         s = self.session
-        if s.job.source(source_id) is None:
-            return
-        same = s.previous_like(source_id)
-        if same is None or same.from_ != source_id:
-            return
-        copied = run_to_fields(same)
-        self._filling = True
-        try:
-            for k in COPIED_FROM_PREVIOUS:
-                if k not in self.touched:
-                    self._input(k).value = copied[k]
-        finally:
-            self._filling = False
+        v = self.values()
+        source_id = v["from"].strip()
+        feeder = s.job.source(v["to"].strip()) is not None or bool(v["panel"].strip())
+        copied = {k: "" for k in COPIED_FROM_PREVIOUS}
+        copied["continuous"] = "no"
+        same = s.previous_like(source_id) if s.job.source(source_id) is not None else None
+        if same is not None and same.from_ == source_id and not s.job.is_feeder(same):
+            copied.update({k: run_to_fields(same)[k] for k in COPIED_FROM_PREVIOUS})
+        if feeder:
+            copied["circuit"] = ""
+        for k in COPIED_FROM_PREVIOUS:
+            if k not in self.touched and self._input(k).value != copied[k]:
+                self._set(k, copied[k])
 
     def recheck(self) -> None:
         """Check every field, build the run if possible and size it."""
@@ -392,20 +418,20 @@ class RunCard(Screen):
             if not v[k].strip() and k not in self.touched and not self._store_tried
         }
         for k in FIELD_KEYS:
-            inp = self._input(k)
-            hint = self.query_one(f"#h-{k}", Static)
             if k in self.soft:
-                inp.remove_class("-invalid")
-                hint.update("needed")
-                hint.remove_class("bad")
+                shown = ("needed", False)
             elif k in errors:
-                inp.add_class("-invalid")
-                hint.update("✗ " + escape(errors[k]))
-                hint.add_class("bad")
+                shown = ("✗ " + errors[k], True)
             else:
-                inp.remove_class("-invalid")
-                hint.update(escape(hints.get(k, "")))
-                hint.remove_class("bad")
+                shown = (hints.get(k, ""), False)
+            if self._hints.get(k) == shown:
+                continue  # redrawing costs a layout pass; skip what did not change
+            self._hints[k] = shown
+            text, bad = shown
+            hint = self.query_one(f"#h-{k}", Note)
+            hint.update(escape(text))
+            hint.set_class(bad, "bad")
+            self._input(k).set_class(bad, "-invalid")
         self._show_answer(candidate, result, feet)
         self._message_for_focus()
 
@@ -444,7 +470,10 @@ class RunCard(Screen):
                 lines.append("• " + escape(p))
         lines.append("")
         lines.append("[dim]Estimates for planning; see F2.[/dim]")
-        self.query_one("#answer", Static).update("\n".join(lines))
+        text = "\n".join(lines)
+        if text != self._answer_text:
+            self._answer_text = text
+            self.query_one("#answer", Note).update(text)
 
     def _message_for_focus(self) -> None:
         if self._sticky:
@@ -465,7 +494,10 @@ class RunCard(Screen):
             self._say("Enter stores this run and starts the next.")
 
     def _say(self, text: str, bad: bool = False) -> None:
-        msg = self.query_one("#card-msg", Static)
+        if self._said == (text, bad):
+            return
+        self._said = (text, bad)
+        msg = self.query_one("#card-msg", Note)
         msg.update(("✗ " if bad else "") + escape(text))
         msg.set_class(bad, "bad")
 

@@ -24,7 +24,7 @@ TRIAL_FIELDS = (
 
 
 class TrialScreen(Screen):
-    """A what-if on one run, computed on a copy of the walk; ctrl+k keeps it."""
+    """A what-if on one run, computed on a copy of the walk; ctrl+s keeps it."""
 
     BINDINGS = bindings_for("trial")
 
@@ -39,7 +39,7 @@ class TrialScreen(Screen):
         yield Header()
         yield Static(
             f"[b]Trial change on {escape(self.run_id)}[/b] ({escape(run.from_)} → {escape(run.to)}). "
-            "Change a field; the walk itself is untouched until ctrl+k.", id="trial-head",
+            "Change a field; the walk itself is untouched until ctrl+s.", id="trial-head",
         )
         with Horizontal(id="trial-body"):
             with Vertical(id="trial-fields"):
@@ -120,7 +120,7 @@ class TrialScreen(Screen):
             msg.update("✗ " + escape("; ".join(outcome.problems[:2])))
             return
         self.trial_run = trial
-        msg.update("ctrl+k keeps this change · Esc leaves the walk as it was")
+        msg.update("ctrl+s keeps this change · Esc leaves the walk as it was")
         self.query_one("#trial-compare", Static).update(self._compare(run, trial, outcome))
 
     def _compare(self, run: Run, trial: Run, outcome) -> str:
