@@ -61,9 +61,15 @@ Method = Literal["dc", "kfactor", "ac"]
 TerminalTemp = Literal[60, 75, 90]
 
 
+_ID_EPOCH = [0]
+"""Counts ids set on sources and runs (built or assigned): a ``Job``'s cached id lookups are
+rebuilt when it moves, so a lookup that finds nothing can answer at once."""
+
+
 def _check_id(value: str) -> str:
     if not isinstance(value, str) or not _ID_RE.match(value) or value != value.strip():
         raise ValueError(f"'{value}' is not a usable id: {_ID_HELP}")
+    _ID_EPOCH[0] += 1
     return value
 
 
@@ -390,11 +396,15 @@ with warnings.catch_warnings():
         __hash__ = None
 
         # -- lookups -------------------------------------------------------------------------
+        # Cached by list identity and length and by ``_ID_EPOCH`` (ids built or assigned), so a
+        # miss costs nothing. Code that puts an object built earlier into ``sources`` or ``runs``
+        # at the same length sets ``_index_cache = None``, as ``tui.app_session`` does.
         def _index(self) -> tuple[dict[str, Source], dict[str, Run]]:
             cache = self._index_cache
             if cache is not None:
                 key, sources, runs = cache
-                if key == (id(self.sources), len(self.sources), id(self.runs), len(self.runs)):
+                if key == (id(self.sources), len(self.sources), id(self.runs), len(self.runs),
+                           _ID_EPOCH[0]):
                     return sources, runs
             sources = {}
             for s in self.sources:
@@ -403,16 +413,21 @@ with warnings.catch_warnings():
             for r in self.runs:
                 runs.setdefault(r.id, r)
             self._index_cache = (
-                (id(self.sources), len(self.sources), id(self.runs), len(self.runs)),
+                (id(self.sources), len(self.sources), id(self.runs), len(self.runs), _ID_EPOCH[0]),
                 sources,
                 runs,
             )
             return sources, runs
 
+        def reindex(self) -> None:
+            """Forget the lookup index; call after renaming a source or run id in place
+            (appending or removing items is noticed on its own)."""
+            self._index_cache = None
+
         def source(self, source_id: str) -> Source | None:
             """The source with this id, or None."""
             found = self._index()[0].get(source_id)
-            if found is None or found.id != source_id:  # an id edited in place
+            if found is not None and found.id != source_id:  # renamed in place
                 self._index_cache = None
                 found = self._index()[0].get(source_id)
             return found
@@ -420,7 +435,7 @@ with warnings.catch_warnings():
         def run(self, run_id: str) -> Run | None:
             """The run with this id, or None."""
             found = self._index()[1].get(run_id)
-            if found is None or found.id != run_id:
+            if found is not None and found.id != run_id:
                 self._index_cache = None
                 found = self._index()[1].get(run_id)
             return found
