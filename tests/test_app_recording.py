@@ -70,7 +70,7 @@ async def test_the_length_field_shows_its_value_in_feet_and_the_answer_is_live(t
         await type_text(pilot, "16A")
         await pilot.pause()
         answer = str(app.screen.query_one("#answer").render())
-        for word in ("Size", "Drop", "Total", "Governs", "EGC", "Raceway"):
+        for word in ("Size", "Run drop", "From svc", "Governs", "EGC", "Raceway"):
             assert word in answer
 
 

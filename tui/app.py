@@ -154,12 +154,9 @@ class WalkApp(App[int]):
         s = self.session
         if s is None:
             return
-        name = s.job.job.name or s.path.stem
-        self.title = f"{name} — {s.path.name}"
-        if s.state.saved:
-            self.sub_title = "✓ all saved"
-        else:
-            self.sub_title = "✗ NOT SAVED (ctrl+s retries)"
+        state = "✓ saved" if s.state.saved else "✗ NOT SAVED (ctrl+s retries)"
+        self.title = f"{s.path.name} · {state}"
+        self.sub_title = s.job.job.name or s.path.stem
 
     # ----- app-wide actions -------------------------------------------------------------
     def action_key_guide(self) -> None:

@@ -59,7 +59,7 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("walk.job", "j", "job_settings", "Job", "Job settings: the defaults every run inherits; all runs recompute.", "walk"),
     KeyAction("walk.save", "ctrl+s", "save_now", "Save", "Save again now (every change is already saved at once).", "walk", footer=False, key_display="^s"),
     # run card
-    KeyAction("card.store", "enter", "store", "Store+next", "Store the run and start the next one.", "card", footer=True, key_display="Enter"),
+    KeyAction("card.store", "enter", "store", "Store+next", "Store the run and start the next one.", "card", priority=True, key_display="Enter"),
     KeyAction("card.close", "escape", "close_card", "Close", "Close the card; an unstored draft is kept for the next new run.", "card", key_display="Esc"),
     KeyAction("card.next", "tab", "next_field", "Next field", "Next field; accepts the shown completion first.", "card", footer=False, key_display="Tab"),
     KeyAction("card.prev", "shift+tab", "prev_field", "Prev field", "Previous field.", "card", footer=False, key_display="S-Tab"),

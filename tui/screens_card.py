@@ -37,11 +37,11 @@ class Field:
 
 FIELDS: tuple[Field, ...] = (
     Field("from", "From", "source id", True),
-    Field("to", "To", "load name or panel id", True),
-    Field("length", "Length", "85+12+2*6, 36m+8ft", True),
-    Field("load", "Load", "16A, 1.8kVA, 5kW", True),
-    Field("panel", "New panel", "system, if To is a new panel"),
-    Field("circuit", "Circuit", "LN LL LLN MW 3P 3PN"),
+    Field("to", "To", "load or panel", True),
+    Field("length", "Length", "e.g. 85+12+2*6", True),
+    Field("load", "Load", "16A 1.8kVA 5kW", True),
+    Field("panel", "New panel", "its system"),
+    Field("circuit", "Circuit", "blank: all offered"),
     Field("continuous", "Continuous", "yes / no"),
     Field("spread", "Spread", "no: load at the end"),
     Field("sets", "Sets", "1"),
@@ -145,6 +145,7 @@ class RunCard(Screen):
         self._hints: dict[str, tuple[str, bool]] = {}
         self._answer_text = ""
         self._said: tuple[str, bool] | None = None
+        self._early: list[str] = []
         self._store_tried = False
         self._sticky: str | None = None
         self._cannot: str | None = None
@@ -241,8 +242,20 @@ class RunCard(Screen):
         values["continuous"] = values["continuous"] or "no"
         values["spread"] = "no"
         values["sets"] = "1"
-        values["id"] = s.job.next_run_id("R")
+        values["id"] = self._next_id(same if same is not None and same.from_ == values["from"] else None)
         return values
+
+    def _next_id(self, like: Run | None) -> str:
+        """The next free id in the style of the last run from the same source (``LP1-7`` ->
+        ``LP1-8``), else ``R`` and a number."""
+        import re
+
+        job = self.session.job
+        if like is not None:
+            m = re.match(r"^(.*?)(\d+)$", like.id)
+            if m and m.group(1):
+                return job.next_run_id(m.group(1))
+        return job.next_run_id("R")
 
     def _update_title(self) -> None:
         if self.run_id is not None:
@@ -280,7 +293,9 @@ class RunCard(Screen):
             copied.update({k: run_to_fields(same)[k] for k in COPIED_FROM_PREVIOUS})
         if feeder:
             copied["circuit"] = ""
-        for k in COPIED_FROM_PREVIOUS:
+        like = same if same is not None and same.from_ == source_id else None
+        copied["id"] = self._next_id(like)
+        for k in (*COPIED_FROM_PREVIOUS, "id"):
             if k not in self.touched and self._input(k).value != copied[k]:
                 self._set(k, copied[k])
 
@@ -449,20 +464,24 @@ class RunCard(Screen):
                 lines.append("the size appears here.")
             if self.errors:
                 lines.append("")
-                lines.append(f"[b]✗ {len(self.errors)} field(s) to fix[/b]")
+                hard = [k for k in self.errors if k not in self.soft]
+                if hard:
+                    lines.append(f"[b]✗ {len(hard)} field(s) to fix[/b]")
+                else:
+                    lines.append(f"{len(self.errors)} field(s) still needed")
         else:
             st = self.session.status(run, res)
             own, total = self.session.targets(run)
             race = f"{res.raceway_size} {res.raceway}" if res.raceway_size else f"no {res.raceway} fits"
             lines += [
-                f"Size     [b]{escape(size_text(res))}[/b]",
-                f"Load     {res.amps:.1f} A (design {res.design_amps:.1f})",
-                f"Drop     [b]{res.voltage_drop_pct:.2f}%[/b] run (≤{own:g})",
-                f"Total    [b]{res.total_drop_pct:.2f}%[/b] from service (≤{total:g})",
-                f"Governs  {escape(res.governed_by)}",
-                f"EGC      {escape(res.egc_size or 'none')}",
-                f"Raceway  {escape(race)}",
-                f"OCPD     {res.ocpd_a} A",
+                f"Size      [b]{escape(size_text(res))}[/b]",
+                f"Governs   {escape(res.governed_by)}",
+                f"Run drop  [b]{res.voltage_drop_pct:.2f}%[/b] (max {own:g})",
+                f"From svc  [b]{res.total_drop_pct:.2f}%[/b] (max {total:g})",
+                f"Amps      {res.amps:.1f} A, sized {res.design_amps:.1f}",
+                f"EGC       {escape(res.egc_size or 'none')}",
+                f"Raceway   {escape(race)}",
+                f"OCPD      {res.ocpd_a} A",
                 "",
                 ("[b]✓ meets its targets[/b]" if not st.flag else f"[b]{escape(st.words)}[/b]"),
             ]
@@ -506,6 +525,43 @@ class RunCard(Screen):
             self._message_for_focus()
 
     # ----- keys -------------------------------------------------------------------------
+    def on_key(self, event) -> None:
+        """Keys typed while the card is still being built reach the screen, not a field: keep
+        them and give them to the field once it has focus, so a fast typist loses nothing."""
+        if self.focused is not None:
+            return
+        self.take_early(event)
+
+    def take_early(self, event) -> None:
+        """Keep a key typed before the card could take it (also called by the walk screen for
+        keys that were already on their way to it when the card opened)."""
+        if event.is_printable and event.character:
+            self._early.append(event.character)
+        elif event.key == "tab":
+            self._early.append("\t")
+        else:
+            return
+        event.stop()
+        event.prevent_default()
+        self.call_after_refresh(self._replay)
+
+    def _replay(self) -> None:
+        if not self._early:
+            return
+        focused = self.focused
+        if not isinstance(focused, Input):
+            self.call_after_refresh(self._replay)
+            return
+        keys, self._early = self._early, []
+        for ch in keys:
+            focused = self.focused
+            if ch == "\t":
+                self.action_next_field()
+            elif isinstance(focused, Input):
+                if not focused.selection.is_empty:
+                    focused.delete_selection()  # typing over selected text replaces it
+                focused.insert_text_at_cursor(ch)
+
     def action_next_field(self) -> None:
         focused = self.focused
         if isinstance(focused, Input) and focused._suggestion and focused.cursor_at_end:

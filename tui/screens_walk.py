@@ -17,6 +17,12 @@ from tui.widgets_runlist import RunSheet, SheetHeading, SheetRow
 from tui.widgets_views import SupplyTree, footage_text
 
 VIEWS = ("runs", "tree", "footage")
+
+
+def _key_of(binding_id: str) -> str:
+    from tui.app_keys import KEYS
+
+    return next(k.key for k in KEYS if k.id == binding_id)
 VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage"}
 
 
@@ -56,6 +62,28 @@ class WalkScreen(Screen):
 
     def on_screen_resume(self) -> None:
         self.reload()
+
+    def on_key(self, event) -> None:
+        """Keys typed right after ``n`` can still be on their way here when the run card opens:
+        hand them to the card instead of acting on them."""
+        from tui.screens_card import RunCard
+
+        top = self.app.screen
+        if top is not self and isinstance(top, RunCard):
+            top.take_early(event)
+            return
+        if isinstance(self.focused, Input):
+            return
+        # open the card right here rather than when the key reaches the app's binding check,
+        # so the keys behind it already find the card
+        if event.key == _key_of("walk.new"):
+            event.stop()
+            event.prevent_default()
+            self.action_new_run()
+        elif event.key == _key_of("walk.edit"):
+            event.stop()
+            event.prevent_default()
+            self.action_edit_run()
 
     # ----- refreshing -------------------------------------------------------------------
     def reload(self, focus: str | None = None) -> None:
