@@ -86,8 +86,9 @@ async def test_editing_a_length_updates_the_drop_and_the_footage(tmp_path):
         assert sheet_cells(app)["R1"][6] == "5.28"
         await pilot.press("2")  # supply tree first, then footage: both must follow the edit
         await pilot.press("3")
-        # hot + neutral + EGC, all 12 AWG (Table 250.122: 20 A device -> 12 AWG Cu), 100 ft each
-        assert re.search(r"Cu 12 AWG +300 ft", shown(app, "#footage-text"))
+        # hot + neutral + EGC, all 12 AWG (Table 250.122: 20 A device -> 12 AWG Cu), each
+        # (100 ft + 2 ft slack at each end, the shipped default): 3 x 104 = 312 ft
+        assert re.search(r"Cu 12 AWG +312 ", shown(app, "#footage-text"))
         await pilot.press("1")
         await pilot.press("down")  # F1 -> R1
         await pilot.press("e")
@@ -100,7 +101,8 @@ async def test_editing_a_length_updates_the_drop_and_the_footage(tmp_path):
         assert session.result_for("R1").voltage_drop_pct == pytest.approx(2.64, abs=0.01)
         assert sheet_cells(app)["R1"][6] == "2.64"
         await pilot.press("3")
-        assert re.search(r"Cu 12 AWG +150 ft", shown(app, "#footage-text"))
+        # 3 x (50 + 2 + 2) = 162 ft
+        assert re.search(r"Cu 12 AWG +162 ", shown(app, "#footage-text"))
     assert 'length = "50"' in path.read_text()
 
 

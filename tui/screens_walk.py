@@ -5,7 +5,7 @@ from __future__ import annotations
 from rich.markup import escape
 from textual import on
 from textual.app import ComposeResult
-from textual.containers import Vertical, VerticalScroll
+from textual.containers import ScrollableContainer, Vertical
 from textual.screen import Screen
 from textual.widgets import ContentSwitcher, Footer, Header, Input, Static
 
@@ -51,7 +51,7 @@ class WalkScreen(Screen):
                 yield sheet
                 yield Static("", id="detail")
             yield SupplyTree(id="tree")
-            with VerticalScroll(id="footage"):
+            with ScrollableContainer(id="footage", can_focus=True):
                 yield Static("", id="footage-text")
         yield Footer()
 

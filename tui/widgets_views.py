@@ -8,8 +8,7 @@ draws a bar for each in text blocks (readable without colour).
 
 from __future__ import annotations
 
-from collections import defaultdict
-
+from rich.markup import escape
 from rich.text import Text
 from textual.widgets import Tree
 
@@ -107,66 +106,41 @@ class SupplyTree(Tree):
 
 
 # ----- footage ---------------------------------------------------------------------------------
-def footage_by_size(session: WalkSession) -> list[tuple[str, str, float]]:
-    """(material, size, conductor feet) for the whole walk: route length x conductors x sets,
-    phase and neutral at their sizes, the EGC at its own size. No slack or waste (the takeoff
-    adds those)."""
-    totals: dict[tuple[str, str], float] = defaultdict(float)
-    for run in session.job.runs:
-        res = session.result_for(run.id)
-        if res is None:
-            continue
-        mat = "Al" if res.material == "al" else "Cu"
-        per_set = res.conductors or {}
-        feet = run.length_ft * res.sets
-        hots = per_set.get("hot", 0)
-        neutral = per_set.get("neutral", 0)
-        egc = per_set.get("egc", 0)
-        if hots:
-            totals[(mat, res.size)] += feet * hots
-        if neutral:
-            totals[(mat, res.neutral_size or res.size)] += feet * neutral
-        if egc and res.egc_size:
-            egc_mat = mat
-            totals[(egc_mat, res.egc_size)] += feet * egc
-    from tables.sizes import size_index
-
-    def rank(item):
-        (mat, size), _ = item
-        try:
-            return (mat, size_index(size))
-        except Exception:
-            return (mat, 10_000)
-
-    return [(m, s, ft) for (m, s), ft in sorted(totals.items(), key=rank)]
-
-
 def footage_text(session: WalkSession, width: int = 78) -> str:
-    rows = footage_by_size(session)
-    lines = ["[b]Conductor feet by material and size[/b]  (route length × conductors × sets; "
-             "no slack or waste)", ""]
+    """Conductor feet by material and size with a text bar each, then the takeoff: the same
+    ``model.takeoff`` numbers as ``gaugewalk takeoff`` and the report."""
+    from model.takeoff import TakeoffError, build_takeoff
+    from tui.cmd_takeoff import render_text
+
+    if session.result is None:
+        return "Sizing the walk…"
+    try:
+        takeoff = build_takeoff(session.job, session.result)
+    except TakeoffError as exc:
+        return "The takeoff cannot be made: " + escape(str(exc))
+    d = session.job.defaults
+    rows = takeoff.footage_by_size()
+    lines = [
+        "[b]Conductor feet by material and size[/b]",
+        f"(route + {d.slack_per_end_ft:g} ft slack per end) × conductors × sets; "
+        f"order adds {d.waste_pct:g}% waste",
+        "",
+    ]
     if not rows:
         lines.append("No sized runs yet.")
-        return "\n".join(lines)
-    top = max(ft for _, _, ft in rows)
-    bar_w = max(width - 30, 10)
-    total = 0.0
-    for mat, size, ft in rows:
-        total += ft
-        lines.append(f"{mat} {size:<10} {ft:>9,.0f} ft  {text_bar(ft, top, bar_w)}")
-    lines.append(f"{'':14}{'─' * 9}")
-    lines.append(f"{'all':<13} {total:>9,.0f} ft")
+    else:
+        top = max(r.net_ft for r in rows)
+        bar_w = max(width - 40, 10)
+        lines.append(f"{'':3}{'size':<11}{'feet':>9}{'order':>9}")
+        for r in rows:
+            mat = "Al" if r.material == "al" else "Cu"
+            lines.append(
+                f"{mat} {escape(r.size):<10} {r.net_ft:>8,.0f} {r.with_waste_ft:>8,} "
+                f"{text_bar(r.net_ft, top, bar_w)}"
+            )
+        total = sum(r.net_ft for r in rows)
+        lines.append(f"{'all':<13} {total:>8,.0f} {sum(r.with_waste_ft for r in rows):>8,}")
     route = sum(r.length_ft for r in session.job.runs)
-    lines.append("")
-    lines.append(f"Route length of {len(session.job.runs)} runs: {route:,.0f} ft")
-    lines.extend(_takeoff_lines(session))
+    lines += ["", f"Route length of {len(session.job.runs)} runs: {route:,.0f} ft", "", "─" * 20, ""]
+    lines.append(escape(render_text(takeoff, "[Takeoff]").replace("[Takeoff]", "Takeoff")))
     return "\n".join(lines)
-
-
-def _takeoff_lines(session: WalkSession) -> list[str]:
-    """The takeoff, once ``model.takeoff`` is there; nothing otherwise."""
-    try:
-        from model import takeoff  # noqa: F401
-    except ImportError:
-        return ["", "(The material takeoff with slack, waste and put-ups: gaugewalk takeoff FILE.)"]
-    return []
