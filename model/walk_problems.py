@@ -38,16 +38,30 @@ class Problem:
             head += f" line {self.line}"
         parts.append(head)
         if self.where:
-            parts.append(self.where)
+            parts.append(_clip(self.where))
         if self.field:
-            parts.append(self.field)
-        return ", ".join(parts) + ": " + self.message
+            parts.append(_clip(self.field))
+        return ", ".join(parts) + ": " + _clip(self.message)
 
     def to_dict(self) -> dict:
         return {
             "file": self.file, "line": self.line, "where": self.where,
             "field": self.field, "message": self.message,
         }
+
+
+_LONG_WORD = re.compile(r"\S{61,}")
+
+
+_CONTROL = {c: repr(chr(c))[1:-1] for c in (*range(32), 127, 0x85, 0x2028, 0x2029)}
+
+
+def _clip(text: str) -> str:
+    """Keep a problem on one readable line: control characters and line breaks in an echoed
+    value are shown escaped (``\\n``), and any word over 60 characters (a pasted id or value) is
+    shortened."""
+    text = text.translate(_CONTROL)
+    return _LONG_WORD.sub(lambda m: f"{m.group(0)[:40]}…({len(m.group(0)):,} characters)", text)
 
 
 # -- locating tables and keys in the text ------------------------------------------------------
