@@ -54,6 +54,7 @@ import tomllib
 from collections.abc import Callable
 from dataclasses import dataclass
 from datetime import date
+from functools import lru_cache
 from pathlib import Path
 
 import tomli_w
@@ -389,8 +390,16 @@ def _value(value) -> str:
         if value.is_integer() and abs(value) < 1e15:
             return str(int(value))
         return repr(value)
-    if isinstance(value, (str, date)):
+    if isinstance(value, str):
+        if _NEEDS_ESCAPE.search(value) is None:
+            return f'"{value}"'
         return tomli_w.dumps({"v": value})[4:-1]
+    if isinstance(value, date):
+        return tomli_w.dumps({"v": value})[4:-1]
+    if isinstance(value, _Inline):
+        if not value:
+            return "{}"
+        return "{ " + ", ".join(f"{k} = {_value(v)}" for k, v in value) + " }"
     if isinstance(value, dict):
         if not value:
             return "{}"
@@ -398,22 +407,84 @@ def _value(value) -> str:
     if isinstance(value, list):
         if not value:
             return "[]"
-        if any(isinstance(v, dict) for v in value):
+        if any(isinstance(v, (dict, _Inline)) for v in value):
             return "[\n" + "".join(f"    {_value(v)},\n" for v in value) + "]"
         return "[" + ", ".join(_value(v) for v in value) + "]"
     raise TypeError(f"cannot write {type(value).__name__} to a walk file")
 
 
 _BARE_KEY = re.compile(r"^[A-Za-z0-9_-]+$")
+_NEEDS_ESCAPE = re.compile(r'[\x00-\x08\x0a-\x1f\x7f"\\]')
+"""Characters a TOML basic string escapes (tomli-w's rules); strings without them are written
+as they are."""
 
 
 def _key(key: str) -> str:
     return key if _BARE_KEY.match(key) else _value(key)
 
 
+_PLAIN = (str, int, float, bool, date, type(None))
+_UNSET = object()
+
+
+@lru_cache(maxsize=None)
+def _plan(cls: type[BaseModel]) -> tuple[tuple[str, str, bool, object], ...]:
+    """For each field in order: (attribute, key as written, required, default)."""
+    plan = []
+    for name, field in cls.model_fields.items():
+        if field.is_required():
+            default = _UNSET
+        elif field.default_factory is not None:
+            default = field.default_factory()
+        else:
+            default = field.default
+        plan.append((name, _key(field.alias or name), field.is_required(), default))
+    return tuple(plan)
+
+
+def _plain(model: BaseModel):
+    """What ``model_dump(by_alias=True, exclude_defaults=True)`` gives for the values a walk
+    holds (plain values, nested models, lists of them), as (key, value) pairs; None for anything
+    else, so the caller falls back to ``model_dump``."""
+    d = model.__dict__
+    out = []
+    for name, key, required, default in _plan(type(model)):
+        value = d[name]
+        if not required and value == default:
+            continue
+        if isinstance(value, BaseModel):
+            value = _plain(value)
+            if value is None:
+                return None
+            value = _Inline(value)
+        elif isinstance(value, list):
+            items = []
+            for v in value:
+                if isinstance(v, BaseModel):
+                    v = _plain(v)
+                    if v is None:
+                        return None
+                    v = _Inline(v)
+                elif not isinstance(v, _PLAIN):
+                    return None
+                items.append(v)
+            value = items
+        elif not isinstance(value, _PLAIN):
+            return None
+        out.append((key, value))
+    return out
+
+
+class _Inline(list):
+    """(key, value) pairs written as an inline table."""
+
+
 def _table(model: BaseModel) -> list[str]:
     """``key = value`` lines in field order, fields at their defaults left out. Required
     fields are always written."""
+    pairs = _plain(model)
+    if pairs is not None:
+        return [f"{key} = {_value(value)}" for key, value in pairs]
     data = model.model_dump(by_alias=True, exclude_defaults=True, mode="python")
     lines = []
     for name, field in type(model).model_fields.items():
