@@ -66,7 +66,12 @@ async def type_text(pilot, text: str) -> None:
 
 
 async def settle(app, pilot) -> None:
-    await app.workers.wait_for_complete()
+    from textual.worker import WorkerCancelled
+
+    try:
+        await app.workers.wait_for_complete()
+    except WorkerCancelled:  # the app ended while opening (a walk that cannot be read)
+        pass
     await pilot.pause()
     await pilot.pause()
 
