@@ -5,7 +5,7 @@ Grammar (spaces allowed between tokens)::
 
     length   := term (("+" | "-") term)*
     term     := [count TIMES] quantity | quantity [TIMES count]
-    quantity := NUMBER [unit] [NUMBER inch-unit]      e.g. 12, 12ft, 36 m, 12'6"
+    quantity := NUMBER [unit] | NUMBER feet-unit NUMBER inch-unit    e.g. 12, 12ft, 36 m, 12'6"
     count    := NUMBER (a plain number: how many times the quantity repeats)
     TIMES    := "*" | "x" | "×"
     unit     := ft | foot | feet | ' | m | metre(s) | meter(s) | in | inch(es) | "
@@ -173,11 +173,13 @@ class _Parser:
 
     def quantity(self, number: _Token) -> float:
         unit = "ft"
-        if self.peek().kind == "unit":
+        written = self.peek().kind == "unit"
+        if written:
             unit = self.take().text
         feet = number.value * _UNIT_FEET[unit]
-        # 12'6": feet then inches, written together
-        if unit in ("'", "’", "ft", "foot", "feet") and self.peek().kind == "num":
+        # 12'6": feet then inches, written together; the feet unit must be written, so a stray
+        # space in "12 6in" is refused rather than read as 12 ft 6 in
+        if written and unit in ("'", "’", "ft", "foot", "feet") and self.peek().kind == "num":
             nxt = self.tokens[self.i + 1]
             if nxt.kind == "unit" and nxt.text in _INCH_UNITS:
                 inches = self.take()
