@@ -33,7 +33,7 @@ from model.loads import UNITS, LoadError, load_amps
 from model.run_spec import Circuit, RunResult, RunSpec
 from model.sizing import evaluate
 from model.systems import CircuitError, resolve_circuit
-from model.walk_problems import Problem, connection_of
+from model.walk_problems import Problem, connection_of, default_connection
 
 SQRT3 = math.sqrt(3.0)
 _EPS = 1e-9
@@ -138,6 +138,7 @@ def run_spec_for(
     *,
     feeder_load: FeederLoad | None = None,
     circuit: Circuit | None = None,
+    is_feeder: bool | None = None,
 ) -> RunSpec:
     """The engine input for one run, with the job defaults applied.
 
@@ -146,13 +147,19 @@ def run_spec_for(
     ``feeder_load`` (what its panel serves); when it is not given it is summed here.
     Raises ``LoadError`` or ``CircuitError`` for a run that cannot be specified.
     """
-    d = job.defaults
-    source = job.source(run.from_)
-    if source is None:
-        raise CircuitError(f"the run starts at '{run.from_}', which is not a source of this job")
     if circuit is None:
+        source = job.source(run.from_)
+        if source is None:
+            raise CircuitError(f"the run starts at '{run.from_}', which is not a source of this job")
         circuit = resolve_circuit(source.system, connection_of(job, run))
-    feeder = job.source(run.to) is not None
+    if is_feeder is None:
+        is_feeder = job.source(run.to) is not None
+    return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feeder_load)
+
+
+def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder: bool,
+          feeder_load: FeederLoad | None) -> RunSpec:
+    d = job.defaults
     pf = d.pf
     continuous_amps = None
     if run.load is not None:
@@ -226,8 +233,12 @@ class _State:
         self.result._run_problems[run.id] = [Problem("", None, f"run {run.id}", field_name, message)]
 
     def resolve_circuit(self, run: Run) -> Circuit | None:
-        source = self.walk.sources[run.from_]
-        conn = connection_of(self.job, run)
+        sources = self.walk.sources
+        source = sources[run.from_]
+        conn = run.connection
+        if conn is None:
+            target = sources.get(run.to)
+            conn = default_connection(source.system, target is not None and target.kind == "transformer")
         key = (source.system, conn)
         c = self._circuit_cache.get(key)
         if c is None:
@@ -292,8 +303,8 @@ class _State:
                 return
         is_feeder = self.walk.feeder.get(r.to) is r
         try:
-            spec = run_spec_for(self.job, r, upstream, circuit=circuit,
-                                feeder_load=res._loads.get(r.to) if is_feeder else None)
+            spec = _spec(self.job, r, upstream, circuit, is_feeder,
+                         res._loads.get(r.to) if is_feeder else None)
             result = evaluate(spec)
         except (LoadError, CircuitError, ValueError) as exc:
             self.forget(r)

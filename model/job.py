@@ -355,7 +355,7 @@ class Run(_Strict):
     @property
     def length_ft(self) -> float:
         """One-way route length [ft], read from ``length``."""
-        return self._length_ft
+        return self.__pydantic_private__["_length_ft"]  # direct: this is read in hot loops
 
 
 OVERRIDABLE: dict[str, str] = {
