@@ -83,6 +83,11 @@ class WalkApp(App[int]):
             return
         session.busy = True
         self.call_from_thread(self._show, session)
+        # size the walk once the runs are on screen, so the first paint does not wait for it
+        self.call_from_thread(self.call_after_refresh, self._size_walk, session)
+
+    @work(thread=True, exclusive=True, group="size")
+    def _size_walk(self, session: WalkSession) -> None:
         try:
             session.recompute()
         finally:
