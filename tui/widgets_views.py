@@ -63,32 +63,32 @@ class SupplyTree(Tree):
         for r in feeders:
             dest = job.source(r.to)
             child = node.add(self._source_label(dest, r), data=("run", r.id), expand=False)
-            if depth < 8:
+            if depth < 12:
                 self._fill(child, dest.id, depth + 1)
-        if branches:
-            for r in branches:
-                node.add_leaf(self._branch_label(r), data=("run", r.id))
-        node.data = node.data
-        if depth < 2:
+        for r in branches:
+            node.add_leaf(self._branch_label(r), data=("run", r.id))
+        # open the chain of sources; a list of branch runs opens on Enter
+        if feeders or not node.parent or node.parent.is_root:
             node.expand()
 
     def _source_label(self, src: Source, feeder: Run | None) -> Text:
         session = self.session
         assert session is not None
         at = session.source_drop(src.id)
-        kind = src.kind
         t = Text()
         t.append(f"{src.id}", style="bold")
-        t.append(f" {kind} · {src.system}")
+        t.append(f" at bus {fmt_pct(at)}%", style="bold")
+        t.append(f" · {src.kind} {src.system}")
         if feeder is not None:
             res = session.result_for(feeder.id)
             st = session.status(feeder, res)
+            if st.flag:
+                t.append(f" · {st.words}", style="bold")
             t.append(f" · via {feeder.id} {fmt_ft(feeder.length_ft)} ft {size_text(res)}")
             if res is not None:
                 t.append(f" · run {fmt_pct(res.voltage_drop_pct)}%")
-            if st.flag:
-                t.append(f" · {st.words}", style="bold")
-        t.append(f" · at bus {fmt_pct(at)}%", style="bold")
+        n = len(session.job.runs_from(src.id))
+        t.append(f" · {n} runs")
         return t
 
     def _branch_label(self, r: Run) -> Text:
@@ -98,10 +98,10 @@ class SupplyTree(Tree):
         st = session.status(r, res)
         t = Text()
         t.append(f"{r.id}", style="bold")
-        t.append(f" → {r.to} · {fmt_ft(r.length_ft)} ft {size_text(res)}")
         if res is not None:
-            t.append(f" · total {fmt_pct(res.total_drop_pct)}%", style="bold")
+            t.append(f" total {fmt_pct(res.total_drop_pct)}%", style="bold")
         t.append(f" · {st.words}", style="bold" if st.flag else "")
+        t.append(f" · {r.to} · {fmt_ft(r.length_ft)} ft {size_text(res)}")
         return t
 
 
