@@ -22,6 +22,7 @@ from textual.widgets import Footer, Header, Input, Label, Static
 from model.job import Load, Run, Source
 from model.lengths import LengthError, parse_length
 from model.loads import LoadError, parse_load
+from tui.app_earlykeys import EarlyKeys
 from tui.app_keys import bindings_for
 from tui.app_session import WalkSession, fmt_ft
 from tui.app_rows import size_text
@@ -127,7 +128,7 @@ class Note(Widget):
         return self._text
 
 
-class RunCard(Screen):
+class RunCard(EarlyKeys, Screen):
     """Record a new run (``run_id`` None) or edit one."""
 
     BINDINGS = bindings_for("card")
@@ -145,7 +146,6 @@ class RunCard(Screen):
         self._hints: dict[str, tuple[str, bool]] = {}
         self._answer_text = ""
         self._said: tuple[str, bool] | None = None
-        self._early: list[str] = []
         self._store_tried = False
         self._sticky: str | None = None
         self._cannot: str | None = None
@@ -525,43 +525,6 @@ class RunCard(Screen):
             self._message_for_focus()
 
     # ----- keys -------------------------------------------------------------------------
-    def on_key(self, event) -> None:
-        """Keys typed while the card is still being built reach the screen, not a field: keep
-        them and give them to the field once it has focus, so a fast typist loses nothing."""
-        if self.focused is not None:
-            return
-        self.take_early(event)
-
-    def take_early(self, event) -> None:
-        """Keep a key typed before the card could take it (also called by the walk screen for
-        keys that were already on their way to it when the card opened)."""
-        if event.is_printable and event.character:
-            self._early.append(event.character)
-        elif event.key == "tab":
-            self._early.append("\t")
-        else:
-            return
-        event.stop()
-        event.prevent_default()
-        self.call_after_refresh(self._replay)
-
-    def _replay(self) -> None:
-        if not self._early:
-            return
-        focused = self.focused
-        if not isinstance(focused, Input):
-            self.call_after_refresh(self._replay)
-            return
-        keys, self._early = self._early, []
-        for ch in keys:
-            focused = self.focused
-            if ch == "\t":
-                self.action_next_field()
-            elif isinstance(focused, Input):
-                if not focused.selection.is_empty:
-                    focused.delete_selection()  # typing over selected text replaces it
-                focused.insert_text_at_cursor(ch)
-
     def action_next_field(self) -> None:
         focused = self.focused
         if isinstance(focused, Input) and focused._suggestion and focused.cursor_at_end:

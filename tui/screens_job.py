@@ -12,6 +12,7 @@ from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from model.job import Defaults, JobHeader
+from tui.app_earlykeys import EarlyKeys
 from tui.app_session import WalkSession
 
 # (field, label, help); header fields are prefixed "job."
@@ -43,7 +44,7 @@ def _text(value) -> str:
     return str(value)
 
 
-class JobSettingsScreen(Screen):
+class JobSettingsScreen(EarlyKeys, Screen):
     """Edit the job's header and defaults; Enter or ctrl+s stores them, Esc leaves them."""
 
     BINDINGS = [

@@ -13,17 +13,18 @@ from textual.widgets import Footer, Header, Input, Label, Static
 from model.job import Run
 from tui.app_keys import bindings_for
 from tui.app_rows import size_text
+from tui.app_earlykeys import EarlyKeys
 from tui.app_session import WalkSession, fmt_pct
 
 TRIAL_FIELDS = (
     ("material", "Material", "cu or al"),
-    ("size", "Size", "blank: picked"),
-    ("sets", "Sets", "parallel sets"),
-    ("circuit", "Circuit", "LN LL LLN MW 3P 3PN (sets the voltage)"),
+    ("size", "Size", "e.g. 4/0 or 350; blank: picked"),
+    ("sets", "Sets", "conductors in parallel per phase"),
+    ("circuit", "Circuit", "LN LL LLN MW 3P 3PN: the voltage; blank: all offered"),
 )
 
 
-class TrialScreen(Screen):
+class TrialScreen(EarlyKeys, Screen):
     """A what-if on one run, computed on a copy of the walk; ctrl+s keeps it."""
 
     BINDINGS = bindings_for("trial")
@@ -41,14 +42,13 @@ class TrialScreen(Screen):
             f"[b]Trial change on {escape(self.run_id)}[/b] ({escape(run.from_)} → {escape(run.to)}). "
             "Change a field; the walk itself is untouched until ctrl+s.", id="trial-head",
         )
-        with Horizontal(id="trial-body"):
-            with Vertical(id="trial-fields"):
-                for key, label, help_ in TRIAL_FIELDS:
-                    with Horizontal(classes="card-row"):
-                        yield Label(label, classes="card-label")
-                        yield Input(self._current(run, key), id=f"t-{key}", compact=True, classes="card-input")
-                        yield Static(escape(help_), id=f"th-{key}", classes="card-hint")
-            yield Static("", id="trial-compare")
+        with Vertical(id="trial-fields"):
+            for key, label, help_ in TRIAL_FIELDS:
+                with Horizontal(classes="card-row"):
+                    yield Label(label, classes="card-label")
+                    yield Input(self._current(run, key), id=f"t-{key}", compact=True, classes="card-input")
+                    yield Static(escape(help_), id=f"th-{key}", classes="card-hint")
+        yield Static("", id="trial-compare")
         yield Static("", id="trial-msg")
         yield Footer()
 
@@ -105,19 +105,23 @@ class TrialScreen(Screen):
             problem = "Circuit: one of LN, LL, LLN, MW, 3P, 3PN (blank: all the source offers)"
         update["connection"] = circ or None
         msg = self.query_one("#trial-msg", Static)
+        compare = self.query_one("#trial-compare", Static)
         self.trial_run = None
         if problem:
             msg.update("✗ " + escape(problem))
+            compare.update("Fix the field above to see the effect.")
             return
         try:
             trial = run.model_copy(update=update)
             trial = Run.model_validate(trial.model_dump(by_alias=True))
         except Exception as exc:
             msg.update("✗ " + escape(str(exc)))
+            compare.update("Fix the field above to see the effect.")
             return
         outcome = s.trial(trial)
         if outcome.problems:
             msg.update("✗ " + escape("; ".join(outcome.problems[:2])))
+            compare.update("This change cannot be sized; see the message below.")
             return
         self.trial_run = trial
         msg.update("ctrl+s keeps this change · Esc leaves the walk as it was")

@@ -19,6 +19,12 @@ from tui.widgets_views import SupplyTree, footage_text
 VIEWS = ("runs", "tree", "footage")
 
 
+_OPENERS = {
+    "walk.new": "action_new_run", "walk.edit": "action_edit_run",
+    "walk.trial": "action_trial", "walk.job": "action_job_settings",
+}
+
+
 def _key_of(binding_id: str) -> str:
     from tui.app_keys import KEYS
 
@@ -66,24 +72,23 @@ class WalkScreen(Screen):
     def on_key(self, event) -> None:
         """Keys typed right after ``n`` can still be on their way here when the run card opens:
         hand them to the card instead of acting on them."""
-        from tui.screens_card import RunCard
+        from tui.app_earlykeys import EarlyKeys
 
         top = self.app.screen
-        if top is not self and isinstance(top, RunCard):
-            top.take_early(event)
+        if top is not self:
+            if isinstance(top, EarlyKeys):
+                top.take_early(event)
             return
         if isinstance(self.focused, Input):
             return
-        # open the card right here rather than when the key reaches the app's binding check,
-        # so the keys behind it already find the card
-        if event.key == _key_of("walk.new"):
-            event.stop()
-            event.prevent_default()
-            self.action_new_run()
-        elif event.key == _key_of("walk.edit"):
-            event.stop()
-            event.prevent_default()
-            self.action_edit_run()
+        # open these screens right here rather than when the key reaches the app's binding
+        # check, so the keys behind it already find the new screen
+        for binding_id, action in _OPENERS.items():
+            if event.key == _key_of(binding_id):
+                event.stop()
+                event.prevent_default()
+                getattr(self, action)()
+                return
 
     # ----- refreshing -------------------------------------------------------------------
     def reload(self, focus: str | None = None) -> None:
