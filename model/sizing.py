@@ -300,7 +300,9 @@ def evaluate(spec: RunSpec) -> RunResult:
         raise SizingError(str(exc)) from None
 
 
-def _evaluate(spec: RunSpec) -> RunResult:
+def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
+    """``hint``: when nothing fits, look for a number of parallel sets that would (off while
+    looking, so the search is one pass over 2..12 sets, not a tree of searches)."""
     circuit = spec.circuit
     material = spec.material
     mat = MAT[material]
@@ -412,7 +414,8 @@ def _evaluate(spec: RunSpec) -> RunResult:
         governed_by = "voltage drop" if ocpd_i is not None else "ampacity"
         problems.append(
             f"no single {mat} size up to {size} meets the ampacity, device and voltage-drop "
-            f"limits with {sets} set{'s' if sets > 1 else ''}{_parallel_hint(spec)}")
+            f"limits with {sets} set{'s' if sets > 1 else ''}"
+            f"{_parallel_hint(spec) if hint else ''}")
     size = tab.sizes[i]
 
     # --- the chosen size in detail ------------------------------------------------------------
@@ -618,7 +621,7 @@ def _parallel_hint(spec: RunSpec) -> str:
         return ""
     for sets in range(spec.sets + 1, 13):
         try:
-            r = _evaluate(replace(spec, sets=sets))
+            r = _evaluate(replace(spec, sets=sets), hint=False)
         except (TableLookupError, SizingError):
             return ""
         if r.ok:
