@@ -314,3 +314,34 @@ async def test_started_without_a_file_it_offers_the_recent_walks(tmp_path):
         await settle(app, pilot)
         assert isinstance(app.screen, WalkScreen)
         assert app.session.path == path.resolve()
+
+
+async def test_a_walk_held_by_another_gaugewalk_opens_read_only_and_is_not_written(tmp_path):
+    from model.walklock import acquire_lock
+
+    path = write_walk(tmp_path)
+    before = path.read_bytes()
+    with acquire_lock(path, "another gaugewalk"):  # this process stands in for the other one
+        app = new_app(path, tmp_path / "cfg")
+        async with app.run_test(size=(80, 24)) as pilot:
+            await opened(app, pilot)
+            assert app.session.read_only and "read-only" in app.title
+            await pilot.press("down", "delete", "n")
+            assert isinstance(app.screen, WalkScreen)
+            assert "R1" in sheet_cells(app)
+    assert path.read_bytes() == before
+
+
+async def test_a_walk_changed_on_disk_by_someone_else_is_not_overwritten(tmp_path):
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        theirs = path.read_text().replace('length = "40"', 'length = "45"')
+        path.write_text(theirs)
+        await pilot.press("down", "delete")
+        await pilot.pause()
+        assert "NOT SAVED" in app.title
+        assert path.read_text() == theirs
+        await pilot.press("ctrl+q")
+        assert isinstance(app.screen, AskScreen)  # quitting would lose the unsaved delete

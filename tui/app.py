@@ -82,7 +82,10 @@ class WalkApp(App[int]):
             self.call_from_thread(self._failed, path, exc)
             return
         session.busy = True
+        said = session.take_lock()
         self.call_from_thread(self._show, session)
+        if said:
+            self.call_from_thread(self.notify, said, severity="warning", timeout=12)
         # size the walk once the runs are on screen, so the first paint does not wait for it
         self.call_from_thread(self.call_after_refresh, self._size_walk, session)
 
@@ -136,7 +139,14 @@ class WalkApp(App[int]):
         if not session.state.saved:
             self.fail_exit(str(session.state.message))
             return
+        said = session.take_lock()
+        if said:
+            self.notify(said, severity="warning", timeout=12)
         self._show(session)
+
+    def on_unmount(self) -> None:
+        if self.session is not None:
+            self.session.release_lock()
 
     def _show(self, session: WalkSession) -> None:
         from tui.screens_walk import WalkScreen
@@ -159,7 +169,10 @@ class WalkApp(App[int]):
         s = self.session
         if s is None:
             return
-        state = "✓ saved" if s.state.saved else "✗ NOT SAVED (ctrl+s retries)"
+        if s.read_only:
+            state = "read-only"
+        else:
+            state = "✓ saved" if s.state.saved else "✗ NOT SAVED (ctrl+s retries)"
         self.title = f"{s.path.name} · {state}"
         self.sub_title = s.job.job.name or s.path.stem
 
@@ -176,7 +189,7 @@ class WalkApp(App[int]):
         self.theme = "textual-light" if self.theme == "textual-dark" else "textual-dark"
 
     async def action_quit(self) -> None:
-        lose = self.session.lose_on_quit if self.session else None
+        lose = self.session.lose_on_quit if self.session and not self.session.read_only else None
         if not lose:
             self.exit(0)
             return

@@ -83,6 +83,11 @@ class WalkSession:
         self.future: list[Snapshot] = []
         self.draft: dict[str, str] | None = None
         self.busy = False   # True while the whole walk is being sized in the background
+        self.read_only: str | None = None   # why the walk cannot be changed here, if it cannot
+        self.lock = None
+        from model.walkfile import fingerprint
+
+        self.fingerprint = fingerprint(self.path)  # what was read: a save checks it is still there
         if compute:
             self.recompute()
 
@@ -360,10 +365,20 @@ class WalkSession:
     def save(self) -> bool:
         """Write the walk now (atomic, with a backup). On failure the walk stays in memory,
         marked unsaved, with the reason in ``state.message``."""
-        from model.walkfile import save_walk
+        from model.walkfile import ChangedOnDisk, WalkFileError, fingerprint, save_walk
 
+        if self.read_only:
+            self.state = SaveState(False, f"read-only: {self.read_only}")
+            return False
         try:
-            notice = save_walk(self.job, self.path)
+            notice = save_walk(self.job, self.path, expected=self.fingerprint)
+            self.fingerprint = fingerprint(self.path)
+        except ChangedOnDisk as exc:
+            self.state = SaveState(False, str(exc))
+            return False
+        except WalkFileError as exc:
+            self.state = SaveState(False, str(exc))
+            return False
         except OSError as exc:
             self.state = SaveState(False, f"cannot write {self.path}: {exc.strerror or exc}")
             return False
@@ -381,6 +396,27 @@ class WalkSession:
         if self.draft:
             return "a run card that was not stored"
         return None
+
+    # ----- who else has it open -----------------------------------------------------------
+    def take_lock(self) -> str | None:
+        """Hold the walk for writing. When someone else holds it the walk opens read-only;
+        returns a sentence to show (who holds it, or a stale lock that was cleared), else None."""
+        from model.walklock import LockError, WalkLocked, acquire_lock
+
+        try:
+            self.lock = acquire_lock(self.path, "gaugewalk app")
+        except WalkLocked as exc:
+            self.read_only = exc.message
+            return f"Read-only: {exc.message}"
+        except LockError as exc:
+            self.read_only = str(exc)
+            return f"Read-only: {exc}"
+        return self.lock.message
+
+    def release_lock(self) -> None:
+        if self.lock is not None:
+            self.lock.release()
+            self.lock = None
 
     # ----- ids and names ----------------------------------------------------------------
     def source_ids(self) -> list[str]:

@@ -252,6 +252,9 @@ class WalkScreen(Screen):
         return self.query_one(RunSheet).cursor_key
 
     def _busy(self) -> bool:
+        if self.session.read_only:
+            self.notify(f"This walk is open read-only here: {self.session.read_only}", severity="warning", timeout=8)
+            return True
         if self.session.busy:
             self.notify("Still sizing the walk; try again in a moment.", severity="warning")
             return True
