@@ -345,3 +345,22 @@ async def test_a_walk_changed_on_disk_by_someone_else_is_not_overwritten(tmp_pat
         assert path.read_text() == theirs
         await pilot.press("ctrl+q")
         assert isinstance(app.screen, AskScreen)  # quitting would lose the unsaved delete
+
+
+async def test_a_feeder_whose_panel_still_feeds_runs_cannot_be_deleted(tmp_path):
+    path = write_walk(tmp_path)
+    before = path.read_bytes()
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("delete")  # F1 feeds LP1, which feeds R1
+        await pilot.pause()
+        assert "F1" in sheet_cells(app)
+        await pilot.press("down", "delete", "up", "delete")  # R1 first, then F1 may go
+        assert isinstance(app.screen, AskScreen)
+        await pilot.press("y")
+        await pilot.pause()
+        assert sheet_cells(app) == {}
+    data = tomllib.loads(path.read_text())
+    assert "run" not in data and [s["id"] for s in data["source"]] == ["SVC"]
+    assert before != path.read_bytes()

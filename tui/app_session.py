@@ -286,18 +286,32 @@ class WalkSession:
         # The job caches its id lookups by list identity and length; lists changed in place.
         self.job._index_cache = None
 
-    def _commit(self, label: str, focus: str | None, change, edited: str | None = None) -> None:
+    def _reference_texts(self) -> set[str]:
+        from model.walk_problems import Locator, check_references
+
+        return {f"{p.where}: {p.message}" for p in check_references(self.job, Locator(""), self.path.name)}
+
+    def _commit(self, label: str, focus: str | None, change, edited: str | None = None) -> str | None:
+        """Make a change, recompute and save. A change that would leave the walk unreadable
+        (a panel nothing feeds, a run from a missing source...) is taken back and the reason
+        returned; nothing is saved then."""
         before = self._snapshot(label, focus)
+        known = self._reference_texts()
         change()
         self._touch()
+        new = self._reference_texts() - known
+        if new:
+            self._restore(before)
+            return "; ".join(sorted(new))
         self.history.append(before)
         self.future.clear()
         self.recompute(edited)
         self.save()
+        return None
 
-    def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> None:
+    def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> str | None:
         """Store a new run, or put ``run`` in place of the run ``replaces``; optionally declare
-        the panel the run feeds."""
+        the panel the run feeds. Returns why it was refused, or None."""
 
         def change() -> None:
             runs = self.job.runs
@@ -319,26 +333,44 @@ class WalkSession:
             old is not None and old.id == run.id and old.from_ == run.from_ and old.to == run.to
             and new_source is None
         )
-        self._commit(label, run.id, change, edited=run.id if in_place else None)
+        return self._commit(label, run.id, change, edited=run.id if in_place else None)
 
-    def delete_run(self, run_id: str) -> bool:
-        if self.job.run(run_id) is None:
-            return False
+    def delete_refusal(self, run_id: str) -> str | None:
+        """Why a run cannot be deleted (a feeder whose panel still feeds runs), or None."""
+        run = self.job.run(run_id)
+        if run is None:
+            return f"there is no run {run_id}"
+        if self.job.is_feeder(run):
+            below = self.job.runs_from(run.to)
+            if below:
+                return (f"{run_id} feeds {run.to}, which still feeds {len(below)} run(s); "
+                        f"delete or move them first")
+        return None
+
+    def delete_run(self, run_id: str) -> str | None:
+        """Delete a run; a feeder goes with the panel it fed (which feeds nothing). Returns why
+        it was refused, or None."""
+        refusal = self.delete_refusal(run_id)
+        if refusal:
+            return refusal
+        run = self.job.run(run_id)
+        gone_source = run.to if self.job.is_feeder(run) else None
 
         def change() -> None:
             self.job.runs[:] = [r for r in self.job.runs if r.id != run_id]
+            if gone_source is not None:
+                self.job.sources[:] = [s for s in self.job.sources if s.id != gone_source]
 
-        self._commit(f"delete {run_id}", run_id, change)
-        return True
+        return self._commit(f"delete {run_id}", run_id, change)
 
-    def set_job(self, header: JobHeader, defaults: Defaults) -> None:
+    def set_job(self, header: JobHeader, defaults: Defaults) -> str | None:
         """Store new job settings; every run recomputes."""
 
         def change() -> None:
             self.job.job = header
             self.job.defaults = defaults
 
-        self._commit("job settings", None, change)
+        return self._commit("job settings", None, change)
 
     def undo(self) -> Snapshot | None:
         """Go back one change; returns what was undone (its label and run) or None."""

@@ -561,7 +561,11 @@ class RunCard(EarlyKeys, Screen):
                 self._message_for_focus()
             return
         run = self._candidate
-        self.session.put_run(run, replaces=self.run_id, new_source=self._new_source)
+        refusal = self.session.put_run(run, replaces=self.run_id, new_source=self._new_source)
+        if refusal:
+            self._sticky = f"Not stored — {refusal}"
+            self._message_for_focus()
+            return
         self.session.draft = None
         state = self.session.state
         self.app.refresh_title()

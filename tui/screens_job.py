@@ -123,7 +123,10 @@ class JobSettingsScreen(EarlyKeys, Screen):
         before = {r.id: (res.size, res.sets, self.session.status(self.session.job.run(r.id) or r).flag)
                   for r in self.session.job.runs
                   if (res := self.session.result_for(r.id)) is not None}
-        self.session.set_job(new_header, new_defaults)
+        refusal = self.session.set_job(new_header, new_defaults)
+        if refusal:
+            msg.update("✗ Not stored — " + escape(refusal))
+            return
         changed = flagged = 0
         for r in self.session.job.runs:
             res = self.session.result_for(r.id)

@@ -165,7 +165,10 @@ class TrialScreen(EarlyKeys, Screen):
         if self.trial_run is None:
             self.notify("Nothing to keep: fix the trial fields first.", severity="warning")
             return
-        self.session.put_run(self.trial_run, replaces=self.run_id)
+        refusal = self.session.put_run(self.trial_run, replaces=self.run_id)
+        if refusal:
+            self.query_one("#trial-msg", Static).update("✗ Not kept — " + escape(refusal))
+            return
         st = self.session.state
         if st.saved:
             self.notify(f"Kept the change on {self.run_id} (ctrl+z undoes it).")

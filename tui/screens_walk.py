@@ -283,22 +283,28 @@ class WalkScreen(Screen):
         key = self._current_run_id()
         if key is None:
             return
+        refusal = self.session.delete_refusal(key)
+        if refusal:
+            self.notify(f"Not deleted: {refusal}.", severity="warning", timeout=8)
+            return
         job = self.session.job
         run = job.run(key)
         if run is not None and job.is_feeder(run):
-            under = len(job.runs_from(run.to))
-            msg = f"Delete feeder {key} to {run.to}? The {under} runs from {run.to} would have no supply."
+            msg = f"Delete feeder {key} and the panel {run.to} it feeds (nothing runs from it yet)?"
 
             def answer(yes: bool | None) -> None:
                 if yes:
                     self._delete(key)
 
-            self.app.push_screen(AskScreen(msg, "delete", "keep"), answer)
+            self.app.push_screen(AskScreen(msg, "delete both", "keep"), answer)
             return
         self._delete(key)
 
     def _delete(self, key: str) -> None:
-        self.session.delete_run(key)
+        refusal = self.session.delete_run(key)
+        if refusal:
+            self.notify(f"Not deleted: {refusal}.", severity="warning", timeout=8)
+            return
         self.reload()
         self._said_saved(f"Deleted {key} (ctrl+z brings it back).")
 
