@@ -29,11 +29,13 @@ from __future__ import annotations
 import re
 import warnings
 from datetime import date
+from functools import lru_cache
 from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field, PrivateAttr, field_validator, model_validator
 
-from model.lengths import LengthError, parse_length
+from model.lengths import LengthError
+from model.lengths import parse_length as _parse_length
 from model.systems import CircuitError, parse_system
 from tables.errors import TableLookupError
 from tables.ampacity import parse_insulation
@@ -59,6 +61,13 @@ _TEXT_OR_NUMBER = {"type": ["string", "number"]}
 Material = Literal["cu", "al"]
 Method = Literal["dc", "kfactor", "ac"]
 TerminalTemp = Literal[60, 75, 90]
+
+
+@lru_cache(maxsize=8192)
+def parse_length(text: str) -> float:
+    """``model.lengths.parse_length`` remembered: a walk repeats the same lengths, and each is
+    read by the field check and again for ``length_ft`` [ft]. Errors are not remembered."""
+    return _parse_length(text)
 
 
 _ID_EPOCH = [0]
