@@ -241,7 +241,7 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml") -> tuple[J
     except RecursionError:
         return None, [Problem(file, None, "file", None,
                               "has lists or tables nested too deep to be a walk file")]
-    locator = Locator(text)
+    locator = _LazyLocator(text)
     try:
         data = migrate(data)
     except ValueError as exc:
@@ -297,13 +297,35 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml") -> tuple[J
 
     if header is None or defaults is None:
         return None, problems
-    job = Job(schema=data.get("schema", SCHEMA_VERSION), job=header, defaults=defaults,
-              sources=sources, runs=runs)
+    # every part was validated above; building the Job again would re-run each run's checks
+    job = Job.model_construct(schema=data.get("schema", SCHEMA_VERSION), job=header,
+                              defaults=defaults, sources=sources, runs=runs)
     # cross-checks see only the tables that validated; map their positions back to the file
     shifted = _Shifted(locator, source_positions, run_positions)
     problems.extend(check_references(job, shifted, file, bad_sources, bad_runs, failed_targets))
     problems.sort(key=lambda p: (p.line is None, p.line or 0))
     return job, problems
+
+
+class _LazyLocator(Locator):
+    """A Locator that reads the text for line numbers only when a problem first asks for one: a
+    clean file never does, and reading a big file's lines costs as much as validating it."""
+
+    def __init__(self, text: str) -> None:
+        self._text: str | None = text
+
+    def _ready(self) -> None:
+        if self._text is not None:
+            text, self._text = self._text, None
+            Locator.__init__(self, text)
+
+    def table_line(self, table: str, index: int | None = None) -> int | None:
+        self._ready()
+        return Locator.table_line(self, table, index)
+
+    def key_line(self, table: str, index: int | None, key: str) -> int | None:
+        self._ready()
+        return Locator.key_line(self, table, index, key)
 
 
 class _Shifted(Locator):
