@@ -214,3 +214,17 @@ async def test_a_new_panel_can_be_declared_on_the_spot_from_the_run_card(tmp_pat
     data = tomllib.loads(path.read_text())
     assert {"id": "LP2", "kind": "panel", "system": "208Y/120V 3ph 4w"} in data["source"]
     assert {"id": "R2", "from": "SVC", "to": "LP2", "length": "120"} in data["run"]
+
+
+async def test_to_completes_from_names_already_in_the_walk_with_tab(tmp_path):
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")
+        await type_text(pilot, "pro")
+        await pilot.pause()
+        await pilot.press("tab")
+        card = app.screen
+        assert card.values()["to"] == "Proofer"
+        assert card.focused.id == "f-length"

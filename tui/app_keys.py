@@ -35,7 +35,7 @@ PLACES = {
 
 KEYS: tuple[KeyAction, ...] = (
     # anywhere
-    KeyAction("app.quit", "ctrl+q", "quit", "Quit", "Quit; asks only if something would be lost.", "app", priority=True),
+    KeyAction("app.quit", "ctrl+q", "quit", "Quit", "Quit; asks only if something would be lost.", "app", priority=True, key_display="^q"),
     KeyAction("app.keys", "f1", "key_guide", "Keys", "Show this key guide.", "app", key_display="F1"),
     KeyAction("app.about", "f2", "about", "About", "About gaugewalk and the safety caution.", "app", footer=False, key_display="F2"),
     KeyAction("app.theme", "f3", "flip_theme", "Light/dark", "Switch between the light and the dark look.", "app", footer=False, key_display="F3"),

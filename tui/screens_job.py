@@ -69,14 +69,15 @@ class JobSettingsScreen(EarlyKeys, Screen):
                     value = getattr(job.defaults, key)
                 with Horizontal(classes="card-row"):
                     yield Label(label, classes="job-label")
-                    yield Input(_text(value), id="s-" + key.replace(".", "-"), compact=True, classes="card-input")
+                    wide = " job-wide" if key.startswith("job.") else ""
+                    yield Input(_text(value), id="s-" + key.replace(".", "-"), compact=True, classes="card-input" + wide)
                     yield Static(escape(help_), id="sh-" + key.replace(".", "-"), classes="card-hint")
         yield Static("", id="job-msg")
         yield Footer()
 
     def on_mount(self) -> None:
         self.app.sub_title = "Job settings"
-        self.query_one(Input).focus()
+        self.query_one("#s-material", Input).focus()
 
     def _values(self) -> tuple[dict, dict]:
         header: dict = {}
