@@ -443,12 +443,40 @@ class WalkSession:
         except LockError as exc:
             self.read_only = str(exc)
             return f"Read-only: {exc}"
-        return self.lock.message
+        from model.drafts import load_draft
+
+        said = [self.lock.message] if self.lock.message else []
+        kept = load_draft(self.path)  # a card typed when the app last stopped (crash recovery)
+        if kept is not None and kept.run_id is None and self._typed(kept.fields):
+            self.draft = kept.fields
+            said.append("The run card you were typing when gaugewalk last stopped is kept: "
+                        "n brings it back.")
+        return " ".join(said) or None
 
     def release_lock(self) -> None:
         if self.lock is not None:
             self.lock.release()
             self.lock = None
+
+    @staticmethod
+    def _typed(fields: dict[str, str]) -> bool:
+        return any(fields.get(k, "").strip() for k in ("to", "length", "load", "notes", "panel"))
+
+    def keep_draft(self, fields: dict[str, str] | None) -> None:
+        """The new-run card's texts as typed (None: nothing unstored), in memory and beside the
+        walk (``model.drafts``), so a crash does not lose them."""
+        from model.drafts import clear_draft, save_draft
+
+        self.draft = fields if fields and self._typed(fields) else None
+        if self.read_only:
+            return
+        try:
+            if self.draft:
+                save_draft(self.path, self.draft)
+            else:
+                clear_draft(self.path)
+        except OSError:
+            pass  # the walk itself is saved apart; a draft is a convenience
 
     # ----- ids and names ----------------------------------------------------------------
     def source_ids(self) -> list[str]:

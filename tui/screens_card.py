@@ -274,6 +274,8 @@ class RunCard(EarlyKeys, Screen):
             return
         self._auto.pop(key, None)
         self.touched.add(key)
+        if self.run_id is None:
+            self.session.keep_draft(self.values())
         self._sticky = None
         if key in ("from", "to", "panel") and self.run_id is None:
             self._auto_fill()
@@ -566,7 +568,7 @@ class RunCard(EarlyKeys, Screen):
             self._sticky = f"Not stored — {refusal}"
             self._message_for_focus()
             return
-        self.session.draft = None
+        self.session.keep_draft(None)
         state = self.session.state
         self.app.refresh_title()
         if not state.saved:
@@ -593,7 +595,7 @@ class RunCard(EarlyKeys, Screen):
             v = self.values()
             fresh = self._fresh_values(v["from"].strip() or None)
             typed = any(v[k].strip() for k in ("to", "length", "load", "notes", "panel"))
-            self.session.draft = v if typed else None
+            self.session.keep_draft(v if typed else None)
             if typed:
                 self.notify("The unstored run is kept: n brings it back.")
             del fresh
