@@ -217,3 +217,26 @@ def test_twelve_adds_at_once_each_either_lands_or_is_refused_none_is_lost(walk):
         assert not (refused & names)
         assert landed, "no add got through"
         assert not lock_path(walk).exists()
+
+
+def test_the_app_session_does_not_overwrite_a_save_made_while_it_was_reading(walk, monkeypatch):
+    """A command saves between the app reading the walk and the app noting what it read: the
+    app's next save must be refused, not overwrite that command's run."""
+    import model.walkfile as walkfile
+    from tui.app_session import WalkSession
+
+    theirs = walk_versions(2, runs=6)[1]
+    real_load = walkfile.load_walk
+
+    def load_then_someone_saves(path):
+        job = real_load(path)
+        save_walk(theirs, path)
+        return job
+
+    monkeypatch.setattr(walkfile, "load_walk", load_then_someone_saves)
+    session = WalkSession.open(walk, compute=False)
+    monkeypatch.setattr(walkfile, "load_walk", real_load)
+    session.job.job.notes = "mine"
+    assert session.save() is False
+    assert "changed on disk since you opened it" in session.state.message
+    assert load_walk(walk) == theirs

@@ -96,9 +96,12 @@ class WalkSession:
     def open(cls, path: str | Path, *, compute: bool = True) -> "WalkSession":
         """Read a walk; raises ``model.walkfile.WalkFileError`` for a bad file. With
         ``compute=False`` the runs are not sized yet (call ``recompute``)."""
-        from model.walkfile import load_walk
+        from model.walkfile import fingerprint, load_walk
 
-        return cls(Path(path), load_walk(path), compute=compute)
+        before = fingerprint(path)  # taken before reading: a save in between is then caught
+        session = cls(Path(path), load_walk(path), compute=compute)
+        session.fingerprint = before
+        return session
 
     @classmethod
     def create(
