@@ -47,7 +47,7 @@ def parse_size(text: str) -> str:
         number = _ZEROS[number]
     if unit in (None, "awg", "ga") and number in AWG_NUMBERS:
         return f"{number} AWG"
-    if unit in (None, "kcmil", "mcm", "kcm") and "/" not in number:
+    if unit in (None, "kcmil", "mcm", "kcm") and "/" not in number and len(number) <= 6:
         kcmil = int(number)
         if kcmil in KCMIL_NUMBERS and number == str(kcmil):
             return f"{kcmil} kcmil"
