@@ -36,7 +36,7 @@ def main(argv: list[str] | None = None) -> int:
     args = parser.parse_args(argv)
     command_trials = args.command_trials if args.command_trials is not None else max(args.trials // 5, 1)
     rng = random.Random(args.seed)
-    print(f"seed {args.seed}")
+    print(f"seed {args.seed}", flush=True)
     versions = walk_versions(6, runs=args.runs)
     torn = 0
     with tempfile.TemporaryDirectory(dir=args.folder) as tmp:
@@ -45,7 +45,7 @@ def main(argv: list[str] | None = None) -> int:
         folder.mkdir()
         started = time.perf_counter()
         report = SaveKillTrials(folder, versions).run(args.trials, rng, max_delay_s=0.1)
-        print(report.line("save_walk"), f"[{time.perf_counter() - started:.0f} s]")
+        print(report.line("save_walk"), f"[{time.perf_counter() - started:.0f} s]", flush=True)
         for problem in report.torn[:20]:
             print("  ", problem)
         torn += len(report.torn)
@@ -58,7 +58,7 @@ def main(argv: list[str] | None = None) -> int:
         trials = CommandKillTrials(folder, walk, argv, dumps_walk(versions[1]).encode(),
                                    dumps_walk(versions[0]).encode(), spawn=args.spawn)
         report = trials.run(command_trials, rng)
-        print(report.line("gaugewalk add"), f"(a run takes {trials.duration_s * 1000:.0f} ms)")
+        print(report.line("gaugewalk add"), f"(a run takes {trials.duration_s * 1000:.0f} ms)", flush=True)
         for problem in report.torn[:20]:
             print("  ", problem)
         torn += len(report.torn)
@@ -74,7 +74,7 @@ def main(argv: list[str] | None = None) -> int:
                                    dumps_walk(versions[2]).encode(),
                                    dumps_walk(versions[3]).encode(), spawn=args.spawn)
         report = trials.run(command_trials, rng)
-        print(report.line("gaugewalk merge"), f"(a run takes {trials.duration_s * 1000:.0f} ms)")
+        print(report.line("gaugewalk merge"), f"(a run takes {trials.duration_s * 1000:.0f} ms)", flush=True)
         for problem in report.torn[:20]:
             print("  ", problem)
         torn += len(report.torn)
