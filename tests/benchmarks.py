@@ -313,6 +313,7 @@ def child_app(t0: float, path: Path, config: Path, keys: bool) -> dict:
 
     RunSheet.render_line = render_line
     latencies: dict[str, list[float]] = {"scroll": [], "filter": []}
+    keyed: list[tuple[str, float]] = []
 
     async def timed(pilot, kind: str, key: str) -> None:
         """Key posted -> the run sheet's next repaint; for a key that does not repaint the
@@ -326,6 +327,7 @@ def child_app(t0: float, path: Path, config: Path, keys: bool) -> dict:
             await asyncio.sleep(0.001)
         end = marks.get("render_after_key", handled)
         latencies[kind].append((end - t) * 1000.0)
+        keyed.append((key, round((end - t) * 1000.0, 1)))
 
     async def main() -> dict:
         app = make_app(str(path), config_dir=config)
@@ -351,6 +353,7 @@ def child_app(t0: float, path: Path, config: Path, keys: bool) -> dict:
                 out["worst_scroll_ms"] = max(latencies["scroll"])
                 out["worst_filter_ms"] = max(latencies["filter"])
                 out["worst_key_ms"] = max(out["worst_scroll_ms"], out["worst_filter_ms"])
+                out["keys_ms"] = keyed
             out["peak_mb"] = _maxrss_mb()
         return out
 
