@@ -195,15 +195,36 @@ class CommandKillTrials:
         self.old = old
         self.old_backup = old_backup
         self.spawn = spawn
-        times = []
+        times, replaced_at = [], []
         for _ in range(3):
             self._reset()
+            before = os.stat(self.target).st_ino
             started = time.perf_counter()
-            status = self._finish_once()
+            child = self._start()
+            seen = None
+            while True:  # watch for the rename that puts the new file in place
+                try:
+                    if seen is None and os.stat(self.target).st_ino != before:
+                        seen = time.perf_counter() - started
+                except FileNotFoundError:
+                    pass
+                if isinstance(child, subprocess.Popen):
+                    status = child.poll()
+                    if status is not None:
+                        break
+                else:
+                    done, status = os.waitpid(child, os.WNOHANG)
+                    if done:
+                        status = os.waitstatus_to_exitcode(status)
+                        break
+                time.sleep(0.0002)
             times.append(time.perf_counter() - started)
+            if seen is not None:
+                replaced_at.append(seen)
             if status != 0:
                 break
         self.duration_s = sorted(times)[len(times) // 2]
+        self.replaced_at_s = sorted(replaced_at)[len(replaced_at) // 2] if replaced_at else None
         if status != 0:
             raise RuntimeError(f"{' '.join(argv)} did not succeed on the untouched walk ({status})")
         self.new = _read(self.target)
@@ -243,15 +264,16 @@ class CommandKillTrials:
         _, status = os.waitpid(child, 0)
         return os.waitstatus_to_exitcode(status)
 
-    def _finish_once(self) -> int:
-        return self._wait(self._start())
-
     def run(self, trials: int, rng: random.Random) -> KillReport:
         report = KillReport()
         for _ in range(trials):
             self._reset()
             child = self._start()
-            delay = rng.uniform(0.0, self.duration_s * 1.1)
+            if self.replaced_at_s is not None and rng.random() < 0.5:
+                # half the kills aimed at the save: the last quarter of the time before the rename
+                delay = max(0.0, self.replaced_at_s * rng.uniform(0.75, 1.0))
+            else:
+                delay = rng.uniform(0.0, self.duration_s * 1.1)
             report.delays_s.append(delay)
             time.sleep(delay)
             pid = child.pid if isinstance(child, subprocess.Popen) else child
