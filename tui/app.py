@@ -8,15 +8,18 @@ from __future__ import annotations
 
 import os
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from textual import work
-from textual.app import App
-from textual.binding import Binding
+from textual.app import App, ComposeResult
+from textual.widgets import Footer, Header, Static
 
 from tui.app_keys import bindings_for
 from tui.app_recent import RecentWalks
-from tui.app_session import WalkSession
 from tui.screens_info import AboutScreen, AskScreen, KeyGuideScreen
+
+if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is already up
+    from tui.app_session import WalkSession
 
 
 def light_terminal() -> bool:
@@ -33,6 +36,12 @@ class WalkApp(App[int]):
     TITLE = "gaugewalk"
     BINDINGS = bindings_for("app")
     ENABLE_COMMAND_PALETTE = False
+
+    def compose(self) -> ComposeResult:
+        """What shows while a walk is being opened."""
+        yield Header()
+        yield Static("", id="opening")
+        yield Footer()
 
     def __init__(self, path: str | None = None, *, config_dir: Path | None = None) -> None:
         super().__init__()
@@ -69,12 +78,15 @@ class WalkApp(App[int]):
         if not p.exists():
             self._ask_create(str(p), missing=True)
             return
-        self.sub_title = f"opening {p.name}…"
+        self.title = p.name
+        self.sub_title = "opening…"
+        self.query_one("#opening", Static).update(f" Opening {p}…")
         self._load(str(p))
 
     @work(thread=True, exclusive=True, group="open")
     def _load(self, path: str) -> None:
         from model.walkfile import WalkFileError
+        from tui.app_session import WalkSession
 
         try:
             session = WalkSession.open(path, compute=False)
@@ -131,6 +143,8 @@ class WalkApp(App[int]):
         self.push_screen(NewWalkScreen(path, missing=missing), answer)
 
     def _create(self, path: str, details: dict) -> None:
+        from tui.app_session import WalkSession
+
         try:
             session = WalkSession.create(path, **details)
         except OSError as exc:
