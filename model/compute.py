@@ -201,6 +201,7 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         max_drop_pct=max_drop,
         upstream_drop_pct=upstream_drop_pct,
         max_total_drop_pct=d.total_drop_pct,
+        min_size=d.min_size,
     )
 
 

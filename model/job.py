@@ -159,6 +159,10 @@ class Defaults(_Strict):
     """Power factor for loads that do not give one."""
     conductor_temp_c: float = Field(75.0, ge=20.0, le=150.0)
     """Conductor temperature for resistance [C] (Ch. 9 Table 8 note 2)."""
+    min_size: str | None = None
+    """Smallest conductor the job allows for power, e.g. ``12 AWG`` (a job specification; common
+    practice on commercial work); None: the smallest the rules allow. Upsizing to it enlarges the
+    EGC in proportion (NEC 250.122(B))."""
     slack_per_end_ft: float = Field(2.0, ge=0.0, le=50.0)
     """Wire left at each end for terminations [ft] (common practice), for the takeoff."""
     waste_pct: float = Field(5.0, ge=0.0, le=100.0)
@@ -175,6 +179,11 @@ class Defaults(_Strict):
     @classmethod
     def _known_insulation(cls, value: str) -> str:
         return _canonical(parse_insulation, value)
+
+    @field_validator("min_size")
+    @classmethod
+    def _known_min_size(cls, value: str | None) -> str | None:
+        return _canonical(parse_size, value)
 
     @field_validator("raceway")
     @classmethod

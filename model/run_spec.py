@@ -63,6 +63,8 @@ class RunSpec:
     egc_material: Material | None = None   # None: same as the phase conductors
     egc_bare: bool = False                 # a bare EGC (Ch. 9 Table 8 area) instead of insulated
     stranded: bool = True                  # stranded conductors (Ch. 9 Table 8 DC resistance)
+    min_size: str | None = None            # smallest size the job allows (a job specification,
+                                           # e.g. 12 AWG for power; common practice), None: no floor
 
 
 @dataclass(frozen=True)

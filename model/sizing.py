@@ -38,7 +38,7 @@ from tables import impedance as t_imp
 from tables import ocpd as t_ocpd
 from tables import raceway as t_race
 from tables.errors import TableLookupError
-from tables.sizes import SIZES, canonical
+from tables.sizes import SIZES, canonical, parse_size, size_index
 
 START_SIZE = {"cu": "14 AWG", "al": "12 AWG"}
 """Smallest size used for power circuits [AWG]: 14 AWG copper, 12 AWG aluminum (Table 310.16
@@ -240,6 +240,11 @@ def _check_spec(spec: RunSpec) -> None:
     if not (-40 <= spec.conductor_temp_c <= 250):
         raise SizingError(
             f"conductor_temp_c must be from -40 to 250 C, not {spec.conductor_temp_c!r}")
+    if spec.min_size is not None:
+        try:
+            parse_size(spec.min_size)
+        except TableLookupError as exc:
+            raise SizingError(f"min_size: {exc}") from None
     if spec.ocpd_a is not None and (spec.ocpd_a.__class__ is not int or spec.ocpd_a <= 0):
         raise SizingError(f"ocpd_a must be a whole number of amperes, not {spec.ocpd_a!r}")
 
@@ -377,6 +382,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     n = len(tab.sizes)
     min_amp_i = ocpd_i = pick_i = None
     term_tot, corr_tot, protect = cols.term_total, cols.corrected_total, cols.protect_limit
+    floor_i = _floor_index(spec.min_size, tab.sizes)
     for i in range(cols.first, n):
         if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
             continue
@@ -387,7 +393,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         if ocpd_i is None:
             ocpd_i = i
         zi = z[i]
-        if zi is not None and k_drop * zi * pct_per_volt <= limit_pct + _EPS:
+        if i >= floor_i and zi is not None and k_drop * zi * pct_per_volt <= limit_pct + _EPS:
             pick_i = i
             break
 
@@ -399,9 +405,14 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
                               f"is {START_SIZE[material]}")
         i = tab.sizes.index(size)
         governed_by = "fixed size"
+        if i < floor_i:
+            problems.append(f"{size} {mat} is below the job's minimum size, {tab.sizes[floor_i]}")
     elif pick_i is not None:
         i = pick_i
-        if pick_i == min_amp_i:
+        if pick_i == floor_i and ocpd_i is not None and floor_i > ocpd_i:
+            governed_by = "minimum size"
+            notes.append(f"job minimum size {tab.sizes[floor_i]} {mat} (job specification)")
+        elif pick_i == min_amp_i:
             governed_by = "ampacity"
         elif pick_i == ocpd_i:
             governed_by = "overcurrent device"
@@ -484,7 +495,8 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     egc_size = None
     if spec.egc:
         egc_mat = spec.egc_material or material
-        egc_size = _egc_table(ocpd, egc_mat)
+        egc_size = table_egc = _egc_table(ocpd, egc_mat)
+        notes.append(f"NEC Table 250.122: {table_egc} {MAT[egc_mat]} EGC for a {ocpd} A device")
         base_i = ocpd_i if ocpd_i is not None else min_amp_i
         if base_i is not None and i > base_i:
             # NEC 250.122(B): the baseline is the smallest size with ampacity for the installation
@@ -502,8 +514,6 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
             egc_size = size
         if sets > 1:
             notes.append(f"NEC 250.122(F): a full {egc_size} EGC in each of the {sets} raceways")
-        else:
-            notes.append(f"NEC Table 250.122: {egc_size} {MAT[egc_mat]} EGC for a {ocpd} A device")
 
     # --- raceway ---------------------------------------------------------------------------
     hots = circuit.hots
@@ -600,6 +610,16 @@ def _make_result(**values) -> RunResult:
             d[name] = default() if callable(default) else default
     d.update(values)
     return result
+
+
+def _floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
+    """Index in ``sizes`` of the job's minimum size (0 without one, or below the table)."""
+    if min_size is None:
+        return 0
+    size = parse_size(min_size)
+    if size in sizes:
+        return sizes.index(size)
+    return 0 if size_index(size) < size_index(sizes[0]) else len(sizes)
 
 
 def _protect_limit(allowable_a: float) -> float:

@@ -138,6 +138,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="current-carrying conductors in the raceway (default: this circuit's)")
     parser.add_argument("--temp", type=_number(-40.0, allow_equal=True, high=250.0), default=75.0,
                         metavar="C", help="conductor temperature for resistance [C] (default 75)")
+    parser.add_argument("--min-size", type=_size, metavar="SIZE", dest="min_size",
+                        help="smallest size the job allows, e.g. 12 (a job specification); "
+                        "upsizing to it enlarges the EGC in proportion (NEC 250.122(B))")
     parser.add_argument("--ocpd", type=_whole(1, 6000), metavar="A",
                         help="breaker or fuse rating [A]; default the next standard rating")
     parser.add_argument("--no-egc", action="store_true", help="run no equipment grounding conductor")
@@ -186,6 +189,7 @@ def run(args) -> int:
         sets=args.sets,
         size=args.size,
         ocpd_a=args.ocpd,
+        min_size=args.min_size,
         max_drop_pct=args.max_drop,
         upstream_drop_pct=args.upstream_drop,
         max_total_drop_pct=args.max_total_drop,
