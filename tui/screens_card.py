@@ -41,7 +41,7 @@ FIELDS: tuple[Field, ...] = (
     Field("to", "To", "load or panel", True),
     Field("length", "Length", "e.g. 85+12+2*6", True),
     Field("load", "Load", "16A 1.8kVA 5kW", True),
-    Field("panel", "New panel", "its system"),
+    Field("panel", "New panel", "system; xfmr …"),
     Field("circuit", "Circuit", "blank: all offered"),
     Field("continuous", "Continuous", "yes / no"),
     Field("spread", "Spread", "no: load at the end"),
@@ -90,6 +90,42 @@ def run_to_fields(run: Run) -> dict[str, str]:
         "id": run.id,
         "notes": run.notes,
     }
+
+
+SOURCE_WORDS = {
+    "panel": "panel", "transformer": "transformer", "xfmr": "transformer", "xf": "transformer",
+    "switchboard": "switchboard", "swbd": "switchboard",
+}
+
+
+def new_source_from(source_id: str, text: str) -> Source:
+    """A source declared from the run card: ``208Y/120``, ``xfmr 208Y/120 75kVA``,
+    ``switchboard 480Y/277``. A transformer's system is its secondary. Raises ValueError with a
+    sentence."""
+    from model.systems import CircuitError, parse_system
+
+    words = text.split()
+    kind = "panel"
+    if words and words[0].lower() in SOURCE_WORDS:
+        kind = SOURCE_WORDS[words.pop(0).lower()]
+    kva = None
+    rest = []
+    for w in words:
+        low = w.lower()
+        if low.endswith("kva") and low[:-3].replace(".", "", 1).isdigit():
+            kva = float(low[:-3])
+        else:
+            rest.append(w)
+    if not rest:
+        raise ValueError("give the new source's system, e.g. 208Y/120 (xfmr 208Y/120 for a transformer)")
+    try:
+        system = parse_system(" ".join(rest))
+    except CircuitError as exc:
+        raise ValueError(str(exc)) from None
+    try:
+        return Source(id=source_id, kind=kind, system=system, kva=kva)
+    except Exception as exc:
+        raise ValueError(_first_error(exc)) from None
 
 
 def parse_load_text(text: str) -> tuple[float, str, float | None]:
@@ -327,7 +363,7 @@ class RunCard(EarlyKeys, Screen):
         elif dest is not None:
             hints["to"] = f"feeds {dest.kind} {dest.id}"
         else:
-            hints["to"] = "a load" if not new_panel_system else "new panel"
+            hints["to"] = "a load; panel? ^o" if not new_panel_system else "new source"
 
         feet = None
         try:
@@ -352,19 +388,14 @@ class RunCard(EarlyKeys, Screen):
 
         self._new_source = None
         if new_panel_system:
-            from model.systems import CircuitError, parse_system
-
             if dest is not None:
                 errors["panel"] = f"'{to}' is already a {dest.kind}; leave this blank"
             else:
                 try:
-                    system = parse_system(new_panel_system)
-                    hints["panel"] = system
-                    try:
-                        self._new_source = Source(id=to, kind="panel", system=system)
-                    except Exception as exc:
-                        errors["to"] = _first_error(exc)
-                except CircuitError as exc:
+                    self._new_source = new_source_from(to, new_panel_system)
+                    src_new = self._new_source
+                    hints["panel"] = f"{src_new.kind} {src_new.system}"
+                except ValueError as exc:
                     errors["panel"] = str(exc)
 
         circuit = v["circuit"].strip().upper()
@@ -542,7 +573,7 @@ class RunCard(EarlyKeys, Screen):
         focused = self.focused
         key = (focused.id or "")[2:] if isinstance(focused, Input) else ""
         main = [f.key for f in FIELDS if f.main]
-        target = "circuit" if key in main else "from"
+        target = "panel" if key in main else "from"
         self._focus_field(target)
 
     @on(Input.Submitted, ".card-input")
