@@ -47,10 +47,12 @@ File layout (schema 1)::
 from __future__ import annotations
 
 import gc
+import glob
 import math
 import os
 import re
 import tempfile
+import time
 import tomllib
 from collections.abc import Callable
 from dataclasses import dataclass
@@ -640,6 +642,25 @@ def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = Tr
                     pass
         raise
     _fsync_dir(folder)
+    _sweep_leftovers(path)
+
+
+LEFTOVER_AGE_S = 600.0
+"""A temporary file of a save older than this [s] was left by a save that was killed."""
+
+
+def _sweep_leftovers(path: Path) -> None:
+    """Remove the hidden temporaries (``.NAME.XXXX.tmp``/``.bak``) that killed saves left beside
+    the walk; young ones may belong to a save under way and are kept."""
+    now = time.time()
+    for leftover in path.parent.glob(f".{glob.escape(path.name)}.*"):
+        if leftover.suffix not in (".tmp", ".bak"):
+            continue
+        try:
+            if now - leftover.stat().st_mtime > LEFTOVER_AGE_S:
+                leftover.unlink()
+        except OSError:
+            pass
 
 
 def save_walk(
