@@ -600,10 +600,14 @@ def _temp_beside(path: Path, tag: str) -> str:
     return name
 
 
-def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = True) -> None:
+def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = True,
+                 create_only: bool = False) -> None:
     """Write ``data`` to ``path`` so that a crash leaves either the old or the new file whole:
     a temporary file in the same folder, flushed and fsynced, then ``os.replace``, then the folder
-    fsynced. With ``keep_backup`` the old file becomes ``backup_path(path)`` first."""
+    fsynced. With ``keep_backup`` the old file becomes ``backup_path(path)`` first. With
+    ``create_only`` the file must not exist yet (``FileExistsError`` otherwise, even when another
+    process creates it in the meantime: the temporary is hard-linked into place, never renamed
+    over)."""
     path = Path(path)
     folder = path.parent if str(path.parent) else Path(".")
     try:
@@ -632,7 +636,11 @@ def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = Tr
                     dst.flush()
                     os.fsync(dst.fileno())
             os.replace(staged, backup_path(path))
-        os.replace(tmp, path)
+        if create_only:
+            os.link(tmp, path)
+            os.unlink(tmp)
+        else:
+            os.replace(tmp, path)
     except BaseException:
         for leftover in (tmp, staged):
             if leftover:

@@ -50,6 +50,13 @@ def run(args: argparse.Namespace) -> int:
         print_problems(problems_from_errors(exc.errors(), "source", 0, Locator(), str(path),
                                             "--service"))
         return EXIT_INVALID
-    atomic_write(path, dumps_walk(job).encode("utf-8"), keep_backup=False)
+    try:
+        atomic_write(path, dumps_walk(job).encode("utf-8"), keep_backup=False, create_only=True)
+    except FileExistsError:
+        print(f"{path}: already exists; 'gaugewalk new' does not write over a walk", file=sys.stderr)
+        return EXIT_INVALID
+    except OSError as exc:
+        print(f"{path}: cannot write the walk: {exc.strerror or exc}", file=sys.stderr)
+        return EXIT_INVALID
     print(f"started {path}" + (f" with service SVC ({job.sources[0].system})" if job.sources else ""))
     return EXIT_OK
