@@ -63,6 +63,8 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("card.close", "escape", "close_card", "Close", "Close the card; an unstored draft is kept for the next new run.", "card", key_display="Esc"),
     KeyAction("card.next", "tab", "next_field", "Next field", "Next field; accepts the shown completion first.", "card", footer=False, key_display="Tab"),
     KeyAction("card.prev", "shift+tab", "prev_field", "Prev field", "Previous field.", "card", footer=False, key_display="S-Tab"),
+    KeyAction("card.down", "down", "next_field(False)", "Down", "Next field (↓), without taking the completion.", "card", footer=False, key_display="↓"),
+    KeyAction("card.up", "up", "prev_field", "Up", "Previous field (↑).", "card", footer=False, key_display="↑"),
     KeyAction("card.more", "ctrl+o", "toggle_more", "More fields", "Jump to the other fields (new panel, circuit, sets, size, material...) and back.", "card", key_display="^o"),
     # trial change
     KeyAction("trial.keep", "ctrl+s", "keep", "Keep", "Keep the trial change (it can be undone).", "trial", key_display="^s"),

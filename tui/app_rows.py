@@ -9,10 +9,10 @@ from tui.app_session import WalkSession, fmt_ft, fmt_pct
 from tui.widgets_runlist import SheetColumn, SheetRow
 
 COLUMNS: tuple[SheetColumn, ...] = (
-    SheetColumn("id", "Run", 6),
+    SheetColumn("id", "Run", 8),
     SheetColumn("from", "From", 6),
-    SheetColumn("to", "To", 12),
-    SheetColumn("feet", "Feet", 6, right=True),
+    SheetColumn("to", "To", 11),
+    SheetColumn("feet", "Feet", 5, right=True),
     SheetColumn("load", "Load", 6, right=True),
     SheetColumn("size", "Size", 10),
     SheetColumn("drop", "Drop%", 5, right=True),

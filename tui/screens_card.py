@@ -542,6 +542,8 @@ class RunCard(EarlyKeys, Screen):
         elif self.errors:
             needed = ", ".join(_label(k) for k in self.errors)
             self._say(f"Still needed: {needed}. Tab moves on; Enter stores when all is there.")
+        elif self.run_id is not None:
+            self._say("Enter stores the change (ctrl+z on the walk screen undoes it); Esc leaves it.")
         else:
             self._say("Enter stores this run and starts the next.")
 
@@ -558,9 +560,9 @@ class RunCard(EarlyKeys, Screen):
             self._message_for_focus()
 
     # ----- keys -------------------------------------------------------------------------
-    def action_next_field(self) -> None:
+    def action_next_field(self, take_completion: bool = True) -> None:
         focused = self.focused
-        if isinstance(focused, Input) and focused._suggestion and focused.cursor_at_end:
+        if take_completion and isinstance(focused, Input) and focused._suggestion and focused.cursor_at_end:
             if focused._suggestion != focused.value:
                 focused.value = focused._suggestion
                 focused.cursor_position = len(focused.value)

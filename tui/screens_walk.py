@@ -113,7 +113,7 @@ class WalkScreen(Screen):
         flagged = sum(1 for r in sheet.rows if r.flag)
         info = f"{total} runs"
         if flagged:
-            info += f", {flagged} ⚠"
+            info += f", ▲ {flagged} with a problem"
         filt = []
         if self.source_filter:
             filt.append(f"from {self.source_filter}")
