@@ -555,6 +555,8 @@ _COMMENT_SCAN = re.compile(r'"""|\'\'\'|"(?:[^"\\]|\\.)*"|\'[^\']*\'|#')
 
 def comment_lines(text: str) -> int:
     """How many lines carry a TOML comment (a ``#`` outside any string)."""
+    if "#" not in text:  # the usual case, and every save asks: no line-by-line scan
+        return 0
     count = 0
     in_multi: str | None = None
     for line in text.splitlines():
