@@ -307,6 +307,7 @@ that failed, so one mistake is reported once."""
                    "the feeders go round in a loop: " + " <- ".join(loop)
                    + "; one of them must come from another source")
 
+    circuits: dict[tuple[str, str | None], object] = {}  # Circuit or the CircuitError
     for r in job.runs:
         if r.id in skip_runs:
             continue
@@ -323,11 +324,16 @@ that failed, so one mistake is reported once."""
         if source.id in skip_sources or (target is not None and target.id in skip_sources):
             continue
         connection = connection_of(job, r)
-        try:
-            circuit = resolve_circuit(source.system, connection)
-        except CircuitError as exc:
+        circuit = circuits.get((source.system, connection))
+        if circuit is None:  # a walk has few systems and connections: resolve each pair once
+            try:
+                circuit = resolve_circuit(source.system, connection)
+            except CircuitError as exc:
+                circuit = exc
+            circuits[(source.system, connection)] = circuit
+        if isinstance(circuit, CircuitError):
             at_run(r, "connection" if r.connection else "from",
-                   f"{connection} from source {source.id}: {exc}")
+                   f"{connection} from source {source.id}: {circuit}")
             continue
         if target is None:
             if r.to in skip_sources:
