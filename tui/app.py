@@ -39,8 +39,14 @@ class WalkApp(App[int]):
 
     def compose(self) -> ComposeResult:
         """What shows while a walk is being opened."""
+        from tui.app_columns import COLUMNS
+        from tui.widgets_runlist import RunSheet, SheetHeading
+
         yield Header()
         yield Static("", id="opening")
+        sheet = RunSheet(COLUMNS, id="raw-sheet")
+        yield SheetHeading(sheet, id="raw-heading")
+        yield sheet
         yield Footer()
 
     def __init__(self, path: str | None = None, *, config_dir: Path | None = None) -> None:
@@ -81,6 +87,12 @@ class WalkApp(App[int]):
         self.title = p.name
         self.sub_title = "opening…"
         self.query_one("#opening", Static).update(f" Opening {p}…")
+        from tui.app_rawrows import raw_rows
+        from tui.widgets_runlist import RunSheet
+
+        rows = raw_rows(p)  # the runs as written, on screen while the walk is checked and sized
+        if rows:
+            self.query_one("#raw-sheet", RunSheet).set_rows(rows)
         self._load(str(p))
 
     @work(thread=True, exclusive=True, group="open")

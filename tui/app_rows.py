@@ -6,20 +6,9 @@ from model.job import Run
 from model.run_spec import RunResult
 from tables.sizes import size_index
 from tui.app_session import WalkSession, fmt_ft, fmt_pct
-from tui.widgets_runlist import SheetColumn, SheetRow
+from tui.app_columns import COLUMNS, SORT_KEYS  # noqa: F401 (shown here too)
+from tui.widgets_runlist import SheetRow
 
-COLUMNS: tuple[SheetColumn, ...] = (
-    SheetColumn("id", "Run", 8),
-    SheetColumn("from", "From", 6),
-    SheetColumn("to", "To", 11),
-    SheetColumn("feet", "Feet", 5, right=True),
-    SheetColumn("load", "Load", 6, right=True),
-    SheetColumn("size", "Size", 10),
-    SheetColumn("drop", "Drop%", 5, right=True),
-    SheetColumn("total", "Tot%", 5, right=True),
-    SheetColumn("status", "Status", 12),
-)
-SORT_KEYS = ("id", "from", "to", "feet", "load", "size", "drop", "total", "status")
 
 
 def load_text(run: Run) -> str:
