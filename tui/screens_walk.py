@@ -123,11 +123,12 @@ class WalkScreen(Screen):
             filt.append(f"'{sheet.filter_text}'")
         if filt:
             info += f" · showing {len(sheet.view)}: " + ", ".join(filt)
-        self.query_one("#view-bar", Static).update("".join(parts) + "  " + escape(info))
+        # both have a fixed height (app.tcss): a new text needs no layout pass over the screen
+        self.query_one("#view-bar", Static).update("".join(parts) + "  " + escape(info), layout=False)
 
     def _detail(self, key: str | None) -> None:
         run = self.session.job.run(key) if key else None
-        self.query_one("#detail", Static).update(escape(detail_lines(self.session, run)))
+        self.query_one("#detail", Static).update(escape(detail_lines(self.session, run)), layout=False)
 
     def _refresh_view(self) -> None:
         if self.view == "tree" and self._tree_stale:
