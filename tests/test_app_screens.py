@@ -364,3 +364,40 @@ async def test_a_feeder_whose_panel_still_feeds_runs_cannot_be_deleted(tmp_path)
     data = tomllib.loads(path.read_text())
     assert "run" not in data and [s["id"] for s in data["source"]] == ["SVC"]
     assert before != path.read_bytes()
+
+
+def test_a_folder_given_as_the_walk_is_refused_on_one_line_with_status_2(tmp_path, capsys):
+    from tui.app_main import open_app
+
+    assert open_app(str(tmp_path)) == 2
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and "is a folder" in err
+
+
+def test_the_opening_screen_lists_the_runs_as_written_before_they_are_sized(tmp_path):
+    from tui.app_rawrows import SIZING, raw_rows
+
+    rows = raw_rows(write_walk(tmp_path))
+    assert [r.key for r in rows] == ["F1", "R1"]
+    assert rows[0].cells[:5] == ("F1", "SVC", "LP1", "40", "panel")
+    assert rows[1].cells[3:5] == ("100", "16A") and rows[1].cells[-1] == SIZING
+    assert raw_rows(write_walk(tmp_path, "not = [toml", "junk.toml")) is None
+
+
+async def test_a_new_walk_can_be_started_from_the_first_screen(tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    config = tmp_path / "cfg"
+    recent = RecentWalks.load(config)
+    recent.mark_caution_seen()
+    app = new_app(None, config)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        await pilot.press("enter")  # "start a new walk"
+        await type_text(pilot, "mill-annex")
+        await pilot.press("enter")  # the file name; then the walk's name and service
+        await pilot.pause()
+        await pilot.press("enter")
+        await opened(app, pilot)
+        assert isinstance(app.screen, WalkScreen)
+    assert (tmp_path / "mill-annex.toml").exists()
+    assert str((tmp_path / "mill-annex.toml").resolve()) in RecentWalks.load(config).paths
