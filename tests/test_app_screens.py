@@ -401,3 +401,13 @@ async def test_a_new_walk_can_be_started_from_the_first_screen(tmp_path, monkeyp
         assert isinstance(app.screen, WalkScreen)
     assert (tmp_path / "mill-annex.toml").exists()
     assert str((tmp_path / "mill-annex.toml").resolve()) in RecentWalks.load(config).paths
+
+
+async def test_a_walk_with_comments_is_warned_about_before_the_first_save(tmp_path):
+    path = write_walk(tmp_path, "# measured by the night crew\n" + SMALL_WALK)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        said = [n.message for n in app._notifications]
+        assert any("1 comment line" in m and "walk.toml~" in m for m in said)
+    assert path.read_text().startswith("# measured by the night crew")  # nothing saved yet

@@ -110,6 +110,9 @@ class WalkApp(App[int]):
         self.call_from_thread(self._show, session)
         if said:
             self.call_from_thread(self.notify, said, severity="warning", timeout=12)
+        comments = session.comment_warning()
+        if comments:
+            self.call_from_thread(self.notify, comments, severity="warning", timeout=15)
         # size the walk once the runs are on screen, so the first paint does not wait for it
         self.call_from_thread(self.call_after_refresh, self._size_walk, session)
 

@@ -432,6 +432,20 @@ class WalkSession:
             return "a run card that was not stored"
         return None
 
+    def comment_warning(self) -> str | None:
+        """Said before the first save: the file's comments will not survive a save (the backup
+        beside it keeps them)."""
+        from model.walkfile import pending_notice
+
+        if self.read_only:
+            return None
+        notice = pending_notice(self.path)
+        if notice is None:
+            return None
+        return (f"{self.path.name} has {notice.comment_lines} comment line(s). gaugewalk does not "
+                f"keep comments when it saves; after your first change they stay only in "
+                f"{notice.backup.name}.")
+
     # ----- who else has it open -----------------------------------------------------------
     def take_lock(self) -> str | None:
         """Hold the walk for writing. When someone else holds it the walk opens read-only;
