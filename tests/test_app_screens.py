@@ -411,3 +411,73 @@ async def test_a_walk_with_comments_is_warned_about_before_the_first_save(tmp_pa
         said = [n.message for n in app._notifications]
         assert any("1 comment line" in m and "walk.toml~" in m for m in said)
     assert path.read_text().startswith("# measured by the night crew")  # nothing saved yet
+
+
+# An invented shop: a 480Y/277 V service, a step-down transformer and a 208Y/120 V panel.
+WITH_TRANSFORMER = """\
+schema = 1
+
+[job]
+name = "Kiln Row pottery"
+
+[[source]]
+id = "SVC"
+kind = "service"
+system = "480Y/277V 3ph 4w"
+
+[[source]]
+id = "T1"
+kind = "transformer"
+system = "208Y/120V 3ph 4w"
+kva = 30
+
+[[source]]
+id = "LP1"
+kind = "panel"
+system = "208Y/120V 3ph 4w"
+
+[[run]]
+id = "F1"
+from = "SVC"
+to = "T1"
+length = "60"
+
+[[run]]
+id = "F2"
+from = "T1"
+to = "LP1"
+length = "10"
+
+[[run]]
+id = "R1"
+from = "LP1"
+to = "Kiln"
+length = "50"
+load = { value = 24, unit = "A" }
+connection = "LL"
+"""
+
+
+async def test_a_transformer_secondary_can_be_tried_at_another_voltage_with_its_panels(tmp_path):
+    path = write_walk(tmp_path, WITH_TRANSFORMER)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("t")  # on F1, the feeder to T1
+        app.screen.query_one("#t-system").focus()
+        await pilot.press("ctrl+a", "ctrl+k")
+        await type_text(pilot, "120/240")
+        await pilot.pause()
+        compare = shown(app, "#trial-compare")
+        assert "Downstream of T1 (at 120/240V 1ph 3w)" in compare
+        r1_before = app.session.result_for("R1")
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        r1_after = app.session.result_for("R1")
+        # the kiln's line-to-line circuit is now 240 V instead of 208 V: the same 24 A drops a
+        # smaller share of a higher voltage through the same size (Ohm's law, percent of V)
+        assert r1_after.size == r1_before.size
+        assert r1_after.voltage_drop_pct == pytest.approx(r1_before.voltage_drop_pct * 208 / 240, rel=1e-6)
+    data = tomllib.loads(path.read_text())
+    systems = {s["id"]: s["system"] for s in data["source"]}
+    assert systems == {"SVC": "480Y/277V 3ph 4w", "T1": "120/240V 1ph 3w", "LP1": "120/240V 1ph 3w"}

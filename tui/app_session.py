@@ -176,7 +176,8 @@ class WalkSession:
         return RunStatus(words, True, problems)
 
     # ----- trying before storing ---------------------------------------------------------
-    def _with(self, run: Run, replaces: str | None, new_source: Source | None) -> Job:
+    def _with(self, run: Run, replaces: str | None, new_source: Source | None,
+              more_sources: tuple[Source, ...] = ()) -> Job:
         """A copy of the job (sharing unchanged runs) with ``run`` stored."""
         runs = list(self.job.runs)
         if replaces is not None:
@@ -189,8 +190,8 @@ class WalkSession:
         else:
             runs.append(run)
         sources = list(self.job.sources)
-        if new_source is not None:
-            sources.append(new_source)
+        for src in ((new_source,) if new_source is not None else ()) + tuple(more_sources):
+            _put_source(sources, src)
         trial = self.job.model_copy(update={"runs": runs, "sources": sources})
         trial._index_cache = None
         return trial
@@ -232,10 +233,18 @@ class WalkSession:
             return Preview(None, [], cannot_size=str(exc))
         return Preview(res)
 
-    def trial(self, run: Run) -> TrialOutcome:
-        """Compute the walk with ``run`` in place of the stored run of the same id."""
-        trial = self._with(run, run.id, None)
-        problems = [m for _, m in self._reference_problems(trial, run)]
+    def trial(self, run: Run, sources: tuple[Source, ...] = ()) -> TrialOutcome:
+        """Compute the walk with ``run`` in place of the stored run of the same id (and
+        ``sources`` in place of those of the same ids: a transformer secondary at another
+        voltage, with the panels it feeds)."""
+        from model.walk_problems import Locator, check_references
+
+        trial = self._with(run, run.id, None, tuple(sources))
+        known = self._reference_texts()
+        problems = sorted(
+            f"{p.where}: {p.message}" for p in check_references(trial, Locator(""), self.path.name)
+            if f"{p.where}: {p.message}" not in known
+        )
         if problems:
             return TrialOutcome(None, problems)
         from model.compute import compute_job
@@ -255,6 +264,23 @@ class WalkSession:
                 down.append((rid, b.total_drop_pct, a.total_drop_pct,
                              self.status(r, b).flag, self.status(r, a).flag))
         return TrialOutcome(result, [], down)
+
+    def same_system_below(self, source_id: str, system: str) -> list[Source]:
+        """The source and every source below it on the same system, down to the next
+        transformer: what moves together when a transformer secondary is tried at another
+        voltage."""
+        out: list[Source] = []
+        stack = [source_id]
+        while stack:
+            src = self.job.source(stack.pop())
+            if src is None or src in out:
+                continue
+            out.append(src)
+            for r in self.job.runs_from(src.id):
+                dest = self.job.source(r.to)
+                if dest is not None and dest.kind != "transformer" and dest.system == system:
+                    stack.append(dest.id)
+        return out
 
     def _downstream_ids(self, source_id: str) -> list[str]:
         out: list[str] = []
@@ -312,9 +338,11 @@ class WalkSession:
         self.save()
         return None
 
-    def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> str | None:
+    def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None,
+                sources: tuple[Source, ...] = ()) -> str | None:
         """Store a new run, or put ``run`` in place of the run ``replaces``; optionally declare
-        the panel the run feeds. Returns why it was refused, or None."""
+        the panel the run feeds (or replace the source of that id). Returns why it was refused,
+        or None."""
 
         def change() -> None:
             runs = self.job.runs
@@ -327,14 +355,14 @@ class WalkSession:
                     runs.append(run)
             else:
                 runs.append(run)
-            if new_source is not None:
-                self.job.sources.append(new_source)
+            for src in ((new_source,) if new_source is not None else ()) + tuple(sources):
+                _put_source(self.job.sources, src)
 
         label = f"edit {run.id}" if replaces else f"add {run.id}"
         old = self.job.run(replaces) if replaces else None
         in_place = (
             old is not None and old.id == run.id and old.from_ == run.from_ and old.to == run.to
-            and new_source is None
+            and new_source is None and not sources
         )
         return self._commit(label, run.id, change, edited=run.id if in_place else None)
 
@@ -516,6 +544,15 @@ class WalkSession:
                 if r.from_ == source_id and not self.job.is_feeder(r):
                     return r
         return runs[-1] if runs else None
+
+
+def _put_source(sources: list[Source], source: Source) -> None:
+    """Replace the source with the same id, or add it."""
+    for i, s in enumerate(sources):
+        if s.id == source.id:
+            sources[i] = source
+            return
+    sources.append(source)
 
 
 def _short(text: str, width: int = 12) -> str:

@@ -34,6 +34,12 @@ class TrialScreen(EarlyKeys, Screen):
         self.session = session
         self.run_id = run_id
         self.trial_run: Run | None = None
+        self.trial_sources: tuple = ()
+        job = session.job
+        run = job.run(run_id)
+        dest = job.source(run.to) if run is not None else None
+        # a transformer's secondary voltage can be tried (with the panels it feeds)
+        self.panel = dest if dest is not None and dest.kind == "transformer" else None
 
     def compose(self) -> ComposeResult:
         run = self.session.job.run(self.run_id)
@@ -48,6 +54,12 @@ class TrialScreen(EarlyKeys, Screen):
                     yield Label(label, classes="card-label")
                     yield Input(self._current(run, key), id=f"t-{key}", compact=True, classes="card-input")
                     yield Static(escape(help_), id=f"th-{key}", classes="card-hint")
+            if self.panel is not None:
+                with Horizontal(classes="card-row"):
+                    yield Label("Secondary", classes="card-label")
+                    yield Input(self.panel.system, id="t-system", compact=True, classes="card-input")
+                    yield Static(escape(f"{self.panel.id} secondary and the panels on it"),
+                                 id="th-system", classes="card-hint")
         yield Static("", id="trial-compare")
         yield Static("", id="trial-msg")
         yield Footer()
@@ -104,6 +116,20 @@ class TrialScreen(EarlyKeys, Screen):
         if circ and circ not in ("LN", "LL", "LLN", "MW", "3P", "3PN"):
             problem = "Circuit: one of LN, LL, LLN, MW, 3P, 3PN (blank: all the source offers)"
         update["connection"] = circ or None
+        self.trial_sources = ()
+        if self.panel is not None:
+            from model.systems import CircuitError, parse_system
+
+            text = self.query_one("#t-system", Input).value.strip()
+            try:
+                system = parse_system(text) if text else self.panel.system
+                if system != self.panel.system:
+                    self.trial_sources = tuple(
+                        src.model_copy(update={"system": system})
+                        for src in s.same_system_below(self.panel.id, self.panel.system)
+                    )
+            except CircuitError as exc:
+                problem = f"Secondary: {exc}"
         msg = self.query_one("#trial-msg", Static)
         compare = self.query_one("#trial-compare", Static)
         self.trial_run = None
@@ -118,7 +144,7 @@ class TrialScreen(EarlyKeys, Screen):
             msg.update("✗ " + escape(str(exc)))
             compare.update("Fix the field above to see the effect.")
             return
-        outcome = s.trial(trial)
+        outcome = s.trial(trial, self.trial_sources)
         if outcome.problems:
             msg.update("✗ " + escape("; ".join(outcome.problems[:2])))
             compare.update("This change cannot be sized; see the message below.")
@@ -152,7 +178,10 @@ class TrialScreen(EarlyKeys, Screen):
         down = outcome.downstream
         if down:
             lines.append("")
-            lines.append(f"[b]Downstream of {escape(run.to)}: {len(down)} runs[/b]")
+            moved = ""
+            if self.trial_sources:
+                moved = f" (at {escape(self.trial_sources[0].system)})"
+            lines.append(f"[b]Downstream of {escape(run.to)}{moved}: {len(down)} runs[/b]")
             worst_b = max((d[1] for d in down), default=0.0)
             worst_a = max((d[2] for d in down), default=0.0)
             flag_b = sum(1 for d in down if d[3])
@@ -165,7 +194,7 @@ class TrialScreen(EarlyKeys, Screen):
         if self.trial_run is None:
             self.notify("Nothing to keep: fix the trial fields first.", severity="warning")
             return
-        refusal = self.session.put_run(self.trial_run, replaces=self.run_id)
+        refusal = self.session.put_run(self.trial_run, replaces=self.run_id, sources=self.trial_sources)
         if refusal:
             self.query_one("#trial-msg", Static).update("✗ Not kept — " + escape(refusal))
             return
