@@ -481,3 +481,28 @@ async def test_a_transformer_secondary_can_be_tried_at_another_voltage_with_its_
     data = tomllib.loads(path.read_text())
     systems = {s["id"]: s["system"] for s in data["source"]}
     assert systems == {"SVC": "480Y/277V 3ph 4w", "T1": "120/240V 1ph 3w", "LP1": "120/240V 1ph 3w"}
+
+
+async def test_unknown_raceway_and_insulation_names_are_refused_at_their_fields(tmp_path):
+    path = write_walk(tmp_path)
+    before = path.read_bytes()
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")
+        await type_text(pilot, "Mixer\t40\t12A")
+        app.screen.query_one("#f-raceway").focus()
+        await type_text(pilot, "garden hose")
+        await pilot.press("enter")
+        await pilot.pause()
+        # NEC Ch. 9 Table 4 names the raceway types
+        assert "Not stored — Raceway: no raceway type 'garden hose'" in shown(app, "#card-msg")
+        await pilot.press("escape", "j")
+        app.screen.query_one("#s-insulation").focus()
+        await pilot.press("ctrl+a", "ctrl+k")
+        await type_text(pilot, "paper")
+        await pilot.press("enter")
+        await pilot.pause()
+        # NEC Table 310.4(1) names the insulation types
+        assert "Not stored — Insulation: no insulation type 'paper'" in shown(app, "#job-msg")
+    assert path.read_bytes() == before

@@ -432,6 +432,14 @@ class RunCard(EarlyKeys, Screen):
         raceway = v["raceway"].strip() or None
         if raceway is None:
             hints["raceway"] = f"job: {job.defaults.raceway}"
+        else:
+            from model.sizing import resolve_raceway
+
+            try:
+                rtype, _, _ = resolve_raceway(raceway)
+                hints["raceway"] = rtype
+            except ValueError as exc:
+                errors["raceway"] = str(exc)
         run_id = v["id"].strip()
         if not run_id:
             errors["id"] = "every run needs an id"

@@ -101,6 +101,19 @@ class JobSettingsScreen(EarlyKeys, Screen):
         msg = self.query_one("#job-msg", Static)
         for inp in self.query(Input):
             inp.remove_class("-invalid")
+        from model.sizing import resolve_raceway
+        from tables.ampacity import parse_insulation
+
+        for key, check in (("raceway", resolve_raceway), ("insulation", parse_insulation)):
+            try:
+                check(defaults.get(key, ""))
+            except ValueError as exc:
+                inp = self.query_one(f"#s-{key}", Input)
+                inp.add_class("-invalid")
+                inp.focus()
+                label = next(lab for k, lab, _ in SETTINGS if k == key)
+                msg.update(f"✗ Not stored — {escape(label)}: {escape(str(exc))}")
+                return
         try:
             new_defaults = Defaults.model_validate({**self.session.job.defaults.model_dump(), **defaults})
             new_header = self.session.job.job.model_copy(update=header)
