@@ -42,7 +42,7 @@ FIELDS: tuple[Field, ...] = (
     Field("length", "Length", "e.g. 85+12+2*6", True),
     Field("load", "Load", "16A 1.8kVA 5kW", True),
     Field("panel", "New panel", "system; xfmr …"),
-    Field("circuit", "Circuit", "blank: all offered"),
+    Field("circuit", "Circuit", "LN LL LLN MW 3P"),
     Field("continuous", "Continuous", "yes / no"),
     Field("spread", "Spread", "no: load at the end"),
     Field("sets", "Sets", "1"),
@@ -281,12 +281,14 @@ class RunCard(EarlyKeys, Screen):
         values["id"] = self._next_id(same if same is not None and same.from_ == values["from"] else None)
         return values
 
-    def _next_id(self, like: Run | None) -> str:
+    def _next_id(self, like: Run | None, feeder: bool = False) -> str:
         """The next free id in the style of the last run from the same source (``LP1-7`` ->
-        ``LP1-8``), else ``R`` and a number."""
+        ``LP1-8``), else ``R`` and a number (``F`` and a number for a feeder)."""
         import re
 
         job = self.session.job
+        if feeder:
+            return job.next_run_id("F")
         if like is not None:
             m = re.match(r"^(.*?)(\d+)$", like.id)
             if m and m.group(1):
@@ -332,7 +334,7 @@ class RunCard(EarlyKeys, Screen):
         if feeder:
             copied["circuit"] = ""
         like = same if same is not None and same.from_ == source_id else None
-        copied["id"] = self._next_id(like)
+        copied["id"] = self._next_id(like, feeder)
         for k in (*COPIED_FROM_PREVIOUS, "id"):
             if k not in self.touched and self._input(k).value != copied[k]:
                 self._set(k, copied[k])
@@ -353,7 +355,7 @@ class RunCard(EarlyKeys, Screen):
             errors["from"] = f"no source '{src}' in this walk (sources: {known})"
         else:
             source = job.source(src)
-            hints["from"] = f"{source.kind}, {source.system}"
+            hints["from"] = f"{source.kind} {source.system.split()[0]}"
 
         to = v["to"].strip()
         new_panel_system = v["panel"].strip()
@@ -401,6 +403,8 @@ class RunCard(EarlyKeys, Screen):
         circuit = v["circuit"].strip().upper()
         if circuit and circuit not in ("LN", "LL", "LLN", "MW", "3P", "3PN"):
             errors["circuit"] = "one of LN, LL, LLN, MW, 3P, 3PN (blank: all the source offers)"
+        elif "from" not in errors:
+            hints["circuit"] = _circuit_hint(job.source(src).system, circuit, dest)
         cont = _yes_no(v["continuous"])
         if cont is None:
             errors["continuous"] = "yes or no"
@@ -622,10 +626,12 @@ class RunCard(EarlyKeys, Screen):
             return
         self.stored.append(run.id)
         self.touched = set()
-        self._set_values(self._fresh_values(run.from_))
+        # after declaring a panel, the runs from it usually come next
+        next_from = self._new_source.id if self._new_source is not None else run.from_
+        self._set_values(self._fresh_values(next_from))
         self._update_title()
         self._sticky = (
-            f"Stored {run.id} ({run.from_} → {run.to}). Next run from {run.from_}; "
+            f"Stored {run.id} ({run.from_} → {run.to}). Next run from {next_from}; "
             "shift+tab changes the source."
         )
         self.recheck()
@@ -650,6 +656,20 @@ _CARD_FIELD = {
     "size": "size", "material": "material", "raceway": "raceway", "id": "id",
     "continuous": "continuous", "distributed": "spread", "notes": "notes",
 }
+
+
+def _circuit_hint(system: str, connection: str, dest) -> str:
+    """What the circuit field means in volts: ``LN 120 V 1ph``; blank shows the default."""
+    from model.systems import CircuitError, resolve_circuit
+    from model.walk_problems import default_connection
+
+    try:
+        conn = connection or default_connection(system, dest is not None and dest.kind == "transformer")
+        c = resolve_circuit(system, conn)
+    except (CircuitError, KeyError):
+        return ""
+    lead = "" if connection else "all: "
+    return f"{lead}{conn} {c.volts:g} V {c.phases}ph"
 
 
 def _label(key: str) -> str:
