@@ -213,7 +213,7 @@ async def test_a_new_panel_can_be_declared_on_the_spot_from_the_run_card(tmp_pat
         await pilot.pause()
     data = tomllib.loads(path.read_text())
     assert {"id": "LP2", "kind": "panel", "system": "208Y/120V 3ph 4w"} in data["source"]
-    assert {"id": "R2", "from": "SVC", "to": "LP2", "length": "120"} in data["run"]
+    assert {"id": "F2", "from": "SVC", "to": "LP2", "length": "120"} in data["run"]  # a feeder: F ids
 
 
 async def test_to_completes_from_names_already_in_the_walk_with_tab(tmp_path):
