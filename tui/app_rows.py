@@ -6,7 +6,6 @@ from model.job import Run
 from model.run_spec import RunResult
 from tables.sizes import size_index
 from tui.app_session import WalkSession, fmt_ft, fmt_pct
-from tui.app_columns import COLUMNS, SORT_KEYS  # noqa: F401 (shown here too)
 from tui.widgets_runlist import SheetRow
 
 

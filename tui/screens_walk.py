@@ -10,7 +10,8 @@ from textual.screen import Screen
 from textual.widgets import ContentSwitcher, Footer, Header, Input, Static
 
 from tui.app_keys import bindings_for
-from tui.app_rows import COLUMNS, SORT_KEYS, all_rows, detail_lines
+from tui.app_columns import COLUMNS, SORT_KEYS
+from tui.app_rows import all_rows, detail_lines
 from tui.app_session import WalkSession
 from tui.screens_info import AskScreen
 from tui.widgets_runlist import RunSheet, SheetHeading, SheetRow

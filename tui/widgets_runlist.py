@@ -11,7 +11,6 @@ from dataclasses import dataclass, field
 from typing import Callable, Sequence
 
 from rich.segment import Segment
-from rich.style import Style
 from textual import events
 from textual.binding import Binding
 from textual.geometry import Size
