@@ -92,13 +92,12 @@ class RunSheet(ScrollView, can_focus=True):
         Binding("end", "edge(1)", "Last", show=False),
     ]
 
-    COMPONENT_CLASSES = {"runsheet--cursor", "runsheet--flag", "runsheet--group"}
+    COMPONENT_CLASSES = {"runsheet--cursor", "runsheet--flag"}
 
     DEFAULT_CSS = """
     RunSheet { height: 1fr; }
     RunSheet > .runsheet--cursor { text-style: reverse bold; }
     RunSheet > .runsheet--flag { color: $warning; text-style: bold; }
-    RunSheet > .runsheet--group { text-style: bold underline; }
     """
 
     class Highlighted(Message):
@@ -137,17 +136,6 @@ class RunSheet(ScrollView, can_focus=True):
         self.rows = rows
         self._index = {r.key: i for i, r in enumerate(rows)}
         self._rebuild_view(keep_key)
-
-    def update_row(self, row: SheetRow) -> None:
-        """Replace one row in place (same key); cheap, no re-sort."""
-        i = self._index.get(row.key)
-        if i is None:
-            self.rows.append(row)
-            self._index[row.key] = len(self.rows) - 1
-            self._rebuild_view(self.cursor_key)
-            return
-        self.rows[i] = row
-        self.refresh()
 
     def set_filter(self, text: str = "", pred: Callable[[SheetRow], bool] | None = None) -> None:
         self.filter_text = text.lower().strip()
