@@ -7,7 +7,7 @@ from tui.widgets_runlist import SheetColumn
 COLUMNS: tuple[SheetColumn, ...] = (
     SheetColumn("id", "Run", 8),
     SheetColumn("from", "From", 6),
-    SheetColumn("to", "To", 11),
+    SheetColumn("to", "To", 11, grow=True),
     SheetColumn("feet", "Feet", 5, right=True),
     SheetColumn("load", "Load", 6, right=True),
     SheetColumn("size", "Size", 10),

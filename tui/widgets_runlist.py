@@ -22,12 +22,14 @@ from textual.widget import Widget
 
 @dataclass(frozen=True)
 class SheetColumn:
-    """One column: key, heading, width [cells], right-aligned or not."""
+    """One column: key, heading, width [cells], right-aligned or not; a ``grow`` column takes
+    the room a wider terminal gives."""
 
     key: str
     title: str
     width: int
     right: bool = False
+    grow: bool = False
 
 
 @dataclass
@@ -276,7 +278,29 @@ class RunSheet(ScrollView, can_focus=True):
         self._set_cursor(len(self.view) - 1 if end else 0)
 
     def on_resize(self, event: events.Resize) -> None:
+        self._fit_columns()
         self._scroll_cursor_into_view()
+
+    def _fit_columns(self) -> None:
+        """Give a growing column the width the terminal has beyond the base layout."""
+        base = getattr(self, "_base_columns", None)
+        if base is None:
+            base = self._base_columns = list(self.columns)
+        room = self.scrollable_content_region.width - (2 + sum(c.width + 1 for c in base))
+        growers = [i for i, c in enumerate(base) if c.grow]
+        columns = list(base)
+        if room > 0 and growers:
+            share, extra = divmod(room, len(growers))
+            for n, i in enumerate(growers):
+                c = base[i]
+                columns[i] = SheetColumn(c.key, c.title, c.width + share + (1 if n < extra else 0), c.right, c.grow)
+        if columns != self.columns:
+            self.columns = columns
+            self.virtual_size = Size(self._line_width(), len(self.view))
+            self.refresh()
+            heading = self._heading()
+            if heading is not None:
+                heading.refresh()
 
     async def _on_click(self, event: events.Click) -> None:
         pos = round(self.scroll_y) + event.y
