@@ -382,6 +382,7 @@ def test_the_opening_screen_lists_the_runs_as_written_before_they_are_sized(tmp_
     assert rows[0].cells[:5] == ("F1", "SVC", "LP1", "40", "panel")
     assert rows[1].cells[3:5] == ("100", "16A") and rows[1].cells[-1] == SIZING
     assert raw_rows(write_walk(tmp_path, "not = [toml", "junk.toml")) is None
+    assert raw_rows(write_walk(tmp_path, "x = " + "[" * 5000 + "]" * 5000, "deep.toml")) is None
 
 
 async def test_a_new_walk_can_be_started_from_the_first_screen(tmp_path, monkeypatch):

@@ -41,7 +41,7 @@ def raw_rows(path: str | Path, max_bytes: int = 64 * 1024 * 1024) -> list[SheetR
         if p.stat().st_size > max_bytes:
             return None
         data = tomllib.loads(p.read_text(encoding="utf-8"))
-    except (OSError, ValueError):
+    except (OSError, ValueError, RecursionError):  # the real reader says what is wrong
         return None
     runs = data.get("run")
     sources = data.get("source")
