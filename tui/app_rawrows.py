@@ -34,8 +34,10 @@ def _load(raw: object, feeds_source: bool) -> str:
     return "panel" if feeds_source else ""
 
 
-def raw_rows(path: str | Path, max_bytes: int = 64 * 1024 * 1024) -> list[SheetRow] | None:
-    """Rows for the run sheet straight from the file, or None if it cannot be read that way."""
+def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024) -> list[SheetRow] | None:
+    """Rows for the run sheet straight from the file, or None if it cannot be read that way.
+    Files over ``max_bytes`` (about 25,000 runs) are left to the background reader alone, so
+    the parse never holds up the first paint for long [bytes]."""
     try:
         p = Path(path)
         if p.stat().st_size > max_bytes:
