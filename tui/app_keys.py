@@ -31,6 +31,11 @@ PLACES = {
     "walk": "Walk screen",
     "card": "Run card (recording or editing a run)",
     "trial": "Trial change",
+    "job": "Job settings",
+    "start": "First screen (no walk given)",
+    "newwalk": "New walk",
+    "ask": "Questions",
+    "info": "Key guide and about screen",
 }
 
 KEYS: tuple[KeyAction, ...] = (
@@ -69,6 +74,17 @@ KEYS: tuple[KeyAction, ...] = (
     # trial change
     KeyAction("trial.keep", "ctrl+s", "keep", "Keep", "Keep the trial change (it can be undone).", "trial", key_display="^s"),
     KeyAction("trial.drop", "escape", "close_trial", "Discard", "Leave without changing the walk.", "trial", key_display="Esc"),
+    # job settings
+    KeyAction("job.store", "ctrl+s", "store", "Store", "Store the settings (Enter does the same); every run recomputes.", "job", key_display="^s"),
+    KeyAction("job.leave", "escape", "leave", "Leave unchanged", "Leave the settings as they were.", "job", key_display="Esc"),
+    # first screen and new walk
+    KeyAction("start.new", "n", "new", "New walk", "Start a new walk (asks for its file).", "start"),
+    KeyAction("start.quit", "escape", "leave", "Quit", "Quit (or leave the file name box).", "start", key_display="Esc"),
+    KeyAction("newwalk.cancel", "escape", "leave", "Don't create", "Do not create the walk.", "newwalk", key_display="Esc"),
+    # questions and the information screens
+    KeyAction("ask.yes", "y", "answer(True)", "Yes", "Answer yes.", "ask"),
+    KeyAction("ask.no", "n,escape", "answer(False)", "No", "Answer no (Esc too).", "ask", key_display="n/Esc"),
+    KeyAction("info.close", "escape,q", "dismiss", "Close", "Close the key guide or the about screen.", "info", key_display="Esc/q"),
 )
 
 

@@ -9,7 +9,7 @@ from textual.containers import Vertical, VerticalScroll
 from textual.screen import ModalScreen
 from textual.widgets import Static
 
-from tui.app_keys import guide_rows
+from tui.app_keys import bindings_for, guide_rows
 from tui.cli import CAUTION
 
 ABOUT_TEXT = (
@@ -24,7 +24,7 @@ ABOUT_TEXT = (
 class KeyGuideScreen(ModalScreen[None]):
     """Every key, by place, generated from the same table as the footer."""
 
-    BINDINGS = [Binding("escape,f1,q", "dismiss", "Close", id="guide.close")]
+    BINDINGS = bindings_for("info") + [Binding("f1", "dismiss", show=False)]
 
     def compose(self) -> ComposeResult:
         lines = ["[b]Key guide[/b]   (Esc closes)", ""]
@@ -44,7 +44,7 @@ class KeyGuideScreen(ModalScreen[None]):
 class AboutScreen(ModalScreen[None]):
     """What gaugewalk is, the tables it follows, and the safety caution."""
 
-    BINDINGS = [Binding("escape,enter,f2,q", "dismiss", "Close", id="about.close")]
+    BINDINGS = bindings_for("info") + [Binding("enter,f2", "dismiss", show=False)]
 
     def __init__(self, first_start: bool = False) -> None:
         super().__init__()
@@ -65,10 +65,7 @@ class AboutScreen(ModalScreen[None]):
 class AskScreen(ModalScreen[bool]):
     """A yes/no question answered with y or n (Enter means the safe answer given)."""
 
-    BINDINGS = [
-        Binding("y", "answer(True)", "Yes", id="ask.yes"),
-        Binding("n,escape", "answer(False)", "No", id="ask.no"),
-    ]
+    BINDINGS = bindings_for("ask")
 
     def __init__(self, question: str, yes: str = "yes", no: str = "no", enter_means: bool = False) -> None:
         super().__init__()

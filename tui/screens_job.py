@@ -6,13 +6,13 @@ from __future__ import annotations
 from rich.markup import escape
 from textual import on
 from textual.app import ComposeResult
-from textual.binding import Binding
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from model.job import Defaults, JobHeader
 from tui.app_earlykeys import EarlyKeys
+from tui.app_keys import bindings_for
 from tui.app_session import WalkSession
 
 # (field, label, help); header fields are prefixed "job."
@@ -47,10 +47,7 @@ def _text(value) -> str:
 class JobSettingsScreen(EarlyKeys, Screen):
     """Edit the job's header and defaults; Enter or ctrl+s stores them, Esc leaves them."""
 
-    BINDINGS = [
-        Binding("ctrl+s", "store", "Store", id="job.store"),
-        Binding("escape", "leave", "Leave unchanged", id="job.leave"),
-    ]
+    BINDINGS = bindings_for("job")
 
     def __init__(self, session: WalkSession) -> None:
         super().__init__()

@@ -7,11 +7,12 @@ from pathlib import Path
 from rich.markup import escape
 from textual import on
 from textual.app import ComposeResult
-from textual.binding import Binding
 from textual.containers import Vertical
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, OptionList, Static
 from textual.widgets.option_list import Option
+
+from tui.app_keys import bindings_for
 
 NEW = "\x00new"
 
@@ -20,10 +21,7 @@ class StartScreen(Screen[tuple[str, str] | None]):
     """Pick a recent walk or start a new one. Dismisses with ("open", path), ("new", path) or
     None (quit)."""
 
-    BINDINGS = [
-        Binding("escape", "leave", "Quit", id="start.quit"),
-        Binding("n", "new", "New walk", id="start.new"),
-    ]
+    BINDINGS = bindings_for("start")
 
     def __init__(self, recent: list[str]) -> None:
         super().__init__()
@@ -97,7 +95,7 @@ class NewWalkScreen(Screen[dict | None]):
     """Start a walk at ``path``: its name and the service it starts from. Dismisses with the
     answers, or None when the person would rather not create it."""
 
-    BINDINGS = [Binding("escape", "leave", "Don't create", id="newwalk.cancel")]
+    BINDINGS = bindings_for("newwalk")
 
     def __init__(self, path: str, missing: bool = False) -> None:
         super().__init__()
