@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import textwrap
+
 from rich.markup import escape
 from textual.app import ComposeResult
 from textual.binding import Binding
@@ -31,7 +33,9 @@ class KeyGuideScreen(ModalScreen[None]):
         for title, rows in guide_rows():
             lines.append(f"[b u]{escape(title)}[/]")
             for key, text in rows:
-                lines.append(f"  [b]{escape(key):<9}[/b] {escape(text)}")
+                wrapped = textwrap.wrap(text, 58) or [""]
+                lines.append(f"  [b]{escape(key):<9}[/b] {escape(wrapped[0])}")
+                lines.extend(f"{'':12}{escape(more)}" for more in wrapped[1:])
             lines.append("")
         lines.append("Mouse: click a run to move to it, double-click to edit.")
         with VerticalScroll(id="guide-box", classes="info-box"):
