@@ -146,10 +146,10 @@ def child_core(path: Path, repeat: int) -> dict:
 
     from model.compute import compute_job, recompute_run
     from model.job import Run
+    from model.takeoff import build_takeoff
     from model.walkfile import dumps_walk, load_walk, save_walk
     from tui.app_rows import all_rows, sheet_row
     from tui.app_session import WalkSession
-    from model.takeoff import build_takeoff
 
     def open_walk():
         job = load_walk(path)
