@@ -4,10 +4,11 @@ from __future__ import annotations
 
 import re
 import tomllib
+from datetime import date
 
 import pytest
 
-from tests.app_helpers import new_app, opened, shown, sheet_cells, type_text, write_walk
+from tests.app_helpers import SMALL_WALK, new_app, opened, shown, sheet_cells, type_text, write_walk
 from tui.screens_card import RunCard
 
 
@@ -41,14 +42,15 @@ async def test_a_walk_of_several_runs_typed_by_keys_ends_in_the_expected_toml(tm
     data = tomllib.loads(path.read_text())
     runs = {r["id"]: r for r in data["run"]}
     assert list(runs) == ["F1", "R1", "R2", "R3"]
-    # circuit copied from the previous run from the same source (R1: LN)
+    # circuit copied from the previous run from the same source (R1: LN); dated today
     assert runs["R2"] == {
         "id": "R2", "from": "LP1", "to": "Mixer", "length": "85+12+2*6",
-        "load": {"value": 1.8, "unit": "kVA"}, "connection": "LN",
+        "load": {"value": 1.8, "unit": "kVA"}, "connection": "LN", "measured_on": date.today(),
     }
     assert runs["R3"] == {
         "id": "R3", "from": "LP1", "to": "Cooler", "length": "36m+8ft",
         "load": {"value": 5, "unit": "kW", "pf": 0.9}, "connection": "LN",
+        "measured_on": date.today(),
     }
     # what was there before is untouched
     assert runs["R1"]["size"] == "12 AWG" and data["defaults"] == {"method": "dc"}
@@ -213,7 +215,8 @@ async def test_a_new_panel_can_be_declared_on_the_spot_from_the_run_card(tmp_pat
         await pilot.pause()
     data = tomllib.loads(path.read_text())
     assert {"id": "LP2", "kind": "panel", "system": "208Y/120V 3ph 4w"} in data["source"]
-    assert {"id": "F2", "from": "SVC", "to": "LP2", "length": "120"} in data["run"]  # a feeder: F ids
+    # a feeder: F ids
+    assert {"id": "F2", "from": "SVC", "to": "LP2", "length": "120", "measured_on": date.today()} in data["run"]
 
 
 async def test_to_completes_from_names_already_in_the_walk_with_tab(tmp_path):
@@ -228,3 +231,18 @@ async def test_to_completes_from_names_already_in_the_walk_with_tab(tmp_path):
         card = app.screen
         assert card.values()["to"] == "Proofer"
         assert card.focused.id == "f-length"
+
+
+async def test_editing_a_run_keeps_what_the_card_does_not_show(tmp_path):
+    text = SMALL_WALK.replace('size = "12 AWG"\n', 'size = "12 AWG"\nbends = 3\nocpd_a = 20\nambient_c = 40.0\n')
+    path = write_walk(tmp_path, text)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("down", "e", "shift+tab")  # the card opens on length; back to 'to'
+        await type_text(pilot, "Proofer and rack")
+        await pilot.press("enter")
+        await pilot.pause()
+    run = {r["id"]: r for r in tomllib.loads(path.read_text())["run"]}["R1"]
+    assert run["to"] == "Proofer and rack"
+    assert run["bends"] == 3 and run["ocpd_a"] == 20 and run["ambient_c"] == 40.0

@@ -452,13 +452,15 @@ class RunCard(EarlyKeys, Screen):
 
         candidate = None
         if not errors:
+            fields = {
+                "id": run_id, "from": src, "to": to, "length": v["length"].strip(),
+                "load": load, "continuous": bool(cont), "distributed": bool(spread),
+                "connection": circuit or None, "sets": sets, "size": size,
+                "material": material, "raceway": raceway, "notes": v["notes"].strip(),
+            }
+            data = self._keep_unshown(fields, hints)
             try:
-                candidate = Run.model_validate({
-                    "id": run_id, "from": src, "to": to, "length": v["length"].strip(),
-                    "load": load, "continuous": bool(cont), "distributed": bool(spread),
-                    "connection": circuit or None, "sets": sets, "size": size,
-                    "material": material, "raceway": raceway, "notes": v["notes"].strip(),
-                })
+                candidate = Run.model_validate(data)
             except Exception as exc:
                 errors.update(_pydantic_fields(exc))
         result = None
@@ -494,6 +496,27 @@ class RunCard(EarlyKeys, Screen):
             self._input(k).set_class(bad, "-invalid")
         self._show_answer(candidate, result, feet)
         self._message_for_focus()
+
+    def _keep_unshown(self, fields: dict, hints: dict[str, str]) -> dict:
+        """The run as the card says, keeping what the card does not show (segments, bends,
+        device, overrides...) from the run being edited. A new or re-measured length is dated
+        today; segments that no longer add up to a changed length are dropped (undo brings
+        them back), and the length field says so."""
+        from datetime import date
+
+        original = self.session.job.run(self.run_id) if self.run_id is not None else None
+        if original is None:
+            return {**fields, "measured_on": date.today()}
+        data = original.model_dump(by_alias=True)
+        load = fields.get("load")
+        fields = {**fields, "load": load.model_dump() if load is not None else None}
+        data.update(fields)
+        if fields["length"] != original.length:
+            data["measured_on"] = date.today()
+            if original.segments:
+                data["segments"] = []
+                hints["length"] = (hints.get("length", "") + f"; drops {len(original.segments)} segments").lstrip("; ")
+        return data
 
     def _show_answer(self, run: Run | None, res, feet: float | None) -> None:
         lines = ["[b]Answer[/b] (live)"]
