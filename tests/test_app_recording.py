@@ -246,3 +246,27 @@ async def test_editing_a_run_keeps_what_the_card_does_not_show(tmp_path):
     run = {r["id"]: r for r in tomllib.loads(path.read_text())["run"]}["R1"]
     assert run["to"] == "Proofer and rack"
     assert run["bends"] == 3 and run["ocpd_a"] == 20 and run["ambient_c"] == 40.0
+
+
+async def test_keys_typed_in_one_burst_record_runs_in_order(tmp_path):
+    """A fast typist (or a paste) sends n, the fields, Tab and Enter before the card has even
+    opened; nothing may be lost, reordered or taken as a command on the walk screen."""
+    from textual import events
+
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        burst = (["n", *"Sheeter", "tab", *"45", "tab", *"8A", "enter", *"Oven", "tab", *"60",
+                  "tab", *"30A", "enter"])
+        names = {"tab": "\t", "enter": "\r"}
+        for key in burst:
+            app._driver.send_message(events.Key(key, names.get(key, key)))  # no waiting between keys
+        await pilot.pause(0.5)
+        await app.workers.wait_for_complete()
+        await pilot.pause()
+    runs = [(r["id"], r["to"], r["length"], r.get("load")) for r in tomllib.loads(path.read_text())["run"]]
+    assert runs[2:] == [
+        ("R2", "Sheeter", "45", {"value": 8, "unit": "A"}),
+        ("R3", "Oven", "60", {"value": 30, "unit": "A"}),
+    ]

@@ -264,6 +264,7 @@ class RunCard(EarlyKeys, Screen):
             self._sticky = f"From {self._input('from').value} (shift+tab to change it). Type where the run goes."
         self._focus_field(focus)
         self._message_for_focus()
+        self.keys_ready(self._input(focus))
 
     def _fresh_values(self, source_id: str | None) -> dict[str, str]:
         s = self.session
@@ -307,6 +308,8 @@ class RunCard(EarlyKeys, Screen):
     @on(Input.Changed, ".card-input")
     def _changed(self, event: Input.Changed) -> None:
         key = (event.input.id or "")[2:]
+        if event.value != event.input.value:
+            return  # a late message about text already replaced (fast typing, a stored card)
         if event.value == self._auto.get(key):
             self.recheck()  # a value the card put there itself (messages arrive later)
             return
@@ -595,12 +598,17 @@ class RunCard(EarlyKeys, Screen):
             self._message_for_focus()
 
     # ----- keys -------------------------------------------------------------------------
+    def take_completion(self, field: Input) -> None:
+        """Accept the completion shown in ``field`` (a source or a name already in the walk)."""
+        suggestion = field._suggestion
+        if suggestion and field.cursor_at_end and suggestion != field.value:
+            field.value = suggestion
+            field.cursor_position = len(suggestion)
+
     def action_next_field(self, take_completion: bool = True) -> None:
         focused = self.focused
-        if take_completion and isinstance(focused, Input) and focused._suggestion and focused.cursor_at_end:
-            if focused._suggestion != focused.value:
-                focused.value = focused._suggestion
-                focused.cursor_position = len(focused.value)
+        if take_completion and isinstance(focused, Input):
+            self.take_completion(focused)
         self.focus_next()
 
     def action_prev_field(self) -> None:
@@ -618,7 +626,16 @@ class RunCard(EarlyKeys, Screen):
         event.stop()
         self.action_store()
 
+    def early_enter(self) -> None:
+        self.action_store()
+
     def action_store(self) -> None:
+        if self.hold_enter():
+            return
+        if self.session.busy:
+            self._sticky = "Not stored yet — the walk is still being sized; press Enter again in a moment."
+            self._message_for_focus()
+            return
         self._store_tried = True
         self._sticky = None
         self.recheck()
@@ -659,6 +676,7 @@ class RunCard(EarlyKeys, Screen):
         )
         self.recheck()
         self._focus_field("to")
+        self._early_field = self._input("to")
 
     def action_close_card(self) -> None:
         if self.run_id is None:

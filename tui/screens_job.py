@@ -74,7 +74,9 @@ class JobSettingsScreen(EarlyKeys, Screen):
 
     def on_mount(self) -> None:
         self.app.sub_title = "Job settings"
-        self.query_one("#s-material", Input).focus()
+        first = self.query_one("#s-material", Input)
+        first.focus()
+        self.keys_ready(first)
 
     def _values(self) -> tuple[dict, dict]:
         header: dict = {}

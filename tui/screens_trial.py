@@ -75,8 +75,10 @@ class TrialScreen(EarlyKeys, Screen):
 
     def on_mount(self) -> None:
         self.app.sub_title = f"Trial change on {self.run_id}"
-        self.query_one("#t-material").focus()
+        first = self.query_one("#t-material", Input)
+        first.focus()
         self.recheck()
+        self.keys_ready(first)
 
     @on(Input.Changed)
     def _changed(self) -> None:

@@ -20,16 +20,8 @@ from tui.widgets_views import SupplyTree, footage_text
 VIEWS = ("runs", "tree", "footage")
 
 
-_OPENERS = {
-    "walk.new": "action_new_run", "walk.edit": "action_edit_run",
-    "walk.trial": "action_trial", "walk.job": "action_job_settings",
-}
-
-
-def _key_of(binding_id: str) -> str:
-    from tui.app_keys import KEYS
-
-    return next(k.key for k in KEYS if k.id == binding_id)
+# actions of keys that open another screen (priority bindings in tui.app_keys)
+_OPENERS = {"new_run", "edit_run", "trial", "job_settings"}
 VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage"}
 
 
@@ -70,26 +62,12 @@ class WalkScreen(Screen):
     def on_screen_resume(self) -> None:
         self.reload()
 
-    def on_key(self, event) -> None:
-        """Keys typed right after ``n`` can still be on their way here when the run card opens:
-        hand them to the card instead of acting on them."""
-        from tui.app_earlykeys import EarlyKeys
-
-        top = self.app.screen
-        if top is not self:
-            if isinstance(top, EarlyKeys):
-                top.take_early(event)
-            return
-        if isinstance(self.focused, Input):
-            return
-        # open these screens right here rather than when the key reaches the app's binding
-        # check, so the keys behind it already find the new screen
-        for binding_id, action in _OPENERS.items():
-            if event.key == _key_of(binding_id):
-                event.stop()
-                event.prevent_default()
-                getattr(self, action)()
-                return
+    def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
+        """The keys that open a screen are priority bindings (so the keys typed right after
+        them reach the new screen in order); while the find box has focus they are letters."""
+        if action in _OPENERS and isinstance(self.focused, Input):
+            return False
+        return True
 
     # ----- refreshing -------------------------------------------------------------------
     def reload(self, focus: str | None = None) -> None:
@@ -273,9 +251,12 @@ class WalkScreen(Screen):
         self.open_card(key)
 
     def open_card(self, run_id: str | None) -> None:
+        """Open the run card; it opens even while the walk is still being sized (typing can
+        start at once; storing waits for the sizing)."""
         from tui.screens_card import RunCard
 
-        if self._busy():
+        if self.session.read_only:
+            self._busy()
             return
         self.app.push_screen(RunCard(self.session, run_id))
 

@@ -310,6 +310,8 @@ class RunSheet(ScrollView, can_focus=True):
             self._set_cursor(pos)
 
     def key_enter(self, event: events.Key) -> None:
+        if self.screen is not self.app.screen:
+            return  # typed ahead into a screen that has just opened over this one
         key = self.cursor_key
         if key is not None:
             event.stop()
