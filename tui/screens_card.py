@@ -13,6 +13,7 @@ from dataclasses import dataclass
 from rich.markup import escape
 from textual import on
 from textual.app import ComposeResult
+from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
 from textual.suggester import SuggestFromList
@@ -23,7 +24,7 @@ from model.job import Load, Run, Source
 from model.lengths import LengthError, parse_length
 from model.loads import LoadError, parse_load
 from tui.app_earlykeys import EarlyKeys
-from tui.app_keys import bindings_for
+from tui.app_keys import KEYS, bindings_for
 from tui.app_session import WalkSession, fmt_ft
 from tui.app_rows import size_text
 
@@ -147,6 +148,16 @@ def parse_load_text(text: str) -> tuple[float, str, float | None]:
     return value, unit, pf
 
 
+class CardInput(Input):
+    """A card field: Enter submits (the card stores the run), shown in the footer with the
+    label the key table gives it."""
+
+    BINDINGS = [
+        Binding("enter", "submit", next(k.label for k in KEYS if k.id == "card.store"),
+                key_display="Enter", id="card.store"),
+    ]
+
+
 class Note(Widget):
     """Markup text of a fixed-size box: changing it repaints the box only (no layout pass,
     which would cost a few milliseconds on every keystroke)."""
@@ -207,7 +218,7 @@ class RunCard(EarlyKeys, Screen):
                             suggester = SuggestFromList(["LN", "LL", "LLN", "MW", "3P", "3PN"], case_sensitive=False)
                         elif f.key == "material":
                             suggester = SuggestFromList(["cu", "al"], case_sensitive=False)
-                        yield Input(
+                        yield CardInput(
                             placeholder=f.placeholder, id=f"f-{f.key}", compact=True,
                             suggester=suggester, classes="card-input",
                         )
