@@ -507,3 +507,19 @@ async def test_unknown_raceway_and_insulation_names_are_refused_at_their_fields(
         # NEC Table 310.4(1) names the insulation types
         assert "Not stored — Insulation: no insulation type 'paper'" in shown(app, "#job-msg")
     assert path.read_bytes() == before
+
+
+async def test_enter_on_a_branch_run_in_the_supply_tree_opens_it_for_editing(tmp_path):
+    from tui.screens_card import RunCard
+
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("2")
+        tree = app.screen.query_one("#tree")
+        r1 = next(n for n in _walk_tree(tree.root) if n.data == ("run", "R1"))
+        r1.parent.expand()  # LP1's branch runs are folded at first
+        await pilot.pause()
+        tree.move_cursor(r1)
+        await pilot.press("enter")
+        assert isinstance(app.screen, RunCard) and app.screen.run_id == "R1"

@@ -122,6 +122,13 @@ class WalkScreen(Screen):
     def _highlighted(self, event: RunSheet.Highlighted) -> None:
         self._detail(event.key)
 
+    @on(SupplyTree.NodeSelected)
+    def _tree_chosen(self, event: SupplyTree.NodeSelected) -> None:
+        """Enter on a branch run in the tree edits it (a source node opens or folds)."""
+        data = event.node.data
+        if data and data[0] == "run" and not event.node.allow_expand:
+            self.open_card(data[1])
+
     @on(RunSheet.Chosen)
     def _chosen(self, event: RunSheet.Chosen) -> None:
         self.open_card(event.key)
