@@ -305,6 +305,143 @@ def evaluate(spec: RunSpec) -> RunResult:
         raise SizingError(str(exc)) from None
 
 
+@lru_cache(maxsize=4096)
+def _currents(amps: float, cont: float, ocpd_a: int | None) -> tuple[float, int, tuple, tuple]:
+    """Design current [A] (NEC 210.19(A)(1), 215.2(A)(1)) and the device [A] (240.6(A)), with
+    their notes and problems; cached per load, continuous share and given device."""
+    notes: list[str] = []
+    problems: list[str] = []
+    design = amps - cont + 1.25 * cont
+    if cont > 0:
+        rest = f"{_a(amps - cont)} + " if amps - cont > _EPS else ""
+        notes.append(f"NEC 210.19(A)(1), 215.2(A)(1): {rest}125% of {_a(cont)} continuous = "
+                     f"{_a(design)}")
+    if ocpd_a is not None:
+        ocpd = ocpd_a
+        if ocpd + _EPS < design:
+            problems.append(f"the {ocpd} A device is below the {_a(design)} the circuit needs "
+                            f"(NEC 210.20(A), 215.3)")
+    else:
+        ocpd = _next_rating(design)
+        notes.append(f"NEC 240.6(A): {ocpd} A device, the next standard rating at or above "
+                     f"{_a(design)}")
+    return design, ocpd, tuple(notes), tuple(problems)
+
+
+@dataclass(frozen=True)
+class _Setting:
+    """What follows from the device, the insulation and the installation, the same for every
+    run that shares them: columns, corrections, ampacity and impedance tables, raceway."""
+    insulation: str
+    ins_col: int                     # [C]
+    term_col: int                    # [C]
+    factor: float                    # ambient x bundling
+    cols: _AmpacityColumns
+    z: tuple[float | None, ...]      # [ohm/kft]
+    rtype: str
+    family: str
+    notes: tuple[str, ...]
+
+
+@lru_cache(maxsize=4096)
+def _setting(material: str, insulation_text: str, terminal_temp: int | None, ocpd: int,
+             ambient_c: float, n_ccc: int, raceway: str, method: str, pf: float,
+             conductor_temp_c: float, stranded: bool, sets: int, distributed: bool) -> _Setting:
+    """Terminal column (NEC 110.14(C)(1)), corrections (310.15(B)(1), (C)(1)), the raceway and
+    the impedance column of one installation; cached so that runs alike share the work."""
+    notes: list[str] = []
+    insulation, ins_col = _insulation(insulation_text)
+    if terminal_temp is not None:
+        term_col = terminal_temp
+        term_why = "terminals as given"
+    elif ocpd <= 100:
+        term_col, term_why = 60, f"circuit rated {ocpd} A, 100 A or less"
+    else:
+        term_col, term_why = 75, f"circuit rated {ocpd} A, over 100 A"
+    if term_col > ins_col:
+        term_col, term_why = ins_col, f"{insulation} is rated {ins_col} C"
+    notes.append(f"NEC 110.14(C)(1): {term_col} C terminal column ({term_why})")
+    amb = _ambient(ambient_c, ins_col)
+    adj = _ccc_factor(n_ccc)
+    if amb != 1.0:
+        notes.append(f"NEC 310.15(B)(1)(1): {ambient_c:g} C ambient, factor {amb:g} on the "
+                     f"{ins_col} C column")
+    if adj != 1.0:
+        notes.append(f"NEC 310.15(C)(1): {n_ccc} current-carrying conductors, factor {adj:g}")
+    factor = amb * adj
+    rtype, family, race_note = resolve_raceway(raceway)
+    if race_note:
+        notes.append(race_note)
+    z = _z_table(material, method, family, pf, conductor_temp_c, stranded)
+    if distributed:
+        notes.append("load spread along the run: whole load at half the length (common practice)")
+    cols = _ampacity_columns(material, ins_col, term_col, factor, sets)
+    return _Setting(insulation, ins_col, term_col, factor, cols, z, rtype, family, tuple(notes))
+
+
+@lru_cache(maxsize=8192)
+def _egc_and_raceway(i: int, ocpd: int, base_i: int | None, sets: int, material: str,
+                     egc_mat: str, egc: bool, egc_bare: bool, insulation: str, rtype: str,
+                     hots: int, neutral: int) -> tuple:
+    """EGC (NEC Table 250.122 with 250.122(A), (B) and (F)) and raceway trade size (Ch. 9 Table
+    1) for the picked size index ``i``: ``(egc_size, n_egc, raceway_size, fill_pct, notes,
+    problems)``. Depends on neither length nor load, so it is cached."""
+    tab = _material_table(material)
+    size = tab.sizes[i]
+    notes: list[str] = []
+    problems: list[str] = []
+    egc_size = None
+    if egc:
+        egc_size = table_egc = _egc_table(ocpd, egc_mat)
+        notes.append(f"NEC Table 250.122: {table_egc} {MAT[egc_mat]} EGC for a {ocpd} A device")
+        if base_i is not None and i > base_i:
+            # NEC 250.122(B): the baseline is the smallest size with ampacity for the installation
+            # (after the 310.15(B)/(C) corrections and the device rules), so upsizing forced by the
+            # corrections does not count; upsizing for drop does.
+            ratio = tab.cmil[i] / tab.cmil[base_i]
+            bigger = _smallest_at_least(_cmil(egc_size) * ratio, egc_mat)
+            if _cmil(bigger) > _cmil(egc_size):
+                notes.append(f"NEC 250.122(B): EGC {egc_size} increased to {bigger} in proportion "
+                             f"to the phase conductors ({tab.sizes[base_i]} to {size}, "
+                             f"x{ratio:.3f} circular mils)")
+                egc_size = bigger
+        if _cmil(egc_size) > tab.cmil[i]:
+            notes.append(f"NEC 250.122(A): EGC limited to the phase conductor size {size}")
+            egc_size = size
+        if sets > 1:
+            notes.append(f"NEC 250.122(F): a full {egc_size} EGC in each of the {sets} raceways")
+
+    n_egc = 1 if egc_size else 0
+    count = hots + neutral + n_egc
+    fill_limit = _fill_limit(count)
+    raceway_size = None
+    fill_pct = 0.0
+    per = f" per raceway ({sets} raceways)" if sets > 1 else ""
+    try:
+        area = (hots + neutral) * _insulated_area(size, insulation)
+        if egc_size:
+            area += (_bare_area(egc_size, True) if egc_bare
+                     else _insulated_area(egc_size, insulation))
+    except TableLookupError as exc:
+        area = None
+        problems.append(f"raceway not sized: {exc}")
+    if area is not None:
+        for ts, internal in _raceway_sizes(rtype):
+            if area <= internal * fill_limit / 100.0 + _EPS:
+                raceway_size, fill_pct = ts, 100.0 * area / internal
+                break
+        if raceway_size is None:
+            largest_ts, largest = _raceway_sizes(rtype)[-1]
+            fill_pct = 100.0 * area / largest
+            problems.append(f"no {rtype} trade size holds {count} conductors{per} "
+                            f"({area:.3f} in2) within the {fill_limit:g}% fill of NEC Ch. 9 "
+                            f"Table 1; {largest_ts} would be {fill_pct:.0f}% full")
+        else:
+            notes.append(f"NEC Ch. 9 Table 1: {count} conductors{per}, {fill_pct:.0f}% of trade "
+                         f"size {raceway_size} {rtype} (limit {fill_limit:g}%)")
+    return egc_size, n_egc, raceway_size, fill_pct, tuple(notes), tuple(problems)
+
+
 def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     """``hint``: when nothing fits, look for a number of parallel sets that would (off while
     looking, so the search is one pass over 2..12 sets, not a tree of searches)."""
@@ -314,71 +451,36 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     tab = _material_table(material)
     sets = spec.sets
     amps = float(spec.amps)
-    notes: list[str] = []
-    problems: list[str] = []
 
-    # --- currents --------------------------------------------------------------------------
+    # --- currents and device ---------------------------------------------------------------
     if spec.continuous_amps is not None:
         cont = float(spec.continuous_amps)
     else:
         cont = amps if spec.continuous else 0.0
-    design = amps - cont + 1.25 * cont
-    if cont > 0:
-        rest = f"{_a(amps - cont)} + " if amps - cont > _EPS else ""
-        notes.append(f"NEC 210.19(A)(1), 215.2(A)(1): {rest}125% of {_a(cont)} continuous = "
-                     f"{_a(design)}")
+    design, ocpd, cur_notes, cur_problems = _currents(amps, cont, spec.ocpd_a)
+    notes: list[str] = list(cur_notes)
+    problems: list[str] = list(cur_problems)
 
-    # --- device ----------------------------------------------------------------------------
-    if spec.ocpd_a is not None:
-        ocpd = spec.ocpd_a
-        if ocpd + _EPS < design:
-            problems.append(f"the {ocpd} A device is below the {_a(design)} the circuit needs "
-                            f"(NEC 210.20(A), 215.3)")
-    else:
-        ocpd = _next_rating(design)
-        notes.append(f"NEC 240.6(A): {ocpd} A device, the next standard rating at or above "
-                     f"{_a(design)}")
-
-    # --- columns and corrections -------------------------------------------------------------
-    insulation, ins_col = _insulation(spec.insulation)
-    if spec.terminal_temp is not None:
-        term_col = spec.terminal_temp
-        term_why = "terminals as given"
-    elif ocpd <= 100:
-        term_col, term_why = 60, f"circuit rated {ocpd} A, 100 A or less"
-    else:
-        term_col, term_why = 75, f"circuit rated {ocpd} A, over 100 A"
-    if term_col > ins_col:
-        term_col, term_why = ins_col, f"{insulation} is rated {ins_col} C"
-    notes.append(f"NEC 110.14(C)(1): {term_col} C terminal column ({term_why})")
-    amb = _ambient(spec.ambient_c, ins_col)
+    # --- columns, corrections, raceway, impedance ----------------------------------------------
     n_ccc = spec.ccc if spec.ccc is not None else current_carrying_conductors(circuit)
-    adj = _ccc_factor(n_ccc)
-    if amb != 1.0:
-        notes.append(f"NEC 310.15(B)(1)(1): {spec.ambient_c:g} C ambient, factor {amb:g} on the "
-                     f"{ins_col} C column")
-    if adj != 1.0:
-        notes.append(f"NEC 310.15(C)(1): {n_ccc} current-carrying conductors, factor {adj:g}")
+    st = _setting(material, spec.insulation, spec.terminal_temp, ocpd, spec.ambient_c, n_ccc,
+                  spec.raceway, spec.method, float(spec.pf), float(spec.conductor_temp_c),
+                  bool(spec.stranded), sets, bool(spec.distributed))
+    notes.extend(st.notes)
+    ins_col, term_col, factor = st.ins_col, st.term_col, st.factor
     ins_amps = tab.amp[ins_col]
     term_amps = tab.amp[term_col]
-    factor = amb * adj
 
     # --- drop -------------------------------------------------------------------------------
-    rtype, family, race_note = resolve_raceway(spec.raceway)
-    if race_note:
-        notes.append(race_note)
-    z = _z_table(material, spec.method, family, float(spec.pf), float(spec.conductor_temp_c),
-                 bool(spec.stranded))
+    z = st.z
     length = spec.length_ft / 2.0 if spec.distributed else spec.length_ft
-    if spec.distributed:
-        notes.append("load spread along the run: whole load at half the length (common practice)")
     k_drop = circuit.drop_factor * amps * length / 1000.0 / sets
     pct_per_volt = 100.0 / circuit.volts
     drop_limit = spec.max_drop_pct
     total_room = spec.max_total_drop_pct - spec.upstream_drop_pct
     limit_pct = min(drop_limit, total_room)
 
-    cols = _ampacity_columns(material, ins_col, term_col, factor, sets)
+    cols = st.cols
     n = len(tab.sizes)
     min_amp_i = ocpd_i = pick_i = None
     term_tot, corr_tot, protect = cols.term_total, cols.corrected_total, cols.protect_limit
@@ -456,7 +558,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     zi = z[i]
     method_used = spec.method
     if zi is None:
-        zi = _z_table(material, "dc", family, 1.0, float(spec.conductor_temp_c),
+        zi = _z_table(material, "dc", st.family, 1.0, float(spec.conductor_temp_c),
                       bool(spec.stranded))[i]
         method_used = "dc"
         notes.append(f"NEC Ch. 9 Table 9 lists no {mat} {size}: drop from Table 8 DC resistance, "
@@ -491,61 +593,15 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         notes.append(f"upsized from {base} for voltage drop ({_pct(vd_pct)} of "
                      f"{circuit.volts:g} V)")
 
-    # --- EGC -------------------------------------------------------------------------------
-    egc_size = None
-    if spec.egc:
-        egc_mat = spec.egc_material or material
-        egc_size = table_egc = _egc_table(ocpd, egc_mat)
-        notes.append(f"NEC Table 250.122: {table_egc} {MAT[egc_mat]} EGC for a {ocpd} A device")
-        base_i = ocpd_i if ocpd_i is not None else min_amp_i
-        if base_i is not None and i > base_i:
-            # NEC 250.122(B): the baseline is the smallest size with ampacity for the installation
-            # (after the 310.15(B)/(C) corrections and the device rules), so upsizing forced by the
-            # corrections does not count; upsizing for drop does.
-            ratio = tab.cmil[i] / tab.cmil[base_i]
-            bigger = _smallest_at_least(_cmil(egc_size) * ratio, egc_mat)
-            if _cmil(bigger) > _cmil(egc_size):
-                notes.append(f"NEC 250.122(B): EGC {egc_size} increased to {bigger} in proportion "
-                             f"to the phase conductors ({tab.sizes[base_i]} to {size}, "
-                             f"x{ratio:.3f} circular mils)")
-                egc_size = bigger
-        if _cmil(egc_size) > tab.cmil[i]:
-            notes.append(f"NEC 250.122(A): EGC limited to the phase conductor size {size}")
-            egc_size = size
-        if sets > 1:
-            notes.append(f"NEC 250.122(F): a full {egc_size} EGC in each of the {sets} raceways")
-
-    # --- raceway ---------------------------------------------------------------------------
+    # --- EGC and raceway ------------------------------------------------------------------------
     hots = circuit.hots
     neutral = 1 if circuit.neutral else 0
-    n_egc = 1 if egc_size else 0
-    count = hots + neutral + n_egc
-    fill_limit = _fill_limit(count)
-    raceway_size = None
-    fill_pct = 0.0
-    per = f" per raceway ({sets} raceways)" if sets > 1 else ""
-    try:
-        area = (hots + neutral) * _insulated_area(size, insulation)
-        if egc_size:
-            area += (_bare_area(egc_size, True) if spec.egc_bare
-                     else _insulated_area(egc_size, insulation))
-    except TableLookupError as exc:
-        area = None
-        problems.append(f"raceway not sized: {exc}")
-    if area is not None:
-        for ts, internal in _raceway_sizes(rtype):
-            if area <= internal * fill_limit / 100.0 + _EPS:
-                raceway_size, fill_pct = ts, 100.0 * area / internal
-                break
-        if raceway_size is None:
-            largest_ts, largest = _raceway_sizes(rtype)[-1]
-            fill_pct = 100.0 * area / largest
-            problems.append(f"no {rtype} trade size holds {count} conductors{per} "
-                            f"({area:.3f} in2) within the {fill_limit:g}% fill of NEC Ch. 9 "
-                            f"Table 1; {largest_ts} would be {fill_pct:.0f}% full")
-        else:
-            notes.append(f"NEC Ch. 9 Table 1: {count} conductors{per}, {fill_pct:.0f}% of trade "
-                         f"size {raceway_size} {rtype} (limit {fill_limit:g}%)")
+    egc_size, n_egc, raceway_size, fill_pct, er_notes, er_problems = _egc_and_raceway(
+        i, ocpd, ocpd_i if ocpd_i is not None else min_amp_i, sets, material,
+        spec.egc_material or material, bool(spec.egc), bool(spec.egc_bare), st.insulation,
+        st.rtype, hots, neutral)
+    notes.extend(er_notes)
+    problems.extend(er_problems)
 
     margins = {
         "ampacity_a": allowable_total - amps,
@@ -571,7 +627,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         total_drop_pct=total_pct,
         egc_size=egc_size,
         neutral_size=size if neutral else None,
-        raceway=rtype,
+        raceway=st.rtype,
         raceway_size=raceway_size,
         raceway_fill_pct=fill_pct,
         governed_by=governed_by,
