@@ -109,14 +109,14 @@ class SupplyTree(Tree):
 def footage_text(session: WalkSession, width: int = 78) -> str:
     """Conductor feet by material and size with a text bar each, then the takeoff: the same
     ``model.takeoff`` numbers as ``gaugewalk takeoff`` and the report."""
-    from model.takeoff import TakeoffError, build_takeoff
+    from model.takeoff import build_takeoff
     from tui.cmd_takeoff import render_text
 
     if session.result is None:
         return "Sizing the walk…"
     try:
         takeoff = build_takeoff(session.job, session.result)
-    except TakeoffError as exc:
+    except ValueError as exc:  # TakeoffError and table lookups: say why, never crash
         return "The takeoff cannot be made: " + escape(str(exc))
     d = session.job.defaults
     rows = takeoff.footage_by_size()
