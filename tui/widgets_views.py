@@ -1,9 +1,9 @@
 """The supply tree and the footage tally: the two other ways to look at a walk.
 
 The tree goes from each service through feeders, transformers and panels to the branch runs, with
-the cumulative drop at every node; a panel's runs are added only when it is opened, so a walk of
-thousands of runs opens at once. The footage tally adds up conductor feet by material and size and
-draws a bar for each in text blocks (readable without colour).
+the cumulative drop at every node; it is built only when shown, with the chain of sources open
+and each panel's branch runs folded. The footage tally shows the takeoff's conductor feet by
+material and size with a bar for each in text blocks (readable without colour), then the takeoff.
 """
 
 from __future__ import annotations
