@@ -28,6 +28,7 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
     ("branch_drop_pct", "Branch drop %", "210.19 note: 3"),
     ("feeder_drop_pct", "Feeder drop %", "215.2 note: 3"),
     ("total_drop_pct", "Total drop %", "215.2 note: 5"),
+    ("min_size", "Smallest size", "e.g. 12 (job spec); blank: rules"),
     ("method", "Drop method", "ac, kfactor or dc"),
     ("pf", "Power factor", "for loads without one"),
     ("conductor_temp_c", "Conductor °C", "for resistance, Ch. 9 Table 8"),
@@ -85,10 +86,11 @@ class JobSettingsScreen(EarlyKeys, Screen):
             text = self.query_one("#s-" + key.replace(".", "-"), Input).value.strip()
             if key.startswith("job."):
                 header[key[4:]] = text
-            elif text == "" and key == "terminal_temp":
+            elif text == "" and key in ("terminal_temp", "min_size"):
                 defaults[key] = None
             elif text != "":
-                defaults[key] = text if key in ("material", "insulation", "raceway", "method") else _number(text)
+                text_keys = ("material", "insulation", "raceway", "method", "min_size")
+                defaults[key] = text if key in text_keys else _number(text)
         return header, defaults
 
     @on(Input.Submitted)
