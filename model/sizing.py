@@ -25,7 +25,7 @@ from __future__ import annotations
 
 import math
 from bisect import bisect_left
-from dataclasses import MISSING, dataclass, fields
+from dataclasses import dataclass
 from functools import lru_cache
 
 from model.drop import conductor_z, effective_z, temperature_corrected
@@ -211,8 +211,49 @@ def _bad_positive(v: object) -> bool:
     return v.__class__ not in (int, float) or not (0 < v < math.inf)
 
 
+_NUMBER = (int, float)
+_METHODS = ("dc", "kfactor", "ac")
+
+
+@lru_cache(maxsize=256)
+def _size_known(text: str) -> bool:
+    try:
+        parse_size(text)
+    except TableLookupError:
+        return False
+    return True
+
+
 def _check_spec(spec: RunSpec) -> None:
-    """Refuse a spec the engine cannot evaluate, naming the field."""
+    """Refuse a spec the engine cannot evaluate, naming the field.
+
+    One combined test passes the usual valid spec; anything it does not pass goes through the
+    field-by-field checks, in the same order, which name the field."""
+    a, ln, m, t = spec.amps, spec.length_ft, spec.max_drop_pct, spec.max_total_drop_pct
+    v = spec.circuit.volts
+    ca, tt, ccc, ms, oc = (spec.continuous_amps, spec.terminal_temp, spec.ccc, spec.min_size,
+                           spec.ocpd_a)
+    if (a.__class__ in _NUMBER and 0 < a < math.inf
+            and ln.__class__ in _NUMBER and 0 < ln < math.inf
+            and m.__class__ in _NUMBER and 0 < m < math.inf
+            and t.__class__ in _NUMBER and 0 < t < math.inf
+            and v.__class__ in _NUMBER and 0 < v < math.inf
+            and 0 < spec.pf <= 1
+            and spec.sets.__class__ is int and 1 <= spec.sets <= 20
+            and spec.material in START_SIZE and spec.method in _METHODS
+            and (tt is None or tt in t_amp.COLUMNS)
+            and (ccc is None or (ccc.__class__ is int and ccc >= 1))
+            and (ca is None or 0 <= ca <= a)
+            and 0 <= spec.upstream_drop_pct < math.inf
+            and -40 <= spec.conductor_temp_c <= 250
+            and (ms is None or (ms.__class__ is str and _size_known(ms)))
+            and (oc is None or (oc.__class__ is int and oc > 0))):
+        return
+    _check_spec_fields(spec)
+
+
+def _check_spec_fields(spec: RunSpec) -> None:
+    """The field-by-field checks of ``_check_spec``: raise naming the first bad field."""
     for name in ("amps", "length_ft", "max_drop_pct", "max_total_drop_pct"):
         v = getattr(spec, name)
         if _bad_positive(v):
@@ -611,61 +652,39 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         "drop_pct": spec.max_drop_pct - vd_pct,
         "total_drop_pct": spec.max_total_drop_pct - total_pct,
     }
-    return _make_result(
-        size=size,
-        sets=sets,
-        material=material,
-        method=method_used,
-        amps=amps,
-        design_amps=design,
-        required_ampacity_a=amps,
-        ampacity_a=allowable_total,
-        min_ampacity_size=tab.sizes[min_amp_i] if min_amp_i is not None else tab.sizes[-1],
-        ocpd_a=ocpd,
-        voltage_drop_v=vd_v,
-        voltage_drop_pct=vd_pct,
-        total_drop_pct=total_pct,
-        egc_size=egc_size,
-        neutral_size=size if neutral else None,
-        raceway=st.rtype,
-        raceway_size=raceway_size,
-        raceway_fill_pct=fill_pct,
-        governed_by=governed_by,
-        margins=margins,
-        conductors={"hot": hots, "neutral": neutral, "egc": n_egc},
-        problems=tuple(problems),
-        notes=tuple(notes),
-    )
-
-
-def _result_defaults() -> dict:
-    out = {}
-    for f in fields(RunResult):
-        if f.default is not MISSING:
-            out[f.name] = f.default
-        elif f.default_factory is not MISSING:
-            out[f.name] = f.default_factory
-    return out
-
-
-_RESULT_DEFAULTS = _result_defaults()
-_RESULT_FIELDS = frozenset(f.name for f in fields(RunResult))
-
-
-def _make_result(**values) -> RunResult:
-    """Build a ``RunResult`` without the per-field ``object.__setattr__`` of a frozen dataclass's
-    ``__init__`` (a third of the engine's time per run). Every field is set: the given values, the
-    defaults for the rest; an unknown name raises like ``__init__`` would."""
-    unknown = values.keys() - _RESULT_FIELDS
-    if unknown:
-        raise TypeError(f"RunResult has no field {sorted(unknown)}")
-    result = object.__new__(RunResult)
-    d = result.__dict__
-    for name, default in _RESULT_DEFAULTS.items():
-        if name not in values:
-            d[name] = default() if callable(default) else default
-    d.update(values)
+    # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (a third
+    # of the engine's time per run); every field of RunResult is set, in field order.
+    result = _new_object(RunResult)
+    _set_attr(result, "__dict__", {
+        "size": size,
+        "sets": sets,
+        "material": material,
+        "method": method_used,
+        "amps": amps,
+        "design_amps": design,
+        "required_ampacity_a": amps,
+        "ampacity_a": allowable_total,
+        "min_ampacity_size": tab.sizes[min_amp_i] if min_amp_i is not None else tab.sizes[-1],
+        "ocpd_a": ocpd,
+        "voltage_drop_v": vd_v,
+        "voltage_drop_pct": vd_pct,
+        "total_drop_pct": total_pct,
+        "egc_size": egc_size,
+        "neutral_size": size if neutral else None,
+        "raceway": st.rtype,
+        "raceway_size": raceway_size,
+        "raceway_fill_pct": fill_pct,
+        "governed_by": governed_by,
+        "margins": margins,
+        "conductors": {"hot": hots, "neutral": neutral, "egc": n_egc},
+        "problems": tuple(problems),
+        "notes": tuple(notes),
+    })
     return result
+
+
+_new_object = object.__new__
+_set_attr = object.__setattr__
 
 
 def _floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
