@@ -10,9 +10,13 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from model.job import Defaults, Job, JobHeader, Run, Source
 from model.run_spec import RunResult
+
+if TYPE_CHECKING:
+    from model.compute import JobResult
 
 # Statuses shown in the run sheet: a symbol AND words, never colour alone.
 STATUS_OK = "✓ ok"
@@ -153,12 +157,19 @@ class WalkSession:
             own = d.feeder_drop_pct if self.job.is_feeder(run) else d.branch_drop_pct
         return own, d.total_drop_pct
 
-    def status(self, run: Run, res: RunResult | None = None) -> RunStatus:
-        """Classify a run: short of ampacity, over its drop target, over the total, or ok."""
+    def status(self, run: Run, res: RunResult | None = None,
+               job_result: JobResult | None = None) -> RunStatus:
+        """Classify a run: short of ampacity, over its drop target, over the total, or ok.
+
+        The walk's own problems for the run are added from ``job_result`` (a trial's), or from
+        the stored walk when ``res`` is the stored result; a previewed result is judged alone,
+        so a problem the edit fixes is not shown against it."""
         if self.result is None:
             return RunStatus("… sizing", False, ())
-        res = res if res is not None else self.result_for(run.id)
-        extra = tuple(p.message for p in self.result.run_problems(run.id)) if self.result else ()
+        stored = self.result_for(run.id)
+        res = res if res is not None else stored
+        walk = job_result if job_result is not None else (self.result if res is stored else None)
+        extra = tuple(p.message for p in walk.run_problems(run.id)) if walk is not None else ()
         if res is None:
             return RunStatus(STATUS_ERROR, True, extra or ("this run could not be sized",))
         problems = tuple(res.problems) + tuple(p for p in extra if p not in res.problems)
@@ -262,7 +273,7 @@ class WalkSession:
                 if r is None or b is None or a is None:
                     continue
                 down.append((rid, b.total_drop_pct, a.total_drop_pct,
-                             self.status(r, b).flag, self.status(r, a).flag))
+                             self.status(r, b).flag, self.status(r, a, result).flag))
         return TrialOutcome(result, [], down)
 
     def same_system_below(self, source_id: str, system: str) -> list[Source]:

@@ -160,7 +160,7 @@ class TrialScreen(EarlyKeys, Screen):
         before = s.result_for(run.id)
         after = outcome.result.runs.get(run.id) if outcome.result else None
         st_b = s.status(run, before)
-        st_a = s.status(trial, after) if after is not None else None
+        st_a = s.status(trial, after, outcome.result) if after is not None else None
 
         def row(label, a, b):
             mark = "" if a == b else "  ←"
