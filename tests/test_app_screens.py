@@ -301,7 +301,7 @@ async def test_no_color_and_the_light_look_keep_every_state_in_words(tmp_path, m
         assert "✓ saved" in app.title
 
 
-async def test_started_without_a_file_it_offers_the_recent_walks(tmp_path):
+async def test_started_without_a_file_enter_reopens_the_walk_used_last(tmp_path):
     config = tmp_path / "cfg"
     path = write_walk(tmp_path)
     recent = RecentWalks.load(config)
@@ -310,7 +310,7 @@ async def test_started_without_a_file_it_offers_the_recent_walks(tmp_path):
     app = new_app(None, config)
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(app, pilot)
-        await pilot.press("down", "enter")  # past "start a new walk" to the recent walk
+        await pilot.press("enter")  # the walk used last is highlighted, not "start a new walk"
         await settle(app, pilot)
         assert isinstance(app.screen, WalkScreen)
         assert app.session.path == path.resolve()

@@ -44,7 +44,10 @@ class StartScreen(Screen[tuple[str, str] | None]):
 
     def on_mount(self) -> None:
         self.query_one("#start-path").display = False
-        self.query_one("#start-list").focus()
+        choices = self.query_one("#start-list", OptionList)
+        if self.recent:  # Enter reopens the walk used last; n still starts a new one
+            choices.highlighted = 1
+        choices.focus()
 
     @on(OptionList.OptionSelected)
     def _chosen(self, event: OptionList.OptionSelected) -> None:
