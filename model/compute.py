@@ -26,7 +26,7 @@ from __future__ import annotations
 
 import gc
 import math
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field, fields, replace
 
 from model.chain import upstream_drop
 from model.job import Job, Run
@@ -192,14 +192,41 @@ def run_spec_for(
     return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feeder_load)
 
 
+_NUMBER = (int, float)
+_SPEC_DEFAULTS = {f.name: f.default for f in fields(RunSpec)}
+_CCC, _EGC, _EGC_MATERIAL, _EGC_BARE, _STRANDED = (
+    _SPEC_DEFAULTS[name] for name in ("ccc", "egc", "egc_material", "egc_bare", "stranded"))
+_new_object = object.__new__
+_set_attr = object.__setattr__
+
+
+def _load_amps(value: float, unit: str, circuit: Circuit, pf: float) -> float:
+    """``model.loads.load_amps`` for the usual load (a canonical unit, a positive number, a valid
+    power factor) without its unit normalising and checks; anything else goes through it."""
+    if (unit.__class__ is str and unit in UNITS and value.__class__ in _NUMBER
+            and 0 < value < math.inf):
+        if unit == "A":
+            return float(value)
+        if pf.__class__ in _NUMBER and 0 < pf <= 1:
+            va = value * UNITS[unit]
+            if unit in ("W", "kW"):
+                va /= pf
+            if circuit.phases == 3:
+                return va / (SQRT3 * circuit.line_volts)
+            return va / circuit.line_volts
+    return load_amps(value, unit, circuit, pf)
+
+
 def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder: bool,
           feeder_load: FeederLoad | None) -> RunSpec:
     d = job.defaults
     pf = d.pf
     continuous_amps = None
-    if run.load is not None:
-        pf = run.load.pf if run.load.pf is not None else d.pf
-        amps = load_amps(run.load.value, run.load.unit, circuit, pf)
+    load = run.load
+    if load is not None:
+        if load.pf is not None:
+            pf = load.pf
+        amps = _load_amps(load.value, load.unit, circuit, pf)
     elif feeder:
         if feeder_load is None:
             feeder_load = _sum_below(job, run.to)
@@ -214,29 +241,39 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
     max_drop = run.max_drop_pct
     if max_drop is None:
         max_drop = d.feeder_drop_pct if feeder else d.branch_drop_pct
-    return RunSpec(
-        circuit=circuit,
-        amps=amps,
-        length_ft=run.length_ft,
-        continuous=run.continuous if continuous_amps is None else False,
-        continuous_amps=continuous_amps,
-        distributed=run.distributed,
-        material=run.material or d.material,
-        insulation=run.insulation or d.insulation,
-        terminal_temp=run.terminal_temp if run.terminal_temp is not None else d.terminal_temp,
-        conductor_temp_c=run.conductor_temp_c if run.conductor_temp_c is not None else d.conductor_temp_c,
-        method=run.method or d.method,
-        pf=pf,
-        raceway=run.raceway or d.raceway,
-        ambient_c=run.ambient_c if run.ambient_c is not None else d.ambient_c,
-        sets=run.sets,
-        size=run.size,
-        ocpd_a=run.ocpd_a,
-        max_drop_pct=max_drop,
-        upstream_drop_pct=upstream_drop_pct,
-        max_total_drop_pct=d.total_drop_pct,
-        min_size=d.min_size,
-    )
+    # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (the
+    # larger part of this function's time); every field of RunSpec is set, in field order.
+    spec = _new_object(RunSpec)
+    _set_attr(spec, "__dict__", {
+        "circuit": circuit,
+        "amps": amps,
+        "length_ft": run.length_ft,
+        "continuous": run.continuous if continuous_amps is None else False,
+        "continuous_amps": continuous_amps,
+        "distributed": run.distributed,
+        "material": run.material or d.material,
+        "insulation": run.insulation or d.insulation,
+        "terminal_temp": run.terminal_temp if run.terminal_temp is not None else d.terminal_temp,
+        "conductor_temp_c": (run.conductor_temp_c if run.conductor_temp_c is not None
+                             else d.conductor_temp_c),
+        "method": run.method or d.method,
+        "pf": pf,
+        "raceway": run.raceway or d.raceway,
+        "ambient_c": run.ambient_c if run.ambient_c is not None else d.ambient_c,
+        "ccc": _CCC,
+        "sets": run.sets,
+        "size": run.size,
+        "ocpd_a": run.ocpd_a,
+        "max_drop_pct": max_drop,
+        "upstream_drop_pct": upstream_drop_pct,
+        "max_total_drop_pct": d.total_drop_pct,
+        "egc": _EGC,
+        "egc_material": _EGC_MATERIAL,
+        "egc_bare": _EGC_BARE,
+        "stranded": _STRANDED,
+        "min_size": d.min_size,
+    })
+    return spec
 
 
 def _sum_below(job: Job, source_id: str) -> FeederLoad:
@@ -248,9 +285,17 @@ def _sum_below(job: Job, source_id: str) -> FeederLoad:
     return state.result._loads.get(source_id, FeederLoad(0.0, 0.0, 0.0))
 
 
+def _feeder_load(va: float, continuous_va: float, watts: float) -> FeederLoad:
+    """``FeederLoad(va, continuous_va, watts)`` without the per-field ``object.__setattr__`` of
+    a frozen dataclass's ``__init__`` (two are made per run)."""
+    load = _new_object(FeederLoad)
+    _set_attr(load, "__dict__", {"va": va, "continuous_va": continuous_va, "watts": watts})
+    return load
+
+
 def _add(a: FeederLoad, b: FeederLoad, sign: float = 1.0) -> FeederLoad:
-    return FeederLoad(a.va + sign * b.va, a.continuous_va + sign * b.continuous_va,
-                      a.watts + sign * b.watts)
+    return _feeder_load(a.va + sign * b.va, a.continuous_va + sign * b.continuous_va,
+                        a.watts + sign * b.watts)
 
 
 _ZERO = FeederLoad(0.0, 0.0, 0.0)
@@ -302,7 +347,7 @@ class _State:
             return None
         pf = run.load.pf if run.load.pf is not None else self.job.defaults.pf
         va = _va_of(run.load.value, run.load.unit, circuit, pf)
-        return FeederLoad(va, va if run.continuous else 0.0, va * pf)
+        return _feeder_load(va, va if run.continuous else 0.0, va * pf)
 
     def set_run_load(self, run: Run, load: FeederLoad | None) -> None:
         res = self.result
