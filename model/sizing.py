@@ -91,30 +91,33 @@ class _AmpacityColumns:
     corrected_total: tuple[float, ...]       # [A] insulation column x corrections x sets
     allowable_total: tuple[float, ...]       # [A] the smaller of the two
     protect_limit: tuple[float, ...]         # [A] largest device permitted (240.4(B)-(D))
+    device_limit: tuple[float, ...]          # [A] the same by 240.4(B), (C) alone
 
 
 @lru_cache(maxsize=4096)
 def _ampacity_columns(material: str, ins_col: int, term_col: int, factor: float,
                       sets: int) -> _AmpacityColumns:
     tab = _material_table(material)
-    term, corr, allow, prot = [], [], [], []
+    term, corr, allow, prot, dev = [], [], [], [], []
     first = None
     for i, _size in enumerate(tab.sizes):
         ia, ta = tab.amp[ins_col][i], tab.amp[term_col][i]
         if ia is None or ta is None:
             term.append(-1.0), corr.append(-1.0), allow.append(-1.0), prot.append(-1.0)
+            dev.append(-1.0)
             continue
         if first is None and (sets == 1 or tab.parallel_ok[i]):
             first = i
         corrected = ia * factor * sets
         allowable = min(ia * factor, ta) * sets
         limit = _protect_limit(allowable)
+        dev.append(limit)
         if tab.small_max[i] is not None:
             limit = min(limit, float(tab.small_max[i]))
         term.append(ta * sets), corr.append(corrected), allow.append(allowable)
         prot.append(limit)
     return _AmpacityColumns(first if first is not None else len(tab.sizes), tuple(term),
-                            tuple(corr), tuple(allow), tuple(prot))
+                            tuple(corr), tuple(allow), tuple(prot), tuple(dev))
 
 
 @lru_cache(maxsize=256)
@@ -508,7 +511,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
                   spec.raceway, spec.method, float(spec.pf), float(spec.conductor_temp_c),
                   bool(spec.stranded), sets, bool(spec.distributed))
     notes.extend(st.notes)
-    ins_col, term_col, factor = st.ins_col, st.term_col, st.factor
+    ins_col, term_col = st.ins_col, st.term_col
     ins_amps = tab.amp[ins_col]
     term_amps = tab.amp[term_col]
 
@@ -577,10 +580,12 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     if ia is None or ta is None:
         raise SizingError(f"Table 310.16 has no {mat} {size} in the {ins_col} or {term_col} C "
                           f"column")
-    corrected_total = ia * factor * sets
-    term_total = ta * sets
-    allowable_total = min(ia * factor, ta) * sets
-    protect_limit = _protect_limit(allowable_total)
+    # the same products as the cached columns: ia * factor * sets, ta * sets,
+    # min(ia * factor, ta) * sets and _protect_limit of the last
+    corrected_total = corr_tot[i]
+    term_total = term_tot[i]
+    allowable_total = cols.allowable_total[i]
+    protect_limit = cols.device_limit[i]
     sm = tab.small_max[i]
     if sm is not None:
         protect_limit = min(protect_limit, sm)
