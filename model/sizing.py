@@ -606,6 +606,9 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     if zi is None:
         zi = _z_table(material, "dc", st.family, 1.0, float(spec.conductor_temp_c),
                       bool(spec.stranded))[i]
+        if zi is None:
+            raise SizingError(f"NEC Ch. 9 Table 8 lists no solid {mat} {size}; solid conductors "
+                              f"are listed up to {t_cond.SOLID_SIZES[-1]}")
         method_used = "dc"
         notes.append(f"NEC Ch. 9 Table 9 lists no {mat} {size}: drop from Table 8 DC resistance, "
                      f"reactance left out")
