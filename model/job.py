@@ -30,9 +30,18 @@ import re
 import warnings
 from datetime import date
 from functools import lru_cache
-from typing import Literal
+from typing import Annotated, Literal
 
-from pydantic import BaseModel, ConfigDict, Field, PrivateAttr, field_validator, model_validator
+from pydantic import (
+    AfterValidator,
+    BaseModel,
+    BeforeValidator,
+    ConfigDict,
+    Field,
+    PrivateAttr,
+    field_validator,
+    model_validator,
+)
 
 from model.lengths import LengthError
 from model.lengths import parse_length as _parse_length
@@ -205,24 +214,10 @@ class Load(_Strict):
 class Segment(_Strict):
     """One stretch of a run's route, with a note on where it goes."""
 
-    length: str = Field(min_length=1, max_length=200, json_schema_extra=_TEXT_OR_NUMBER)
+    length: LengthText
     """Length as typed (same grammar as the run's length)."""
     note: str = ""
     """Where this stretch goes."""
-
-    @field_validator("length", mode="before")
-    @classmethod
-    def _number_as_text(cls, value):
-        return _length_text(value)
-
-    @field_validator("length")
-    @classmethod
-    def _readable(cls, value: str) -> str:
-        try:
-            parse_length(value)
-        except LengthError as exc:
-            raise ValueError(f"the length '{value}' cannot be read {exc}") from None
-        return value
 
 
 def _length_text(value):
@@ -233,6 +228,24 @@ def _length_text(value):
     if isinstance(value, float):
         return str(int(value)) if value.is_integer() else repr(value)
     return value
+
+
+def _readable_length(value: str) -> str:
+    try:
+        parse_length(value)
+    except LengthError as exc:
+        raise ValueError(f"the length '{value}' cannot be read {exc}") from None
+    return value
+
+
+LengthText = Annotated[
+    str,
+    BeforeValidator(_length_text),
+    AfterValidator(_readable_length),
+    Field(min_length=1, max_length=200, json_schema_extra=_TEXT_OR_NUMBER),
+]
+"""A route length as typed (``85+12+2*6``; a bare number is kept as its text), which the length
+grammar of ``model.lengths`` must read."""
 
 
 class Source(_Strict):
@@ -280,7 +293,7 @@ class Run(_Strict):
     """Id of the source the run starts at."""
     to: str = Field(min_length=1, max_length=120)
     """A source id of this job (the run is then its feeder) or the load's name."""
-    length: str = Field(min_length=1, max_length=200, json_schema_extra=_TEXT_OR_NUMBER)
+    length: LengthText
     """One-way route length as typed: ``85+12+2*6``, ``36m+8ft`` [ft unless a unit is given]."""
     segments: list[Segment] = Field(default_factory=list)
     """Optional stretches of the route with notes; they must add up to ``length``."""
@@ -328,20 +341,6 @@ class Run(_Strict):
     @classmethod
     def _from_is_id(cls, value: str) -> str:
         return _check_id(value)
-
-    @field_validator("length", mode="before")
-    @classmethod
-    def _number_as_text(cls, value):
-        return _length_text(value)
-
-    @field_validator("length")
-    @classmethod
-    def _readable(cls, value: str) -> str:
-        try:
-            parse_length(value)
-        except LengthError as exc:
-            raise ValueError(f"the length '{value}' cannot be read {exc}") from None
-        return value
 
     @field_validator("size")
     @classmethod
