@@ -19,10 +19,11 @@ from __future__ import annotations
 
 import json
 import os
-import tempfile
 from dataclasses import dataclass
 from datetime import datetime, timezone
 from pathlib import Path
+
+from model.walkfile import atomic_write
 
 DRAFT_SUFFIX = ".draft.json"
 MAX_DRAFT_BYTES = 256 * 1024
@@ -59,19 +60,7 @@ def save_draft(walk: str | os.PathLike, fields: dict[str, str], run_id: str | No
     now = datetime.now(timezone.utc).replace(microsecond=0).isoformat()
     data = json.dumps({"fields": clean, "run_id": run_id, "saved_at": now},
                       ensure_ascii=False, indent=1).encode("utf-8")
-    fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
-    try:
-        with os.fdopen(fd, "wb") as handle:
-            handle.write(data)
-            handle.flush()
-            os.fsync(handle.fileno())
-        os.replace(tmp, target)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
+    atomic_write(target, data, keep_backup=False)
 
 
 def load_draft(walk: str | os.PathLike) -> Draft | None:

@@ -416,20 +416,18 @@ class WalkSession:
 
     def undo(self) -> Snapshot | None:
         """Go back one change; returns what was undone (its label and run) or None."""
-        if not self.history:
-            return None
-        snap = self.history.pop()
-        self.future.append(self._snapshot(snap.label, snap.focus))
-        self._restore(snap)
-        self.recompute()
-        self.save()
-        return snap
+        return self._step(self.history, self.future)
 
     def redo(self) -> Snapshot | None:
-        if not self.future:
+        """Do again what was undone; returns it or None."""
+        return self._step(self.future, self.history)
+
+    def _step(self, source: list[Snapshot], target: list[Snapshot]) -> Snapshot | None:
+        """Restore the last snapshot of ``source``, keeping the present on ``target``."""
+        if not source:
             return None
-        snap = self.future.pop()
-        self.history.append(self._snapshot(snap.label, snap.focus))
+        snap = source.pop()
+        target.append(self._snapshot(snap.label, snap.focus))
         self._restore(snap)
         self.recompute()
         self.save()

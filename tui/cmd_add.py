@@ -9,15 +9,20 @@ from __future__ import annotations
 
 import argparse
 import sys
-from datetime import date
 
 from pydantic import ValidationError
 
 from model.compute import compute_job
 from model.job import Run
 from model.walk_problems import Locator, problems_from_errors
-from model.walkfile import check_walk_text, dumps_walk, save_walk
-from tui.walk_cli import EXIT_INVALID, EXIT_OK, print_problems, read_job, writes_walk
+from tui.walk_cli import (
+    EXIT_INVALID,
+    EXIT_OK,
+    print_problems,
+    read_job,
+    save_checked,
+    writes_walk,
+)
 
 NAME = "add"
 HELP = "Add a run to a walk file (same length grammar as 'calc')."
@@ -104,15 +109,8 @@ def run(args: argparse.Namespace) -> int:
                                             f"run {run_id}"))
         return EXIT_INVALID
     job.runs.append(new)
-    text = dumps_walk(job)
-    _, problems = check_walk_text(text, args.file)
-    if problems:
-        # the file on disk is untouched; line numbers would point into the unsaved text
-        print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
+    if not save_checked(job, args.file, args.expected):
         return EXIT_INVALID
-    notice = save_walk(job, args.file, expected=args.expected)
-    if notice is not None:
-        print(f"warning: {notice.message}", file=sys.stderr)
     result = compute_job(job)
     rr = result.runs.get(run_id)
     kind = "feeder" if job.is_feeder(new) else "branch"

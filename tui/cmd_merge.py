@@ -10,11 +10,9 @@ from __future__ import annotations
 
 import argparse
 import sys
-from pathlib import Path
 
 from model.merge import merge_jobs
-from model.walkfile import check_walk_text, dumps_walk, save_walk
-from tui.walk_cli import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems, read_job, writes_walk
+from tui.walk_cli import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, read_job, save_checked, writes_walk
 
 NAME = "merge"
 HELP = "Merge two walk files by run and source id; conflicts stop the merge unless --prefer."
@@ -41,14 +39,9 @@ def run(args: argparse.Namespace) -> int:
         print(f"{len(merged.conflicts)} conflict(s); nothing written. Fix one side, or choose "
               "with --prefer a or --prefer b", file=sys.stderr)
         return EXIT_LIMITS
-    _, problems = check_walk_text(dumps_walk(merged.job), args.output)
-    if problems:
-        print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
-        print("the merged walk would not be valid; nothing written", file=sys.stderr)
+    if not save_checked(merged.job, args.output, args.expected,
+                        "the merged walk would not be valid; nothing written"):
         return EXIT_INVALID
-    notice = save_walk(merged.job, Path(args.output), expected=args.expected)
-    if notice is not None:
-        print(f"warning: {notice.message}", file=sys.stderr)
     t = merged.taken
     print(f"wrote {args.output}: {len(t['both'])} in both, {len(t['a only'])} from A only, "
           f"{len(t['b only'])} from B only, {len(merged.conflicts)} conflict(s)"

@@ -14,8 +14,14 @@ from pydantic import ValidationError
 
 from model.job import Run, Source
 from model.walk_problems import Locator, problems_from_errors
-from model.walkfile import check_walk_text, dumps_walk, save_walk
-from tui.walk_cli import EXIT_INVALID, EXIT_OK, print_problems, read_job, writes_walk
+from tui.walk_cli import (
+    EXIT_INVALID,
+    EXIT_OK,
+    print_problems,
+    read_job,
+    save_checked,
+    writes_walk,
+)
 
 NAME = "source"
 HELP = "Add a service, switchboard, panel or transformer to a walk file."
@@ -78,13 +84,8 @@ def run(args: argparse.Namespace) -> int:
             print_problems(problems_from_errors(exc.errors(), "run", None, Locator(), args.file,
                                                 f"run {feeder_id}"))
             return EXIT_INVALID
-    _, problems = check_walk_text(dumps_walk(job), args.file)
-    if problems:
-        print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
+    if not save_checked(job, args.file, args.expected):
         return EXIT_INVALID
-    notice = save_walk(job, args.file, expected=args.expected)
-    if notice is not None:
-        print(f"warning: {notice.message}", file=sys.stderr)
     fed = f", fed by run {job.runs[-1].id}" if source.kind != "service" else ""
     print(f"added {source.kind} {source.id} ({source.system}){fed}")
     return EXIT_OK

@@ -692,12 +692,10 @@ class RunCard(EarlyKeys, Screen):
     def action_close_card(self) -> None:
         if self.run_id is None:
             v = self.values()
-            fresh = self._fresh_values(v["from"].strip() or None)
             typed = any(v[k].strip() for k in ("to", "length", "load", "notes", "panel"))
             self.session.keep_draft(v if typed else None)
             if typed:
                 self.notify("The unstored run is kept: n brings it back.")
-            del fresh
         self.app.refresh_title()
         self.dismiss()
 

@@ -62,6 +62,24 @@ def writes_walk(path_arg: str, tool: str):
     return wrap
 
 
+def save_checked(job: Job, path: str, expected, refusal: str | None = None) -> bool:
+    """Check the walk as it would be written and save it; False, with the problems printed (and
+    ``refusal`` after them), if it would not be a valid walk. Nothing is written then, and the
+    problems carry no line numbers: they would point into text that is not on disk."""
+    from model.walkfile import check_walk_text, dumps_walk, save_walk
+
+    _, problems = check_walk_text(dumps_walk(job), path)
+    if problems:
+        print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
+        if refusal:
+            print(refusal, file=sys.stderr)
+        return False
+    notice = save_walk(job, path, expected=expected)
+    if notice is not None:
+        print(f"warning: {notice.message}", file=sys.stderr)
+    return True
+
+
 def print_problems(problems: list[Problem] | list[str]) -> None:
     for problem in problems:
         print(str(problem), file=sys.stderr)
