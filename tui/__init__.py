@@ -1,1 +1,1 @@
-"""gaugewalk's terminal faces: the command line (``tui.cli``) and the Textual app (``tui.app``)."""
+"""gaugewalk's terminal faces: the command line (``gaugewalk.tui.cli.main``) and the Textual app (``gaugewalk.tui.app.app``)."""

@@ -1,0 +1,241 @@
+"""Supply systems and load connections, resolved to the ``Circuit`` the drop formula needs.
+
+A *system* is what the source delivers (``"208Y/120V 3ph 4w"``); a *connection* is how the load
+is wired to it (``"LN"`` line-to-neutral, ``"3P"`` three-phase...). ``resolve_circuit`` checks the
+system can supply the connection and gives the voltage the drop is measured against, the drop
+multiplier, the conductors run and whether the neutral counts as current-carrying
+(NEC 310.15(E)).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+
+from gaugewalk.model.engine.contract import Circuit
+
+SQRT3 = math.sqrt(3.0)
+
+
+@dataclass(frozen=True)
+class System:
+    """A supply system. ``line_to_line_v`` is the voltage between ungrounded conductors (for a
+    2-wire system, between its two wires) [V]; ``line_to_neutral_v`` is None without a neutral
+    [V]; ``wires`` counts the neutral."""
+
+    id: str
+    line_to_line_v: float
+    line_to_neutral_v: float | None
+    phases: int
+    wires: int
+
+    @property
+    def has_neutral(self) -> bool:
+        return self.line_to_neutral_v is not None
+
+    @property
+    def hots(self) -> int:
+        """Ungrounded conductors the system offers."""
+        return self.wires - (1 if self.has_neutral else 0)
+
+
+SYSTEMS: dict[str, System] = {
+    s.id: s
+    for s in (
+        System("120V 1ph 2w", 120.0, 120.0, 1, 2),
+        System("277V 1ph 2w", 277.0, 277.0, 1, 2),
+        System("120/240V 1ph 3w", 240.0, 120.0, 1, 3),
+        System("208Y/120V 3ph 4w", 208.0, 120.0, 3, 4),
+        System("480Y/277V 3ph 4w", 480.0, 277.0, 3, 4),
+        System("240V 3ph 3w", 240.0, None, 3, 3),
+        System("480V 3ph 3w", 480.0, None, 3, 3),
+    )
+}
+
+CONNECTIONS: dict[str, str] = {
+    "LN": "single-phase line-to-neutral (one hot and the neutral)",
+    "LL": "single-phase line-to-line (two hots)",
+    "LLN": "line-to-line with a neutral (two hots and the neutral; drop taken as line-to-line)",
+    "MW": "balanced multiwire (hots sharing one neutral that carries no current)",
+    "3P": "three-phase 3-wire",
+    "3PN": "three-phase 4-wire (three hots and the neutral)",
+}
+
+LINE_TO_NEUTRAL_VOLTS = frozenset({120.0, 127.0, 277.0, 347.0})
+"""Voltages that ``circuit_from_volts`` treats as hot-and-neutral circuits [V] (common practice)."""
+
+
+class CircuitError(ValueError):
+    """A system that cannot supply a connection, or a system/connection name not understood."""
+
+
+_SYSTEM_RE = re.compile(
+    r"^(?P<v1>\d{3})\s*(?P<y>y)?\s*(?:/\s*(?P<v2>\d{3}))?\s*v?"
+    r"(?:\s*,?\s*(?P<ph>[13])\s*(?:ph|phase|p|ø|φ))?"
+    r"(?:\s*,?\s*(?P<w>[234])\s*(?:w|wire))?$"
+)
+
+
+def parse_system(text: str) -> str:
+    """Read a supply system as people write it and return its id in ``SYSTEMS``.
+
+    Accepts ``208Y/120``, ``480y/277v``, ``120/240``, ``208/120 3ph``, ``480V 3ph 3w``,
+    ``120v``, ``277 V 1ph``. A bare ``240`` or ``480`` is ambiguous (single-phase or 3-wire
+    three-phase?) unless the phase count is given.
+
+    Raises
+    ------
+    CircuitError
+        With a sentence listing the systems gaugewalk knows.
+    """
+    raw = " ".join(str(text).strip().lower().replace("-", " ").split())
+    if raw in (s.lower() for s in SYSTEMS):
+        return next(s for s in SYSTEMS if s.lower() == raw)
+    m = _SYSTEM_RE.match(raw)
+    known = ", ".join(SYSTEMS)
+    if not m:
+        raise CircuitError(f"'{text}' is not a supply system gaugewalk knows; use one of: {known}")
+    v1 = float(m["v1"])
+    v2 = float(m["v2"]) if m["v2"] else None
+    ph = int(m["ph"]) if m["ph"] else None
+    wires = int(m["w"]) if m["w"] else None
+    candidates = []
+    for sys_ in SYSTEMS.values():
+        ll, ln = sys_.line_to_line_v, sys_.line_to_neutral_v
+        if v2 is not None:
+            pair = {v1, v2}
+            if sys_.hots < 2 or ln is None or pair != {ll, ln}:
+                continue
+        elif v1 != ll and not (sys_.hots == 1 and v1 == ln):
+            continue
+        if v2 is None and sys_.hots >= 2 and sys_.has_neutral:
+            continue  # "208" alone is not "208Y/120": the neutral must be written
+        if v2 is None and sys_.phases == 3 and ph is None and wires is None:
+            continue  # a bare "240" or "480" does not say three-phase
+        if m["y"] and sys_.phases != 3:
+            continue
+        if ph is not None and sys_.phases != ph:
+            continue
+        if wires is not None and sys_.wires != wires:
+            continue
+        candidates.append(sys_.id)
+    if len(candidates) == 1:
+        return candidates[0]
+    near = [s.id for s in SYSTEMS.values() if s.line_to_line_v == v1]
+    if not candidates and near and v2 is None:
+        raise CircuitError(f"'{text}' is incomplete; did you mean {' or '.join(near)}?")
+    if not candidates:
+        raise CircuitError(f"'{text}' is not a supply system gaugewalk knows; use one of: {known}")
+    raise CircuitError(
+        f"'{text}' could be {' or '.join(candidates)}; write the phases and wires (e.g. '3ph 3w')"
+    )
+
+
+def _system(system_id: str) -> System:
+    try:
+        return SYSTEMS[system_id]
+    except KeyError:
+        return SYSTEMS[parse_system(system_id)]
+
+
+def resolve_circuit(system_id: str, connection: str, *, nonlinear: bool = False) -> Circuit:
+    """Turn a system and a load connection into a ``Circuit``.
+
+    Parameters
+    ----------
+    system_id : str
+        A key of ``SYSTEMS`` (or text ``parse_system`` understands).
+    connection : str
+        A key of ``CONNECTIONS``.
+    nonlinear : bool
+        The load is mostly nonlinear (electronic): on a 3-phase 4-wire wye circuit the neutral
+        then carries harmonic current and counts as current-carrying, NEC 310.15(E)(3).
+
+    Notes
+    -----
+    Drop factor k in VD = k I Z L / 1000: 2 for single-phase two-wire (out and back), sqrt(3)
+    for three-phase, 1 for a leg of a balanced multiwire circuit (percent then against the
+    line-to-neutral voltage). Neutral counting follows NEC 310.15(E): (1) a neutral carrying only
+    the unbalanced current of the other conductors is not counted; (2) the neutral of two phases
+    and neutral of a 3-phase 4-wire wye is counted; (3) a 3-phase 4-wire wye neutral is counted
+    when the major portion of the load is nonlinear.
+
+    Raises
+    ------
+    CircuitError
+        With a sentence when the system cannot supply the connection.
+    """
+    sys_ = _system(system_id)
+    conn = str(connection).strip().upper()
+    if conn not in CONNECTIONS:
+        raise CircuitError(
+            f"'{connection}' is not a load connection; use one of: {', '.join(CONNECTIONS)}"
+        )
+    ll, ln = sys_.line_to_line_v, sys_.line_to_neutral_v
+    wye = sys_.phases == 3 and sys_.has_neutral
+
+    def need_neutral(what: str) -> None:
+        if not sys_.has_neutral:
+            raise CircuitError(f"{sys_.id} has no neutral, so it cannot supply a {what} load.")
+
+    def need_two_hots(what: str) -> None:
+        if sys_.hots < 2:
+            raise CircuitError(
+                f"{sys_.id} has one ungrounded conductor; a {what} load needs two."
+            )
+
+    def need_three_phase(what: str) -> None:
+        if sys_.phases != 3:
+            raise CircuitError(f"{sys_.id} is single-phase, so it cannot supply a {what} load.")
+
+    if conn == "LN":
+        need_neutral("line-to-neutral")
+        return Circuit(f"{ln:g} V line-to-neutral", ln, 1, ln, 2.0, 1, True, True)
+    if conn == "LL":
+        need_two_hots("line-to-line")
+        return Circuit(f"{ll:g} V line-to-line", ll, 1, ll, 2.0, 2, False, False)
+    if conn == "LLN":
+        need_two_hots("line-to-line-and-neutral")
+        need_neutral("line-to-line-and-neutral")
+        # 310.15(E)(2): two phases and the neutral of a wye: the neutral carries about the same
+        # current as the phases. On 120/240 V 1ph 3w it carries only the unbalance: 310.15(E)(1).
+        return Circuit(f"{ll:g} V line-to-line with neutral", ll, 1, ll, 2.0, 2, True, wye)
+    if conn == "MW":
+        need_neutral("multiwire")
+        need_two_hots("multiwire")
+        if sys_.phases == 1:
+            return Circuit(f"{ln:g} V multiwire, 2 legs", ln, 1, ll, 1.0, 2, True, False)
+        return Circuit(f"{ln:g} V multiwire, 3 legs", ln, 3, ll, 1.0, 3, True, nonlinear)
+    if conn == "3P":
+        need_three_phase("three-phase")
+        return Circuit(f"{ll:g} V 3-phase", ll, 3, ll, SQRT3, 3, False, False)
+    # 3PN
+    need_three_phase("three-phase 4-wire")
+    need_neutral("three-phase 4-wire")
+    return Circuit(f"{ll:g}Y/{ln:g} V 3-phase 4-wire", ll, 3, ll, SQRT3, 3, True, nonlinear)
+
+
+def circuit_from_volts(volts: float, phase: int = 1) -> Circuit:
+    """A circuit from a voltage and a phase count alone (for ``gaugewalk calc``).
+
+    ``phase`` 1: a two-wire single-phase circuit at ``volts`` (a hot and a neutral at the usual
+    line-to-neutral voltages 120, 127, 277 and 347 V, two hots otherwise); ``phase`` 3: a
+    three-phase 3-wire circuit with ``volts`` line-to-line [V].
+    """
+    if not (isinstance(volts, (int, float)) and math.isfinite(volts) and volts > 0):
+        raise CircuitError(f"the voltage must be a number above zero, not {volts!r}")
+    v = float(volts)
+    if phase == 1:
+        if v in LINE_TO_NEUTRAL_VOLTS:
+            return Circuit(f"{v:g} V single-phase", v, 1, v, 2.0, 1, True, True)
+        return Circuit(f"{v:g} V single-phase", v, 1, v, 2.0, 2, False, False)
+    if phase == 3:
+        return Circuit(f"{v:g} V 3-phase", v, 3, v, SQRT3, 3, False, False)
+    raise CircuitError(f"the phase count must be 1 or 3, not {phase!r}")
+
+
+def current_carrying_conductors(circuit: Circuit) -> int:
+    """Current-carrying conductors of one circuit set, NEC 310.15(E): every hot, plus the neutral
+    when ``neutral_is_ccc``. The EGC never counts (310.15(F))."""
+    return circuit.hots + (1 if circuit.neutral and circuit.neutral_is_ccc else 0)

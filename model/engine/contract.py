@@ -1,0 +1,108 @@
+"""What one run's calculation takes (``RunSpec``) and gives back (``RunResult``).
+
+These two shapes are the contract between the engine (``gaugewalk.model.engine.sizing.evaluate``) and everything
+that consumes it: the walk file's job computation, the app, the takeoff, the reports and
+``gaugewalk calc --json``. Units are in the field names or comments: [A], [V], [ft], [%], [C].
+"""
+
+from __future__ import annotations
+
+from dataclasses import asdict, dataclass, field
+from typing import Literal
+
+Material = Literal["cu", "al"]
+Method = Literal["dc", "kfactor", "ac"]
+
+
+@dataclass(frozen=True)
+class Circuit:
+    """How a load is connected, resolved to what the drop formula and the raceway need.
+
+    ``volts`` is the nominal voltage the load is connected at; percent drop is against it.
+    ``drop_factor`` multiplies I*R*L: 2 for a two-wire single-phase circuit, sqrt(3) for a
+    three-phase circuit, 1 for each leg of a balanced multiwire circuit whose neutral carries no
+    current (its percent is then against the line-to-neutral voltage).
+    """
+
+    label: str                 # e.g. "208 V 3-phase", "120 V line-to-neutral"
+    volts: float               # [V] nominal voltage the load is connected at
+    phases: Literal[1, 3]      # 1 or 3: how amps follow from VA
+    line_volts: float          # [V] voltage used to turn VA into amps (line-to-line for 3-phase)
+    drop_factor: float         # multiplier k in VD = k * I * Z * L / 1000
+    hots: int                  # ungrounded conductors
+    neutral: bool              # a grounded (neutral) conductor is run
+    neutral_is_ccc: bool       # the neutral counts as current-carrying (NEC 310.15(E))
+
+
+@dataclass(frozen=True)
+class RunSpec:
+    """Everything needed to size one run. Defaults are the job defaults gaugewalk ships."""
+
+    circuit: Circuit
+    amps: float                            # [A] load current (whole circuit, all sets together)
+    length_ft: float                       # [ft] one-way route length
+    continuous: bool = False               # load runs 3 h or more: 125% for sizing (NEC 210.19, 215.2)
+    continuous_amps: float | None = None   # [A] continuous share if only part is continuous
+    distributed: bool = False              # load spread evenly along the run: drop at half length
+    material: Material = "cu"
+    insulation: str = "THHN/THWN-2"
+    terminal_temp: int | None = None       # [C] 60/75/90; None: NEC 110.14(C)(1) by rating and size
+    conductor_temp_c: float = 75.0         # [C] for resistance (NEC Ch. 9 Table 8 note 2)
+    method: Method = "ac"
+    pf: float = 0.85                       # power factor for the AC method
+    raceway: str = "EMT"                   # raceway type (gaugewalk.tables.raceway.fill) or family
+    ambient_c: float = 30.0                # [C] NEC 310.15(B)(1)
+    ccc: int | None = None                 # current-carrying conductors in the raceway; None: from circuit
+    sets: int = 1                          # conductors in parallel per phase (NEC 310.10(G))
+    size: str | None = None                # a size the user fixed; None: pick the smallest that works
+    ocpd_a: int | None = None              # a breaker/fuse the user fixed; None: next standard rating
+    max_drop_pct: float = 3.0              # [%] this run (informational notes to 210.19, 215.2)
+    upstream_drop_pct: float = 0.0         # [%] drop from the service to this run's source
+    max_total_drop_pct: float = 5.0        # [%] service to load
+    egc: bool = True                       # run an equipment grounding conductor
+    egc_material: Material | None = None   # None: same as the phase conductors
+    egc_bare: bool = False                 # a bare EGC (Ch. 9 Table 8 area) instead of insulated
+    stranded: bool = True                  # stranded conductors (Ch. 9 Table 8 DC resistance)
+    min_size: str | None = None            # smallest size the job allows (a job specification,
+                                           # e.g. 12 AWG for power; common practice), None: no floor
+
+
+@dataclass(frozen=True)
+class RunResult:
+    """The answer for one run. ``problems`` are sentences a foreman understands; ``ok`` is
+    True when there are none."""
+
+    size: str                      # phase conductor size, e.g. "4/0 AWG" (per set)
+    sets: int
+    material: Material
+    method: Method
+    amps: float                    # [A] load current
+    design_amps: float             # [A] noncontinuous + 125% of continuous
+    required_ampacity_a: float     # [A] what the conductors must carry after corrections
+    ampacity_a: float              # [A] corrected, terminal-limited ampacity of all sets together
+    min_ampacity_size: str         # smallest size meeting ampacity alone
+    ocpd_a: int                    # [A] overcurrent device rating (NEC 240.6(A))
+    voltage_drop_v: float          # [V]
+    voltage_drop_pct: float        # [%] of circuit.volts
+    total_drop_pct: float          # [%] upstream_drop_pct + voltage_drop_pct
+    egc_size: str | None           # NEC Table 250.122 with 250.122(B); None when no EGC
+    neutral_size: str | None       # same as phase unless a rule says otherwise; None without neutral
+    raceway: str                   # raceway type
+    raceway_size: str | None       # trade size, e.g. "1-1/4"; None when nothing fits
+    raceway_fill_pct: float        # [%] of the raceway's internal area
+    governed_by: str               # "ampacity" | "voltage drop" | "fixed size" | "overcurrent device"
+    margins: dict[str, float] = field(default_factory=dict)  # e.g. {"ampacity_a": 12.0, "drop_pct": 0.8}
+    conductors: dict[str, int] = field(default_factory=dict)  # per set: {"hot": 3, "neutral": 1, "egc": 1}
+    problems: tuple[str, ...] = ()
+    notes: tuple[str, ...] = ()    # rules applied, e.g. "NEC 240.4(D): 12 AWG Cu limited to 20 A"
+
+    @property
+    def ok(self) -> bool:
+        return not self.problems
+
+    def to_dict(self) -> dict:
+        data = asdict(self)
+        data["ok"] = self.ok
+        data["problems"] = list(self.problems)
+        data["notes"] = list(self.notes)
+        return data

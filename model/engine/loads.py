@@ -1,0 +1,94 @@
+"""Loads written in amps, volt-amperes or watts, turned into line current [A].
+
+Single-phase: I = S / V; three-phase: I = S / (sqrt(3) V_LL), with S the apparent power [VA] and
+V the circuit's ``line_volts``. Real power converts to apparent power by the power factor:
+S = P / pf (Ohm's law and the power triangle).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+
+from gaugewalk.model.engine.contract import Circuit
+
+UNITS: dict[str, float] = {"A": 1.0, "VA": 1.0, "kVA": 1000.0, "W": 1.0, "kW": 1000.0}
+"""Load units and their multiplier to the base unit (A, VA or W)."""
+
+_UNIT_ALIASES = {
+    "a": "A", "amp": "A", "amps": "A", "ampere": "A", "amperes": "A",
+    "va": "VA", "kva": "kVA",
+    "w": "W", "watt": "W", "watts": "W", "kw": "kW", "kilowatt": "kW", "kilowatts": "kW",
+}
+_LOAD_RE = re.compile(r"^\s*(\d+(?:\.\d*)?|\.\d+)\s*([A-Za-z]+)\s*$")
+MAX_LOAD_CHARS = 40
+
+
+class LoadError(ValueError):
+    """A load that cannot be read or turned into amps."""
+
+
+def normalize_unit(unit: str) -> str:
+    """``"kva"`` -> ``"kVA"``, ``"amps"`` -> ``"A"``; raises ``LoadError`` for anything else."""
+    key = str(unit).strip().lower()
+    if key not in _UNIT_ALIASES:
+        raise LoadError(f"unknown load unit '{unit}'; use A, VA, kVA, W or kW")
+    return _UNIT_ALIASES[key]
+
+
+def parse_load(text: str) -> tuple[float, str]:
+    """Read ``"16A"``, ``"1.8 kVA"``, ``"5kW"``, ``"1500 w"`` into ``(value, unit)`` with the unit
+    one of ``UNITS``. A bare number is not accepted: the unit must be written.
+
+    Raises
+    ------
+    LoadError
+        Not a positive number followed by a known unit.
+    """
+    raw = str(text)
+    if len(raw) > MAX_LOAD_CHARS:
+        raise LoadError(f"a load is at most {MAX_LOAD_CHARS} characters")
+    m = _LOAD_RE.match(raw)
+    if not m:
+        if re.fullmatch(r"\s*[\d.]+\s*", raw):
+            raise LoadError(f"'{raw.strip()}' has no unit; write it as e.g. 16A, 1.8kVA or 5kW")
+        raise LoadError(f"'{raw.strip()}' is not a load; write it as e.g. 16A, 1.8kVA or 5kW")
+    value = float(m.group(1))
+    unit = normalize_unit(m.group(2))
+    if value <= 0:
+        raise LoadError(f"'{raw.strip()}': a load must be above zero")
+    return value, unit
+
+
+def load_amps(value: float, unit: str, circuit: Circuit, pf: float = 1.0) -> float:
+    """Line current of a load [A].
+
+    Parameters
+    ----------
+    value : float
+        The load in ``unit``; finite and above zero.
+    unit : str
+        ``A``, ``VA``, ``kVA``, ``W`` or ``kW`` (any case).
+    circuit : Circuit
+        Gives ``phases`` and ``line_volts`` [V].
+    pf : float
+        Power factor (0, 1], used only to turn W/kW into VA.
+
+    Returns
+    -------
+    float
+        Current in each ungrounded conductor [A]: S/V single-phase, S/(sqrt(3) V_LL) three-phase.
+    """
+    unit = normalize_unit(unit)
+    if not (isinstance(value, (int, float)) and math.isfinite(value) and value > 0):
+        raise LoadError(f"a load must be a number above zero, not {value!r}")
+    if unit == "A":
+        return float(value)
+    if not (isinstance(pf, (int, float)) and math.isfinite(pf) and 0 < pf <= 1):
+        raise LoadError(f"the power factor must be above 0 and at most 1, not {pf!r}")
+    va = value * UNITS[unit]
+    if unit in ("W", "kW"):
+        va /= pf
+    if circuit.phases == 3:
+        return va / (math.sqrt(3.0) * circuit.line_volts)
+    return va / circuit.line_volts

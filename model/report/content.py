@@ -1,0 +1,221 @@
+"""What a printed report says, assembled from a job, its computed results and its takeoff.
+
+The renderers (``gaugewalk.tui.report.html``, ``gaugewalk.tui.report.md``) only lay this out; every number and
+sentence comes from here so that the HTML, the Markdown and the app agree.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.engine.contract import RunResult
+from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
+
+CAUTION = (
+    "Results are estimates for planning. The installation must follow the code in force and the "
+    "authority having jurisdiction, and be designed and checked by qualified, licensed people."
+)
+
+MATERIAL_NAMES = {"cu": "copper", "al": "aluminum"}
+
+#: Columns of the per-run table, in order.
+RUN_COLUMNS: tuple[str, ...] = (
+    "Run", "From", "To", "Length [ft]", "Load", "Size", "Drop [%]", "Total drop [%]", "EGC",
+    "Raceway", "Governed by", "Problems",
+)
+
+
+@dataclass(frozen=True)
+class ReportRun:
+    """One row of the per-run table, as text ready to print."""
+
+    run_id: str
+    from_: str
+    to: str
+    length_ft: str          # e.g. "85.0"
+    length_typed: str       # what the walker typed, e.g. "85+12+2*6"
+    load: str               # e.g. "16 A", "4.5 kVA", "feeder: 123.4 A"
+    size: str               # e.g. "3/0 AWG Cu", "2 x 3/0 AWG Cu"
+    drop_pct: str
+    total_drop_pct: str
+    egc: str
+    raceway: str            # e.g. "1-1/4 EMT"
+    governed_by: str
+    problems: tuple[str, ...]
+
+    def cells(self) -> tuple[str, ...]:
+        """The row's cells in ``RUN_COLUMNS`` order (problems joined by "; ")."""
+        return (self.run_id, self.from_, self.to, self.length_ft, self.load, self.size,
+                self.drop_pct, self.total_drop_pct, self.egc, self.raceway, self.governed_by,
+                "; ".join(self.problems))
+
+
+@dataclass(frozen=True)
+class Report:
+    title: str
+    header: tuple[tuple[str, str], ...]         # (label, value): job, site, walked on/by, file
+    caution: str
+    defaults: tuple[tuple[str, str], ...]       # (label, value with unit)
+    runs: tuple[ReportRun, ...]
+    summary: tuple[tuple[str, str], ...]        # (label, value): runs, runs with problems...
+    footage: tuple[SizeFootage, ...]
+    takeoff: Takeoff
+    wire_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]      # (columns, rows)
+    raceway_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
+    fitting_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
+    assumptions: tuple[str, ...]
+    warnings: tuple[str, ...]
+
+
+def _num(value: float, places: int = 1) -> str:
+    return f"{value:.{places}f}"
+
+
+def load_text(run: Run, result: RunResult | None) -> str:
+    """The load as the walker gave it, or for a feeder without one, the load it serves [A]."""
+    if run.load is not None:
+        text = f"{run.load.value:g} {run.load.unit}"
+        if run.load.pf is not None:
+            text += f" at PF {run.load.pf:g}"
+        if run.continuous:
+            text += ", continuous"
+        return text
+    if result is not None:
+        return f"{result.amps:.1f} A served"
+    return ""
+
+
+def size_text(result: RunResult) -> str:
+    mat = "Cu" if result.material == "cu" else "Al"
+    base = f"{result.size} {mat}"
+    return f"{result.sets} x {base}" if result.sets > 1 else base
+
+
+def raceway_text(result: RunResult) -> str:
+    if result.raceway_size is None:
+        return f"{result.raceway}: no size fits"
+    text = f"{result.raceway} {result.raceway_size}"
+    return f"{text} ({result.sets} raceways)" if result.sets > 1 else text
+
+
+def _defaults(job: Job) -> tuple[tuple[str, str], ...]:
+    d = job.defaults
+    terminal = f"{d.terminal_temp} C" if d.terminal_temp else "by NEC 110.14(C)(1)"
+    return (
+        ("Conductor material", MATERIAL_NAMES.get(d.material, d.material)),
+        ("Insulation", d.insulation),
+        ("Raceway", d.raceway),
+        ("Terminal temperature", terminal),
+        ("Ambient [C]", f"{d.ambient_c:g}"),
+        ("Conductor temperature for resistance [C]", f"{d.conductor_temp_c:g}"),
+        ("Drop method", {"dc": "DC (Ch. 9 Table 8)", "kfactor": "K factor",
+                         "ac": "AC impedance (Ch. 9 Table 9)"}.get(d.method, d.method)),
+        ("Power factor", f"{d.pf:g}"),
+        ("Branch drop target [%]", f"{d.branch_drop_pct:g} (informational note to NEC 210.19)"),
+        ("Feeder drop target [%]", f"{d.feeder_drop_pct:g} (informational note to NEC 215.2)"),
+        ("Total drop target [%]", f"{d.total_drop_pct:g} (informational note to NEC 215.2)"),
+        ("Slack per end [ft]", f"{d.slack_per_end_ft:g}"),
+        ("Waste allowance [%]", f"{d.waste_pct:g}"),
+        ("Colour scheme", d.colour_scheme),
+        ("Put-ups", "as the job lists them" if d.putups is not None
+         else "500 ft boxes (14-10 AWG), 1,000 and 2,500 ft reels (common practice)"),
+    )
+
+
+def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeoff, *,
+                 file_name: str = "", run_errors: dict[str, str] | None = None) -> Report:
+    """The report of ``job``: ``results`` maps run id to its result (None: not sized, with the
+    reason in ``run_errors``)."""
+    run_errors = run_errors or {}
+    h = job.job
+    header = [("Job", h.name or "(no name)")]
+    if h.site:
+        header.append(("Site", h.site))
+    if h.walked_on:
+        header.append(("Walked on", h.walked_on.isoformat()))
+    if h.walked_by:
+        header.append(("Walked by", h.walked_by))
+    if file_name:
+        header.append(("Walk file", file_name))
+    if h.notes:
+        header.append(("Notes", h.notes))
+
+    rows = []
+    failing = 0
+    for run in job.runs:
+        result = results.get(run.id)
+        if result is None:
+            failing += 1
+            rows.append(ReportRun(
+                run.id, run.from_, run.to, _num(run.length_ft), run.length, load_text(run, None),
+                "", "", "", "", "", "not sized",
+                (run_errors.get(run.id, "could not be sized"),),
+            ))
+            continue
+        if result.problems:
+            failing += 1
+        rows.append(ReportRun(
+            run.id, run.from_, run.to, _num(run.length_ft), run.length, load_text(run, result),
+            size_text(result), _num(result.voltage_drop_pct, 2), _num(result.total_drop_pct, 2),
+            result.egc_size or "none", raceway_text(result), result.governed_by,
+            tuple(result.problems),
+        ))
+
+    summary = (
+        ("Runs", str(len(job.runs))),
+        ("Runs meeting every limit", str(len(job.runs) - failing)),
+        ("Runs with problems", str(failing)),
+        ("Conductor to order [ft]", str(sum(w.with_waste_ft for w in takeoff.wire_lines))),
+    )
+    return Report(
+        title=f"Site walk report: {h.name}" if h.name else "Site walk report",
+        header=tuple(header),
+        caution=CAUTION,
+        defaults=_defaults(job),
+        runs=tuple(rows),
+        summary=summary,
+        footage=takeoff.footage_by_size(),
+        takeoff=takeoff,
+        wire_table=wire_table_of(takeoff),
+        raceway_table=raceway_table_of(takeoff),
+        fitting_table=fitting_table_of(takeoff),
+        assumptions=takeoff.assumptions,
+        warnings=takeoff.warnings,
+    )
+
+
+def _order_text(w: WireLine) -> str:
+    if not w.order:
+        return f"cut to length {w.order_ft} ft"
+    return " + ".join(f"{p.count} x {p.label}" for p in w.order)
+
+
+def wire_table_of(t: Takeoff):
+    """The conductor lines as ``(columns, rows)`` of text (what the report and the app show)."""
+    columns = ("Material", "Insulation", "Size", "Function", "Colour", "Net [ft]",
+               "With waste [ft]", "Order", "Left over [ft]")
+    rows = tuple(
+        (MATERIAL_NAMES.get(w.material, w.material), w.insulation, w.size, w.function, w.colour,
+         _num(w.net_ft), str(w.with_waste_ft), _order_text(w), str(w.left_over_ft))
+        for w in t.wire_lines
+    )
+    return columns, rows
+
+
+def raceway_table_of(t: Takeoff):
+    """The raceway lines as ``(columns, rows)`` of text."""
+    columns = ("Raceway", "Trade size", "Length [ft]", "Lengths", "Basis")
+    rows = tuple(
+        (r.raceway, r.trade_size, _num(r.length_ft),
+         "coils" if r.sticks is None else f"{r.sticks} x {r.stick_ft:g} ft", r.basis)
+        for r in t.raceway_lines
+    )
+    return columns, rows
+
+
+def fitting_table_of(t: Takeoff):
+    """The fitting lines as ``(columns, rows)`` of text."""
+    columns = ("Item", "Raceway", "Trade size", "Count", "Basis")
+    rows = tuple((f.item, f.raceway, f.trade_size, str(f.count), f.basis) for f in t.fitting_lines)
+    return columns, rows

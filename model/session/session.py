@@ -1,0 +1,580 @@
+"""One open walk in the app: the job, its computed results, saving and undo.
+
+No Textual here, so it can be tested and timed on its own. Runs, sources and defaults are never
+changed in place: every change puts new objects into the job's lists, so an undo step is just the
+previous lists (copies of references, cheap even with thousands of runs).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import TYPE_CHECKING
+
+from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Run, Source
+from gaugewalk.model.engine.contract import RunResult
+
+if TYPE_CHECKING:
+    from gaugewalk.model.walk.compute import JobResult
+
+# Statuses shown in the run sheet: a symbol AND words, never colour alone.
+STATUS_OK = "✓ ok"
+STATUS_DROP = "▲ over drop"
+STATUS_TOTAL = "▲ over total"
+STATUS_AMPS = "✗ short amps"
+STATUS_ERROR = "✗ not sized"
+
+
+@dataclass
+class Snapshot:
+    """The walk's lists before (or after) one change, and what the change was."""
+
+    label: str
+    runs: list[Run]
+    sources: list[Source]
+    defaults: Defaults
+    header: JobHeader
+    focus: str | None = None
+
+
+@dataclass
+class RunStatus:
+    """What is wrong with a run, in short words for the sheet and sentences for the detail."""
+
+    words: str
+    flag: bool
+    problems: tuple[str, ...] = ()
+
+
+@dataclass
+class Preview:
+    """A run sized in the context of the walk before it is stored: its result, or the problems
+    (field name or None, sentence) that stop it."""
+
+    result: RunResult | None
+    problems: list[tuple[str | None, str]] = field(default_factory=list)
+    cannot_size: str | None = None   # why it cannot be sized yet (does not stop storing)
+
+
+@dataclass
+class TrialOutcome:
+    """A trial change computed on a copy of the walk. ``downstream`` lists, for runs fed through
+    the changed run: (run id, total drop before, after [%], flagged before, after)."""
+
+    result: object | None
+    problems: list[str] = field(default_factory=list)
+    downstream: list[tuple[str, float, float, bool, bool]] = field(default_factory=list)
+
+
+@dataclass
+class SaveState:
+    saved: bool = True
+    message: str | None = None     # why the last save failed, if it did
+    notice: str | None = None      # said once after a save (e.g. comments were dropped)
+
+
+class WalkSession:
+    """A walk file opened for editing."""
+
+    def __init__(self, path: Path, job: Job, *, compute: bool = True) -> None:
+        self.path = Path(path)
+        self.job = job
+        self.result = None
+        self.job_problems: list[str] = []
+        self.state = SaveState()
+        self.history: list[Snapshot] = []
+        self.future: list[Snapshot] = []
+        self.draft: dict[str, str] | None = None
+        self.busy = False   # True while the whole walk is being sized in the background
+        self.read_only: str | None = None   # why the walk cannot be changed here, if it cannot
+        self.lock = None
+        from gaugewalk.model.walkfile.store import fingerprint
+
+        self.fingerprint = fingerprint(self.path)  # what was read: a save checks it is still there
+        if compute:
+            self.recompute()
+
+    # ----- opening ----------------------------------------------------------------------
+    @classmethod
+    def open(cls, path: str | Path, *, compute: bool = True) -> "WalkSession":
+        """Read a walk; raises ``gaugewalk.model.walkfile.store.WalkFileError`` for a bad file. With
+        ``compute=False`` the runs are not sized yet (call ``recompute``)."""
+        from gaugewalk.model.walkfile.store import fingerprint, load_walk
+
+        before = fingerprint(path)  # taken before reading: a save in between is then caught
+        session = cls(Path(path), load_walk(path), compute=compute)
+        session.fingerprint = before
+        return session
+
+    @classmethod
+    def create(
+        cls, path: str | Path, name: str = "", service_id: str = "SVC",
+        service_system: str | None = "208Y/120V 3ph 4w",
+    ) -> "WalkSession":
+        """Start a new walk at ``path`` (with its service) and write it at once."""
+        from datetime import date
+
+        from gaugewalk.model.walkfile.store import new_walk
+
+        job = new_walk(
+            name=name or Path(path).stem, service_system=service_system, service_id=service_id,
+            walked_on=date.today(),
+        )
+        session = cls(Path(path), job)
+        session.save()
+        return session
+
+    # ----- computing --------------------------------------------------------------------
+    def recompute(self, edited: str | None = None) -> None:
+        """Compute the walk again; after one run was edited in place (same from and to), only
+        what that run touches."""
+        from gaugewalk.model.walk.compute import compute_job, recompute_run
+
+        if edited is not None and self.result is not None:
+            self.result = recompute_run(self.job, self.result, edited)
+        else:
+            self.result = compute_job(self.job)
+        self.job_problems = [str(p) for p in self.result.problems if not p.where.startswith("run ")]
+
+    def result_for(self, run_id: str) -> RunResult | None:
+        if self.result is None:
+            return None
+        return self.result.runs.get(run_id)
+
+    def source_drop(self, source_id: str) -> float | None:
+        """Cumulative drop from the service to this source's bus [%], if known."""
+        if self.result is None:
+            return None
+        return self.result.source_drop_pct.get(source_id)
+
+    def targets(self, run: Run) -> tuple[float, float]:
+        """(drop target for this run, total target) [%]."""
+        d = self.job.defaults
+        if run.max_drop_pct is not None:
+            own = run.max_drop_pct
+        else:
+            own = d.feeder_drop_pct if self.job.is_feeder(run) else d.branch_drop_pct
+        return own, d.total_drop_pct
+
+    def status(self, run: Run, res: RunResult | None = None,
+               job_result: JobResult | None = None) -> RunStatus:
+        """Classify a run: short of ampacity, over its drop target, over the total, or ok.
+
+        The walk's own problems for the run are added from ``job_result`` (a trial's), or from
+        the stored walk when ``res`` is the stored result; a previewed result is judged alone,
+        so a problem the edit fixes is not shown against it."""
+        if self.result is None:
+            return RunStatus("… sizing", False, ())
+        stored = self.result_for(run.id)
+        res = res if res is not None else stored
+        walk = job_result if job_result is not None else (self.result if res is stored else None)
+        extra = tuple(p.message for p in walk.run_problems(run.id)) if walk is not None else ()
+        if res is None:
+            return RunStatus(STATUS_ERROR, True, extra or ("this run could not be sized",))
+        problems = tuple(res.problems) + tuple(p for p in extra if p not in res.problems)
+        own, total = self.targets(run)
+        if res.ampacity_a + 1e-9 < res.required_ampacity_a:
+            words = STATUS_AMPS
+        elif res.voltage_drop_pct > own + 1e-9:
+            words = STATUS_DROP
+        elif res.total_drop_pct > total + 1e-9:
+            words = STATUS_TOTAL
+        elif problems:
+            words = "✗ " + _short(problems[0])
+        else:
+            return RunStatus(STATUS_OK, False, ())
+        return RunStatus(words, True, problems)
+
+    # ----- trying before storing ---------------------------------------------------------
+    def _with(self, run: Run, replaces: str | None, new_source: Source | None,
+              more_sources: tuple[Source, ...] = ()) -> Job:
+        """A copy of the job (sharing unchanged runs) with ``run`` stored."""
+        runs = list(self.job.runs)
+        if replaces is not None:
+            for i, r in enumerate(runs):
+                if r.id == replaces:
+                    runs[i] = run
+                    break
+            else:
+                runs.append(run)
+        else:
+            runs.append(run)
+        sources = list(self.job.sources)
+        for src in ((new_source,) if new_source is not None else ()) + tuple(more_sources):
+            _put_source(sources, src)
+        trial = self.job.model_copy(update={"runs": runs, "sources": sources})
+        trial._index_cache = None
+        return trial
+
+    def _reference_problems(self, trial: Job, run: Run) -> list[tuple[str | None, str]]:
+        from gaugewalk.model.walk.checks import Locator, check_references
+
+        mine = f"run {run.id}"
+        out = []
+        for p in check_references(trial, Locator(""), self.path.name):
+            if p.where == mine or (p.where.startswith("source ") and p.where[7:] in (run.to, run.from_)):
+                out.append((p.field if p.where == mine else "to", p.message))
+        return out
+
+    def preview(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> Preview:
+        """Size ``run`` as if stored (nothing is changed or saved).
+
+        Problems that would make the walk file invalid (a source that does not exist, a branch
+        without a load...) stop it. The run is sized alone against the drop at its source now;
+        the small change its load makes to the feeders above shows once it is stored."""
+        from gaugewalk.model.walk.compute import run_spec_for
+        from gaugewalk.model.engine.loads import LoadError
+        from gaugewalk.model.engine.sizing import evaluate
+        from gaugewalk.model.engine.circuits import CircuitError
+
+        trial = self._with(run, replaces, new_source)
+        problems = self._reference_problems(trial, run)
+        if problems:
+            return Preview(None, problems)
+        source = trial.source(run.from_)
+        upstream = self.source_drop(run.from_) or 0.0
+        if source is not None and source.kind == "transformer":
+            upstream = 0.0
+        try:
+            res = evaluate(run_spec_for(trial, run, upstream))
+        except CircuitError as exc:
+            return Preview(None, [("connection", str(exc))])
+        except (LoadError, ValueError) as exc:
+            return Preview(None, [], cannot_size=str(exc))
+        return Preview(res)
+
+    def trial(self, run: Run, sources: tuple[Source, ...] = ()) -> TrialOutcome:
+        """Compute the walk with ``run`` in place of the stored run of the same id (and
+        ``sources`` in place of those of the same ids: a transformer secondary at another
+        voltage, with the panels it feeds)."""
+        from gaugewalk.model.walk.checks import Locator, check_references
+
+        trial = self._with(run, run.id, None, tuple(sources))
+        known = self._reference_texts()
+        problems = sorted(
+            f"{p.where}: {p.message}" for p in check_references(trial, Locator(""), self.path.name)
+            if f"{p.where}: {p.message}" not in known
+        )
+        if problems:
+            return TrialOutcome(None, problems)
+        from gaugewalk.model.walk.compute import compute_job
+
+        result = compute_job(trial)
+        if run.id not in result.runs:
+            return TrialOutcome(result, ["this change leaves the run impossible to size"])
+        down: list[tuple[str, float, float, bool, bool]] = []
+        if self.job.is_feeder(run):
+            before_ids = self._downstream_ids(run.to)
+            for rid in before_ids:
+                r = self.job.run(rid)
+                b = self.result_for(rid)
+                a = result.runs.get(rid)
+                if r is None or b is None or a is None:
+                    continue
+                down.append((rid, b.total_drop_pct, a.total_drop_pct,
+                             self.status(r, b).flag, self.status(r, a, result).flag))
+        return TrialOutcome(result, [], down)
+
+    def same_system_below(self, source_id: str, system: str) -> list[Source]:
+        """The source and every source below it on the same system, down to the next
+        transformer: what moves together when a transformer secondary is tried at another
+        voltage."""
+        out: list[Source] = []
+        stack = [source_id]
+        while stack:
+            src = self.job.source(stack.pop())
+            if src is None or src in out:
+                continue
+            out.append(src)
+            for r in self.job.runs_from(src.id):
+                dest = self.job.source(r.to)
+                if dest is not None and dest.kind != "transformer" and dest.system == system:
+                    stack.append(dest.id)
+        return out
+
+    def _downstream_ids(self, source_id: str) -> list[str]:
+        out: list[str] = []
+        stack = [source_id]
+        seen = set()
+        while stack:
+            sid = stack.pop()
+            if sid in seen:
+                continue
+            seen.add(sid)
+            for r in self.job.runs_from(sid):
+                out.append(r.id)
+                if self.job.source(r.to) is not None:
+                    stack.append(r.to)
+        return out
+
+    # ----- changing ---------------------------------------------------------------------
+    def _snapshot(self, label: str, focus: str | None) -> Snapshot:
+        job = self.job
+        return Snapshot(label, list(job.runs), list(job.sources), job.defaults, job.job, focus)
+
+    def _restore(self, snap: Snapshot) -> None:
+        self.job.runs[:] = snap.runs
+        self.job.sources[:] = snap.sources
+        if self.job.defaults is not snap.defaults:
+            self.job.defaults = snap.defaults
+        if self.job.job is not snap.header:
+            self.job.job = snap.header
+        self._touch()
+
+    def _touch(self) -> None:
+        # The job caches its id lookups by list identity and length; lists changed in place.
+        self.job._index_cache = None
+
+    def _reference_texts(self) -> set[str]:
+        from gaugewalk.model.walk.checks import Locator, check_references
+
+        return {f"{p.where}: {p.message}" for p in check_references(self.job, Locator(""), self.path.name)}
+
+    def _commit(self, label: str, focus: str | None, change, edited: str | None = None) -> str | None:
+        """Make a change, recompute and save. A change that would leave the walk unreadable
+        (a panel nothing feeds, a run from a missing source...) is taken back and the reason
+        returned; nothing is saved then."""
+        before = self._snapshot(label, focus)
+        known = self._reference_texts()
+        change()
+        self._touch()
+        new = self._reference_texts() - known
+        if new:
+            self._restore(before)
+            return "; ".join(sorted(new))
+        self.history.append(before)
+        self.future.clear()
+        self.recompute(edited)
+        self.save()
+        return None
+
+    def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None,
+                sources: tuple[Source, ...] = ()) -> str | None:
+        """Store a new run, or put ``run`` in place of the run ``replaces``; optionally declare
+        the panel the run feeds (or replace the source of that id). Returns why it was refused,
+        or None."""
+
+        def change() -> None:
+            runs = self.job.runs
+            if replaces is not None:
+                for i, r in enumerate(runs):
+                    if r.id == replaces:
+                        runs[i] = run
+                        break
+                else:
+                    runs.append(run)
+            else:
+                runs.append(run)
+            for src in ((new_source,) if new_source is not None else ()) + tuple(sources):
+                _put_source(self.job.sources, src)
+
+        label = f"edit {run.id}" if replaces else f"add {run.id}"
+        old = self.job.run(replaces) if replaces else None
+        in_place = (
+            old is not None and old.id == run.id and old.from_ == run.from_ and old.to == run.to
+            and new_source is None and not sources
+        )
+        return self._commit(label, run.id, change, edited=run.id if in_place else None)
+
+    def delete_refusal(self, run_id: str) -> str | None:
+        """Why a run cannot be deleted (a feeder whose panel still feeds runs), or None."""
+        run = self.job.run(run_id)
+        if run is None:
+            return f"there is no run {run_id}"
+        if self.job.is_feeder(run):
+            below = self.job.runs_from(run.to)
+            if below:
+                return (f"{run_id} feeds {run.to}, which still feeds {len(below)} run(s); "
+                        f"delete or move them first")
+        return None
+
+    def delete_run(self, run_id: str) -> str | None:
+        """Delete a run; a feeder goes with the panel it fed (which feeds nothing). Returns why
+        it was refused, or None."""
+        refusal = self.delete_refusal(run_id)
+        if refusal:
+            return refusal
+        run = self.job.run(run_id)
+        gone_source = run.to if self.job.is_feeder(run) else None
+
+        def change() -> None:
+            self.job.runs[:] = [r for r in self.job.runs if r.id != run_id]
+            if gone_source is not None:
+                self.job.sources[:] = [s for s in self.job.sources if s.id != gone_source]
+
+        return self._commit(f"delete {run_id}", run_id, change)
+
+    def set_job(self, header: JobHeader, defaults: Defaults) -> str | None:
+        """Store new job settings; every run recomputes."""
+
+        def change() -> None:
+            self.job.job = header
+            self.job.defaults = defaults
+
+        return self._commit("job settings", None, change)
+
+    def undo(self) -> Snapshot | None:
+        """Go back one change; returns what was undone (its label and run) or None."""
+        return self._step(self.history, self.future)
+
+    def redo(self) -> Snapshot | None:
+        """Do again what was undone; returns it or None."""
+        return self._step(self.future, self.history)
+
+    def _step(self, source: list[Snapshot], target: list[Snapshot]) -> Snapshot | None:
+        """Restore the last snapshot of ``source``, keeping the present on ``target``."""
+        if not source:
+            return None
+        snap = source.pop()
+        target.append(self._snapshot(snap.label, snap.focus))
+        self._restore(snap)
+        self.recompute()
+        self.save()
+        return snap
+
+    # ----- saving -----------------------------------------------------------------------
+    def save(self) -> bool:
+        """Write the walk now (atomic, with a backup). On failure the walk stays in memory,
+        marked unsaved, with the reason in ``state.message``."""
+        from gaugewalk.model.walkfile.store import ChangedOnDisk, WalkFileError, fingerprint, save_walk
+
+        if self.read_only:
+            self.state = SaveState(False, f"read-only: {self.read_only}")
+            return False
+        try:
+            notice = save_walk(self.job, self.path, expected=self.fingerprint)
+            self.fingerprint = fingerprint(self.path)
+        except ChangedOnDisk as exc:
+            self.state = SaveState(False, str(exc))
+            return False
+        except WalkFileError as exc:
+            self.state = SaveState(False, str(exc))
+            return False
+        except OSError as exc:
+            self.state = SaveState(False, f"cannot write {self.path}: {exc.strerror or exc}")
+            return False
+        except Exception as exc:  # a walk the file code refuses: keep it in memory, say why
+            self.state = SaveState(False, f"not saved: {exc}")
+            return False
+        self.state = SaveState(True, None, notice or None)
+        return True
+
+    @property
+    def lose_on_quit(self) -> str | None:
+        """What quitting now would lose, in words, or None."""
+        if not self.state.saved:
+            return "changes that could not be saved to " + self.path.name
+        if self.draft:
+            return "a run card that was not stored"
+        return None
+
+    def comment_warning(self) -> str | None:
+        """Said before the first save: the file's comments will not survive a save (the backup
+        beside it keeps them)."""
+        from gaugewalk.model.walkfile.store import pending_notice
+
+        if self.read_only:
+            return None
+        notice = pending_notice(self.path)
+        if notice is None:
+            return None
+        return (f"{self.path.name} has {notice.comment_lines} comment line(s). gaugewalk does not "
+                f"keep comments when it saves; after your first change they stay only in "
+                f"{notice.backup.name}.")
+
+    # ----- who else has it open -----------------------------------------------------------
+    def take_lock(self) -> str | None:
+        """Hold the walk for writing. When someone else holds it the walk opens read-only;
+        returns a sentence to show (who holds it, or a stale lock that was cleared), else None."""
+        from gaugewalk.model.walkfile.lock import LockError, WalkLocked, acquire_lock
+
+        try:
+            self.lock = acquire_lock(self.path, "gaugewalk app")
+        except WalkLocked as exc:
+            self.read_only = exc.message
+            return f"Read-only: {exc.message}"
+        except LockError as exc:
+            self.read_only = str(exc)
+            return f"Read-only: {exc}"
+        from gaugewalk.model.walkfile.drafts import load_draft
+
+        said = [self.lock.message] if self.lock.message else []
+        kept = load_draft(self.path)  # a card typed when the app last stopped (crash recovery)
+        if kept is not None and kept.run_id is None and self._typed(kept.fields):
+            self.draft = kept.fields
+            said.append("The run card you were typing when gaugewalk last stopped is kept: "
+                        "n brings it back.")
+        return " ".join(said) or None
+
+    def release_lock(self) -> None:
+        if self.lock is not None:
+            self.lock.release()
+            self.lock = None
+
+    @staticmethod
+    def _typed(fields: dict[str, str]) -> bool:
+        return any(fields.get(k, "").strip() for k in ("to", "length", "load", "notes", "panel"))
+
+    def keep_draft(self, fields: dict[str, str] | None) -> None:
+        """The new-run card's texts as typed (None: nothing unstored), in memory and beside the
+        walk (``gaugewalk.model.walkfile.drafts``), so a crash does not lose them."""
+        from gaugewalk.model.walkfile.drafts import clear_draft, save_draft
+
+        self.draft = fields if fields and self._typed(fields) else None
+        if self.read_only:
+            return
+        try:
+            if self.draft:
+                save_draft(self.path, self.draft)
+            else:
+                clear_draft(self.path)
+        except OSError:
+            pass  # the walk itself is saved apart; a draft is a convenience
+
+    # ----- ids and names ----------------------------------------------------------------
+    def source_ids(self) -> list[str]:
+        return [s.id for s in self.job.sources]
+
+    def known_names(self) -> list[str]:
+        """Sources and every destination already in the walk, for completion."""
+        seen: dict[str, None] = {}
+        for s in self.job.sources:
+            seen.setdefault(s.id, None)
+        for r in self.job.runs:
+            seen.setdefault(r.to, None)
+        return list(seen)
+
+    def previous_like(self, source_id: str | None) -> Run | None:
+        """The last run from the same source (else the last run): the card copies its circuit."""
+        runs = self.job.runs
+        if source_id:
+            for r in reversed(runs):
+                if r.from_ == source_id and not self.job.is_feeder(r):
+                    return r
+        return runs[-1] if runs else None
+
+
+def _put_source(sources: list[Source], source: Source) -> None:
+    """Replace the source with the same id, or add it."""
+    for i, s in enumerate(sources):
+        if s.id == source.id:
+            sources[i] = source
+            return
+    sources.append(source)
+
+
+def _short(text: str, width: int = 12) -> str:
+    return text if len(text) <= width else text[: width - 1] + "…"
+
+
+def fmt_pct(value: float | None) -> str:
+    if value is None or not math.isfinite(value):
+        return "—"
+    return f"{value:.2f}"
+
+
+def fmt_ft(value: float | None) -> str:
+    if value is None or not math.isfinite(value):
+        return "—"
+    return f"{value:,.0f}" if value >= 100 else f"{value:.1f}".rstrip("0").rstrip(".")

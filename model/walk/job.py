@@ -1,0 +1,505 @@
+"""The walk: a job header, the defaults every run inherits, the sources and the runs.
+
+Public API (other modules code against these names):
+
+- ``Job``: ``schema`` (file format version), ``job`` (``JobHeader``), ``defaults`` (``Defaults``),
+  ``sources`` (list of ``Source``, ``[[source]]`` in the file), ``runs`` (list of ``Run``,
+  ``[[run]]`` in the file). Lookups: ``job.source(id)``, ``job.run(id)``, ``job.is_feeder(run)``,
+  ``job.feeder_of(source_id)``, ``job.runs_from(source_id)``, ``job.next_run_id(prefix)``,
+  ``job.effective(run, name)`` (a per-run override or the job default).
+- ``JobHeader``: name, site, walked_on, walked_by, notes.
+- ``Defaults``: conductor material, insulation, raceway, terminal temperature, ambient, drop
+  targets (branch, feeder, total), drop method, power factor, conductor temperature, slack per end,
+  waste allowance, colour scheme.
+- ``Source``: id, kind (``service`` | ``switchboard`` | ``panel`` | ``transformer``), system (for a
+  transformer: its secondary), name, kva, rating_a, notes. What feeds a source is the run whose
+  ``to`` is the source's id (a service is fed by the utility).
+- ``Run``: id, ``from_`` (``from`` in the file), to, length (as typed) and ``length_ft``, segments,
+  load (``Load``: value, unit, pf), continuous, distributed, connection, sets, size, ocpd_a,
+  per-run overrides of the defaults (None: inherit), bends, measured_on, notes.
+- ``SCHEMA_VERSION``, ``SOURCE_KINDS``, ``OVERRIDABLE`` (run fields that fall back to defaults).
+
+Edit a run by assignment (``run.length = "90+12"``): runs validate on assignment, so ``length_ft``
+follows. The structure is checked here field by field; references, cycles and what a system can
+supply are checked by ``gaugewalk.model.walk.checks``.
+"""
+
+from __future__ import annotations
+
+import re
+import warnings
+from datetime import date
+from functools import lru_cache
+from typing import Annotated, Literal
+
+from pydantic import (
+    AfterValidator,
+    BaseModel,
+    BeforeValidator,
+    ConfigDict,
+    Field,
+    PrivateAttr,
+    field_validator,
+    model_validator,
+)
+
+from gaugewalk.model.engine.lengths import LengthError
+from gaugewalk.model.engine.lengths import parse_length as _parse_length
+from gaugewalk.model.engine.circuits import CircuitError, parse_system
+from gaugewalk.tables.errors import TableLookupError
+from gaugewalk.tables.conductor.ampacity import parse_insulation
+from gaugewalk.tables.raceway.fill import parse_raceway
+from gaugewalk.tables.conductor.sizes import parse_size
+
+SCHEMA_VERSION = 1
+"""Version of the walk file format written by this code (the ``schema`` key)."""
+
+SOURCE_KINDS = ("service", "switchboard", "panel", "transformer")
+LOAD_UNITS = ("A", "VA", "kVA", "W", "kW")
+CONNECTION_NAMES = ("LN", "LL", "LLN", "MW", "3P", "3PN")
+
+_ID_RE = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/#()+-]{0,39}$")
+_ID_HELP = (
+    "an id is 1 to 40 characters: letters, digits, space and . _ - / # ( ) +, "
+    "starting with a letter or digit"
+)
+
+_TEXT_OR_NUMBER = {"type": ["string", "number"]}
+"""A length may be written as a bare number of feet in the file (``length = 85``)."""
+
+Material = Literal["cu", "al"]
+Method = Literal["dc", "kfactor", "ac"]
+TerminalTemp = Literal[60, 75, 90]
+
+
+@lru_cache(maxsize=8192)
+def parse_length(text: str) -> float:
+    """``gaugewalk.model.engine.lengths.parse_length`` remembered: a walk repeats the same lengths, and each is
+    read by the field check and again for ``length_ft`` [ft]. Errors are not remembered."""
+    return _parse_length(text)
+
+
+_ID_EPOCH = [0]
+"""Counts ids set on sources and runs (built or assigned): a ``Job``'s cached id lookups are
+rebuilt when it moves, so a lookup that finds nothing can answer at once."""
+
+
+def _check_id(value: str) -> str:
+    if not isinstance(value, str) or not _ID_RE.match(value) or value != value.strip():
+        raise ValueError(f"'{value}' is not a usable id: {_ID_HELP}")
+    _ID_EPOCH[0] += 1
+    return value
+
+
+class _Strict(BaseModel):
+    model_config = ConfigDict(
+        extra="forbid", populate_by_name=True, validate_assignment=True,
+        use_attribute_docstrings=True,
+    )
+
+
+def _canonical(parse, value):
+    if value is None:
+        return None
+    try:
+        return parse(value)
+    except TableLookupError as exc:
+        raise ValueError(str(exc)) from None
+
+
+class JobHeader(_Strict):
+    """Who walked what, where and when."""
+
+    name: str = ""
+    """Job name as the crew knows it."""
+    site: str = ""
+    """Site address or description."""
+    walked_on: date | None = None
+    """Date of the walk."""
+    walked_by: str = ""
+    """Who walked it."""
+    notes: str = ""
+    """Anything the crew should know about the job."""
+
+
+class PutUp(_Strict):
+    """A box or reel the supplier sells conductor sizes in, for the takeoff's order."""
+
+    label: str = Field(min_length=1, max_length=40)
+    """What the order calls it, e.g. ``500 ft box``."""
+    length_ft: int = Field(gt=0, le=100_000)
+    """Conductor on one box or reel [ft]."""
+    sizes: list[str] = Field(min_length=1)
+    """Sizes sold this way, e.g. ``["12 AWG", "10 AWG"]``."""
+
+    @field_validator("sizes")
+    @classmethod
+    def _known_sizes(cls, value: list[str]) -> list[str]:
+        return [_canonical(parse_size, v) for v in value]
+
+
+class Defaults(_Strict):
+    """What every run inherits unless it says otherwise.
+
+    Drop targets follow the informational notes to NEC 210.19 (branch circuits, 3 %) and 215.2
+    (feeders, 3 %; feeder plus branch circuit, 5 %): recommendations, not requirements, unless the
+    jurisdiction or an energy code adopts them.
+    """
+
+    material: Material = "cu"
+    """Conductor material: ``cu`` or ``al``."""
+    insulation: str = "THHN/THWN-2"
+    """Insulation type (NEC Table 310.4(1) names)."""
+    raceway: str = "EMT"
+    """Raceway type (NEC Ch. 9 Table 4 names)."""
+    terminal_temp: TerminalTemp | None = None
+    """Terminal rating [C]; None: NEC 110.14(C)(1) by circuit rating and size."""
+    ambient_c: float = Field(30.0, ge=-40.0, le=90.0)
+    """Ambient temperature [C] (NEC 310.15(B)(1))."""
+    branch_drop_pct: float = Field(3.0, gt=0.0, le=20.0)
+    """Drop target for a branch circuit [%] (informational note to NEC 210.19)."""
+    feeder_drop_pct: float = Field(3.0, gt=0.0, le=20.0)
+    """Drop target for a feeder [%] (informational note to NEC 215.2)."""
+    total_drop_pct: float = Field(5.0, gt=0.0, le=25.0)
+    """Drop target from the service to the load [%] (informational note to NEC 215.2)."""
+    method: Method = "ac"
+    """Drop method: ``dc`` (Ch. 9 Table 8 R), ``kfactor`` or ``ac`` (Ch. 9 Table 9)."""
+    pf: float = Field(0.85, gt=0.0, le=1.0)
+    """Power factor for loads that do not give one."""
+    conductor_temp_c: float = Field(75.0, ge=20.0, le=150.0)
+    """Conductor temperature for resistance [C] (Ch. 9 Table 8 note 2)."""
+    min_size: str | None = None
+    """Smallest conductor the job allows for power, e.g. ``12 AWG`` (a job specification; common
+    practice on commercial work); None: the smallest the rules allow. Upsizing to it enlarges the
+    EGC in proportion (NEC 250.122(B))."""
+    slack_per_end_ft: float = Field(2.0, ge=0.0, le=50.0)
+    """Wire left at each end for terminations [ft] (common practice), for the takeoff."""
+    waste_pct: float = Field(5.0, ge=0.0, le=100.0)
+    """Allowance for offcuts [%] (common practice), for the takeoff."""
+    colour_scheme: str = "common"
+    """Conductor colours for the takeoff. ``common``: black/red/blue on 120/240 V and 208Y/120 V,
+    brown/orange/yellow on 480Y/277 V and 480 V, white or grey neutrals, green EGC (common
+    practice; only the neutral and EGC colours are code rules, NEC 200.6 and 250.119)."""
+    putups: list[PutUp] | None = None
+    """Boxes and reels the takeoff orders in; None: 500 ft boxes for 14-10 AWG and 1,000 and
+    2,500 ft reels (common practice, ``gaugewalk.tables.order.putups``)."""
+
+    @field_validator("insulation")
+    @classmethod
+    def _known_insulation(cls, value: str) -> str:
+        return _canonical(parse_insulation, value)
+
+    @field_validator("min_size")
+    @classmethod
+    def _known_min_size(cls, value: str | None) -> str | None:
+        return _canonical(parse_size, value)
+
+    @field_validator("raceway")
+    @classmethod
+    def _known_raceway(cls, value: str) -> str:
+        return _canonical(parse_raceway, value)
+
+
+class Load(_Strict):
+    """A load as the walker wrote it: a value and a unit, with a power factor for watts."""
+
+    value: float = Field(gt=0.0, le=1e7)
+    """The load in ``unit``."""
+    unit: Literal["A", "VA", "kVA", "W", "kW"]
+    """``A``, ``VA``, ``kVA``, ``W`` or ``kW``."""
+    pf: float | None = Field(None, gt=0.0, le=1.0)
+    """Power factor; None: the job default. Used for W/kW and the AC drop method."""
+
+
+class Segment(_Strict):
+    """One stretch of a run's route, with a note on where it goes."""
+
+    length: LengthText
+    """Length as typed (same grammar as the run's length)."""
+    note: str = ""
+    """Where this stretch goes."""
+
+
+def _length_text(value):
+    if isinstance(value, bool):
+        return value
+    if isinstance(value, int):
+        return str(value)
+    if isinstance(value, float):
+        return str(int(value)) if value.is_integer() else repr(value)
+    return value
+
+
+def _readable_length(value: str) -> str:
+    try:
+        parse_length(value)
+    except LengthError as exc:
+        raise ValueError(f"the length '{value}' cannot be read {exc}") from None
+    return value
+
+
+LengthText = Annotated[
+    str,
+    BeforeValidator(_length_text),
+    AfterValidator(_readable_length),
+    Field(min_length=1, max_length=200, json_schema_extra=_TEXT_OR_NUMBER),
+]
+"""A route length as typed (``85+12+2*6``; a bare number is kept as its text), which the length
+grammar of ``gaugewalk.model.engine.lengths`` must read."""
+
+
+class Source(_Strict):
+    """Something that feeds runs: the service, a switchboard, a panel or a transformer.
+
+    A transformer starts a new system: ``system`` is its secondary, and cumulative drop restarts
+    on its secondary.
+    """
+
+    id: str
+    """Short id the runs refer to, e.g. ``MDP``, ``LP-2``, ``T1``."""
+    kind: Literal["service", "switchboard", "panel", "transformer"]
+    """``service``, ``switchboard``, ``panel`` or ``transformer``."""
+    system: str
+    """Supply system at this source's bus, e.g. ``208Y/120V 3ph 4w`` (transformer: secondary)."""
+    name: str = ""
+    """Name on the equipment or drawings."""
+    kva: float | None = Field(None, gt=0.0, le=1e5)
+    """Transformer rating [kVA]."""
+    rating_a: int | None = Field(None, gt=0, le=10000)
+    """Bus or main rating [A]."""
+    notes: str = ""
+    """Where it is, what it looks like."""
+
+    @field_validator("id")
+    @classmethod
+    def _usable_id(cls, value: str) -> str:
+        return _check_id(value)
+
+    @field_validator("system")
+    @classmethod
+    def _known_system(cls, value: str) -> str:
+        try:
+            return parse_system(value)
+        except CircuitError as exc:
+            raise ValueError(str(exc)) from None
+
+
+class Run(_Strict):
+    """One run of conductors from a source to a panel (a feeder) or to a load (a branch)."""
+
+    id: str
+    """Short id, e.g. ``R12`` or ``F-LP2``."""
+    from_: str = Field(alias="from")
+    """Id of the source the run starts at."""
+    to: str = Field(min_length=1, max_length=120)
+    """A source id of this job (the run is then its feeder) or the load's name."""
+    length: LengthText
+    """One-way route length as typed: ``85+12+2*6``, ``36m+8ft`` [ft unless a unit is given]."""
+    segments: list[Segment] = Field(default_factory=list)
+    """Optional stretches of the route with notes; they must add up to ``length``."""
+    load: Load | None = None
+    """The load; required on a branch, optional on a feeder (default: what its panel serves)."""
+    continuous: bool = False
+    """Load runs 3 h or more: sized at 125 % (NEC 210.19(A)(1), 215.2(A)(1))."""
+    distributed: bool = False
+    """Load spread evenly along the run rather than at its end (drop taken at half length)."""
+    connection: Literal["LN", "LL", "LLN", "MW", "3P", "3PN"] | None = None
+    """How the load is wired to the source's system; None: every hot and the neutral it offers
+    (a feeder to a transformer: the hots only)."""
+    sets: int = Field(1, ge=1, le=20)
+    """Conductors in parallel per phase (NEC 310.10(G))."""
+    size: str | None = None
+    """Conductor size fixed by the user, e.g. ``3/0 AWG``; None: picked."""
+    ocpd_a: int | None = Field(None, gt=0, le=6000)
+    """Breaker or fuse rating fixed by the user [A]; None: next standard rating (NEC 240.6(A))."""
+    material: Material | None = None
+    """Conductor material; None: the job default."""
+    insulation: str | None = None
+    """Insulation type; None: the job default."""
+    raceway: str | None = None
+    """Raceway type; None: the job default."""
+    terminal_temp: TerminalTemp | None = None
+    """Terminal rating [C]; None: the job default."""
+    ambient_c: float | None = Field(None, ge=-40.0, le=90.0)
+    """Ambient temperature [C]; None: the job default."""
+    conductor_temp_c: float | None = Field(None, ge=20.0, le=150.0)
+    """Conductor temperature for resistance [C]; None: the job default."""
+    method: Method | None = None
+    """Drop method; None: the job default."""
+    max_drop_pct: float | None = Field(None, gt=0.0, le=20.0)
+    """Drop target for this run [%]; None: the job's branch or feeder target."""
+    bends: int | None = Field(None, ge=0, le=100)
+    """90-degree bends along the route (elbows for the takeoff)."""
+    measured_on: date | None = None
+    """When the length was last measured."""
+    notes: str = ""
+    """Anything about the run."""
+
+    _length_ft: float = PrivateAttr(default=0.0)
+
+    @field_validator("id", "from_")
+    @classmethod
+    def _from_is_id(cls, value: str) -> str:
+        return _check_id(value)
+
+    @field_validator("size")
+    @classmethod
+    def _known_size(cls, value: str | None) -> str | None:
+        return _canonical(parse_size, value)
+
+    @field_validator("insulation")
+    @classmethod
+    def _known_insulation(cls, value: str | None) -> str | None:
+        return _canonical(parse_insulation, value)
+
+    @field_validator("raceway")
+    @classmethod
+    def _known_raceway(cls, value: str | None) -> str | None:
+        return _canonical(parse_raceway, value)
+
+    @model_validator(mode="after")
+    def _feet(self) -> Run:
+        feet = parse_length(self.length)
+        if self.segments:
+            total = sum(parse_length(s.length) for s in self.segments)
+            if abs(total - feet) > 0.05:
+                raise ValueError(
+                    f"the length is {feet:.1f} ft but its segments add up to {total:.1f} ft"
+                )
+        self.__pydantic_private__["_length_ft"] = feet  # as self._length_ft = feet, direct
+        return self
+
+    @property
+    def length_ft(self) -> float:
+        """One-way route length [ft], read from ``length``."""
+        return self.__pydantic_private__["_length_ft"]  # direct: this is read in hot loops
+
+
+def _run_private_init(self: Run, context, /) -> None:
+    """Run's private attributes set up as pydantic's generic ``init_private_attributes`` would
+    (``{"_length_ft": 0.0}``), without its loop over defaults: that loop was a quarter of the
+    time a run takes to validate, and a walk validates thousands."""
+    if getattr(self, "__pydantic_private__", None) is None:
+        object.__setattr__(self, "__pydantic_private__", {"_length_ft": 0.0})
+
+
+if set(Run.__private_attributes__) != {"_length_ft"}:  # keep _run_private_init in step
+    raise TypeError("Run's private attributes changed: update _run_private_init")
+Run.model_post_init = _run_private_init
+
+
+OVERRIDABLE: dict[str, str] = {
+    "material": "material",
+    "insulation": "insulation",
+    "raceway": "raceway",
+    "terminal_temp": "terminal_temp",
+    "ambient_c": "ambient_c",
+    "conductor_temp_c": "conductor_temp_c",
+    "method": "method",
+}
+"""Run field -> the ``Defaults`` field it falls back to when None."""
+
+
+with warnings.catch_warnings():
+    # ``schema`` is the file's format-version key; it shadows pydantic's deprecated classmethod.
+    warnings.filterwarnings("ignore", message='Field name "schema"', category=UserWarning)
+
+    class Job(_Strict):
+        """A whole walk: header, defaults, sources and runs."""
+
+        schema: int = Field(SCHEMA_VERSION, ge=0)
+        """Walk file format version."""
+        job: JobHeader = Field(default_factory=JobHeader)
+        """Who walked what, where and when."""
+        defaults: Defaults = Field(default_factory=Defaults)
+        """What every run inherits unless it says otherwise."""
+        sources: list[Source] = Field(default_factory=list, alias="source")
+        """Service, switchboards, panels and transformers (``[[source]]``)."""
+        runs: list[Run] = Field(default_factory=list, alias="run")
+        """Every run walked (``[[run]]``)."""
+
+        _index_cache: tuple | None = PrivateAttr(default=None)
+
+        def __eq__(self, other: object) -> bool:  # the lookup cache is not part of the walk
+            return type(other) is type(self) and self.__dict__ == other.__dict__
+
+        __hash__ = None
+
+        # -- lookups -------------------------------------------------------------------------
+        # Cached by list identity and length and by ``_ID_EPOCH`` (ids built or assigned), so a
+        # miss costs nothing. Code that puts an object built earlier into ``sources`` or ``runs``
+        # at the same length sets ``_index_cache = None``, as ``gaugewalk.model.session.session`` does.
+        def _index(self) -> tuple[dict[str, Source], dict[str, Run]]:
+            cache = self._index_cache
+            if cache is not None:
+                key, sources, runs = cache
+                if key == (id(self.sources), len(self.sources), id(self.runs), len(self.runs),
+                           _ID_EPOCH[0]):
+                    return sources, runs
+            sources = {}
+            for s in self.sources:
+                sources.setdefault(s.id, s)
+            runs = {}
+            for r in self.runs:
+                runs.setdefault(r.id, r)
+            self._index_cache = (
+                (id(self.sources), len(self.sources), id(self.runs), len(self.runs), _ID_EPOCH[0]),
+                sources,
+                runs,
+            )
+            return sources, runs
+
+        def reindex(self) -> None:
+            """Forget the lookup index; call after renaming a source or run id in place
+            (appending or removing items is noticed on its own)."""
+            self._index_cache = None
+
+        def source(self, source_id: str) -> Source | None:
+            """The source with this id, or None."""
+            found = self._index()[0].get(source_id)
+            if found is not None and found.id != source_id:  # renamed in place
+                self._index_cache = None
+                found = self._index()[0].get(source_id)
+            return found
+
+        def run(self, run_id: str) -> Run | None:
+            """The run with this id, or None."""
+            found = self._index()[1].get(run_id)
+            if found is not None and found.id != run_id:
+                self._index_cache = None
+                found = self._index()[1].get(run_id)
+            return found
+
+        def is_feeder(self, run: Run) -> bool:
+            """True when the run ends at a source of this job (it feeds that source)."""
+            return self.source(run.to) is not None
+
+        def feeder_of(self, source_id: str) -> Run | None:
+            """The run feeding this source, or None (a service is fed by the utility)."""
+            for r in self.runs:
+                if r.to == source_id:
+                    return r
+            return None
+
+        def runs_from(self, source_id: str) -> list[Run]:
+            """Runs leaving this source, in file order."""
+            return [r for r in self.runs if r.from_ == source_id]
+
+        def effective(self, run: Run, name: str):
+            """A run's own value for an overridable field, or the job default."""
+            value = getattr(run, name)
+            return getattr(self.defaults, OVERRIDABLE[name]) if value is None else value
+
+        def next_run_id(self, prefix: str = "R") -> str:
+            """The next free id ``prefix`` + number, one past the highest already used."""
+            pattern = re.compile(re.escape(prefix) + r"(\d+)$")
+            used = {r.id for r in self.runs}
+            highest = 0
+            for rid in used:
+                m = pattern.match(rid)
+                if m:
+                    highest = max(highest, int(m.group(1)))
+            n = highest + 1
+            while f"{prefix}{n}" in used:
+                n += 1
+            return f"{prefix}{n}"

@@ -1,0 +1,260 @@
+"""``gaugewalk report``: the printable HTML and Markdown reports of a walk."""
+
+from __future__ import annotations
+
+import math
+import os
+from html.parser import HTMLParser
+from pathlib import Path
+
+import pytest
+
+from tests.walk.test_takeoff_walk import WALK, check_golden, gaugewalk
+from gaugewalk.tui.cli import report as cmd_report
+from gaugewalk.tui.cli.main import CAUTION
+
+
+class _Page(HTMLParser):
+    """Collects the text, the table cells by table label, the tags and the attributes."""
+
+    def __init__(self) -> None:
+        super().__init__(convert_charrefs=True)
+        self.text: list[str] = []
+        self.tags: list[str] = []
+        self.attrs: list[tuple[str, str | None]] = []
+        self.tables: dict[str, list[list[str]]] = {}
+        self._table: str | None = None
+        self._row: list[str] | None = None
+        self._cell: list[str] | None = None
+        self.styles: list[str] = []
+        self._in_style = False
+
+    def handle_starttag(self, tag, attrs):
+        self.tags.append(tag)
+        self.attrs += attrs
+        if tag == "table":
+            self._table = dict(attrs).get("aria-label", "")
+            self.tables[self._table] = []
+        elif tag == "tr" and self._table is not None:
+            self._row = []
+        elif tag in ("td", "th") and self._row is not None:
+            self._cell = []
+        elif tag == "style":
+            self._in_style = True
+
+    def handle_endtag(self, tag):
+        if tag in ("td", "th") and self._cell is not None:
+            self._row.append("".join(self._cell))
+            self._cell = None
+        elif tag == "tr" and self._row is not None:
+            self.tables[self._table].append(self._row)
+            self._row = None
+        elif tag == "table":
+            self._table = None
+        elif tag == "style":
+            self._in_style = False
+
+    def handle_data(self, data):
+        if self._in_style:
+            self.styles.append(data)
+            return
+        self.text.append(data)
+        if self._cell is not None:
+            self._cell.append(data)
+
+
+def _write(tmp_path: Path, name: str, argv_extra=()) -> tuple[int, Path]:
+    out = tmp_path / name
+    return gaugewalk(cmd_report, [str(WALK), "-o", str(out), *argv_extra]), out
+
+
+@pytest.fixture(scope="module")
+def page(tmp_path_factory):
+    rc, out = _write(tmp_path_factory.mktemp("html"), "walk.html")
+    assert rc == 0
+    html = out.read_text(encoding="utf-8")
+    parsed = _Page()
+    parsed.feed(html)
+    parsed.close()
+    return html, parsed
+
+
+def _rows(parsed: _Page, label: str) -> dict[str, list[str]]:
+    header, *body = parsed.tables[label]
+    return {row[0]: dict(zip(header, row)) for row in body} if header else {}
+
+
+def test_html_report_shows_the_caution_at_top_and_bottom(page):
+    _, parsed = page
+    text = " ".join(" ".join(parsed.text).split())
+    assert text.count(CAUTION) == 2
+
+
+def test_html_runs_table_matches_hand_drop_arithmetic(page):
+    _, parsed = page
+    runs = _rows(parsed, "Runs")
+    # NEC Ch. 9 Table 9 (from memory), 0.85 PF: Z = R cos + X sin.
+    # 12 AWG Cu in steel: R 2.0, XL 0.068 ohm/kft -> Z = 2.0 x 0.85 + 0.068 x 0.5268 = 1.7358
+    z12 = 2.0 * 0.85 + 0.068 * math.sqrt(1 - 0.85**2)
+    # B2: 1200 VA / 120 V = 10 A; VD = 2 x 10 x 1.7358 x 40 / 1000 = 1.389 V = 1.16 % of 120 V
+    assert runs["B2"]["Drop [%]"] == f"{2 * 10 * z12 * 40 / 1000 / 120 * 100:.2f}" == "1.16"
+    # B1: VD = 2 x 16 x 1.7358 x 60 / 1000 = 3.333 V = 2.78 %
+    assert runs["B1"]["Drop [%]"] == f"{2 * 16 * z12 * 60 / 1000 / 120 * 100:.2f}" == "2.78"
+    # F1: 3/0 Cu in PVC: R 0.077, XL 0.042 ohm/kft -> Z = 0.0876 (the table's Ze column prints
+    # 0.088); 300 A, 150 ft, 2 sets, 3-phase at 208 V:
+    # VD = sqrt(3) x 300 x 0.0876 x 150 / 1000 / 2 = 3.41 V = 1.64 %
+    z30 = 0.077 * 0.85 + 0.042 * math.sqrt(1 - 0.85**2)
+    f1_pct = math.sqrt(3) * 300 * z30 * 150 / 1000 / 2 / 208 * 100
+    assert runs["F1"]["Drop [%]"] == f"{f1_pct:.2f}" == "1.64"
+    # B1 total from the service: 1.64 + 2.78 = 4.42 % (drops add along the chain)
+    assert runs["B1"]["Total drop [%]"] == "4.42"
+    assert runs["F1"]["Length [ft]"] == "150.0"           # "120+30"
+    assert runs["F1"]["Size"] == "2 x 3/0 AWG Cu"
+    assert runs["F1"]["EGC"] == "3 AWG"                    # NEC Table 250.122, 400 A
+    assert runs["F1"]["Raceway"] == "PVC-40 2 (2 raceways)"
+    assert runs["B2"]["Load"] == "1200 VA"
+
+
+def test_html_material_list_has_the_hand_worked_quantities(page):
+    _, parsed = page
+    wire = parsed.tables["Conductors"]
+    header = wire[0]
+    rows = [dict(zip(header, r)) for r in wire[1:]]
+    blue = [r for r in rows if r["Size"] == "3/0 AWG" and r["Colour"] == "blue"]
+    # (150 + 4) x 2 = 308; x 1.10 -> 339; one 1,000 ft reel leaves 661
+    assert [(r["Net [ft]"], r["With waste [ft]"], r["Order"], r["Left over [ft]"]) for r in blue] \
+        == [("308.0", "339", "1 x 1,000 ft reel", "661")]
+    fittings = {(r[0], r[1]): r[3] for r in parsed.tables["Fittings"][1:]}
+    assert fittings["support", "PVC-40"] == "60"     # NEC Table 352.30
+    footage = {r[1]: r[3] for r in parsed.tables["Conductor footage by size"][1:]}
+    assert footage == {"12 AWG": "357", "3 AWG": "339", "3/0 AWG": "1356"}
+
+
+def test_html_has_a_bar_per_size_and_print_styles_and_fetches_nothing(page):
+    html, parsed = page
+    assert parsed.tags.count("svg") == 1 and parsed.tags.count("rect") == 3
+    assert "@media print" in "".join(parsed.styles)
+    for tag in ("script", "link", "img", "iframe"):
+        assert tag not in parsed.tags
+    assert not any(name in ("src", "href") for name, _ in parsed.attrs)
+    assert "http" not in html and "url(" not in html and "@import" not in html
+
+
+def test_html_lists_defaults_and_assumptions(page):
+    _, parsed = page
+    defaults = dict(parsed.tables["Defaults used"][1:])
+    assert defaults["Waste allowance [%]"] == "10"
+    assert defaults["Slack per end [ft]"] == "2"
+    text = " ".join(parsed.text)
+    assert "2 at each end of each raceway" in text and "NEC 358.30(A)" in text
+
+
+def test_user_text_is_escaped(tmp_path):
+    walk = tmp_path / "odd.toml"
+    walk.write_text(WALK.read_text(encoding="utf-8").replace(
+        'to = "Oven hood fan"', 'to = "<script>alert(1)</script> & <b>fan</b>"'), encoding="utf-8")
+    html_out, md_out = tmp_path / "odd.html", tmp_path / "odd.md"
+    assert gaugewalk(cmd_report, [str(walk), "-o", str(html_out)]) == 0
+    assert gaugewalk(cmd_report, [str(walk), "-o", str(md_out)]) == 0
+    html = html_out.read_text(encoding="utf-8")
+    assert "<script>" not in html and "<b>fan" not in html
+    assert "&lt;script&gt;alert(1)&lt;/script&gt; &amp; &lt;b&gt;fan&lt;/b&gt;" in html
+    parsed = _Page()
+    parsed.feed(html)
+    assert "script" not in parsed.tags
+    assert _rows(parsed, "Runs")["B1"]["To"] == "<script>alert(1)</script> & <b>fan</b>"
+    md = md_out.read_text(encoding="utf-8")
+    assert "<script>" not in md and "&lt;script&gt;" in md
+
+
+def test_a_run_with_problems_is_marked_and_says_why(tmp_path):
+    walk = tmp_path / "long.toml"
+    # B1 at 400 ft on a fixed 12 AWG: about 18.5 % drop, far over the 3 % target
+    walk.write_text(WALK.read_text(encoding="utf-8").replace('length = "60"', 'length = "400"'),
+                    encoding="utf-8")
+    assert gaugewalk(cmd_report, [str(walk), "-o", str(tmp_path / "r.html")]) == 0
+    parsed = _Page()
+    parsed.feed((tmp_path / "r.html").read_text(encoding="utf-8"))
+    b1 = _rows(parsed, "Runs")["B1"]
+    assert b1["Problems"] != ""
+    summary = dict(parsed.tables["Summary"][1:])
+    assert summary["Runs with problems"] == "1"
+
+
+def test_markdown_report_has_the_same_sections(tmp_path):
+    rc, out = _write(tmp_path, "walk.md")
+    assert rc == 0
+    md = out.read_text(encoding="utf-8")
+    assert md.count(CAUTION) == 2
+    for heading in ("## Defaults used", "## Runs", "## Conductor footage by size",
+                    "## Material list", "## Takeoff assumptions"):
+        assert heading in md
+    assert "| F1 | MSB | LP1 | 150.0 | 300 A | 2 x 3/0 AWG Cu | 1.64 | 1.64 |" in md
+    check_golden("report_walk.md", md)
+
+
+def test_html_report_golden(page):
+    check_golden("report_walk.html", page[0])
+
+
+def test_the_walk_file_is_never_overwritten(tmp_path, capsys):
+    walk = tmp_path / "walk.md"          # a walk whose name has a report extension
+    walk.write_bytes(WALK.read_bytes())
+    before = walk.read_bytes()
+    for extra in ([], ["--replace"]):
+        assert gaugewalk(cmd_report, [str(walk), "-o", str(walk), *extra]) == 2
+        assert "walk file" in capsys.readouterr().err
+    assert walk.read_bytes() == before
+
+
+def test_an_existing_report_is_kept_unless_replace(tmp_path, capsys):
+    out = tmp_path / "r.html"
+    out.write_text("keep me", encoding="utf-8")
+    assert gaugewalk(cmd_report, [str(WALK), "-o", str(out)]) == 2
+    assert "--replace" in capsys.readouterr().err
+    assert out.read_text(encoding="utf-8") == "keep me"
+    assert gaugewalk(cmd_report, [str(WALK), "-o", str(out), "--replace"]) == 0
+    assert out.read_text(encoding="utf-8").startswith("<!DOCTYPE html>")
+
+
+@pytest.mark.parametrize(("name", "message"), [("r.pdf", "use .html or .md"),
+                                               ("missing/r.html", "does not exist")])
+def test_bad_output_names_exit_2_with_one_line(tmp_path, capsys, name, message):
+    assert gaugewalk(cmd_report, [str(WALK), "-o", str(tmp_path / name)]) == 2
+    err = capsys.readouterr().err
+    assert message in err and err.count("\n") == 1
+    assert list(tmp_path.iterdir()) == []  # nothing written
+
+
+def test_a_bad_walk_writes_no_report(tmp_path, capsys):
+    bad = tmp_path / "bad.toml"
+    bad.write_text("schema = 1\n[[run]]\nid = \n", encoding="utf-8")
+    assert gaugewalk(cmd_report, [str(bad), "-o", str(tmp_path / "r.html")]) == 2
+    assert "bad.toml" in capsys.readouterr().err
+    assert not (tmp_path / "r.html").exists()
+
+
+def test_a_run_that_cannot_be_sized_is_listed_and_left_out_of_the_takeoff(tmp_path):
+    walk = tmp_path / "unsized.toml"
+    # 14 AWG is not an aluminum power conductor size (NEC Table 310.16 lists Al from 12 AWG)
+    head, tail = WALK.read_text(encoding="utf-8").rsplit('size = "12 AWG"', 1)  # B2 is last
+    walk.write_text(head + 'material = "al"\nsize = "14 AWG"' + tail, encoding="utf-8")
+    out = tmp_path / "r.html"
+    assert gaugewalk(cmd_report, [str(walk), "-o", str(out)]) == 0
+    parsed = _Page()
+    parsed.feed(out.read_text(encoding="utf-8"))
+    b2 = _rows(parsed, "Runs")["B2"]
+    assert b2["Governed by"] == "not sized" and "14 AWG" in b2["Problems"]
+    text = " ".join(parsed.text)
+    assert "run B2: not sized, so left out of the takeoff" in text
+    # only B1 is left on 12 AWG: 60 + 4 = 64 ft per conductor
+    footage = {r[1]: r[2] for r in parsed.tables["Conductor footage by size"][1:]}
+    assert footage["12 AWG"] == f"{3 * 64:.1f}"
+
+
+def test_a_new_report_gets_ordinary_file_permissions(tmp_path):
+    rc, out = _write(tmp_path, "perm.html")
+    assert rc == 0
+    umask = os.umask(0)
+    os.umask(umask)
+    assert out.stat().st_mode & 0o777 == 0o666 & ~umask

@@ -1,0 +1,88 @@
+"""The app's walk session without the screen: statuses, undo and redo, saving, refusals."""
+
+from __future__ import annotations
+
+import tomllib
+
+import pytest
+
+from gaugewalk.model.walk.job import Run, Source
+from tests.support.app_helpers import write_walk
+from gaugewalk.model.session.session import STATUS_DROP, STATUS_OK, WalkSession
+
+
+@pytest.fixture
+def session(tmp_path):
+    return WalkSession.open(write_walk(tmp_path))
+
+
+def _run(**fields) -> Run:
+    data = {"id": "R2", "from": "LP1", "to": "Slicer", "length": "20",
+            "load": {"value": 4, "unit": "A"}, "connection": "LN"}
+    data.update(fields)
+    return Run.model_validate(data)
+
+
+def test_a_run_over_its_drop_target_says_so_in_words(session):
+    # NEC 2023 Ch. 9 Table 8, 12 AWG stranded Cu 1.98 ohm/kft: 2 x 16 A x 1.98 x 100 ft / 1000
+    # = 6.336 V = 5.28 % of 120 V, over the 3 % branch target (informational note to 210.19)
+    r1 = session.job.run("R1")
+    assert session.result_for("R1").voltage_drop_pct == pytest.approx(5.28, abs=0.01)
+    assert session.status(r1).words == STATUS_DROP and session.status(r1).flag
+    assert session.status(session.job.run("F1")).words == STATUS_OK
+
+
+def test_every_stored_change_is_on_disk_and_undo_redo_walk_through_them(session):
+    path = session.path
+    original = path.read_text()
+    assert session.put_run(_run()) is None
+    with_r2 = path.read_text()
+    assert 'id = "R2"' in with_r2 and session.state.saved
+    assert session.delete_run("R1") is None
+    assert 'id = "R1"' not in path.read_text()
+    assert session.undo().label == "delete R1"
+    assert path.read_text() == with_r2
+    assert session.undo().label == "add R2"
+    assert path.read_text() == original
+    assert session.undo() is None
+    session.redo()
+    assert path.read_text() == with_r2
+
+
+def test_a_change_that_would_leave_the_walk_unreadable_is_refused_and_nothing_is_written(session):
+    path = session.path
+    before = path.read_bytes()
+    runs_before = list(session.job.runs)
+    # repointing the only feeder of LP1 to a load would leave LP1 unfed
+    refusal = session.put_run(_run(id="F1", **{"from": "SVC", "to": "Sign"}), replaces="F1")
+    assert refusal and "LP1" in refusal
+    assert session.job.runs == runs_before and path.read_bytes() == before
+    assert session.history == []
+
+
+def test_a_feeder_goes_only_with_its_empty_panel(session):
+    assert "feeds 1 run" in session.delete_refusal("F1")
+    session.delete_run("R1")
+    assert session.delete_run("F1") is None
+    data = tomllib.loads(session.path.read_text())
+    assert [s["id"] for s in data["source"]] == ["SVC"]
+    session.undo()
+    assert session.job.source("LP1") is not None and session.job.run("F1") is not None
+
+
+def test_a_new_panel_declared_with_its_feeder_is_saved_with_it(session):
+    panel = Source(id="LP2", kind="panel", system="208Y/120V 3ph 4w")
+    feeder = _run(id="F2", **{"from": "SVC", "to": "LP2", "load": None, "connection": None})
+    assert session.put_run(feeder, new_source=panel) is None
+    data = tomllib.loads(session.path.read_text())
+    assert {"id": "LP2", "kind": "panel", "system": "208Y/120V 3ph 4w"} in data["source"]
+
+
+def test_the_preview_sizes_a_run_without_storing_it(session):
+    before = session.path.read_bytes()
+    preview = session.preview(_run(length="200", load={"value": 16, "unit": "A"}))
+    assert preview.result is not None and preview.problems == []
+    assert session.job.run("R2") is None and session.path.read_bytes() == before
+    # a source that is not in the walk is named as the problem with the field it is in
+    bad = session.preview(_run(**{"from": "LP9"}))
+    assert bad.result is None and bad.problems[0][0] == "from" and "LP9" in bad.problems[0][1]

@@ -1,0 +1,98 @@
+"""Helpers for the app tests: a small invented walk, typing into the app, reading the sheet."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from gaugewalk.tui.app.app import WalkApp, make_app
+
+# An invented tenant fit-out: a 208Y/120 V service feeding one panel. DC method so the drops can
+# be checked by hand from NEC Ch. 9 Table 8.
+SMALL_WALK = """\
+schema = 1
+
+[job]
+name = "Harbour Lane bakery"
+
+[defaults]
+method = "dc"
+
+[[source]]
+id = "SVC"
+kind = "service"
+system = "208Y/120V 3ph 4w"
+
+[[source]]
+id = "LP1"
+kind = "panel"
+system = "208Y/120V 3ph 4w"
+
+[[run]]
+id = "F1"
+from = "SVC"
+to = "LP1"
+length = "40"
+
+[[run]]
+id = "R1"
+from = "LP1"
+to = "Proofer"
+length = "100"
+load = { value = 16, unit = "A" }
+connection = "LN"
+size = "12 AWG"
+"""
+
+KEY_NAMES = {
+    " ": "space", "+": "plus", "*": "asterisk", "/": "slash", ".": "full_stop", "-": "minus",
+    "'": "apostrophe", '"': "quotation_mark", "#": "number_sign", "(": "left_parenthesis",
+    ")": "right_parenthesis",
+}
+
+
+def write_walk(folder: Path, text: str = SMALL_WALK, name: str = "walk.toml") -> Path:
+    path = folder / name
+    path.write_text(text, encoding="utf-8")
+    return path
+
+
+def new_app(path: Path | None, config: Path) -> WalkApp:
+    return make_app(str(path) if path is not None else None, config_dir=config)
+
+
+async def type_text(pilot, text: str) -> None:
+    """Type ``text`` key by key (one wait for the screen at the end)."""
+    await pilot.press(*(KEY_NAMES.get(ch, ch) for ch in text))
+
+
+async def settle(app, pilot) -> None:
+    from textual.worker import WorkerCancelled
+
+    try:
+        await app.workers.wait_for_complete()
+    except WorkerCancelled:  # the app ended while opening (a walk that cannot be read)
+        pass
+    await pilot.pause()
+    await pilot.pause()
+
+
+async def opened(app, pilot, *, dismiss_caution: bool = True) -> None:
+    """Wait until the walk is open and sized; close the first-start caution."""
+    await settle(app, pilot)
+    from gaugewalk.tui.app.screens.info import AboutScreen
+
+    if dismiss_caution and isinstance(app.screen, AboutScreen):
+        await pilot.press("enter")
+        await pilot.pause()
+
+
+def sheet_cells(app) -> dict[str, tuple[str, ...]]:
+    from gaugewalk.tui.app.widgets.runsheet import RunSheet
+
+    sheet = app.screen.query_one(RunSheet)
+    return {sheet.rows[i].key: sheet.rows[i].cells for i in sheet.view}
+
+
+def shown(app, selector: str) -> str:
+    """The plain text a widget of the current screen shows."""
+    return str(app.screen.query_one(selector).render())

@@ -1,0 +1,268 @@
+"""The takeoff arithmetic on runs worked by hand (the pure core, no walk file)."""
+
+from __future__ import annotations
+
+import pytest
+
+from gaugewalk.model.walk.takeoff import (
+    RunMaterial, TakeoffError, TakeoffSettings, conductor_footage, order_putups,
+    phase_colours_for, takeoff_from_runs,
+)
+from gaugewalk.tables.order import colours
+from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, putups_for
+
+SETTINGS = TakeoffSettings(slack_per_end_ft=2.0, waste_pct=10.0)
+
+# A feeder in two parallel sets and two 120 V branch circuits, all copper THHN/THWN-2.
+FEEDER = RunMaterial(
+    "F1", 150.0, 2, "cu", "THHN/THWN-2", "3/0 AWG", ("black", "red", "blue"),
+    neutral_size="3/0 AWG", neutral_colour="white", egc_size="4 AWG", egc_colour="green",
+    raceway="PVC-40", raceway_size="2", bends=3,
+)
+BRANCH_A = RunMaterial(
+    "B1", 60.0, 1, "cu", "THHN/THWN-2", "12 AWG", ("black",), neutral_size="12 AWG",
+    egc_size="12 AWG", raceway="EMT", raceway_size="1/2", bends=1,
+)
+BRANCH_B = RunMaterial(
+    "B2", 40.0, 1, "cu", "THHN/THWN-2", "12 AWG", ("black",), neutral_size="12 AWG",
+    egc_size="12 AWG", raceway="EMT", raceway_size="1/2", bends=0,
+)
+
+
+@pytest.fixture(scope="module")
+def takeoff():
+    return takeoff_from_runs([FEEDER, BRANCH_A, BRANCH_B], SETTINGS)
+
+
+def _wire(takeoff, size, function, colour):
+    [line] = [w for w in takeoff.wire_lines
+              if (w.size, w.function, w.colour) == (size, function, colour)]
+    return line
+
+
+def test_footage_is_length_plus_slack_times_conductors_times_sets():
+    # (150 + 2 x 2) x 4 conductors x 2 sets = 154 x 8 = 1232 ft
+    assert conductor_footage(150, 2, 4, 2) == 1232
+
+
+def test_branch_conductors_add_up_per_colour(takeoff):
+    # B1: 60 + 2 + 2 = 64 ft; B2: 40 + 2 + 2 = 44 ft; per colour 64 + 44 = 108 ft
+    # waste 10 %: 108 x 1.10 = 118.8 -> 119 ft; one 500 ft box leaves 500 - 119 = 381 ft
+    for function, colour in (("phase", "black"), ("neutral", "white"), ("EGC", "green")):
+        line = _wire(takeoff, "12 AWG", function, colour)
+        assert line.net_ft == 108.0
+        assert line.with_waste_ft == 119
+        assert [(p.label, p.count) for p in line.order] == [("500 ft box", 1)]
+        assert line.left_over_ft == 381
+        assert line.runs == ("B1", "B2")
+
+
+def test_parallel_feeder_counts_each_set(takeoff):
+    # F1 per conductor: (150 + 4) x 2 sets = 308 ft; x 1.10 = 338.8 -> 339 ft
+    # 3/0 AWG is not boxed (common practice): one 1,000 ft reel, 661 ft left over
+    for function, colour in (("phase", "black"), ("phase", "red"), ("phase", "blue"),
+                             ("neutral", "white")):
+        line = _wire(takeoff, "3/0 AWG", function, colour)
+        assert (line.net_ft, line.with_waste_ft, line.order_ft, line.left_over_ft) == (308, 339, 1000, 661)
+    # NEC 250.122(F): an EGC in each parallel raceway, at its own size: 154 x 2 = 308 ft of 4 AWG
+    assert _wire(takeoff, "4 AWG", "EGC", "green").net_ft == 308
+
+
+def test_footage_by_size_sums_the_colours(takeoff):
+    by_size = {(s.material, s.size): (s.net_ft, s.with_waste_ft) for s in takeoff.footage_by_size()}
+    # 12 AWG: 3 colours x 108 = 324 ft net, 3 x 119 = 357 ft with waste
+    # 3/0 AWG: 4 conductors x 308 = 1232 ft net, 4 x 339 = 1356 ft with waste
+    assert by_size == {("cu", "12 AWG"): (324.0, 357), ("cu", "4 AWG"): (308.0, 339),
+                       ("cu", "3/0 AWG"): (1232.0, 1356)}
+    assert [s.size for s in takeoff.footage_by_size()] == ["12 AWG", "4 AWG", "3/0 AWG"]
+
+
+def test_raceway_per_type_and_trade_size(takeoff):
+    lines = {(r.raceway, r.trade_size): r for r in takeoff.raceway_lines}
+    # EMT 1/2: 60 + 40 = 100 ft = 10 sticks of 10 ft (common practice)
+    assert (lines["EMT", "1/2"].length_ft, lines["EMT", "1/2"].sticks) == (100.0, 10)
+    # PVC-40 2: one raceway per set (NEC 310.10(G)(4)): 150 x 2 = 300 ft = 30 sticks
+    assert (lines["PVC-40", "2"].length_ft, lines["PVC-40", "2"].sticks) == (300.0, 30)
+
+
+def test_fittings_worked_by_hand(takeoff):
+    got = {(f.item, f.raceway, f.trade_size): f.count for f in takeoff.fitting_lines}
+    assert got == {
+        # EMT couplings: B1 60 ft = 6 sticks, 5 joints; B2 40 ft = 4 sticks, 3 joints -> 8
+        ("coupling", "EMT", "1/2"): 8,
+        # connectors: 2 per end x 2 ends x 2 raceways = 8
+        ("connector", "EMT", "1/2"): 8,
+        # NEC 358.30(A): 3 ft from each end, then <= 10 ft.
+        # B1: 60 - 6 = 54 ft -> ceil(5.4) = 6 gaps -> 7; B2: 40 - 6 = 34 -> 4 gaps -> 5; 7 + 5 = 12
+        ("support", "EMT", "1/2"): 12,
+        # one elbow per recorded bend: B1 has 1
+        ("90-degree elbow", "EMT", "1/2"): 1,
+        # PVC couplings: 150 ft = 15 sticks, 14 joints, x 2 raceways = 28
+        ("coupling", "PVC-40", "2"): 28,
+        # 2 per end x 2 ends x 2 raceways = 8
+        ("connector", "PVC-40", "2"): 8,
+        # NEC Table 352.30, 1-1/4 to 2: 5 ft. 150 - 6 = 144 -> ceil(28.8) = 29 gaps -> 30, x 2 = 60
+        ("support", "PVC-40", "2"): 60,
+        # 3 bends x 2 raceways
+        ("90-degree elbow", "PVC-40", "2"): 6,
+    }
+
+
+def test_every_fitting_names_its_basis(takeoff):
+    basis = {(f.item, f.raceway): f.basis for f in takeoff.fitting_lines}
+    assert "NEC 358.30(A)" in basis["support", "EMT"]
+    assert "Table 352.30" in basis["support", "PVC-40"]
+    assert "per raceway end" in basis["connector", "EMT"]
+
+
+def test_assumptions_state_slack_waste_connectors_and_rules(takeoff):
+    text = "\n".join(takeoff.assumptions)
+    assert "2 ft slack at each end" in text
+    assert "Waste allowance 10 %" in text
+    assert "2 at each end of each raceway" in text
+    assert "NEC 250.122(F)" in text           # parallel EGC
+    assert "NEC 310.10(G)(4)" in text         # one raceway per set
+    assert "NEC 358.30(A)" in text and "Table 352.30" in text
+    assert "NEC 200.6(B)" in text             # 3/0 AWG present: marking at terminations
+
+
+def test_rigid_conduit_lists_no_loose_couplings():
+    # NEC 344.130: RMC lengths come with a coupling attached (from memory)
+    run = RunMaterial("R", 95.0, 1, "cu", "THHN/THWN-2", "10 AWG", ("black", "red"),
+                      raceway="RMC", raceway_size="3/4")
+    t = takeoff_from_runs([run], SETTINGS)
+    items = {f.item: f.count for f in t.fitting_lines}
+    assert "coupling" not in items
+    # NEC Table 344.30(B)(2), 1/2-3/4: 10 ft. 95 - 6 = 89 -> 9 gaps -> 10 supports
+    assert items["support"] == 10
+    assert t.raceway_lines[0].sticks == 10
+
+
+def test_more_than_four_bends_is_flagged_with_the_article():
+    # NEC 358.26: at most 360 degrees of bends between pull points
+    run = RunMaterial("R9", 80.0, 1, "cu", "THHN/THWN-2", "12 AWG", ("black",),
+                      neutral_size="12 AWG", raceway="EMT", raceway_size="1/2", bends=5)
+    t = takeoff_from_runs([run], SETTINGS)
+    assert any("R9" in w and "NEC 358.26" in w and "450 degrees" in w for w in t.warnings)
+
+
+def test_a_run_whose_conductors_fit_no_raceway_is_left_out_and_said_so():
+    run = RunMaterial("R5", 80.0, 1, "cu", "THHN/THWN-2", "12 AWG", ("black",),
+                      raceway="EMT", raceway_size=None)
+    t = takeoff_from_runs([run], SETTINGS)
+    assert t.raceway_lines == () and t.fitting_lines == ()
+    assert any(w.startswith("run R5:") for w in t.warnings)
+    assert t.wire_lines[0].net_ft == 84.0   # 80 + 2 + 2, the wire is still counted
+
+
+def test_a_bare_egc_is_ordered_as_bare_wire():
+    # NEC 250.119: an EGC may be bare
+    run = RunMaterial("R", 50.0, 1, "cu", "THHN/THWN-2", "8 AWG", ("black", "red"),
+                      egc_size="10 AWG", egc_colour="bare")
+    [egc] = [w for w in takeoff_from_runs([run], SETTINGS).wire_lines if w.function == "EGC"]
+    assert (egc.insulation, egc.colour) == ("bare", "bare")
+
+
+# --- put-ups ---------------------------------------------------------------------------------
+
+@pytest.mark.parametrize(
+    ("size", "need", "expected", "total"),
+    [
+        # 12 AWG in 500 ft boxes and 1,000/2,500 ft reels (common practice)
+        ("12 AWG", 119, [("500 ft box", 1)], 500),
+        # 1,100 ft: 1,000 + 500 = 1,500 (400 over, 2 pieces) beats 3 x 500 (400 over, 3 pieces)
+        ("12 AWG", 1100, [("1,000 ft reel", 1), ("500 ft box", 1)], 1500),
+        ("12 AWG", 2400, [("2,500 ft reel", 1)], 2500),
+        ("12 AWG", 3000, [("2,500 ft reel", 1), ("500 ft box", 1)], 3000),
+        # 3,600 ft of 3/0 (reels only): 4 x 1,000 = 4,000 (400 over) beats 2,500 + 2 x 1,000
+        # = 4,500 (900 over) and 2 x 2,500 = 5,000 (1,400 over)
+        ("3/0 AWG", 3600, [("1,000 ft reel", 4)], 4000),
+        ("3/0 AWG", 0, [], 0),
+    ],
+)
+def test_put_ups_leave_the_least_over(size, need, expected, total):
+    order, got = order_putups(need, putups_for(size, DEFAULT_PUTUPS))
+    assert [(p.label, p.count) for p in order] == expected
+    assert got == total
+
+
+def test_a_size_with_no_put_up_is_cut_to_length():
+    run = RunMaterial("R", 100.0, 1, "cu", "THHN/THWN-2", "1250 kcmil", ("black",))
+    [line] = takeoff_from_runs([run], SETTINGS).wire_lines
+    # (100 + 4) x 1.10 = 114.4 -> 115 ft, cut to length, nothing left over
+    assert (line.order, line.order_ft, line.left_over_ft) == ((), 115, 0)
+
+
+def test_waste_rounds_up_to_whole_feet_without_float_noise():
+    run = RunMaterial("R", 96.0, 1, "cu", "THHN/THWN-2", "12 AWG", ("black",))
+    [line] = takeoff_from_runs([run], SETTINGS).wire_lines
+    # (96 + 4) x 1.10 = 110 exactly, not 111
+    assert line.with_waste_ft == 110
+
+
+# --- colours ---------------------------------------------------------------------------------
+
+def test_phase_colours_go_in_order_a_b_c():
+    # common practice colours; order A, B, C
+    s = colours.scheme("208Y/120")
+    assert phase_colours_for(s, 1, True) == ("black",)
+    assert phase_colours_for(s, 2, False) == ("black", "red")
+    assert phase_colours_for(s, 3, True) == ("black", "red", "blue")
+
+
+def test_line_to_neutral_circuits_skip_the_high_leg():
+    # NEC 110.15: the high leg (orange) is about 208 V to neutral, so 120 V circuits use A and C
+    s = colours.scheme("240/120 delta")
+    assert phase_colours_for(s, 1, True) == ("black",)
+    assert phase_colours_for(s, 2, True) == ("black", "blue")
+    assert phase_colours_for(s, 3, False) == ("black", "orange", "blue")
+
+
+def test_more_hots_than_the_scheme_has_colours_is_refused():
+    with pytest.raises(TakeoffError, match="2 phase colours"):
+        phase_colours_for(colours.scheme("120/240"), 3, False)
+
+
+def test_rows_have_one_quantity_per_unit_and_no_totals(takeoff):
+    rows = takeoff.to_rows()
+    assert all(set(r) == set(rows[0]) for r in rows)
+    assert not any("total" in str(r["item"]).lower() for r in rows)
+    wire = [r for r in rows if r["section"] == "wire"]
+    assert len(wire) == len(takeoff.wire_lines)
+    boxes = [r for r in rows if r["section"] == "wire order" and r["item"] == "500 ft box"]
+    assert [r["quantity_each"] for r in boxes] == [1, 1, 1]
+
+
+# --- put-up search against brute force ---------------------------------------------------------
+
+from hypothesis import given, settings, strategies as st  # noqa: E402
+
+from gaugewalk.tables.order.putups import PutUp  # noqa: E402
+
+
+def _brute_force(need: int, lengths: list[int]) -> tuple[int, int]:
+    """Least left over, then fewest pieces, by trying every count up to covering the need alone."""
+    import itertools
+    import math as m
+
+    best = None
+    ranges = [range(m.ceil(need / n) + 1) for n in lengths]
+    for counts in itertools.product(*ranges):
+        total = sum(c * n for c, n in zip(counts, lengths))
+        if total >= need:
+            key = (total - need, sum(counts))
+            best = key if best is None or key < best else best
+    return best
+
+
+@settings(max_examples=150, deadline=None)
+@given(
+    need=st.integers(min_value=1, max_value=6000),
+    lengths=st.lists(st.sampled_from([250, 300, 500, 1000, 1500, 2500]), min_size=1, max_size=3,
+                     unique=True),
+)
+def test_put_up_search_matches_brute_force(need, lengths):
+    putups = tuple(PutUp(f"{n} ft", n, ("12 AWG",)) for n in lengths)
+    order, total = order_putups(need, putups)
+    assert total == sum(p.count * p.length_ft for p in order) >= need
+    assert (total - need, sum(p.count for p in order)) == _brute_force(need, sorted(lengths))

@@ -1,0 +1,198 @@
+"""The takeoff of a small walk, worked by hand, and the ``gaugewalk takeoff`` command."""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import os
+from pathlib import Path
+
+import pytest
+
+from gaugewalk.model.walk.compute import compute_job
+from gaugewalk.model.walk.takeoff import ROW_FIELDS, build_takeoff
+from gaugewalk.model.walkfile.store import load_walk
+from gaugewalk.tui.cli import takeoff as cmd_takeoff
+from gaugewalk.tui.cli.main import CAUTION, main
+from tests.support.paths import GOLDEN
+
+WALK = GOLDEN / "takeoff_walk.toml"   # invented job: a bakery fit-out, 208Y/120 V
+
+
+def gaugewalk(module, argv: list[str]) -> int:
+    """Run ``gaugewalk MODULE.NAME ARGV...`` through the real dispatcher (``gaugewalk.tui.cli.main.main``)."""
+    return main([module.NAME, *argv])
+
+
+def check_golden(name: str, text: str) -> None:
+    """Compare with tests/golden/NAME; GAUGEWALK_UPDATE_GOLDEN=1 rewrites it (read it first)."""
+    path = GOLDEN / name
+    if os.environ.get("GAUGEWALK_UPDATE_GOLDEN") == "1":
+        path.write_text(text, encoding="utf-8", newline="")
+    assert path.exists(), f"{path} is missing; run with GAUGEWALK_UPDATE_GOLDEN=1 and read it"
+    with open(path, encoding="utf-8", newline="") as handle:
+        assert text == handle.read()
+
+
+@pytest.fixture(scope="module")
+def computed():
+    job = load_walk(WALK)
+    result = compute_job(job)
+    return job, result, build_takeoff(job, result)
+
+
+def test_the_walk_sizes_as_the_hand_takeoff_assumes(computed):
+    _, result, _ = computed
+    f1, b1, b2 = result.runs["F1"], result.runs["B1"], result.runs["B2"]
+    # NEC Table 250.122: 400 A device -> 3 AWG Cu EGC; 20 A -> 12 AWG Cu
+    assert (f1.size, f1.sets, f1.egc_size) == ("3/0 AWG", 2, "3 AWG")
+    assert (b1.size, b1.egc_size, b2.egc_size) == ("12 AWG", "12 AWG", "12 AWG")
+    # NEC Ch. 9 Tables 1, 4, 5: 3 x 12 AWG THHN = 3 x 0.0133 = 0.0399 in^2 <= 40 % of 0.304 in^2
+    # (1/2 EMT) = 0.122 in^2
+    assert (b1.raceway, b1.raceway_size) == ("EMT", "1/2")
+    # per raceway: 4 x 3/0 THHN (0.2679) + 3 AWG THHN (0.0973) = 1.1689 in^2; 40 % of 2 PVC-40
+    # (3.291) = 1.316 fits, 40 % of 1-1/2 (1.986) = 0.794 does not
+    assert (f1.raceway, f1.raceway_size) == ("PVC-40", "2")
+
+
+def test_walk_takeoff_worked_by_hand(computed):
+    _, _, takeoff = computed
+    wire = {(w.size, w.function, w.colour): (w.net_ft, w.with_waste_ft, w.order_ft, w.left_over_ft)
+            for w in takeoff.wire_lines}
+    assert wire == {
+        # B1 (60 + 2 + 2) + B2 (40 + 2 + 2) = 108 ft per conductor; 120 V circuits: one hot
+        # (black, phase A; common practice), white neutral (NEC 200.6(A)), green EGC (NEC 250.119)
+        # waste 10 %: 118.8 -> 119 ft; one 500 ft box, 381 ft over
+        ("12 AWG", "phase", "black"): (108.0, 119, 500, 381),
+        ("12 AWG", "neutral", "white"): (108.0, 119, 500, 381),
+        ("12 AWG", "EGC", "green"): (108.0, 119, 500, 381),
+        # F1 "120+30" = 150 ft; (150 + 4) x 2 sets = 308 ft per conductor; x 1.10 = 338.8 -> 339
+        # one 1,000 ft reel each, 661 ft over; the EGC is in each raceway (NEC 250.122(F))
+        ("3 AWG", "EGC", "green"): (308.0, 339, 1000, 661),
+        ("3/0 AWG", "phase", "black"): (308.0, 339, 1000, 661),
+        ("3/0 AWG", "phase", "red"): (308.0, 339, 1000, 661),
+        ("3/0 AWG", "phase", "blue"): (308.0, 339, 1000, 661),
+        ("3/0 AWG", "neutral", "white"): (308.0, 339, 1000, 661),
+    }
+    race = {(r.raceway, r.trade_size): (r.length_ft, r.sticks) for r in takeoff.raceway_lines}
+    # EMT 60 + 40 = 100 ft = 10 sticks; PVC 150 x 2 raceways = 300 ft = 30 sticks
+    assert race == {("EMT", "1/2"): (100.0, 10), ("PVC-40", "2"): (300.0, 30)}
+    fit = {(f.item, f.raceway): f.count for f in takeoff.fitting_lines}
+    assert fit == {
+        ("coupling", "EMT"): 8,          # (6 - 1) + (4 - 1)
+        ("connector", "EMT"): 8,         # 2 per end x 2 ends x 2 raceways
+        ("support", "EMT"): 12,          # NEC 358.30(A): 7 (60 ft) + 5 (40 ft)
+        ("90-degree elbow", "EMT"): 1,   # B1 bends = 1
+        ("coupling", "PVC-40"): 28,      # (15 - 1) x 2
+        ("connector", "PVC-40"): 8,      # 2 x 2 x 2
+        ("support", "PVC-40"): 60,       # NEC Table 352.30, 2 in: 5 ft; (ceil(144/5) + 1) x 2
+        ("90-degree elbow", "PVC-40"): 6,  # F1 bends = 3, x 2 raceways
+    }
+    assert takeoff.warnings == ()
+
+
+def test_colour_rules_are_cited_in_the_assumptions(computed):
+    text = "\n".join(computed[2].assumptions)
+    assert "NEC 200.6" in text and "NEC 250.119" in text and "common practice" in text
+
+
+def test_csv_has_one_header_row_and_units_in_quantity_columns(capsys):
+    assert gaugewalk(cmd_takeoff, [str(WALK), "--csv"]) == 0
+    out = capsys.readouterr().out
+    rows = list(csv.reader(io.StringIO(out)))
+    assert tuple(rows[0]) == ROW_FIELDS
+    assert "quantity_ft" in rows[0] and "quantity_each" in rows[0]
+    # only the first row is a header
+    assert sum(1 for r in rows if tuple(r) == ROW_FIELDS) == 1
+    assert all(len(r) == len(ROW_FIELDS) for r in rows)
+    data = list(csv.DictReader(io.StringIO(out)))
+    assert not any("total" in (r["item"] + r["section"]).lower() for r in data)
+    black = [r for r in data if r["section"] == "wire" and r["size"] == "3/0 AWG"
+             and r["colour"] == "black"]
+    assert [(float(r["net_ft"]), int(r["quantity_ft"]), int(r["left_over_ft"])) for r in black] \
+        == [(308.0, 339, 661)]
+    supports = [r for r in data if r["item"] == "support" and r["raceway"] == "EMT"]
+    assert int(supports[0]["quantity_each"]) == 12 and "358.30" in supports[0]["basis"]
+    # the assumptions and the caution travel with the data, in rows of their own section
+    assert any(r["section"] == "assumption" and "slack" in r["basis"] for r in data)
+    assert [r["basis"] for r in data if r["section"] == "caution"] == [CAUTION]
+    check_golden("takeoff_walk.csv", out)
+
+
+def test_json_carries_lines_assumptions_and_the_caution(capsys):
+    assert gaugewalk(cmd_takeoff, [str(WALK), "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data["caution"] == CAUTION
+    sizes = {(s["size"], s["with_waste_ft"]) for s in data["footage_by_size"]}
+    # 12 AWG: 3 x 119; 3 AWG: 339; 3/0 AWG: 4 x 339
+    assert sizes == {("12 AWG", 357), ("3 AWG", 339), ("3/0 AWG", 1356)}
+    assert data["assumptions"]
+
+
+def test_text_output_shows_the_order_and_the_caution(capsys):
+    assert gaugewalk(cmd_takeoff, [str(WALK)]) == 0
+    out = capsys.readouterr().out
+    assert "1 x 1,000 ft reel" in out and "NEC 358.30(A)" in out
+    assert CAUTION in out
+
+
+def test_csv_and_json_together_are_refused(capsys):
+    assert gaugewalk(cmd_takeoff, [str(WALK), "--csv", "--json"]) == 2
+    assert "not allowed with" in capsys.readouterr().err
+
+
+def test_a_missing_walk_exits_2_with_one_line(tmp_path, capsys):
+    missing = tmp_path / "nowhere.toml"
+    assert gaugewalk(cmd_takeoff, [str(missing)]) == 2
+    err = capsys.readouterr().err
+    assert "nowhere.toml" in err and err.count("\n") == 1
+
+
+def test_a_broken_walk_names_the_run_and_field(tmp_path, capsys):
+    bad = tmp_path / "bad.toml"
+    text = WALK.read_text(encoding="utf-8").replace('length = "60"', 'length = "sixty"')
+    bad.write_text(text, encoding="utf-8")
+    assert gaugewalk(cmd_takeoff, [str(bad), "--csv"]) == 2
+    err = capsys.readouterr().err
+    assert "run B1" in err and "length" in err and err.count("\n") == 1
+    assert bad.read_text(encoding="utf-8") == text  # untouched
+
+
+def test_an_unknown_colour_scheme_exits_2(tmp_path, capsys):
+    odd = tmp_path / "odd.toml"
+    odd.write_text(WALK.read_text(encoding="utf-8").replace(
+        "waste_pct = 10.0", 'waste_pct = 10.0\ncolour_scheme = "rainbow"'), encoding="utf-8")
+    assert gaugewalk(cmd_takeoff, [str(odd)]) == 2
+    assert "colour_scheme" in capsys.readouterr().err
+
+
+def test_put_ups_the_job_lists_are_the_ones_ordered(tmp_path):
+    from gaugewalk.model.walkfile.store import dumps_walk, loads_walk
+
+    text = WALK.read_text(encoding="utf-8").replace("waste_pct = 10.0", (
+        "waste_pct = 10.0\n"
+        'putups = [{ label = "250 ft coil", length_ft = 250, sizes = ["12", "3"] },'
+        ' { label = "cut reel", length_ft = 400, sizes = ["3/0 AWG"] }]'))
+    job = loads_walk(text, "listed.toml")
+    assert loads_walk(dumps_walk(job)).defaults == job.defaults   # survives a save
+    takeoff = build_takeoff(job, compute_job(job))
+    order = {(w.size, w.colour): ([(p.label, p.count) for p in w.order], w.left_over_ft)
+             for w in takeoff.wire_lines}
+    # 12 AWG: 119 ft -> one 250 ft coil, 131 ft over; 3 AWG: 339 ft -> two coils, 161 ft over
+    assert order["12 AWG", "black"] == ([("250 ft coil", 1)], 131)
+    assert order["3 AWG", "green"] == ([("250 ft coil", 2)], 161)
+    # 3/0 AWG: 339 ft -> one 400 ft reel, 61 ft over
+    assert order["3/0 AWG", "red"] == ([("cut reel", 1)], 61)
+    assert any("as the job lists them" in a and "250 ft coil (12 AWG, 3 AWG)" in a
+               for a in takeoff.assumptions)
+
+
+def test_a_put_up_with_an_unknown_size_is_refused_with_its_field(tmp_path, capsys):
+    bad = tmp_path / "bad.toml"
+    bad.write_text(WALK.read_text(encoding="utf-8").replace("waste_pct = 10.0", (
+        'waste_pct = 10.0\nputups = [{ label = "box", length_ft = 500, sizes = ["5 AWG"] }]')),
+        encoding="utf-8")
+    assert gaugewalk(cmd_takeoff, [str(bad)]) == 2
+    err = capsys.readouterr().err
+    assert "putups" in err and "5 AWG" in err and err.count("\n") == 1

@@ -1,0 +1,235 @@
+"""The walk app: one factory (``make_app``) builds it for the command line and for the tests.
+
+The app object holds the open walk (a ``WalkSession``); the walk screen shows it in three views
+(run sheet, supply tree, footage) and opens the run card, the job settings and the trial change.
+"""
+
+from __future__ import annotations
+
+import os
+from pathlib import Path
+from typing import TYPE_CHECKING
+
+from textual import work
+from textual.app import App, ComposeResult
+from textual.widgets import Footer, Header, Static
+
+from gaugewalk.tui.app.keys import bindings_for
+from gaugewalk.tui.app.recent import RecentWalks
+from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
+
+if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is already up
+    from gaugewalk.model.session.session import WalkSession
+
+
+def light_terminal() -> bool:
+    """Guess a light terminal from ``COLORFGBG`` ("fg;bg", bg 7 or 15 is light)."""
+    value = os.environ.get("COLORFGBG", "")
+    bg = value.rsplit(";", 1)[-1] if value else ""
+    return bg in {"7", "15"}
+
+
+class WalkApp(App[int]):
+    """gaugewalk's app. ``path`` is the walk to open (None: offer recent walks)."""
+
+    CSS_PATH = "app.tcss"
+    TITLE = "gaugewalk"
+    BINDINGS = bindings_for("app")
+    ENABLE_COMMAND_PALETTE = False
+
+    def compose(self) -> ComposeResult:
+        """What shows while a walk is being opened."""
+        from gaugewalk.tui.app.sheet.columns import COLUMNS
+        from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading
+
+        yield Header()
+        yield Static("", id="opening")
+        sheet = RunSheet(COLUMNS, id="raw-sheet")
+        yield SheetHeading(sheet, id="raw-heading")
+        yield sheet
+        yield Footer()
+
+    def __init__(self, path: str | None = None, *, config_dir: Path | None = None) -> None:
+        super().__init__()
+        self.start_path = path
+        self.recent = RecentWalks.load(config_dir)
+        self.session: WalkSession | None = None
+        self.exit_message: str | None = None
+        self.theme = "textual-light" if light_terminal() else "textual-dark"
+
+    # ----- opening ----------------------------------------------------------------------
+    def on_mount(self) -> None:
+        if self.start_path is None:
+            from gaugewalk.tui.app.screens.start import StartScreen
+
+            self.push_screen(StartScreen(self.recent.paths), self._picked)
+        else:
+            self.open_path(self.start_path)
+
+    def _picked(self, choice: tuple[str, str] | None) -> None:
+        if choice is None:
+            self.exit(0)
+            return
+        kind, path = choice
+        if kind == "new":
+            self._ask_create(path, missing=False)
+        else:
+            self.open_path(path)
+
+    def open_path(self, path: str) -> None:
+        p = Path(path).expanduser()
+        if p.is_dir():
+            self.fail_exit(f"{path} is a folder; give a walk file (.toml)")
+            return
+        if not p.exists():
+            self._ask_create(str(p), missing=True)
+            return
+        self.title = p.name
+        self.sub_title = "opening…"
+        self.query_one("#opening", Static).update(f" Opening {p}…")
+        from gaugewalk.tui.app.sheet.rawrows import raw_rows
+        from gaugewalk.tui.app.widgets.runsheet import RunSheet
+
+        rows = raw_rows(p)  # the runs as written, on screen while the walk is checked and sized
+        if rows:
+            self.query_one("#raw-sheet", RunSheet).set_rows(rows)
+        self._load(str(p))
+
+    @work(thread=True, exclusive=True, group="open")
+    def _load(self, path: str) -> None:
+        from gaugewalk.model.walkfile.store import WalkFileError
+        from gaugewalk.model.session.session import WalkSession
+
+        try:
+            session = WalkSession.open(path, compute=False)
+        except (WalkFileError, OSError, UnicodeDecodeError) as exc:
+            self.call_from_thread(self._failed, path, exc)
+            return
+        session.busy = True
+        said = session.take_lock()
+        self.call_from_thread(self._show, session)
+        if said:
+            self.call_from_thread(self.notify, said, severity="warning", timeout=12)
+        comments = session.comment_warning()
+        if comments:
+            self.call_from_thread(self.notify, comments, severity="warning", timeout=15)
+        # size the walk once the runs are on screen, so the first paint does not wait for it
+        self.call_from_thread(self.call_after_refresh, self._size_walk, session)
+
+    @work(thread=True, exclusive=True, group="size")
+    def _size_walk(self, session: WalkSession) -> None:
+        try:
+            session.recompute()
+        finally:
+            session.busy = False
+        self.call_from_thread(self._computed)
+
+    def _computed(self) -> None:
+        from gaugewalk.tui.app.screens.walk import WalkScreen
+
+        for screen in self.screen_stack:
+            if isinstance(screen, WalkScreen):
+                screen.reload()
+
+    def _failed(self, path: str, exc: Exception) -> None:
+        problems = getattr(exc, "problems", None)
+        if problems:
+            lines = [str(p) for p in problems]
+            more = f" (and {len(lines) - 1} more; 'gaugewalk check {path}' lists them all)" if len(lines) > 1 else ""
+            text = lines[0] + more
+        else:
+            text = str(exc)
+        if not text.startswith(str(path)) and str(Path(path).name) not in text:
+            text = f"{path}: {text}"
+        self.fail_exit(text)
+
+    def _ask_create(self, path: str, missing: bool) -> None:
+        from gaugewalk.tui.app.screens.start import NewWalkScreen
+
+        def answer(details: dict | None) -> None:
+            if details is None:
+                if missing:
+                    self.exit(0)
+                else:
+                    self.on_mount()
+                return
+            self._create(path, details)
+
+        self.push_screen(NewWalkScreen(path, missing=missing), answer)
+
+    def _create(self, path: str, details: dict) -> None:
+        from gaugewalk.model.session.session import WalkSession
+
+        try:
+            session = WalkSession.create(path, **details)
+        except OSError as exc:
+            self.fail_exit(f"cannot create {path}: {exc.strerror or exc}")
+            return
+        if not session.state.saved:
+            self.fail_exit(str(session.state.message))
+            return
+        said = session.take_lock()
+        if said:
+            self.notify(said, severity="warning", timeout=12)
+        self._show(session)
+
+    def on_unmount(self) -> None:
+        if self.session is not None:
+            self.session.release_lock()
+
+    def _show(self, session: WalkSession) -> None:
+        from gaugewalk.tui.app.screens.walk import WalkScreen
+
+        self.session = session
+        self.recent.remember(session.path)
+        self.push_screen(WalkScreen(session))
+        self.refresh_title()
+        if not self.recent.caution_seen:
+            self.push_screen(AboutScreen(first_start=True))
+            self.recent.mark_caution_seen()
+
+    def fail_exit(self, text: str) -> None:
+        """Leave with status 2; ``open_app`` prints ``text`` as one line on stderr."""
+        self.exit_message = "gaugewalk: " + " ".join(text.split())
+        self.exit(2, return_code=2)
+
+    # ----- title ------------------------------------------------------------------------
+    def refresh_title(self) -> None:
+        s = self.session
+        if s is None:
+            return
+        if s.read_only:
+            state = "read-only"
+        else:
+            state = "✓ saved" if s.state.saved else "✗ NOT SAVED (ctrl+s retries)"
+        self.title = f"{s.path.name} · {state}"
+        self.sub_title = s.job.job.name or s.path.stem
+
+    # ----- app-wide actions -------------------------------------------------------------
+    def action_key_guide(self) -> None:
+        if not isinstance(self.screen, KeyGuideScreen):
+            self.push_screen(KeyGuideScreen())
+
+    def action_about(self) -> None:
+        if not isinstance(self.screen, AboutScreen):
+            self.push_screen(AboutScreen())
+
+    def action_flip_theme(self) -> None:
+        self.theme = "textual-light" if self.theme == "textual-dark" else "textual-dark"
+
+    async def action_quit(self) -> None:
+        lose = self.session.lose_on_quit if self.session and not self.session.read_only else None
+        if not lose:
+            self.exit(0)
+            return
+
+        def answer(yes: bool | None) -> None:
+            if yes:
+                self.exit(0)
+
+        self.push_screen(AskScreen(f"Quitting now loses {lose}. Quit anyway?", "quit", "stay"), answer)
+
+
+def make_app(path: str | None = None, *, config_dir: Path | None = None) -> WalkApp:
+    """The one way to build the app (command line and tests alike)."""
+    return WalkApp(path, config_dir=config_dir)

@@ -1,0 +1,159 @@
+"""The first screen when gaugewalk is started without a file: recent walks, or a new one."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from rich.markup import escape
+from textual import on
+from textual.app import ComposeResult
+from textual.containers import Vertical
+from textual.screen import Screen
+from textual.widgets import Footer, Header, Input, OptionList, Static
+from textual.widgets.option_list import Option
+
+from gaugewalk.tui.app.keys import bindings_for
+
+NEW = "\x00new"
+
+
+class StartScreen(Screen[tuple[str, str] | None]):
+    """Pick a recent walk or start a new one. Dismisses with ("open", path), ("new", path) or
+    None (quit)."""
+
+    BINDINGS = bindings_for("start")
+
+    def __init__(self, recent: list[str]) -> None:
+        super().__init__()
+        self.recent = recent
+
+    def compose(self) -> ComposeResult:
+        yield Header()
+        with Vertical(id="start-box"):
+            yield Static("[b]Open a walk[/b]  ↑↓ and Enter · n starts a new walk · Esc quits", id="start-head")
+            options = [Option("＋ Start a new walk…", id=NEW)]
+            for p in self.recent:
+                path = Path(p)
+                mark = "" if path.exists() else "  (missing)"
+                options.append(Option(f"{path.name}  [dim]{escape(str(path.parent))}[/dim]{mark}", id=p))
+            yield OptionList(*options, id="start-list")
+            yield Static("", id="start-new-label")
+            yield Input(placeholder="file for the new walk, e.g. walks/shop-3.toml", id="start-path", compact=True)
+            yield Static("", id="start-msg")
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self.query_one("#start-path").display = False
+        choices = self.query_one("#start-list", OptionList)
+        if self.recent:  # Enter reopens the walk used last; n still starts a new one
+            choices.highlighted = 1
+        choices.focus()
+
+    @on(OptionList.OptionSelected)
+    def _chosen(self, event: OptionList.OptionSelected) -> None:
+        oid = event.option.id
+        if oid == NEW:
+            self.action_new()
+            return
+        if oid and not Path(oid).exists():
+            self.query_one("#start-msg", Static).update(f"✗ {escape(oid)} is not there any more.")
+            return
+        self.dismiss(("open", oid))
+
+    def action_new(self) -> None:
+        self.query_one("#start-new-label", Static).update("New walk file (Enter creates it, Esc goes back):")
+        inp = self.query_one("#start-path", Input)
+        inp.display = True
+        inp.focus()
+
+    @on(Input.Submitted, "#start-path")
+    def _new_path(self, event: Input.Submitted) -> None:
+        text = event.value.strip()
+        msg = self.query_one("#start-msg", Static)
+        if not text:
+            msg.update("✗ type a file name for the new walk")
+            return
+        path = Path(text).expanduser()
+        if path.suffix == "":
+            path = path.with_suffix(".toml")
+        if path.exists():
+            msg.update(f"✗ {escape(str(path))} already exists; pick it from the list or give another name")
+            return
+        if not path.parent.exists():
+            msg.update(f"✗ the folder {escape(str(path.parent))} does not exist")
+            return
+        self.dismiss(("new", str(path)))
+
+    def action_leave(self) -> None:
+        inp = self.query_one("#start-path", Input)
+        if inp.display:
+            inp.display = False
+            self.query_one("#start-new-label", Static).update("")
+            self.query_one("#start-list").focus()
+            return
+        self.dismiss(None)
+
+
+class NewWalkScreen(Screen[dict | None]):
+    """Start a walk at ``path``: its name and the service it starts from. Dismisses with the
+    answers, or None when the person would rather not create it."""
+
+    BINDINGS = bindings_for("newwalk")
+
+    def __init__(self, path: str, missing: bool = False) -> None:
+        super().__init__()
+        self.path = path
+        self.missing = missing
+
+    def compose(self) -> ComposeResult:
+        from gaugewalk.model.engine.circuits import SYSTEMS
+
+        yield Header()
+        with Vertical(id="start-box"):
+            head = (
+                f"There is no walk at {escape(self.path)}. Start a new walk there?"
+                if self.missing else f"New walk: {escape(self.path)}"
+            )
+            yield Static(f"[b]{head}[/b]", id="newwalk-head")
+            yield Static("Job name")
+            yield Input(Path(self.path).stem, id="nw-name", compact=True)
+            yield Static("Service id (runs start from it)")
+            yield Input("SVC", id="nw-service", compact=True)
+            yield Static("Service system: " + escape(", ".join(SYSTEMS)))
+            yield Input("208Y/120V 3ph 4w", id="nw-system", compact=True)
+            yield Static("Enter creates the walk · Esc: don't create", id="newwalk-foot")
+            yield Static("", id="start-msg")
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self.query_one("#nw-name").focus()
+
+    @on(Input.Submitted)
+    def _go(self) -> None:
+        from gaugewalk.model.walk.job import Source
+        from gaugewalk.model.engine.circuits import CircuitError, parse_system
+
+        msg = self.query_one("#start-msg", Static)
+        try:
+            system = parse_system(self.query_one("#nw-system", Input).value)
+        except CircuitError as exc:
+            msg.update("✗ service system: " + escape(str(exc)))
+            self.query_one("#nw-system").focus()
+            return
+        service = self.query_one("#nw-service", Input).value.strip()
+        try:
+            Source(id=service, kind="service", system=system)
+        except Exception as exc:
+            errs = getattr(exc, "errors", None)
+            text = errs()[0]["msg"] if callable(errs) else str(exc)
+            msg.update("✗ service id: " + escape(str(text).removeprefix("Value error, ")))
+            self.query_one("#nw-service").focus()
+            return
+        self.dismiss({
+            "name": self.query_one("#nw-name", Input).value.strip(),
+            "service_id": service,
+            "service_system": system,
+        })
+
+    def action_leave(self) -> None:
+        self.dismiss(None)

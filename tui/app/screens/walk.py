@@ -1,0 +1,349 @@
+"""The walk screen: the run sheet, the supply tree and the footage tally of one open walk."""
+
+from __future__ import annotations
+
+from rich.markup import escape
+from textual import on
+from textual.app import ComposeResult
+from textual.containers import ScrollableContainer, Vertical
+from textual.screen import Screen
+from textual.widgets import ContentSwitcher, Footer, Header, Input, Static
+
+from gaugewalk.tui.app.keys import bindings_for
+from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
+from gaugewalk.tui.app.sheet.rows import all_rows, detail_lines
+from gaugewalk.model.session.session import WalkSession
+from gaugewalk.tui.app.screens.info import AskScreen
+from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
+from gaugewalk.tui.app.widgets.views import SupplyTree, footage_text
+
+VIEWS = ("runs", "tree", "footage")
+
+
+# actions of keys that open another screen (priority bindings in gaugewalk.tui.app.keys)
+_OPENERS = {"new_run", "edit_run", "trial", "job_settings"}
+VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage"}
+
+
+class WalkScreen(Screen):
+    """One open walk."""
+
+    BINDINGS = bindings_for("walk")
+
+    def __init__(self, session: WalkSession) -> None:
+        super().__init__()
+        self.session = session
+        self.view = "runs"
+        self.problems_only = False
+        self.source_filter: str | None = None
+        self._tree_stale = True
+        self._footage_stale = True
+
+    def compose(self) -> ComposeResult:
+        yield Header()
+        yield Static("", id="view-bar")
+        yield Input(placeholder="find runs: type words, Enter to go back to the list", id="find", compact=True)
+        with ContentSwitcher(initial="runs", id="views"):
+            with Vertical(id="runs"):
+                sheet = RunSheet(COLUMNS, id="sheet")
+                yield SheetHeading(sheet, id="sheet-heading")
+                yield sheet
+                yield Static("", id="detail")
+            yield SupplyTree(id="tree")
+            with ScrollableContainer(id="footage", can_focus=True):
+                yield Static("", id="footage-text")
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self.query_one("#find").display = False
+        self.reload()
+        self.query_one(RunSheet).focus()
+
+    def on_screen_resume(self) -> None:
+        self.reload()
+
+    def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
+        """The keys that open a screen are priority bindings (so the keys typed right after
+        them reach the new screen in order); while the find box has focus they are letters."""
+        if action in _OPENERS and isinstance(self.focused, Input):
+            return False
+        return True
+
+    # ----- refreshing -------------------------------------------------------------------
+    def reload(self, focus: str | None = None) -> None:
+        """Rebuild the rows from the session (after any change: results can move anywhere)."""
+        sheet = self.query_one(RunSheet)
+        sheet.set_rows(all_rows(self.session), keep_key=focus)
+        self._tree_stale = True
+        self._footage_stale = True
+        if self.view != "runs":
+            self._refresh_view()
+        self._bar()
+        self._detail(sheet.cursor_key)
+        self.app.refresh_title()
+
+    def _bar(self) -> None:
+        sheet = self.query_one(RunSheet)
+        parts = []
+        for v in VIEWS:
+            t = VIEW_TITLES[v]
+            parts.append(f"[reverse b] {t} [/]" if v == self.view else f" {t} ")
+        total = len(sheet.rows)
+        flagged = sum(1 for r in sheet.rows if r.flag)
+        info = f"{total} runs"
+        if flagged:
+            info += f", ▲ {flagged} with a problem"
+        filt = []
+        if self.source_filter:
+            filt.append(f"from {self.source_filter}")
+        if self.problems_only:
+            filt.append("problems only")
+        if sheet.filter_text:
+            filt.append(f"'{sheet.filter_text}'")
+        if filt:
+            info += f" · showing {len(sheet.view)}: " + ", ".join(filt)
+        # both have a fixed height (app.tcss): a new text needs no layout pass over the screen
+        self.query_one("#view-bar", Static).update("".join(parts) + "  " + escape(info), layout=False)
+
+    def _detail(self, key: str | None) -> None:
+        run = self.session.job.run(key) if key else None
+        self.query_one("#detail", Static).update(escape(detail_lines(self.session, run)), layout=False)
+
+    def _refresh_view(self) -> None:
+        if self.view == "tree" and self._tree_stale:
+            self.query_one(SupplyTree).build(self.session)
+            self._tree_stale = False
+        elif self.view == "footage" and self._footage_stale:
+            width = max(self.size.width - 2, 40)
+            self.query_one("#footage-text", Static).update(footage_text(self.session, width))
+            self._footage_stale = False
+
+    @on(RunSheet.Highlighted)
+    def _highlighted(self, event: RunSheet.Highlighted) -> None:
+        self._detail(event.key)
+
+    @on(SupplyTree.NodeSelected)
+    def _tree_chosen(self, event: SupplyTree.NodeSelected) -> None:
+        """Enter on a branch run in the tree edits it (a source node opens or folds)."""
+        data = event.node.data
+        if data and data[0] == "run" and not event.node.allow_expand:
+            self.open_card(data[1])
+
+    @on(RunSheet.Chosen)
+    def _chosen(self, event: RunSheet.Chosen) -> None:
+        self.open_card(event.key)
+
+    # ----- views ------------------------------------------------------------------------
+    def action_show_view(self, view: str) -> None:
+        self.view = view
+        self.query_one(ContentSwitcher).current = view
+        self._refresh_view()
+        target = {"runs": "#sheet", "tree": "#tree", "footage": "#footage"}[view]
+        self.query_one(target).focus()
+        self._bar()
+
+    def action_next_view(self) -> None:
+        self.action_show_view(VIEWS[(VIEWS.index(self.view) + 1) % len(VIEWS)])
+
+    # ----- filtering and sorting --------------------------------------------------------
+    def _apply_filter(self) -> None:
+        sheet = self.query_one(RunSheet)
+        src = self.source_filter
+        problems = self.problems_only
+
+        def pred(row: SheetRow) -> bool:
+            if src is not None and row.group != src:
+                return False
+            if problems and not row.flag:
+                return False
+            return True
+
+        text = self.query_one("#find", Input).value
+        sheet.set_filter(text, pred if (src or problems) else None)
+        self._bar()
+
+    def action_find(self) -> None:
+        if self.view != "runs":
+            self.action_show_view("runs")
+        find = self.query_one("#find", Input)
+        find.display = True
+        find.focus()
+
+    @on(Input.Changed, "#find")
+    def _find_changed(self) -> None:
+        self._apply_filter()
+
+    @on(Input.Submitted, "#find")
+    def _find_done(self) -> None:
+        find = self.query_one("#find", Input)
+        if not find.value:
+            find.display = False
+        self.query_one(RunSheet).focus()
+
+    def action_toggle_problems(self) -> None:
+        self.problems_only = not self.problems_only
+        self._to_runs()
+        self._apply_filter()
+
+    def action_cycle_source(self) -> None:
+        ids = self.session.source_ids()
+        if not ids:
+            return
+        if self.source_filter not in ids:
+            self.source_filter = ids[0]
+        else:
+            i = ids.index(self.source_filter) + 1
+            self.source_filter = ids[i] if i < len(ids) else None
+        self._to_runs()
+        self._apply_filter()
+
+    def action_clear_filters(self) -> None:
+        find = self.query_one("#find", Input)
+        if find.has_focus and find.value:
+            find.value = ""
+            return
+        find.value = ""
+        find.display = False
+        self.problems_only = False
+        self.source_filter = None
+        self._apply_filter()
+        if self.view == "runs":
+            self.query_one(RunSheet).focus()
+
+    def action_cycle_sort(self) -> None:
+        sheet = self.query_one(RunSheet)
+        current = sheet.sort_key
+        nxt = SORT_KEYS[0] if current is None else (
+            SORT_KEYS[SORT_KEYS.index(current) + 1] if SORT_KEYS.index(current) + 1 < len(SORT_KEYS) else None
+        )
+        sheet.sort_by(nxt, sheet.sort_reverse)
+        self._to_runs()
+        self._bar()
+
+    def action_reverse_sort(self) -> None:
+        sheet = self.query_one(RunSheet)
+        sheet.sort_by(sheet.sort_key or "id", not sheet.sort_reverse)
+        self._to_runs()
+
+    def _to_runs(self) -> None:
+        if self.view != "runs":
+            self.action_show_view("runs")
+
+    # ----- changing runs ----------------------------------------------------------------
+    def _current_run_id(self) -> str | None:
+        if self.view == "tree":
+            node = self.query_one(SupplyTree).cursor_node
+            if node is not None and node.data and node.data[0] == "run":
+                return node.data[1]
+            return None
+        return self.query_one(RunSheet).cursor_key
+
+    def _busy(self) -> bool:
+        if self.session.read_only:
+            self.notify(f"This walk is open read-only here: {self.session.read_only}", severity="warning", timeout=8)
+            return True
+        if self.session.busy:
+            self.notify("Still sizing the walk; try again in a moment.", severity="warning")
+            return True
+        return False
+
+    def action_new_run(self) -> None:
+        self.open_card(None)
+
+    def action_edit_run(self) -> None:
+        key = self._current_run_id()
+        if key is None:
+            self.notify("No run selected to edit.", severity="warning")
+            return
+        self.open_card(key)
+
+    def open_card(self, run_id: str | None) -> None:
+        """Open the run card; it opens even while the walk is still being sized (typing can
+        start at once; storing waits for the sizing)."""
+        from gaugewalk.tui.app.screens.card import RunCard
+
+        if self.session.read_only:
+            self._busy()
+            return
+        self.app.push_screen(RunCard(self.session, run_id))
+
+    def action_delete_run(self) -> None:
+        if self._busy():
+            return
+        key = self._current_run_id()
+        if key is None:
+            return
+        refusal = self.session.delete_refusal(key)
+        if refusal:
+            self.notify(f"Not deleted: {refusal}.", severity="warning", timeout=8)
+            return
+        job = self.session.job
+        run = job.run(key)
+        if run is not None and job.is_feeder(run):
+            msg = f"Delete feeder {key} and the panel {run.to} it feeds (nothing runs from it yet)?"
+
+            def answer(yes: bool | None) -> None:
+                if yes:
+                    self._delete(key)
+
+            self.app.push_screen(AskScreen(msg, "delete both", "keep"), answer)
+            return
+        self._delete(key)
+
+    def _delete(self, key: str) -> None:
+        refusal = self.session.delete_run(key)
+        if refusal:
+            self.notify(f"Not deleted: {refusal}.", severity="warning", timeout=8)
+            return
+        self.reload()
+        self._said_saved(f"Deleted {key} (ctrl+z brings it back).")
+
+    def action_undo(self) -> None:
+        if self._busy():
+            return
+        snap = self.session.undo()
+        if snap is None:
+            self.notify("Nothing to undo.")
+            return
+        self.reload(focus=snap.focus)
+        self._said_saved(f"Undid: {snap.label}.")
+
+    def action_redo(self) -> None:
+        if self._busy():
+            return
+        snap = self.session.redo()
+        if snap is None:
+            self.notify("Nothing to redo.")
+            return
+        self.reload(focus=snap.focus)
+        self._said_saved(f"Redid: {snap.label}.")
+
+    def action_save_now(self) -> None:
+        self.session.save()
+        self.app.refresh_title()
+        self._said_saved("Saved.")
+
+    def _said_saved(self, text: str) -> None:
+        st = self.session.state
+        if not st.saved:
+            self.notify(f"{text} NOT SAVED: {st.message}", severity="error", timeout=8)
+        else:
+            self.notify(text + (f" {st.notice}" if st.notice else ""))
+
+    def action_trial(self) -> None:
+        if self._busy():
+            return
+        key = self._current_run_id()
+        if key is None:
+            self.notify("Move to a run first; the trial change works on one run or feeder.", severity="warning")
+            return
+        from gaugewalk.tui.app.screens.trial import TrialScreen
+
+        self.app.push_screen(TrialScreen(self.session, key))
+
+    def action_job_settings(self) -> None:
+        if self._busy():
+            return
+        from gaugewalk.tui.app.screens.job import JobSettingsScreen
+
+        self.app.push_screen(JobSettingsScreen(self.session))

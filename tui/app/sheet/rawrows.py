@@ -1,0 +1,61 @@
+"""The runs as written in the file, read with ``tomllib`` alone: shown the moment the app starts,
+while the walk is checked and sized in the background (which needs the model and takes longer).
+
+Nothing here decides anything: a file that turns out to be invalid is still refused by
+``gaugewalk.model.walkfile.store`` a moment later, with its message.
+"""
+
+from __future__ import annotations
+
+import math
+import tomllib
+from pathlib import Path
+
+from gaugewalk.tui.app.widgets.runsheet import SheetRow
+
+SIZING = "… sizing"
+
+
+def _feet(text: object) -> str:
+    from gaugewalk.model.engine.lengths import LengthError, parse_length  # stdlib only, quick to import
+
+    try:
+        ft = parse_length(str(text))
+    except LengthError:
+        return "?"
+    if not math.isfinite(ft):
+        return "?"
+    return f"{ft:,.0f}" if ft >= 100 else f"{ft:.1f}".rstrip("0").rstrip(".")
+
+
+def _load(raw: object, feeds_source: bool) -> str:
+    if isinstance(raw, dict) and isinstance(raw.get("value"), (int, float)):
+        return f"{raw['value']:g}{raw.get('unit', '')}"
+    return "panel" if feeds_source else ""
+
+
+def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024) -> list[SheetRow] | None:
+    """Rows for the run sheet straight from the file, or None if it cannot be read that way.
+    Files over ``max_bytes`` (about 25,000 runs) are left to the background reader alone, so
+    the parse never holds up the first paint for long [bytes]."""
+    try:
+        p = Path(path)
+        if p.stat().st_size > max_bytes:
+            return None
+        data = tomllib.loads(p.read_text(encoding="utf-8"))
+    except (OSError, ValueError, RecursionError):  # the real reader says what is wrong
+        return None
+    runs = data.get("run")
+    sources = data.get("source")
+    if not isinstance(runs, list):
+        return None
+    source_ids = {s.get("id") for s in sources if isinstance(s, dict)} if isinstance(sources, list) else set()
+    rows = []
+    for r in runs:
+        if not isinstance(r, dict):
+            return None
+        rid, frm, to = str(r.get("id", "")), str(r.get("from", "")), str(r.get("to", ""))
+        cells = (rid, frm, to, _feet(r.get("length", "")), _load(r.get("load"), to in source_ids),
+                 "", "", "", SIZING)
+        rows.append(SheetRow(rid, cells, False, {}, "", frm))
+    return rows

@@ -1,0 +1,124 @@
+"""``gaugewalk add FILE --from SOURCE --to NAME --length L --amps A ...``: add one run to a walk.
+
+The run is checked with the whole walk before anything is written; on a mistake the file is left
+as it was (exit 2). The save is atomic and keeps the previous file as ``FILE~``; when the file had
+comments, a warning says they are gone from the new file (the backup keeps them).
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+
+from pydantic import ValidationError
+
+from gaugewalk.model.walk.compute import compute_job
+from gaugewalk.model.walk.job import Run
+from gaugewalk.model.walk.checks import Locator, problems_from_errors
+from gaugewalk.tui.cli.common import (
+    EXIT_INVALID,
+    EXIT_OK,
+    print_problems,
+    read_job,
+    save_checked,
+    writes_walk,
+)
+
+NAME = "add"
+HELP = "Add a run to a walk file (same length grammar as 'calc')."
+
+_LOADS = (("amps", "A"), ("va", "VA"), ("kva", "kVA"), ("watts", "W"), ("kw", "kW"))
+
+
+def add_arguments(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("file", metavar="FILE", help="walk file (.toml)")
+    parser.add_argument("--from", dest="from_", metavar="SOURCE", required=True,
+                        help="id of the source the run starts at")
+    parser.add_argument("--to", metavar="NAME", required=True,
+                        help="a source id (the run is then its feeder) or the load's name")
+    parser.add_argument("--length", metavar="L", required=True,
+                        help="route length, e.g. 85+12+2*6 or 36m+8ft [ft unless a unit is given]")
+    loads = parser.add_mutually_exclusive_group()
+    loads.add_argument("--amps", type=float, metavar="A", help="load [A]")
+    loads.add_argument("--va", type=float, metavar="VA", help="load [VA]")
+    loads.add_argument("--kva", type=float, metavar="KVA", help="load [kVA]")
+    loads.add_argument("--watts", type=float, metavar="W", help="load [W]")
+    loads.add_argument("--kw", type=float, metavar="KW", help="load [kW]")
+    parser.add_argument("--pf", type=float, help="power factor of the load (0 to 1]")
+    parser.add_argument("--id", dest="run_id", help="run id (default: the next free R-number)")
+    parser.add_argument("--connection", choices=("LN", "LL", "LLN", "MW", "3P", "3PN"),
+                        help="how the load is wired (default: every hot and the neutral)")
+    parser.add_argument("--continuous", action="store_true", help="load runs 3 h or more")
+    parser.add_argument("--spread", action="store_true",
+                        help="load spread evenly along the run rather than at its end")
+    parser.add_argument("--sets", type=int, help="conductors in parallel per phase")
+    parser.add_argument("--size", help="fix the conductor size, e.g. '3/0 AWG'")
+    parser.add_argument("--ocpd", type=int, metavar="A", help="fix the breaker or fuse [A]")
+    parser.add_argument("--material", choices=("cu", "al"))
+    parser.add_argument("--insulation", help="e.g. THHN/THWN-2, XHHW-2")
+    parser.add_argument("--raceway", help="e.g. EMT, PVC-40, RMC")
+    parser.add_argument("--terminal-temp", type=int, choices=(60, 75, 90))
+    parser.add_argument("--ambient", type=float, metavar="C", help="ambient temperature [C]")
+    parser.add_argument("--max-drop", type=float, metavar="PCT", help="drop target for this run [%%]")
+    parser.add_argument("--bends", type=int, help="90-degree bends along the route")
+    parser.add_argument("--measured-on", metavar="YYYY-MM-DD", help="date the length was measured")
+    parser.add_argument("--notes", default="", help="notes on the run")
+
+
+def _run_data(args: argparse.Namespace, run_id: str) -> dict:
+    data: dict = {"id": run_id, "from": args.from_, "to": args.to, "length": args.length}
+    for key, unit in _LOADS:
+        value = getattr(args, key)
+        if value is not None:
+            data["load"] = {"value": value, "unit": unit}
+            if args.pf is not None:
+                data["load"]["pf"] = args.pf
+    options = {
+        "connection": args.connection, "sets": args.sets, "size": args.size,
+        "ocpd_a": args.ocpd, "material": args.material, "insulation": args.insulation,
+        "raceway": args.raceway, "terminal_temp": args.terminal_temp, "ambient_c": args.ambient,
+        "max_drop_pct": args.max_drop, "bends": args.bends, "measured_on": args.measured_on,
+    }
+    data.update({k: v for k, v in options.items() if v is not None})
+    if args.continuous:
+        data["continuous"] = True
+    if args.spread:
+        data["distributed"] = True
+    if args.notes:
+        data["notes"] = args.notes
+    return data
+
+
+@writes_walk("file", "gaugewalk add")
+def run(args: argparse.Namespace) -> int:
+    job = read_job(args.file)
+    if job is None:
+        return EXIT_INVALID
+    if args.pf is not None and all(getattr(args, k) is None for k, _ in _LOADS):
+        print(f"{args.file}: --pf needs a load (--amps, --va, --kva, --watts or --kw)", file=sys.stderr)
+        return EXIT_INVALID
+    run_id = args.run_id or job.next_run_id("R")
+    if job.run(run_id) is not None:
+        print(f"{args.file}, run {run_id}: that id is already used; choose another with --id",
+              file=sys.stderr)
+        return EXIT_INVALID
+    try:
+        new = Run.model_validate(_run_data(args, run_id))
+    except ValidationError as exc:
+        print_problems(problems_from_errors(exc.errors(), "run", None, Locator(), args.file,
+                                            f"run {run_id}"))
+        return EXIT_INVALID
+    job.runs.append(new)
+    if not save_checked(job, args.file, args.expected):
+        return EXIT_INVALID
+    result = compute_job(job)
+    rr = result.runs.get(run_id)
+    kind = "feeder" if job.is_feeder(new) else "branch"
+    summary = f"added {kind} run {run_id}: {new.from_} -> {new.to}, {new.length_ft:,.1f} ft"
+    if rr is not None:
+        summary += (f"; {rr.sets}x {rr.size} {rr.material}, drop {rr.voltage_drop_pct:.2f}%, "
+                    f"from the service {rr.total_drop_pct:.2f}%")
+        if rr.problems:
+            summary += "; " + "; ".join(rr.problems)
+    print(summary)
+    return EXIT_OK

@@ -1,0 +1,132 @@
+"""``gaugewalk check FILE [--json]``: read a walk, check it, compute every run.
+
+Exit status: 0 every run meets its limits; 1 some run does not (or cannot be sized); 2 the file
+cannot be read or is invalid (each problem on stderr with file, line, run or source, field). The
+file is only read, never written.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+
+from gaugewalk.model.walk.compute import JobResult, compute_job
+from gaugewalk.model.walk.job import Job
+from gaugewalk.model.walkfile.store import WalkFileError, check_walk_text, read_walk_text
+from gaugewalk.tui.cli.main import CAUTION
+from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
+
+NAME = "check"
+HELP = "Check a walk file and compute every run (exit 0 all within limits, 1 not, 2 invalid)."
+
+
+def add_arguments(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("file", metavar="FILE", help="walk file (.toml)")
+    parser.add_argument("--json", action="store_true", help="print the results as JSON")
+
+
+def _load_text(run) -> str:
+    if run.load is None:
+        return "(panel)"
+    pf = f" pf {run.load.pf:g}" if run.load.pf is not None else ""
+    return f"{run.load.value:g} {run.load.unit}{pf}"
+
+
+def results_json(path: str, job: Job, result: JobResult) -> dict:
+    """The machine-readable results of ``check --json``."""
+    runs = []
+    for r in job.runs:
+        rr = result.runs.get(r.id)
+        entry = {
+            "id": r.id, "from": r.from_, "to": r.to, "feeder": job.is_feeder(r),
+            "length": r.length, "length_ft": round(r.length_ft, 3), "load": _load_text(r),
+            "amps": None, "size": None, "sets": r.sets, "material": None, "ocpd_a": None,
+            "egc_size": None, "raceway": None, "raceway_size": None,
+            "voltage_drop_pct": None, "total_drop_pct": None, "governed_by": None,
+            "ok": False, "problems": [p.message for p in result.run_problems(r.id)],
+        }
+        if rr is not None:
+            entry.update({
+                "amps": round(rr.amps, 3), "size": rr.size, "sets": rr.sets,
+                "material": rr.material, "ocpd_a": rr.ocpd_a, "egc_size": rr.egc_size,
+                "raceway": rr.raceway, "raceway_size": rr.raceway_size,
+                "voltage_drop_pct": round(rr.voltage_drop_pct, 4),
+                "total_drop_pct": round(rr.total_drop_pct, 4),
+                "governed_by": rr.governed_by, "ok": rr.ok,
+            })
+        runs.append(entry)
+    sources = [
+        {"id": s.id, "kind": s.kind, "system": s.system,
+         "drop_pct": _round(result.source_drop_pct.get(s.id)),
+         "connected_va": _round(result.connected_va.get(s.id))}
+        for s in job.sources
+    ]
+    failing = [e["id"] for e in runs if not e["ok"]]
+    totals = [e["total_drop_pct"] for e in runs if e["total_drop_pct"] is not None]
+    worst = max(runs, key=lambda e: e["total_drop_pct"] or -1.0, default=None)
+    return {
+        "file": path,
+        "job": job.job.name,
+        "runs": runs,
+        "sources": sources,
+        "summary": {
+            "runs": len(runs),
+            "ok": len(runs) - len(failing),
+            "failing": failing,
+            "max_total_drop_pct": max(totals) if totals else None,
+            "worst_run": worst["id"] if worst and worst["total_drop_pct"] is not None else None,
+            "problems": [str(p) for p in result.problems],
+            "all_ok": result.ok,
+        },
+        "caution": CAUTION,
+    }
+
+
+def _round(value: float | None, places: int = 4) -> float | None:
+    return None if value is None else round(value, places)
+
+
+def _table(path: str, job: Job, result: JobResult) -> str:
+    head = f"{'run':<10} {'from':<8} {'to':<24} {'ft':>7} {'load':>13} {'size':>14} " \
+           f"{'drop%':>6} {'total%':>6}  status"
+    lines = [f"{job.job.name or path}: {len(job.runs)} runs, {len(job.sources)} sources", "",
+             head, "-" * len(head)]
+    for r in job.runs:
+        rr = result.runs.get(r.id)
+        to = r.to if len(r.to) <= 24 else r.to[:23] + "~"
+        if rr is None:
+            size, vd, tot, status = "-", "-", "-", "NOT SIZED"
+        else:
+            size = f"{rr.sets}x{rr.size}" if rr.sets > 1 else rr.size
+            vd, tot = f"{rr.voltage_drop_pct:.2f}", f"{rr.total_drop_pct:.2f}"
+            status = "ok" if rr.ok else "OVER"
+        lines.append(f"{r.id:<10} {r.from_:<8} {to:<24} {r.length_ft:>7.1f} {_load_text(r):>13} "
+                     f"{size:>14} {vd:>6} {tot:>6}  {status}")
+    lines.append("")
+    if result.problems:
+        lines.append(f"{len(result.problems)} problem(s):")
+        lines += [f"  {p.where}: {p.message}" for p in result.problems]
+    else:
+        lines.append("Every run is within its ampacity and drop targets.")
+    lines += ["", CAUTION]
+    return "\n".join(lines)
+
+
+def run(args: argparse.Namespace) -> int:
+    try:
+        text = read_walk_text(args.file)
+    except WalkFileError as exc:
+        print_problems(exc.problems)
+        return EXIT_INVALID
+    job, problems = check_walk_text(text, args.file)
+    if problems or job is None:
+        print_problems(problems)
+        return EXIT_INVALID
+    result = compute_job(job)
+    if args.json:
+        json.dump(results_json(args.file, job, result), sys.stdout, indent=1)
+        sys.stdout.write("\n")
+    else:
+        print(_table(args.file, job, result))
+    return EXIT_OK if result.ok else EXIT_LIMITS

@@ -1,0 +1,86 @@
+"""The ``gaugewalk`` command line.
+
+``gaugewalk SUBCOMMAND ...`` runs a headless command; ``gaugewalk [FILE]`` opens the app.
+Each subcommand lives in its own module exposing ``NAME``, ``HELP``, ``add_arguments(parser)``
+and ``run(args) -> int``. Textual is imported only when the app is opened, so headless commands
+start fast.
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import sys
+
+# Subcommand modules, in the order ``gaugewalk --help`` lists them.
+COMMAND_MODULES: tuple[str, ...] = (
+    "gaugewalk.tui.cli.calc",
+    "gaugewalk.tui.cli.new",
+    "gaugewalk.tui.cli.source",
+    "gaugewalk.tui.cli.add",
+    "gaugewalk.tui.cli.check",
+    "gaugewalk.tui.cli.merge",
+    "gaugewalk.tui.cli.schema",
+    "gaugewalk.tui.cli.takeoff",
+    "gaugewalk.tui.cli.report",
+)
+
+CAUTION = (
+    "Results are estimates for planning. The installation must follow the code in force and the "
+    "authority having jurisdiction, and be designed and checked by qualified, licensed people."
+)
+
+
+class UsageError(Exception):
+    """A user mistake on the command line: printed as one line, exit status 2."""
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message: str) -> None:  # argparse would print usage and exit 2 itself
+        raise UsageError(f"{self.prog}: {message}")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(
+        prog="gaugewalk",
+        description="Record a site walk of electrical runs and size them. "
+        "'gaugewalk FILE' opens the app on a walk; the subcommands below work headless.",
+        epilog=CAUTION,
+    )
+    subparsers = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+    for module_name in COMMAND_MODULES:
+        module = importlib.import_module(module_name)
+        sub = subparsers.add_parser(module.NAME, help=module.HELP, description=module.HELP, epilog=CAUTION)
+        module.add_arguments(sub)
+        sub.set_defaults(_run=module.run)
+    return parser
+
+
+def _command_names() -> set[str]:
+    return {importlib.import_module(m).NAME for m in COMMAND_MODULES}
+
+
+def main(argv: list[str] | None = None) -> int:
+    argv = list(sys.argv[1:] if argv is None else argv)
+    try:
+        if argv and (argv[0] in _command_names() or argv[0] in {"-h", "--help"}):
+            args = build_parser().parse_args(argv)
+            return int(args._run(args) or 0)
+        return _open_app(argv)
+    except UsageError as exc:
+        print(str(exc), file=sys.stderr)
+        return 2
+
+
+def _open_app(argv: list[str]) -> int:
+    if len(argv) > 1 or (argv and argv[0].startswith("-")):
+        raise UsageError(
+            "gaugewalk: expected a walk file or a command; try 'gaugewalk --help'"
+        )
+    from gaugewalk.tui.app.launch import open_app  # imports Textual: only here
+
+    return open_app(argv[0] if argv else None)
+
+
+if __name__ == "__main__":
+    sys.exit(main())

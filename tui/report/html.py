@@ -1,0 +1,137 @@
+"""The report as one self-contained HTML page: inline styles with print rules, an inline SVG bar
+chart, nothing fetched from the network. Every piece of user text is escaped."""
+
+from __future__ import annotations
+
+from html import escape
+
+from gaugewalk.model.report.content import RUN_COLUMNS, Report
+
+_STYLE = """
+body { font-family: system-ui, sans-serif; font-size: 13px; color: #111; margin: 1.5em; }
+h1 { font-size: 1.5em; margin: 0 0 .4em; }
+h2 { font-size: 1.15em; margin: 1.4em 0 .4em; border-bottom: 1px solid #999; }
+table { border-collapse: collapse; margin: .3em 0 1em; }
+th, td { border: 1px solid #bbb; padding: 2px 6px; text-align: left; vertical-align: top; }
+th { background: #eee; }
+td.num { text-align: right; font-variant-numeric: tabular-nums; }
+tr.problem td { background: #fde8e8; }
+.caution { border: 2px solid #a00; padding: .5em .8em; font-weight: bold; }
+dl.header { display: grid; grid-template-columns: max-content auto; gap: 2px 1em; }
+dl.header dt { font-weight: bold; }
+dl.header dd { margin: 0; }
+svg text { font-family: system-ui, sans-serif; font-size: 12px; }
+@media print {
+  @page { size: landscape; margin: 12mm; }
+  body { margin: 0; font-size: 10px; }
+  h2 { break-after: avoid; }
+  thead { display: table-header-group; }
+  tr, .caution, svg { break-inside: avoid; }
+  th, tr.problem td { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
+}
+""".strip()
+
+_NUMERIC = {"Length [ft]", "Drop [%]", "Total drop [%]", "Net [ft]", "With waste [ft]",
+            "Left over [ft]", "Count"}
+
+
+def _table(columns, rows, *, problem_rows: set[int] = frozenset(), label: str = "") -> str:
+    head = "".join(f"<th scope=\"col\">{escape(c)}</th>" for c in columns)
+    body = []
+    for i, row in enumerate(rows):
+        cells = "".join(
+            f"<td class=\"num\">{escape(v)}</td>" if c in _NUMERIC else f"<td>{escape(v)}</td>"
+            for c, v in zip(columns, row)
+        )
+        cls = " class=\"problem\"" if i in problem_rows else ""
+        body.append(f"<tr{cls}>{cells}</tr>")
+    if not rows:
+        body.append(f"<tr><td colspan=\"{len(columns)}\">none</td></tr>")
+    aria = f" aria-label=\"{escape(label)}\"" if label else ""
+    return (f"<table{aria}><thead><tr>{head}</tr></thead><tbody>\n" + "\n".join(body)
+            + "\n</tbody></table>")
+
+
+def footage_chart_svg(report: Report, width: int = 640) -> str:
+    """Horizontal bars of conductor footage (with waste) per material and size [ft]."""
+    bars = report.footage
+    if not bars:
+        return "<p>No conductors in this walk.</p>"
+    label_w, value_w, bar_h, gap = 130, 70, 18, 6
+    plot_w = width - label_w - value_w
+    most = max(b.with_waste_ft for b in bars) or 1
+    height = len(bars) * (bar_h + gap) + gap
+    parts = [
+        f"<svg width=\"{width}\" height=\"{height}\" viewBox=\"0 0 {width} {height}\" role=\"img\" "
+        f"aria-label=\"Conductor footage by size, with waste allowance\">",
+        "<title>Conductor footage by size [ft], with waste allowance</title>",
+    ]
+    for i, b in enumerate(bars):
+        y = gap + i * (bar_h + gap)
+        w = max(1.0, plot_w * b.with_waste_ft / most)
+        name = f"{b.size} {'Cu' if b.material == 'cu' else 'Al'}"
+        fill = "#b5651d" if b.material == "cu" else "#8a9099"
+        parts.append(
+            f"<text x=\"{label_w - 6}\" y=\"{y + bar_h - 5}\" text-anchor=\"end\">{escape(name)}</text>"
+            f"<rect x=\"{label_w}\" y=\"{y}\" width=\"{w:.1f}\" height=\"{bar_h}\" fill=\"{fill}\">"
+            f"<title>{escape(name)}: {b.with_waste_ft} ft</title></rect>"
+            f"<text x=\"{label_w + w + 4:.1f}\" y=\"{y + bar_h - 5}\">{b.with_waste_ft} ft</text>"
+        )
+    parts.append("</svg>")
+    return "\n".join(parts)
+
+
+def render_html(report: Report) -> str:
+    """The whole page as text."""
+    out = [
+        "<!DOCTYPE html>",
+        "<html lang=\"en\">",
+        "<head>",
+        "<meta charset=\"utf-8\">",
+        "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">",
+        f"<title>{escape(report.title)}</title>",
+        f"<style>\n{_STYLE}\n</style>",
+        "</head>",
+        "<body>",
+        f"<h1>{escape(report.title)}</h1>",
+        "<dl class=\"header\">",
+    ]
+    for label, value in report.header:
+        out.append(f"<dt>{escape(label)}</dt><dd>{escape(value)}</dd>")
+    out.append("</dl>")
+    out.append(f"<p class=\"caution\" role=\"note\">{escape(report.caution)}</p>")
+
+    out.append("<h2>Summary</h2>")
+    out.append(_table(("Item", "Value"), report.summary, label="Summary"))
+    out.append("<h2>Defaults used</h2>")
+    out.append(_table(("Setting", "Value"), report.defaults, label="Defaults used"))
+
+    out.append("<h2>Runs</h2>")
+    problem_rows = {i for i, r in enumerate(report.runs) if r.problems}
+    out.append(_table(RUN_COLUMNS, [r.cells() for r in report.runs],
+                      problem_rows=problem_rows, label="Runs"))
+
+    out.append("<h2>Conductor footage by size</h2>")
+    out.append(footage_chart_svg(report))
+    out.append(_table(("Material", "Size", "Net [ft]", "With waste [ft]"),
+                      [("copper" if f.material == "cu" else "aluminum", f.size,
+                        f"{f.net_ft:.1f}", str(f.with_waste_ft)) for f in report.footage],
+                      label="Conductor footage by size"))
+
+    out.append("<h2>Material list</h2>")
+    out.append("<h3>Conductors</h3>")
+    out.append(_table(*report.wire_table, label="Conductors"))
+    out.append("<h3>Raceway</h3>")
+    out.append(_table(*report.raceway_table, label="Raceway"))
+    out.append("<h3>Fittings</h3>")
+    out.append(_table(*report.fitting_table, label="Fittings"))
+    if report.warnings:
+        out.append("<h3>Takeoff warnings</h3>")
+        out.append("<ul>" + "".join(f"<li>{escape(w)}</li>" for w in report.warnings) + "</ul>")
+
+    out.append("<h2>Takeoff assumptions</h2>")
+    out.append("<ul>" + "\n".join(f"<li>{escape(a)}</li>" for a in report.assumptions) + "</ul>")
+    out.append(f"<p class=\"caution\" role=\"note\">{escape(report.caution)}</p>")
+    out.append("</body>")
+    out.append("</html>")
+    return "\n".join(out) + "\n"

@@ -1,0 +1,80 @@
+"""The report as Markdown: the same sections as the HTML page, with a text bar chart.
+
+User text is escaped so that it cannot become markup (emphasis, links, table breaks or raw HTML).
+"""
+
+from __future__ import annotations
+
+from gaugewalk.model.report.content import RUN_COLUMNS, Report
+
+_SPECIAL = "\\`*_[]|#<>"
+_BAR_WIDTH = 40
+
+
+def md_escape(text: str) -> str:
+    """One line of user text, safe in a Markdown paragraph or table cell."""
+    text = " ".join(str(text).split())
+    out = []
+    for ch in text:
+        if ch == "&":
+            out.append("&amp;")
+        elif ch == "<":
+            out.append("&lt;")
+        elif ch == ">":
+            out.append("&gt;")
+        elif ch in _SPECIAL:
+            out.append("\\" + ch)
+        else:
+            out.append(ch)
+    return "".join(out)
+
+
+def _table(columns, rows) -> list[str]:
+    lines = [
+        "| " + " | ".join(columns) + " |",  # our own column names, not user text
+        "|" + "|".join("---" for _ in columns) + "|",
+    ]
+    for row in rows:
+        lines.append("| " + " | ".join(md_escape(v) for v in row) + " |")
+    if not rows:
+        lines.append("| " + " | ".join(["none"] + [""] * (len(columns) - 1)) + " |")
+    return lines
+
+
+def footage_chart_text(report: Report) -> list[str]:
+    """Bars of '#' scaled to the largest footage, in a code block."""
+    if not report.footage:
+        return ["No conductors in this walk."]
+    most = max(f.with_waste_ft for f in report.footage) or 1
+    names = [f"{f.size} {'Cu' if f.material == 'cu' else 'Al'}" for f in report.footage]
+    pad = max(len(n) for n in names)
+    lines = ["```"]
+    for name, f in zip(names, report.footage):
+        bar = "#" * max(1, round(_BAR_WIDTH * f.with_waste_ft / most))
+        lines.append(f"{name.rjust(pad)} | {bar} {f.with_waste_ft} ft")
+    lines.append("```")
+    return lines
+
+
+def render_md(report: Report) -> str:
+    """The whole report as Markdown text."""
+    out = [f"# {md_escape(report.title)}", ""]
+    for label, value in report.header:
+        out.append(f"- **{md_escape(label)}:** {md_escape(value)}")
+    out += ["", f"> **Caution:** {md_escape(report.caution)}", ""]
+    out += ["## Summary", ""] + _table(("Item", "Value"), report.summary) + [""]
+    out += ["## Defaults used", ""] + _table(("Setting", "Value"), report.defaults) + [""]
+    out += ["## Runs", ""] + _table(RUN_COLUMNS, [r.cells() for r in report.runs]) + [""]
+    out += ["## Conductor footage by size", "", "Feet to order per size, with waste allowance:", ""]
+    out += footage_chart_text(report) + [""]
+    out += _table(("Material", "Size", "Net [ft]", "With waste [ft]"),
+                  [("copper" if f.material == "cu" else "aluminum", f.size, f"{f.net_ft:.1f}",
+                    str(f.with_waste_ft)) for f in report.footage]) + [""]
+    out += ["## Material list", "", "### Conductors", ""] + _table(*report.wire_table) + [""]
+    out += ["### Raceway", ""] + _table(*report.raceway_table) + [""]
+    out += ["### Fittings", ""] + _table(*report.fitting_table) + [""]
+    if report.warnings:
+        out += ["### Takeoff warnings", ""] + [f"- {md_escape(w)}" for w in report.warnings] + [""]
+    out += ["## Takeoff assumptions", ""] + [f"- {md_escape(a)}" for a in report.assumptions]
+    out += ["", f"> **Caution:** {md_escape(report.caution)}", ""]
+    return "\n".join(out)
