@@ -47,8 +47,9 @@ def parse_hp(value: str | int | float | Fraction) -> Fraction:
     Accepts decimals (``"7.5"``, ``".5"``), fractions (``"3/4"``), mixed numbers (``"1-1/2"``,
     ``"1 1/2"``, ``"7½"``), each with an optional ``hp`` (any case, spaced or not). A decimal with
     two or more places that rounds a sixth or a third reads as it (``"0.33"`` is 1/3). Zero,
-    negative, and anything else raise ``TableLookupError`` showing the accepted forms. This reads the
-    spelling only; ``gaugewalk.tables.equipment.motors.table_hp`` checks a rating against a table.
+    negative, and anything else raise ``TableLookupError`` showing the accepted forms. This reads
+    the spelling only; ``gaugewalk.tables.equipment.motors.table_hp`` checks a rating against a
+    table.
     """
     if isinstance(value, bool):
         raise _refuse(value)

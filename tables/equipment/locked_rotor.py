@@ -31,7 +31,10 @@ from fractions import Fraction
 from typing import NamedTuple
 
 from gaugewalk.tables.equipment.horsepower import hp_text, parse_hp
-from gaugewalk.tables.equipment.motors import MotorCurrent, checked_volts, voltage_column
+from gaugewalk.tables.equipment.hp_tables import (
+    MotorCurrent, checked_volts, keyed_by_hp, read_current,
+)
+from gaugewalk.tables.equipment.motors import voltage_column
 from gaugewalk.tables.errors import TableLookupError, choices
 
 TABLE_430_251_A = "Table 430.251(A)"
@@ -86,15 +89,9 @@ _ROWS_430_251_B: tuple[tuple, ...] = (
     ("500", _, _, _, _, 3625, 2900),
 )
 
-
-def _keyed(rows) -> dict[Fraction, tuple[float | None, ...]]:
-    return {parse_hp(row[0]): tuple(None if v is None else float(v) for v in row[1:])
-            for row in rows}
-
-
-TABLE_430_251_A_LRA = _keyed(_ROWS_430_251_A)
+TABLE_430_251_A_LRA = keyed_by_hp(_ROWS_430_251_A)
 """hp -> single-phase locked-rotor current [A] in the columns ``COLUMNS_430_251_A``."""
-TABLE_430_251_B_LRA = _keyed(_ROWS_430_251_B)
+TABLE_430_251_B_LRA = keyed_by_hp(_ROWS_430_251_B)
 """hp -> polyphase Design B, C, D locked-rotor current [A], ``COLUMNS_430_251_B`` (None: none)."""
 
 # NEC 2023 Table 430.7(B): code letter -> kVA per horsepower with locked rotor (low, high);
@@ -140,17 +137,8 @@ def locked_rotor_amps(hp, volts: float, phases: int) -> MotorCurrent:
         rows, columns, table = TABLE_430_251_B_LRA, COLUMNS_430_251_B, TABLE_430_251_B
     else:
         raise TableLookupError(f"no locked-rotor table for {phases!r} phases; phases are 1, 3")
-    hp_value = parse_hp(hp)
-    if hp_value not in rows:
-        raise TableLookupError(f"{table} lists no {hp_text(hp_value)} hp motor; its ratings are "
-                               f"{choices(hp_text(h) for h in rows)} hp")
-    col = voltage_column(volts, columns, table)
-    amps = rows[hp_value][columns.index(col)]
-    if amps is None:
-        listed = [hp_text(h) for h, row in rows.items() if row[columns.index(col)] is not None]
-        raise TableLookupError(f"{table} lists no {col} V current for a {hp_text(hp_value)} hp "
-                               f"motor; its {col} V column runs {listed[0]} to {listed[-1]} hp")
-    return MotorCurrent(amps, table, col)
+    return read_current(hp, volts, rows, columns, table,
+                        lambda v: voltage_column(v, columns, table))
 
 
 def code_letter_range(letter: str) -> tuple[float, float | None]:
@@ -202,7 +190,8 @@ def locked_rotor_amps_from_code_letter(letter: str, hp, volts: float, phases: in
     hp_value = parse_hp(hp)
     if hp_value < CODE_LETTER_MIN_HP:
         raise TableLookupError(f"430.7(A)(7) marks code letters on ac motors of 1/2 hp or more, "
-                               f"not {hp_text(hp_value)} hp; use the nameplate locked-rotor current")
+                               f"not {hp_text(hp_value)} hp; use the nameplate locked-rotor "
+                               f"current")
     per_hp = kva_per_hp(letter, basis)
     v = checked_volts(volts)
     amps = per_hp * float(hp_value) * 1000.0 / (v if phases == 1 else math.sqrt(3) * v)

@@ -29,8 +29,9 @@ Sources: percentages typed from memory and checked against two public code proje
 the 2020-2023 table; the single-phase, polyphase, synchronous and wound-rotor rows also against a
 reprint of the older Table 430-152, whose dc instantaneous-trip cell reads 200 % where the current
 table and this module read 250 % (from memory). The (C)(1)(b) and (C)(3) limits from memory,
-matching those projects and a trade article on the 2020-era rules. The row for Design B energy-efficient
-motors (1100 % instantaneous) dates from the 2014 edition, which replaced Design E (from memory).
+matching those projects and a trade article on the 2020-era rules. The row for Design B
+energy-efficient motors (1100 % instantaneous) dates from the 2014 edition, which replaced Design
+E (from memory).
 """
 
 from __future__ import annotations

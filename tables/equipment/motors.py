@@ -30,9 +30,10 @@ reprints.
 from __future__ import annotations
 
 from fractions import Fraction
-from typing import NamedTuple
 
-from gaugewalk.tables.equipment.horsepower import hp_text, parse_hp
+from gaugewalk.tables.equipment.hp_tables import (
+    MotorCurrent, checked_volts, keyed_by_hp, read_current, row_hp,
+)
 from gaugewalk.tables.errors import TableLookupError, choices
 
 TABLE_430_247 = "Table 430.247"
@@ -139,19 +140,13 @@ _ROWS_430_247: tuple[tuple, ...] = (
     ("200", _, _, _, 675, 330, 294),
 )
 
-
-def _keyed(rows) -> dict[Fraction, tuple[float | None, ...]]:
-    return {parse_hp(row[0]): tuple(None if v is None else float(v) for v in row[1:])
-            for row in rows}
-
-
-TABLE_430_248_FLC = _keyed(_ROWS_430_248)
+TABLE_430_248_FLC = keyed_by_hp(_ROWS_430_248)
 """hp -> full-load current [A] in the columns ``COLUMNS_430_248``."""
-TABLE_430_250_FLC = _keyed(_ROWS_430_250)
+TABLE_430_250_FLC = keyed_by_hp(_ROWS_430_250)
 """hp -> full-load current [A] in the columns ``COLUMNS_430_250`` (None: no entry)."""
-TABLE_430_250_SYNC_FLC = _keyed(_ROWS_430_250_SYNC)
+TABLE_430_250_SYNC_FLC = keyed_by_hp(_ROWS_430_250_SYNC)
 """hp -> synchronous-motor full-load current [A] at unity power factor, ``COLUMNS_430_250_SYNC``."""
-TABLE_430_247_FLC = _keyed(_ROWS_430_247)
+TABLE_430_247_FLC = keyed_by_hp(_ROWS_430_247)
 """hp -> dc full-load current [A] in the columns ``COLUMNS_430_247`` (None: no entry)."""
 
 # System voltage ranges the headnotes of Tables 430.248 and 430.250 permit for each column [V].
@@ -159,21 +154,6 @@ _SYSTEM_RANGES: dict[int, tuple[float, float]] = {
     115: (110, 120), 200: (200, 200), 208: (208, 208), 230: (220, 240), 460: (440, 480),
     575: (550, 600),
 }
-
-
-class MotorCurrent(NamedTuple):
-    """A current read from a motor table: ``amps`` [A], the ``table`` it came from and the
-    ``column`` [V] read."""
-    amps: float
-    table: str
-    column: int
-
-
-def checked_volts(volts: float) -> float:
-    """``volts`` [V] as a float, or ``TableLookupError`` if it is not a positive number."""
-    if isinstance(volts, bool) or not isinstance(volts, (int, float)) or not volts > 0:
-        raise TableLookupError(f"a voltage must be a positive number of volts, not {volts!r}")
-    return float(volts)
 
 
 def _phases(phases: int) -> int:
@@ -224,31 +204,12 @@ def _flc_table(phases: int):
     return TABLE_430_250_FLC, COLUMNS_430_250, TABLE_430_250
 
 
-def _row_hp(value, rows, table: str) -> Fraction:
-    hp = parse_hp(value)
-    if hp not in rows:
-        raise TableLookupError(f"{table} lists no {hp_text(hp)} hp motor; its ratings are "
-                               f"{choices(hp_text(h) for h in rows)} hp")
-    return hp
-
-
 def table_hp(value, phases: int) -> Fraction:
     """A horsepower (any spelling ``parse_hp`` reads) checked against Table 430.248
     (``phases=1``) or 430.250 (``phases=3``); raises ``TableLookupError`` listing the table's
     ratings for one it does not list (``4 hp``)."""
     rows, _cols, table = _flc_table(phases)
-    return _row_hp(value, rows, table)
-
-
-def _lookup(value, volts, rows, columns, table, column_of) -> MotorCurrent:
-    hp = _row_hp(value, rows, table)
-    col = column_of(volts)
-    amps = rows[hp][columns.index(col)]
-    if amps is None:
-        listed = [hp_text(h) for h, row in rows.items() if row[columns.index(col)] is not None]
-        raise TableLookupError(f"{table} lists no {col} V current for a {hp_text(hp)} hp motor; "
-                               f"its {col} V column runs {listed[0]} to {listed[-1]} hp")
-    return MotorCurrent(amps, table, col)
+    return row_hp(value, rows, table)
 
 
 def motor_flc(hp, volts: float, phases: int) -> MotorCurrent:
@@ -261,7 +222,7 @@ def motor_flc(hp, volts: float, phases: int) -> MotorCurrent:
     MotorCurrent(amps=34.0, table='Table 430.250', column=460)
     """
     rows, columns, table = _flc_table(phases)
-    return _lookup(hp, volts, rows, columns, table, lambda v: flc_column(v, phases))
+    return read_current(hp, volts, rows, columns, table, lambda v: flc_column(v, phases))
 
 
 def synchronous_motor_flc(hp, volts: float, power_factor: float = 1.0) -> MotorCurrent:
@@ -271,7 +232,8 @@ def synchronous_motor_flc(hp, volts: float, power_factor: float = 1.0) -> MotorC
     if power_factor not in SYNC_POWER_FACTOR_MULTIPLIERS or isinstance(power_factor, bool):
         raise TableLookupError(f"Table 430.250 gives synchronous currents at power factor "
                                f"{choices(SYNC_POWER_FACTOR_MULTIPLIERS)}, not {power_factor!r}")
-    found = _lookup(hp, volts, TABLE_430_250_SYNC_FLC, COLUMNS_430_250_SYNC, TABLE_430_250_SYNC,
+    found = read_current(hp, volts, TABLE_430_250_SYNC_FLC, COLUMNS_430_250_SYNC,
+                         TABLE_430_250_SYNC,
                     lambda v: voltage_column(v, COLUMNS_430_250_SYNC, TABLE_430_250_SYNC))
     amps = round(found.amps * SYNC_POWER_FACTOR_MULTIPLIERS[power_factor], 2)
     return MotorCurrent(amps, found.table, found.column)
@@ -286,4 +248,5 @@ def dc_motor_flc(hp, armature_volts: float) -> MotorCurrent:
             raise TableLookupError(f"{TABLE_430_247} has no column for {v:g} V; its armature "
                                    f"voltage ratings are {choices(COLUMNS_430_247)} V")
         return int(v)
-    return _lookup(hp, armature_volts, TABLE_430_247_FLC, COLUMNS_430_247, TABLE_430_247, column)
+    return read_current(hp, armature_volts, TABLE_430_247_FLC, COLUMNS_430_247, TABLE_430_247,
+                        column)

@@ -57,8 +57,9 @@ def test_a_voltage_no_column_covers_is_refused_naming_the_columns(volts, phases)
 
 
 def test_the_refusal_lists_the_columns_and_their_system_ranges():
-    with pytest.raises(TableLookupError, match=r"Table 430.248 has no column for 277 V; its columns "
-                                               r"are 115 V \(110-120 V systems\), 200 V, 208 V"):
+    with pytest.raises(TableLookupError,
+                       match=r"Table 430.248 has no column for 277 V; its columns are 115 V "
+                             r"\(110-120 V systems\), 200 V, 208 V"):
         motor_flc(1, 277, 1)
 
 

@@ -18,7 +18,8 @@ from gaugewalk.tables.errors import TableLookupError
      (80, "motor-generator", 0.91), (60, "nonmotor-generator", 0.78),
      (50, "nonmotor-generator", 0.71), (50, "motor-generator", 0.75),
      (30, "motor-generator", 0.62), (20, "nonmotor-generator", 0.45),
-     (15, "nonmotor-generator", 0.45), (10, "motor-generator", 0.55), (60.0, "motor-generator", 0.81)],
+     (15, "nonmotor-generator", 0.45), (10, "motor-generator", 0.55),
+     (60.0, "motor-generator", 0.81)],
 )
 def test_printed_multipliers(duty, kind, multiplier):
     assert duty_cycle_multiplier(duty, kind) == multiplier
