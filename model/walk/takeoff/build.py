@@ -1,0 +1,215 @@
+"""The takeoff of a walk: ``build_takeoff(job, job_result)`` and its pure core ``takeoff_from_runs``.
+
+Conductor lines are grouped by material, insulation, size, function and colour; a waste allowance
+is added and the result is ordered in the job's put-ups (``footage``, ``packing``). Raceway and
+fittings are counted per type and trade size (``fittings``). Every rule is cited on the line it
+makes and every assumption is listed in ``Takeoff.assumptions``.
+"""
+
+from __future__ import annotations
+
+from typing import Iterable
+
+from gaugewalk.model.walk.takeoff.fittings import count_raceway
+from gaugewalk.model.walk.takeoff.footage import (
+    FUNCTION_ORDER, phase_colours_for, wire_footage, with_waste,
+)
+from gaugewalk.model.walk.takeoff.lines import (
+    RunMaterial, Takeoff, TakeoffError, TakeoffSettings, WireLine,
+)
+from gaugewalk.model.walk.takeoff.packing import order_putups
+from gaugewalk.tables.conductor.sizes import size_index
+from gaugewalk.tables.order import colours as colour_table
+from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, SOURCE as PUTUP_SOURCE, PutUp, putups_for
+from gaugewalk.tables.raceway import install as raceway_install
+
+EGC_PARALLEL_RULE = "NEC 250.122(F)"
+PARALLEL_RACEWAY_RULE = "NEC 310.10(G)(4)"
+LARGE_MARKING_RULE = "NEC 200.6(B), 250.119(A), 210.5(C), 215.12(C)"
+
+
+def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = TakeoffSettings()) -> Takeoff:
+    """The takeoff of the given runs: the pure core of ``build_takeoff``."""
+    runs = list(runs)
+    wire_net, wire_runs = wire_footage(runs, settings.slack_per_end_ft)
+    first_seen = {key: i for i, key in enumerate(wire_net)}  # phase colours stay in A, B, C order
+    wire_lines = []
+    for key in sorted(wire_net, key=lambda k: (k[0] != "cu", k[0], size_index(k[2]), k[1],
+                                               FUNCTION_ORDER[k[3]], first_seen[k])):
+        material, insulation, size, function, colour = key
+        net = wire_net[key]
+        need = with_waste(net, settings.waste_pct)
+        order, order_ft = order_putups(need, putups_for(size, settings.putups))
+        wire_lines.append(WireLine(
+            material, insulation, size, function, colour, round(net, 1), settings.waste_pct, need,
+            order, order_ft, order_ft - need, tuple(wire_runs[key]),
+        ))
+    race = count_raceway(runs, settings)
+    return Takeoff(
+        tuple(wire_lines), race.raceway_lines, race.fitting_lines,
+        _assumptions(settings, race.families, any(r.sets > 1 for r in runs),
+                     any(r.egc_size for r in runs), wire_lines),
+        tuple(race.warnings), settings,
+    )
+
+
+def _size_span(sizes: tuple[str, ...]) -> str:
+    """"14 AWG to 10 AWG" for a run of consecutive sizes, else the sizes listed."""
+    from gaugewalk.tables.conductor.sizes import SIZES
+
+    idx = sorted(size_index(s) for s in sizes)
+    if len(idx) > 2 and idx == list(range(idx[0], idx[-1] + 1)):
+        return f"{SIZES[idx[0]]} to {SIZES[idx[-1]]}"
+    return ", ".join(SIZES[i] for i in idx)
+
+
+def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.InstallRule],
+                 parallel: bool, any_egc: bool, wire_lines: list[WireLine]) -> tuple[str, ...]:
+    out = [
+        f"Conductor length per run = (route length + {settings.slack_per_end_ft:g} ft slack at each "
+        f"end) x conductors x parallel sets; slack per end is the job's setting (common practice).",
+        "Conductors counted: every ungrounded conductor, the neutral where the circuit has one, "
+        "and the EGC at its own size.",
+        f"Waste allowance {settings.waste_pct:g} % added to each line, rounded up to whole feet "
+        f"(the job's setting).",
+        "Put-ups chosen to leave the least over, then the fewest pieces; pieces are cut from any "
+        "put-up of the line. Put-up lengths: "
+        + (PUTUP_SOURCE if settings.putups == DEFAULT_PUTUPS else "as the job lists them")
+        + ": " + "; ".join(f"{p.label} ({_size_span(p.sizes)})" for p in settings.putups) + ".",
+        "Phase colours are assigned in phase order A, B, C per circuit; balance them against the "
+        "panel schedule.",
+    ]
+    out += [f"Colour: {source}." for source in settings.scheme_sources]
+    if any(size_index(w.size) >= size_index("4 AWG") for w in wire_lines):
+        out.append(
+            "4 AWG and larger are often stocked only in black; they may be identified by marking "
+            f"at terminations ({LARGE_MARKING_RULE})."
+        )
+    if parallel and any_egc:
+        out.append(f"Parallel sets: each raceway carries its own full-size EGC ({EGC_PARALLEL_RULE}).")
+    if families:
+        out.append(
+            "Raceway length = route length, one raceway per parallel set "
+            f"({PARALLEL_RACEWAY_RULE}); no allowance for offsets or elbows' own length."
+        )
+        out.append(
+            f"Connectors: {settings.connectors_per_end} at each end of each raceway "
+            "(the termination and one more along the way; takeoff assumption)."
+        )
+        out.append("Elbows: one 90-degree elbow of the raceway's trade size per bend recorded on "
+                   "the walk (small EMT is often bent in the field instead).")
+    for family in sorted(families):
+        rule = families[family]
+        sticks = (f"{rule.stick_source}" if rule.stick_ft is not None else rule.stick_source)
+        coupling = (" Couplings come on the sticks, none listed loose." if rule.coupling_attached
+                    else (" One coupling per joint between lengths." if rule.stick_ft else ""))
+        out.append(f"{family} ({rule.article}): {sticks}.{coupling} Supports: {rule.support_source}.")
+    return tuple(out)
+
+
+# --------------------------------------------------------------------------------------------
+# From a walk
+
+
+COLOUR_SCHEMES = ("common",)
+"""Colour scheme names a job may give: ``common`` picks ``gaugewalk.tables.order.colours`` by each source's
+system (common practice for phases; NEC 200.6 and 250.119 for neutral and EGC)."""
+
+
+def scheme_for_source_system(system_id: str) -> colour_table.ColourScheme:
+    """The default colour scheme of a source's system (a ``gaugewalk.model.engine.circuits.SYSTEMS`` id)."""
+    from gaugewalk.model.engine.circuits import SYSTEMS, parse_system
+
+    system = SYSTEMS.get(system_id) or SYSTEMS[parse_system(system_id)]
+    return colour_table.scheme_for_system(system.line_to_line_v, system.phases, system.has_neutral)
+
+
+def settings_for(job) -> TakeoffSettings:
+    """The takeoff settings of a ``gaugewalk.model.walk.job.Job``: its slack, waste and put-ups."""
+    d = job.defaults
+    if d.colour_scheme not in COLOUR_SCHEMES:
+        raise TakeoffError(
+            f"defaults, colour_scheme: no colour scheme '{d.colour_scheme}'; schemes are "
+            f"{', '.join(COLOUR_SCHEMES)}"
+        )
+    listed = getattr(d, "putups", None)
+    putups = (tuple(PutUp(p.label, p.length_ft, tuple(p.sizes)) for p in listed)
+              if listed is not None else DEFAULT_PUTUPS)
+    return TakeoffSettings(
+        slack_per_end_ft=d.slack_per_end_ft,
+        waste_pct=d.waste_pct,
+        putups=putups,
+    )
+
+
+def materials_from_job(job, job_result) -> tuple[list[RunMaterial], list[str], tuple[str, ...]]:
+    """One ``RunMaterial`` per sized run of ``job`` (a ``gaugewalk.model.walk.job.Job``) from ``job_result``
+    (a ``gaugewalk.model.walk.compute.JobResult``), the warnings for runs left out, and the colour rules used."""
+    materials: list[RunMaterial] = []
+    left_out: list[str] = []
+    schemes: dict[str, colour_table.ColourScheme] = {}
+    system_of = {s.id: s.system for s in reversed(job.sources)}  # the first source of an id wins
+    scheme_of: dict[str, colour_table.ColourScheme | str] = {}   # by system: scheme or why none
+    for run in job.runs:
+        result = job_result.runs.get(run.id)
+        if result is None:
+            left_out.append(f"run {run.id}: not sized, so left out of the takeoff")
+            continue
+        system = system_of[run.from_]
+        if system not in scheme_of:
+            try:
+                scheme_of[system] = scheme_for_source_system(system)
+            except KeyError as exc:
+                scheme_of[system] = exc.args[0]
+        scheme = scheme_of[system]
+        if isinstance(scheme, str):
+            left_out.append(f"run {run.id}: no colours: {scheme}")
+            continue
+        schemes[scheme.key] = scheme
+        per_set = result.conductors or {}
+        has_neutral = bool(per_set.get("neutral")) and result.neutral_size is not None
+        has_egc = bool(per_set.get("egc")) and result.egc_size is not None
+        try:
+            phases = phase_colours_for(scheme, int(per_set.get("hot", 0)), has_neutral)
+        except TakeoffError as exc:
+            left_out.append(f"run {run.id}: {exc}")
+            continue
+        materials.append(RunMaterial(
+            run_id=run.id,
+            length_ft=run.length_ft,
+            sets=result.sets,
+            material=result.material,
+            insulation=job.effective(run, "insulation"),
+            size=result.size,
+            phase_colours=phases,
+            neutral_size=result.neutral_size if has_neutral else None,
+            neutral_colour=scheme.neutral or "white",
+            egc_size=result.egc_size if has_egc else None,
+            egc_colour=scheme.egc,
+            raceway=result.raceway,
+            raceway_size=result.raceway_size,
+            bends=run.bends or 0,
+        ))
+    sources = tuple(
+        f"{s.label}: {'; '.join(s.sources())}" for s in sorted(schemes.values(), key=lambda s: s.key)
+    )
+    return materials, left_out, sources
+
+
+def build_takeoff(job, job_result) -> Takeoff:
+    """The takeoff of a computed walk: ``job`` a ``gaugewalk.model.walk.job.Job``, ``job_result`` what
+    ``gaugewalk.model.walk.compute.compute_job(job)`` returned. Runs that could not be sized are left out and
+    named in ``warnings``. Raises ``TakeoffError`` for a job setting it cannot use."""
+    settings = settings_for(job)
+    materials, left_out, scheme_sources = materials_from_job(job, job_result)
+    settings = TakeoffSettings(
+        settings.slack_per_end_ft, settings.waste_pct, settings.putups,
+        settings.connectors_per_end, scheme_sources,
+    )
+    takeoff = takeoff_from_runs(materials, settings)
+    if left_out:
+        takeoff = Takeoff(
+            takeoff.wire_lines, takeoff.raceway_lines, takeoff.fitting_lines,
+            takeoff.assumptions, tuple(left_out) + takeoff.warnings, settings,
+        )
+    return takeoff

@@ -1,0 +1,111 @@
+"""Raceway and fittings: lengths per type and trade size, couplings, connectors, supports, elbows.
+
+Raceway is counted per type and trade size from each run's raceway sizing, one raceway per
+parallel set (NEC 310.10(G)(4)); sticks, couplings, connectors, supports (the xxx.30 section of
+the raceway's article) and elbows (one per recorded 90-degree bend) follow from it.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from functools import lru_cache
+from typing import Sequence
+
+from gaugewalk.model.walk.takeoff.lines import FittingLine, RacewayLine, RunMaterial, TakeoffSettings
+from gaugewalk.tables.raceway import install as raceway_install
+
+ITEM_ORDER = {"coupling": 0, "connector": 1, "support": 2, "90-degree elbow": 3}
+
+
+@dataclass
+class RacewayCount:
+    """What ``count_raceway`` found: the lines, the families used and the runs left out."""
+
+    raceway_lines: tuple[RacewayLine, ...]
+    fitting_lines: tuple[FittingLine, ...]
+    families: dict[str, raceway_install.InstallRule] = field(default_factory=dict)
+    warnings: list[str] = field(default_factory=list)
+
+
+@lru_cache(maxsize=256)
+def _rule_and_spacing(raceway: str, trade_size: str):
+    rule = raceway_install.install_rule(raceway)
+    return rule, rule.max_spacing_ft(trade_size)
+
+
+def race_sort(key: tuple[str, str]) -> tuple[str, float]:
+    """Sort raceway keys (type, trade size) by type, then trade size as a number."""
+    return (key[0], raceway_install.trade_size_value(key[1]))
+
+
+def count_raceway(runs: Sequence[RunMaterial], settings: TakeoffSettings) -> RacewayCount:
+    """Raceway lengths and fittings of ``runs``; runs whose raceway cannot be counted are named in
+    the warnings and left out."""
+    race_len: dict[tuple[str, str], float] = {}
+    race_runs: dict[tuple[str, str], list[str]] = {}
+    fittings: dict[tuple[str, str, str], int] = {}
+    fitting_basis: dict[tuple[str, str, str], str] = {}
+    families: dict[str, raceway_install.InstallRule] = {}
+    warnings: list[str] = []
+
+    def add_fitting(item: str, raceway: str, trade: str, count: int, basis: str) -> None:
+        key = (item, raceway, trade)
+        fittings[key] = fittings.get(key, 0) + count
+        fitting_basis[key] = basis
+
+    for run in runs:
+        if run.raceway is None:
+            continue
+        if run.raceway_size is None:
+            warnings.append(
+                f"run {run.run_id}: no {run.raceway} trade size holds its conductors; "
+                f"its raceway and fittings are left out of the takeoff"
+            )
+            continue
+        try:
+            rule, spacing = _rule_and_spacing(run.raceway, run.raceway_size)
+        except (KeyError, ValueError) as exc:
+            warnings.append(f"run {run.run_id}: raceway left out: {exc.args[0]}")
+            continue
+        families[rule.family] = rule
+        key = (run.raceway, run.raceway_size)
+        race_len[key] = race_len.get(key, 0.0) + run.length_ft * run.sets
+        race_runs.setdefault(key, []).append(run.run_id)
+        if rule.stick_ft is not None and not rule.coupling_attached:
+            add_fitting("coupling", *key,
+                        raceway_install.joints_for(run.length_ft, rule.stick_ft) * run.sets,
+                        f"one per joint between lengths; {rule.stick_source}")
+        add_fitting("connector", *key, 2 * settings.connectors_per_end * run.sets,
+                    f"{settings.connectors_per_end} per raceway end (takeoff assumption)")
+        if spacing is not None:
+            add_fitting("support", *key,
+                        raceway_install.supports_for(run.length_ft, rule.end_ft, spacing) * run.sets,
+                        f"{rule.support_source} ({spacing:g} ft at trade size {run.raceway_size})")
+        if run.bends:
+            add_fitting("90-degree elbow", *key, run.bends * run.sets,
+                        "one per 90-degree bend recorded on the walk")
+            degrees = run.bends * raceway_install.DEGREES_PER_BEND
+            if degrees > raceway_install.MAX_BEND_DEGREES:
+                warnings.append(
+                    f"run {run.run_id}: {run.bends} bends ({degrees} degrees) exceed "
+                    f"{raceway_install.MAX_BEND_DEGREES} degrees between pull points "
+                    f"({rule.bends_section}) unless a pull point (box or conduit body) "
+                    f"breaks the route"
+                )
+
+    raceway_lines = []
+    for key in sorted(race_len, key=race_sort):
+        rule = raceway_install.install_rule(key[0])
+        length = round(race_len[key], 1)
+        sticks = None if rule.stick_ft is None else raceway_install.sticks_for(length, rule.stick_ft)
+        raceway_lines.append(RacewayLine(
+            key[0], key[1], length, sticks, rule.stick_ft, rule.stick_source, tuple(race_runs[key]),
+        ))
+    fitting_lines = tuple(
+        FittingLine(item, raceway, trade, fittings[(item, raceway, trade)],
+                    fitting_basis[(item, raceway, trade)])
+        for item, raceway, trade in sorted(
+            fittings, key=lambda k: (race_sort((k[1], k[2])), ITEM_ORDER[k[0]]))
+        if fittings[(item, raceway, trade)] > 0
+    )
+    return RacewayCount(tuple(raceway_lines), fitting_lines, families, warnings)

@@ -1,0 +1,209 @@
+"""The takeoff's data: what it takes in (one ``RunMaterial`` per sized run, ``TakeoffSettings``)
+and what it gives back (``Takeoff`` with its conductor, raceway and fitting lines)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+from gaugewalk.tables.conductor.sizes import size_index
+from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, SOURCE as PUTUP_SOURCE, PutUp
+from gaugewalk.tables.raceway import install as raceway_install
+
+#: CSV columns of ``Takeoff.to_rows()``, in order. Quantities carry their unit in the name.
+ROW_FIELDS: tuple[str, ...] = (
+    "section", "item", "material", "insulation", "size", "function", "colour",
+    "raceway", "trade_size", "net_ft", "waste_pct", "quantity_ft", "quantity_each",
+    "left_over_ft", "basis",
+)
+
+
+class TakeoffError(ValueError):
+    """A run or setting the takeoff cannot use; the message names the run and field."""
+
+
+# --------------------------------------------------------------------------------------------
+# Inputs
+
+
+@dataclass(frozen=True)
+class RunMaterial:
+    """What the takeoff needs from one sized run. Counts are per parallel set."""
+
+    run_id: str
+    length_ft: float                    # [ft] one-way route length
+    sets: int                           # parallel sets (NEC 310.10(G))
+    material: str                       # "cu" | "al"
+    insulation: str                     # e.g. "THHN/THWN-2"
+    size: str                           # phase conductor size
+    phase_colours: tuple[str, ...]      # one colour per ungrounded conductor
+    neutral_size: str | None = None     # None: no neutral
+    neutral_colour: str = "white"
+    egc_size: str | None = None         # None: no EGC run
+    egc_colour: str = "green"
+    egc_material: str | None = None     # None: same as ``material``
+    raceway: str | None = None          # raceway type; None: not in raceway
+    raceway_size: str | None = None     # trade size; None: nothing fits
+    bends: int = 0                      # 90-degree bends along the route
+
+    @property
+    def hots(self) -> int:
+        return len(self.phase_colours)
+
+
+@dataclass(frozen=True)
+class TakeoffSettings:
+    """Job-level numbers the takeoff uses."""
+
+    slack_per_end_ft: float = 2.0       # [ft] per conductor end (common practice)
+    waste_pct: float = 5.0              # [%] offcut allowance (common practice)
+    putups: tuple[PutUp, ...] = DEFAULT_PUTUPS
+    connectors_per_end: int = raceway_install.CONNECTORS_PER_END
+    scheme_sources: tuple[str, ...] = ()  # the colour rules the runs used, for the assumptions
+
+
+# --------------------------------------------------------------------------------------------
+# Outputs
+
+
+@dataclass(frozen=True)
+class PutUpCount:
+    label: str
+    length_ft: int      # [ft] of one put-up
+    count: int
+
+
+@dataclass(frozen=True)
+class WireLine:
+    """One conductor line of the order: a material, insulation, size, function and colour."""
+
+    material: str
+    insulation: str
+    size: str
+    function: str                   # "phase" | "neutral" | "EGC"
+    colour: str
+    net_ft: float                   # [ft] sum over runs of (length + 2 slack) x conductors x sets
+    waste_pct: float                # [%]
+    with_waste_ft: int              # [ft] net plus waste, rounded up
+    order: tuple[PutUpCount, ...]   # empty: no put-up listed for the size (cut to length)
+    order_ft: int                   # [ft] what the put-ups add up to (or cut length)
+    left_over_ft: int               # [ft] order_ft - with_waste_ft
+    runs: tuple[str, ...]           # run ids contributing
+
+
+@dataclass(frozen=True)
+class RacewayLine:
+    """Raceway of one type and trade size."""
+
+    raceway: str
+    trade_size: str
+    length_ft: float                # [ft] sum of route lengths x sets
+    sticks: int | None              # whole sticks; None when sold in coils
+    stick_ft: float | None
+    basis: str
+    runs: tuple[str, ...]
+
+
+@dataclass(frozen=True)
+class FittingLine:
+    """Couplings, connectors, supports or elbows for one raceway type and trade size."""
+
+    item: str                       # "coupling" | "connector" | "support" | "90-degree elbow"
+    raceway: str
+    trade_size: str
+    count: int
+    basis: str                      # the rule or assumption it comes from
+
+
+@dataclass(frozen=True)
+class SizeFootage:
+    material: str
+    size: str
+    net_ft: float                   # [ft]
+    with_waste_ft: int              # [ft]
+
+
+@dataclass(frozen=True)
+class Takeoff:
+    """The whole rough takeoff for a job."""
+
+    wire_lines: tuple[WireLine, ...]
+    raceway_lines: tuple[RacewayLine, ...]
+    fitting_lines: tuple[FittingLine, ...]
+    assumptions: tuple[str, ...]
+    warnings: tuple[str, ...] = ()    # runs left out or needing attention, by run id
+    settings: TakeoffSettings = field(default_factory=TakeoffSettings)
+
+    def footage_by_size(self) -> tuple[SizeFootage, ...]:
+        """Conductor footage per material and size, smallest size first (copper before aluminum)."""
+        net: dict[tuple[str, str], float] = {}
+        gross: dict[tuple[str, str], int] = {}
+        for line in self.wire_lines:
+            key = (line.material, line.size)
+            net[key] = net.get(key, 0.0) + line.net_ft
+            gross[key] = gross.get(key, 0) + line.with_waste_ft
+        out = [SizeFootage(mat, size, round(ft, 1), gross[(mat, size)])
+               for (mat, size), ft in net.items()]
+        return tuple(sorted(out, key=lambda s: (s.material != "cu", s.material, size_index(s.size))))
+
+    def to_rows(self) -> list[dict[str, str | int | float]]:
+        """Flat rows for a spreadsheet, columns ``ROW_FIELDS``; blank where not applicable. No
+        totals rows: every row is one thing to order."""
+        rows: list[dict[str, str | int | float]] = []
+
+        def row(**values) -> None:
+            rows.append({name: values.get(name, "") for name in ROW_FIELDS})
+
+        for w in self.wire_lines:
+            row(section="wire", item="conductor", material=w.material, insulation=w.insulation,
+                size=w.size, function=w.function, colour=w.colour, net_ft=w.net_ft,
+                waste_pct=w.waste_pct, quantity_ft=w.with_waste_ft, left_over_ft=w.left_over_ft,
+                basis="(length + 2 x slack) x conductors x sets, plus waste")
+            if not w.order:
+                row(section="wire order", item="cut to length", material=w.material,
+                    insulation=w.insulation, size=w.size, function=w.function, colour=w.colour,
+                    quantity_ft=w.order_ft, quantity_each=1,
+                    basis="no put-up listed for this size")
+            for p in w.order:
+                row(section="wire order", item=p.label, material=w.material,
+                    insulation=w.insulation, size=w.size, function=w.function, colour=w.colour,
+                    quantity_ft=p.length_ft * p.count, quantity_each=p.count, basis=PUTUP_SOURCE)
+        for r in self.raceway_lines:
+            row(section="raceway", item=r.raceway, raceway=r.raceway, trade_size=r.trade_size,
+                quantity_ft=r.length_ft, quantity_each="" if r.sticks is None else r.sticks,
+                basis=r.basis)
+        for f in self.fitting_lines:
+            row(section="fitting", item=f.item, raceway=f.raceway, trade_size=f.trade_size,
+                quantity_each=f.count, basis=f.basis)
+        return rows
+
+    def to_dict(self) -> dict:
+        """Everything, for JSON."""
+        def wire(w: WireLine) -> dict:
+            return {
+                "material": w.material, "insulation": w.insulation, "size": w.size,
+                "function": w.function, "colour": w.colour, "net_ft": w.net_ft,
+                "waste_pct": w.waste_pct, "with_waste_ft": w.with_waste_ft,
+                "order": [{"put_up": p.label, "length_ft": p.length_ft, "count": p.count}
+                          for p in w.order],
+                "order_ft": w.order_ft, "left_over_ft": w.left_over_ft, "runs": list(w.runs),
+            }
+        return {
+            "wire": [wire(w) for w in self.wire_lines],
+            "raceway": [
+                {"raceway": r.raceway, "trade_size": r.trade_size, "length_ft": r.length_ft,
+                 "sticks": r.sticks, "stick_ft": r.stick_ft, "basis": r.basis, "runs": list(r.runs)}
+                for r in self.raceway_lines
+            ],
+            "fittings": [
+                {"item": f.item, "raceway": f.raceway, "trade_size": f.trade_size,
+                 "count": f.count, "basis": f.basis}
+                for f in self.fitting_lines
+            ],
+            "footage_by_size": [
+                {"material": s.material, "size": s.size, "net_ft": s.net_ft,
+                 "with_waste_ft": s.with_waste_ft}
+                for s in self.footage_by_size()
+            ],
+            "assumptions": list(self.assumptions),
+            "warnings": list(self.warnings),
+        }
