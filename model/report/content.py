@@ -11,6 +11,7 @@ from dataclasses import dataclass
 from gaugewalk.model.walk.job import Job, Run
 from gaugewalk.model.engine.contract import RunResult
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
+from gaugewalk.tables.order.putups import CUT_LABEL
 
 CAUTION = (
     "Results are estimates for planning. The installation must follow the code in force and the "
@@ -186,18 +187,20 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
 
 
 def _order_text(w: WireLine) -> str:
-    if not w.order:
-        return f"cut to length {w.order_ft} ft"
-    return " + ".join(f"{p.count} x {p.label}" for p in w.order)
+    return " + ".join(f"{p.length_ft} ft {p.label}" if p.label == CUT_LABEL
+                      else f"{p.count} x {p.label}" for p in w.order)
 
 
 def wire_table_of(t: Takeoff):
-    """The conductor lines as ``(columns, rows)`` of text (what the report and the app show)."""
+    """The conductor lines as ``(columns, rows)`` of text (what the report and the app show).
+    Cuts: each run's conductors with slack and waste; pieces: boxes, reels and lengths cut, with
+    the fewest any packing could use beside them."""
     columns = ("Material", "Insulation", "Size", "Function", "Colour", "Net [ft]",
-               "With waste [ft]", "Order", "Left over [ft]")
+               "Cuts [ft]", "Order", "Offcut [ft]", "Pieces (fewest)")
     rows = tuple(
         (MATERIAL_NAMES.get(w.material, w.material), w.insulation, w.size, w.function, w.colour,
-         _num(w.net_ft), str(w.with_waste_ft), _order_text(w), str(w.left_over_ft))
+         _num(w.net_ft), str(w.with_waste_ft), _order_text(w), str(w.left_over_ft),
+         f"{len(w.pieces)} ({w.lower_bound_count})")
         for w in t.wire_lines
     )
     return columns, rows

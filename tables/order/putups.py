@@ -1,8 +1,10 @@
-"""Default put-ups: the lengths building wire is sold in, per conductor size.
+"""Default put-ups: the lengths building wire is sold in, per conductor size, and the sizes a
+supplier cuts to length.
 
-Common practice (supplier catalogues vary; a job lists its own): 500 ft boxes for the small
-branch-circuit sizes, 1,000 ft and 2,500 ft reels for them and for the larger sizes. These are
-job-editable defaults, not code. Lengths in [ft].
+Common practice (supplier catalogues vary; a job lists its own put-ups): 500 ft boxes for the
+small branch-circuit sizes, 1,000 ft and 2,500 ft reels for them and for the larger sizes; the
+feeder sizes, 8 AWG and larger, are also cut to the foot from the supplier's own reels, so a need
+shorter than a reel need not buy the reel. These are defaults, not code. Lengths in [ft].
 """
 
 from __future__ import annotations
@@ -20,6 +22,15 @@ REEL_SIZES: tuple[str, ...] = (
     "250 kcmil", "300 kcmil", "350 kcmil", "400 kcmil", "500 kcmil", "600 kcmil",
     "700 kcmil", "750 kcmil", "800 kcmil", "900 kcmil", "1000 kcmil",
 )
+
+#: Sizes a supplier cuts to length from its own reels (common practice: counter cuts of feeder
+#: sizes are routine; 14-10 AWG are sold by the box or reel). Sizes larger than 1000 kcmil are
+#: listed too: no put-up is listed for them, so they are always cut to length.
+CUT_SIZES: tuple[str, ...] = REEL_SIZES[REEL_SIZES.index("8 AWG"):] + (
+    "1250 kcmil", "1500 kcmil", "1750 kcmil", "2000 kcmil",
+)
+#: What an order calls a length cut from the supplier's reel.
+CUT_LABEL = "cut to length"
 
 
 @dataclass(frozen=True)

@@ -121,13 +121,14 @@ def test_html_material_list_has_the_hand_worked_quantities(page):
     header = wire[0]
     rows = [dict(zip(header, r)) for r in wire[1:]]
     blue = [r for r in rows if r["Size"] == "3/0 AWG" and r["Colour"] == "blue"]
-    # (150 + 4) x 2 = 308; x 1.10 -> 339; one 1,000 ft reel leaves 661
-    assert [(r["Net [ft]"], r["With waste [ft]"], r["Order"], r["Left over [ft]"]) for r in blue] \
-        == [("308.0", "339", "1 x 1,000 ft reel", "661")]
+    # (150 + 4) x 2 = 308; a cut per set of 154 x 1.10 = 169.4 -> 170 ft, 340 ft in all, less
+    # than a 1,000 ft reel: cut to length (common practice for 3/0 AWG), nothing left over
+    assert [(r["Net [ft]"], r["Cuts [ft]"], r["Order"], r["Offcut [ft]"], r["Pieces (fewest)"])
+            for r in blue] == [("308.0", "340", "340 ft cut to length", "0", "1 (1)")]
     fittings = {(r[0], r[1]): r[3] for r in parsed.tables["Fittings"][1:]}
     assert fittings["support", "PVC-40"] == "60"     # NEC Table 352.30
     footage = {r[1]: r[3] for r in parsed.tables["Conductor footage by size"][1:]}
-    assert footage == {"12 AWG": "357", "3 AWG": "339", "3/0 AWG": "1356"}
+    assert footage == {"12 AWG": "360", "3 AWG": "340", "3/0 AWG": "1360"}
 
 
 def test_html_has_a_bar_per_size_and_print_styles_and_fetches_nothing(page):

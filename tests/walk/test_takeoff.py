@@ -46,34 +46,39 @@ def test_footage_is_length_plus_slack_times_conductors_times_sets():
 
 
 def test_branch_conductors_add_up_per_colour(takeoff):
-    # B1: 60 + 2 + 2 = 64 ft; B2: 40 + 2 + 2 = 44 ft; per colour 64 + 44 = 108 ft
-    # waste 10 %: 108 x 1.10 = 118.8 -> 119 ft; one 500 ft box leaves 500 - 119 = 381 ft
+    # B1: 60 + 2 + 2 = 64 ft; B2: 40 + 2 + 2 = 44 ft; per colour 64 + 44 = 108 ft net
+    # each cut with 10 % waste, rounded up: 64 x 1.10 = 70.4 -> 71; 44 x 1.10 = 48.4 -> 49
+    # 71 + 49 = 120 ft on one 500 ft box, 500 - 120 = 380 ft offcut
     for function, colour in (("phase", "black"), ("neutral", "white"), ("EGC", "green")):
         line = _wire(takeoff, "12 AWG", function, colour)
         assert line.net_ft == 108.0
-        assert line.with_waste_ft == 119
-        assert [(p.label, p.count) for p in line.order] == [("500 ft box", 1)]
-        assert line.left_over_ft == 381
+        assert [(c.run_id, c.ft) for c in line.cuts] == [("B1", 71), ("B2", 49)]
+        assert line.with_waste_ft == 120
+        assert [(p.label, p.count, p.offcut_ft) for p in line.order] == [("500 ft box", 1, 380)]
+        assert line.left_over_ft == 380
         assert line.runs == ("B1", "B2")
 
 
 def test_parallel_feeder_counts_each_set(takeoff):
-    # F1 per conductor: (150 + 4) x 2 sets = 308 ft; x 1.10 = 338.8 -> 339 ft
-    # 3/0 AWG is not boxed (common practice): one 1,000 ft reel, 661 ft left over
+    # F1 per conductor: (150 + 4) x 2 sets = 308 ft net; one cut per set: 154 x 1.10 = 169.4
+    # -> 170 ft, two cuts = 340 ft. 3/0 AWG is cut to length by the supplier (common practice)
+    # and 340 ft is less than its shortest reel (1,000 ft): 340 ft cut, nothing left over
     for function, colour in (("phase", "black"), ("phase", "red"), ("phase", "blue"),
                              ("neutral", "white")):
         line = _wire(takeoff, "3/0 AWG", function, colour)
-        assert (line.net_ft, line.with_waste_ft, line.order_ft, line.left_over_ft) == (308, 339, 1000, 661)
+        assert (line.net_ft, line.with_waste_ft, line.order_ft, line.left_over_ft) == (308, 340, 340, 0)
+        assert [(c.run_id, c.set_no, c.ft) for c in line.cuts] == [("F1", 1, 170), ("F1", 2, 170)]
+        assert [(p.label, p.length_ft, p.count) for p in line.order] == [("cut to length", 340, 1)]
     # NEC 250.122(F): an EGC in each parallel raceway, at its own size: 154 x 2 = 308 ft of 4 AWG
     assert _wire(takeoff, "4 AWG", "EGC", "green").net_ft == 308
 
 
 def test_footage_by_size_sums_the_colours(takeoff):
     by_size = {(s.material, s.size): (s.net_ft, s.with_waste_ft) for s in takeoff.footage_by_size()}
-    # 12 AWG: 3 colours x 108 = 324 ft net, 3 x 119 = 357 ft with waste
-    # 3/0 AWG: 4 conductors x 308 = 1232 ft net, 4 x 339 = 1356 ft with waste
-    assert by_size == {("cu", "12 AWG"): (324.0, 357), ("cu", "4 AWG"): (308.0, 339),
-                       ("cu", "3/0 AWG"): (1232.0, 1356)}
+    # 12 AWG: 3 colours x 108 = 324 ft net, 3 x 120 = 360 ft of cuts
+    # 3/0 AWG: 4 conductors x 308 = 1232 ft net, 4 x 340 = 1360 ft of cuts
+    assert by_size == {("cu", "12 AWG"): (324.0, 360), ("cu", "4 AWG"): (308.0, 340),
+                       ("cu", "3/0 AWG"): (1232.0, 1360)}
     assert [s.size for s in takeoff.footage_by_size()] == ["12 AWG", "4 AWG", "3/0 AWG"]
 
 
@@ -118,7 +123,8 @@ def test_every_fitting_names_its_basis(takeoff):
 def test_assumptions_state_slack_waste_connectors_and_rules(takeoff):
     text = "\n".join(takeoff.assumptions)
     assert "2 ft slack at each end" in text
-    assert "Waste allowance 10 %" in text
+    assert "waste allowance of 10 %" in text
+    assert "Martello-Toth" in text and "cut to length" in text.lower()
     assert "2 at each end of each raceway" in text
     assert "NEC 250.122(F)" in text           # parallel EGC
     assert "NEC 310.10(G)(4)" in text         # one raceway per set
@@ -190,7 +196,8 @@ def test_a_size_with_no_put_up_is_cut_to_length():
     run = RunMaterial("R", 100.0, 1, "cu", "THHN/THWN-2", "1250 kcmil", ("black",))
     [line] = takeoff_from_runs([run], SETTINGS).wire_lines
     # (100 + 4) x 1.10 = 114.4 -> 115 ft, cut to length, nothing left over
-    assert (line.order, line.order_ft, line.left_over_ft) == ((), 115, 0)
+    assert [(p.label, p.length_ft, p.count) for p in line.order] == [("cut to length", 115, 1)]
+    assert (line.order_ft, line.left_over_ft) == (115, 0)
 
 
 def test_waste_rounds_up_to_whole_feet_without_float_noise():

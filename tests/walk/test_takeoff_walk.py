@@ -63,17 +63,19 @@ def test_walk_takeoff_worked_by_hand(computed):
     assert wire == {
         # B1 (60 + 2 + 2) + B2 (40 + 2 + 2) = 108 ft per conductor; 120 V circuits: one hot
         # (black, phase A; common practice), white neutral (NEC 200.6(A)), green EGC (NEC 250.119)
-        # waste 10 %: 118.8 -> 119 ft; one 500 ft box, 381 ft over
-        ("12 AWG", "phase", "black"): (108.0, 119, 500, 381),
-        ("12 AWG", "neutral", "white"): (108.0, 119, 500, 381),
-        ("12 AWG", "EGC", "green"): (108.0, 119, 500, 381),
-        # F1 "120+30" = 150 ft; (150 + 4) x 2 sets = 308 ft per conductor; x 1.10 = 338.8 -> 339
-        # one 1,000 ft reel each, 661 ft over; the EGC is in each raceway (NEC 250.122(F))
-        ("3 AWG", "EGC", "green"): (308.0, 339, 1000, 661),
-        ("3/0 AWG", "phase", "black"): (308.0, 339, 1000, 661),
-        ("3/0 AWG", "phase", "red"): (308.0, 339, 1000, 661),
-        ("3/0 AWG", "phase", "blue"): (308.0, 339, 1000, 661),
-        ("3/0 AWG", "neutral", "white"): (308.0, 339, 1000, 661),
+        # cuts with 10 % waste: 64 x 1.1 = 70.4 -> 71, 44 x 1.1 = 48.4 -> 49; 120 ft on one
+        # 500 ft box, 380 ft over
+        ("12 AWG", "phase", "black"): (108.0, 120, 500, 380),
+        ("12 AWG", "neutral", "white"): (108.0, 120, 500, 380),
+        ("12 AWG", "EGC", "green"): (108.0, 120, 500, 380),
+        # F1 "120+30" = 150 ft; (150 + 4) x 2 sets = 308 ft per conductor; a cut per set of
+        # 154 x 1.1 = 169.4 -> 170 ft, 340 ft; the EGC is in each raceway (NEC 250.122(F)).
+        # 3 AWG and 3/0 AWG are cut to length (common practice): 340 ft, nothing over
+        ("3 AWG", "EGC", "green"): (308.0, 340, 340, 0),
+        ("3/0 AWG", "phase", "black"): (308.0, 340, 340, 0),
+        ("3/0 AWG", "phase", "red"): (308.0, 340, 340, 0),
+        ("3/0 AWG", "phase", "blue"): (308.0, 340, 340, 0),
+        ("3/0 AWG", "neutral", "white"): (308.0, 340, 340, 0),
     }
     race = {(r.raceway, r.trade_size): (r.length_ft, r.sticks) for r in takeoff.raceway_lines}
     # EMT 60 + 40 = 100 ft = 10 sticks; PVC 150 x 2 raceways = 300 ft = 30 sticks
@@ -111,7 +113,7 @@ def test_csv_has_one_header_row_and_units_in_quantity_columns(capsys):
     black = [r for r in data if r["section"] == "wire" and r["size"] == "3/0 AWG"
              and r["colour"] == "black"]
     assert [(float(r["net_ft"]), int(r["quantity_ft"]), int(r["left_over_ft"])) for r in black] \
-        == [(308.0, 339, 661)]
+        == [(308.0, 340, 0)]
     supports = [r for r in data if r["item"] == "support" and r["raceway"] == "EMT"]
     assert int(supports[0]["quantity_each"]) == 12 and "358.30" in supports[0]["basis"]
     # the assumptions and the caution travel with the data, in rows of their own section
@@ -125,15 +127,15 @@ def test_json_carries_lines_assumptions_and_the_caution(capsys):
     data = json.loads(capsys.readouterr().out)
     assert data["caution"] == CAUTION
     sizes = {(s["size"], s["with_waste_ft"]) for s in data["footage_by_size"]}
-    # 12 AWG: 3 x 119; 3 AWG: 339; 3/0 AWG: 4 x 339
-    assert sizes == {("12 AWG", 357), ("3 AWG", 339), ("3/0 AWG", 1356)}
+    # 12 AWG: 3 x 120; 3 AWG: 340; 3/0 AWG: 4 x 340
+    assert sizes == {("12 AWG", 360), ("3 AWG", 340), ("3/0 AWG", 1360)}
     assert data["assumptions"]
 
 
 def test_text_output_shows_the_order_and_the_caution(capsys):
     assert gaugewalk(cmd_takeoff, [str(WALK)]) == 0
     out = capsys.readouterr().out
-    assert "1 x 1,000 ft reel" in out and "NEC 358.30(A)" in out
+    assert "1 x 500 ft box" in out and "NEC 358.30(A)" in out
     assert CAUTION in out
 
 
@@ -179,11 +181,13 @@ def test_put_ups_the_job_lists_are_the_ones_ordered(tmp_path):
     takeoff = build_takeoff(job, compute_job(job))
     order = {(w.size, w.colour): ([(p.label, p.count) for p in w.order], w.left_over_ft)
              for w in takeoff.wire_lines}
-    # 12 AWG: 119 ft -> one 250 ft coil, 131 ft over; 3 AWG: 339 ft -> two coils, 161 ft over
-    assert order["12 AWG", "black"] == ([("250 ft coil", 1)], 131)
-    assert order["3 AWG", "green"] == ([("250 ft coil", 2)], 161)
-    # 3/0 AWG: 339 ft -> one 400 ft reel, 61 ft over
-    assert order["3/0 AWG", "red"] == ([("cut reel", 1)], 61)
+    # 12 AWG: cuts 71 + 49 = 120 ft -> one 250 ft coil, 130 ft over
+    assert order["12 AWG", "black"] == ([("250 ft coil", 1)], 130)
+    # 3 AWG, cuts 170 + 170: one on a 250 ft coil (80 ft over), the other, shorter than the
+    # coil, cut to length (3 AWG is cut by the supplier, common practice)
+    assert order["3 AWG", "green"] == ([("250 ft coil", 1), ("cut to length", 1)], 80)
+    # 3/0 AWG: 340 ft in all is less than its 400 ft put-up: cut to length, nothing over
+    assert order["3/0 AWG", "red"] == ([("cut to length", 1)], 0)
     assert any("as the job lists them" in a and "250 ft coil (12 AWG, 3 AWG)" in a
                for a in takeoff.assumptions)
 

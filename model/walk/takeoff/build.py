@@ -8,16 +8,17 @@ makes and every assumption is listed in ``Takeoff.assumptions``.
 
 from __future__ import annotations
 
+import dataclasses
 from typing import Iterable
 
 from gaugewalk.model.walk.takeoff.fittings import count_raceway
 from gaugewalk.model.walk.takeoff.footage import (
-    FUNCTION_ORDER, phase_colours_for, wire_footage, with_waste,
+    FUNCTION_ORDER, phase_colours_for, wire_footage,
 )
 from gaugewalk.model.walk.takeoff.lines import (
     RunMaterial, Takeoff, TakeoffError, TakeoffSettings, WireLine,
 )
-from gaugewalk.model.walk.takeoff.packing import order_putups
+from gaugewalk.model.walk.takeoff.packing import EXACT_MAX_CUTS, pack_cuts
 from gaugewalk.tables.conductor.sizes import size_index
 from gaugewalk.tables.order import colours as colour_table
 from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, SOURCE as PUTUP_SOURCE, PutUp, putups_for
@@ -31,25 +32,37 @@ LARGE_MARKING_RULE = "NEC 200.6(B), 250.119(A), 210.5(C), 215.12(C)"
 def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = TakeoffSettings()) -> Takeoff:
     """The takeoff of the given runs: the pure core of ``build_takeoff``."""
     runs = list(runs)
-    wire_net, wire_runs = wire_footage(runs, settings.slack_per_end_ft)
+    wire_net, wire_cuts = wire_footage(runs, settings.slack_per_end_ft, settings.waste_pct)
     first_seen = {key: i for i, key in enumerate(wire_net)}  # phase colours stay in A, B, C order
     wire_lines = []
+    notes: list[str] = []
     for key in sorted(wire_net, key=lambda k: (k[0] != "cu", k[0], size_index(k[2]), k[1],
                                                FUNCTION_ORDER[k[3]], first_seen[k])):
         material, insulation, size, function, colour = key
-        net = wire_net[key]
-        need = with_waste(net, settings.waste_pct)
-        order, order_ft = order_putups(need, putups_for(size, settings.putups))
+        cuts = tuple(wire_cuts[key])
+        putups = putups_for(size, settings.putups)
+        packing = pack_cuts(cuts, putups, size in settings.cut_sizes)
+        if putups and size not in settings.cut_sizes:
+            longest = putups[-1]
+            notes += [
+                f"run {c.run_id}: its {size} {colour} {function} cut of {c.ft} ft is longer than "
+                f"a {longest.label}; ordered cut to length (ask the supplier, or plan a splice)"
+                for c in packing.too_long
+            ]
+        need = sum(c.ft for c in cuts)
+        order_ft = sum(p.length_ft for p in packing.pieces)
         wire_lines.append(WireLine(
-            material, insulation, size, function, colour, round(net, 1), settings.waste_pct, need,
-            order, order_ft, order_ft - need, tuple(wire_runs[key]),
+            material, insulation, size, function, colour, round(wire_net[key], 1),
+            settings.waste_pct, need, packing.order(), order_ft, order_ft - need,
+            tuple(dict.fromkeys(c.run_id for c in cuts)), cuts, packing.pieces,
+            packing.lower_bound_count, packing.lower_bound_offcut_ft, packing.method,
         ))
     race = count_raceway(runs, settings)
     return Takeoff(
         tuple(wire_lines), race.raceway_lines, race.fitting_lines,
         _assumptions(settings, race.families, any(r.sets > 1 for r in runs),
                      any(r.egc_size for r in runs), wire_lines),
-        tuple(race.warnings), settings,
+        tuple(notes + race.warnings), settings,
     )
 
 
@@ -70,10 +83,19 @@ def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.
         f"end) x conductors x parallel sets; slack per end is the job's setting (common practice).",
         "Conductors counted: every ungrounded conductor, the neutral where the circuit has one, "
         "and the EGC at its own size.",
-        f"Waste allowance {settings.waste_pct:g} % added to each line, rounded up to whole feet "
-        f"(the job's setting).",
-        "Put-ups chosen to leave the least over, then the fewest pieces; pieces are cut from any "
-        "put-up of the line. Put-up lengths: "
+        f"Each run's conductor is a cut, one per parallel set: route length plus slack, plus the "
+        f"waste allowance of {settings.waste_pct:g} % for measuring and pulling (the job's "
+        f"setting), rounded up to whole feet.",
+        "Cut lists: the cuts of each size, material, insulation, colour and function are packed "
+        "into put-ups to leave the least offcut, then the fewest pieces (best-fit decreasing with "
+        f"a choice of put-ups; an exact search for groups of up to {EXACT_MAX_CUTS} cuts). Beside "
+        "each line, the fewest pieces any packing could use (the Martello-Toth bound L2). The "
+        "pull list says which runs come off which piece.",
+        f"Cut to length: the supplier cuts {_size_span(settings.cut_sizes)} to the foot "
+        f"({PUTUP_SOURCE.split(' (')[0]}); a remainder shorter than the size's shortest put-up is "
+        "ordered cut to length rather than a box or reel, and a cut longer than every put-up is "
+        "cut to length on its own.",
+        "Put-up lengths: "
         + (PUTUP_SOURCE if settings.putups == DEFAULT_PUTUPS else "as the job lists them")
         + ": " + "; ".join(f"{p.label} ({_size_span(p.sizes)})" for p in settings.putups) + ".",
         "Phase colours are assigned in phase order A, B, C per circuit; balance them against the "
@@ -202,14 +224,8 @@ def build_takeoff(job, job_result) -> Takeoff:
     named in ``warnings``. Raises ``TakeoffError`` for a job setting it cannot use."""
     settings = settings_for(job)
     materials, left_out, scheme_sources = materials_from_job(job, job_result)
-    settings = TakeoffSettings(
-        settings.slack_per_end_ft, settings.waste_pct, settings.putups,
-        settings.connectors_per_end, scheme_sources,
-    )
+    settings = dataclasses.replace(settings, scheme_sources=scheme_sources)
     takeoff = takeoff_from_runs(materials, settings)
     if left_out:
-        takeoff = Takeoff(
-            takeoff.wire_lines, takeoff.raceway_lines, takeoff.fitting_lines,
-            takeoff.assumptions, tuple(left_out) + takeoff.warnings, settings,
-        )
+        takeoff = dataclasses.replace(takeoff, warnings=tuple(left_out) + takeoff.warnings)
     return takeoff

@@ -10,7 +10,7 @@ from __future__ import annotations
 import math
 from typing import Sequence
 
-from gaugewalk.model.walk.takeoff.lines import RunMaterial, TakeoffError
+from gaugewalk.model.walk.takeoff.lines import Cut, RunMaterial, TakeoffError
 from gaugewalk.tables.order import colours as colour_table
 
 #: A conductor line's key: (material, insulation, size, function, colour).
@@ -64,15 +64,21 @@ def conductors_of(run: RunMaterial) -> list[tuple[WireKey, int]]:
     return out
 
 
-def wire_footage(runs: Sequence[RunMaterial], slack_per_end_ft: float
-                 ) -> tuple[dict[WireKey, float], dict[WireKey, dict[str, None]]]:
-    """Net footage per conductor line [ft] and the run ids on each line, in walk order."""
+def wire_footage(runs: Sequence[RunMaterial], slack_per_end_ft: float, waste_pct: float
+                 ) -> tuple[dict[WireKey, float], dict[WireKey, list[Cut]]]:
+    """Net footage per conductor line [ft] and its cuts, one per run and parallel set, in walk
+    order. A cut is the route length plus slack at each end plus the waste allowance, rounded up
+    to whole feet (the allowance covers measuring and pulling; offcut is counted apart)."""
     net: dict[WireKey, float] = {}
-    ids: dict[WireKey, dict[str, None]] = {}
+    cuts: dict[WireKey, list[Cut]] = {}
     for run in runs:
         if run.length_ft < 0 or run.sets < 1:
             raise TakeoffError(f"run {run.run_id}: length and sets must be positive")
+        one = run.length_ft + 2.0 * slack_per_end_ft
+        ft = with_waste(one, waste_pct)
         for key, n in conductors_of(run):
-            net[key] = net.get(key, 0.0) + conductor_footage(run.length_ft, slack_per_end_ft, n, run.sets)
-            ids.setdefault(key, {})[run.run_id] = None
-    return net, ids
+            net[key] = net.get(key, 0.0) + one * n * run.sets
+            line = cuts.setdefault(key, [])
+            if ft > 0:
+                line += [Cut(run.run_id, s, ft) for s in range(1, run.sets + 1) for _ in range(n)]
+    return net, cuts

@@ -4,9 +4,10 @@ and what it gives back (``Takeoff`` with its conductor, raceway and fitting line
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import NamedTuple
 
 from gaugewalk.tables.conductor.sizes import size_index
-from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, SOURCE as PUTUP_SOURCE, PutUp
+from gaugewalk.tables.order.putups import CUT_SIZES, DEFAULT_PUTUPS, SOURCE as PUTUP_SOURCE, PutUp
 from gaugewalk.tables.raceway import install as raceway_install
 
 #: CSV columns of ``Takeoff.to_rows()``, in order. Quantities carry their unit in the name.
@@ -57,6 +58,7 @@ class TakeoffSettings:
     slack_per_end_ft: float = 2.0       # [ft] per conductor end (common practice)
     waste_pct: float = 5.0              # [%] offcut allowance (common practice)
     putups: tuple[PutUp, ...] = DEFAULT_PUTUPS
+    cut_sizes: tuple[str, ...] = CUT_SIZES  # sizes the supplier cuts to length
     connectors_per_end: int = raceway_install.CONNECTORS_PER_END
     scheme_sources: tuple[str, ...] = ()  # the colour rules the runs used, for the assumptions
 
@@ -67,9 +69,40 @@ class TakeoffSettings:
 
 @dataclass(frozen=True)
 class PutUpCount:
+    """One order line of a conductor: so many pieces of one put-up (or one length cut)."""
+
     label: str
-    length_ft: int      # [ft] of one put-up
+    length_ft: int      # [ft] of one put-up, or of the length cut
     count: int
+    offcut_ft: int = 0  # [ft] left on these pieces once their cuts are made
+
+
+class Cut(NamedTuple):
+    """One conductor of one run and parallel set, as it is cut from a piece."""
+
+    run_id: str
+    set_no: int         # 1 to the run's parallel sets
+    ft: int             # [ft] route + slack at each end + waste allowance, rounded up
+
+
+@dataclass(frozen=True)
+class Piece:
+    """One box, reel or length cut to length, and the cuts that come off it."""
+
+    label: str                  # the put-up's label, or ``CUT_LABEL``
+    length_ft: int              # [ft] the put-up's length, or the length cut
+    cuts: tuple[Cut, ...]
+    cut_to_length: bool = False
+
+    @property
+    def used_ft(self) -> int:
+        """Feet cut from the piece [ft]."""
+        return sum(c.ft for c in self.cuts)
+
+    @property
+    def offcut_ft(self) -> int:
+        """Feet left on the piece [ft]."""
+        return self.length_ft - self.used_ft
 
 
 @dataclass(frozen=True)
@@ -83,11 +116,16 @@ class WireLine:
     colour: str
     net_ft: float                   # [ft] sum over runs of (length + 2 slack) x conductors x sets
     waste_pct: float                # [%]
-    with_waste_ft: int              # [ft] net plus waste, rounded up
-    order: tuple[PutUpCount, ...]   # empty: no put-up listed for the size (cut to length)
-    order_ft: int                   # [ft] what the put-ups add up to (or cut length)
-    left_over_ft: int               # [ft] order_ft - with_waste_ft
+    with_waste_ft: int              # [ft] the cuts added up: each net plus waste, rounded up
+    order: tuple[PutUpCount, ...]   # pieces per put-up, then each length cut to length
+    order_ft: int                   # [ft] what the pieces add up to
+    left_over_ft: int               # [ft] offcut: order_ft - with_waste_ft
     runs: tuple[str, ...]           # run ids contributing
+    cuts: tuple[Cut, ...] = ()      # one per run and parallel set, in walk order
+    pieces: tuple[Piece, ...] = ()  # the pull list: which cuts come off which piece
+    lower_bound_count: int = 0      # fewest pieces any packing of the cuts could use
+    lower_bound_offcut_ft: int = 0  # [ft] least offcut any packing could leave
+    packing: str = ""               # how the pieces were found
 
 
 @dataclass(frozen=True)
