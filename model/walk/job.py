@@ -49,6 +49,7 @@ from gaugewalk.model.engine.circuits import CircuitError, parse_system
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.ampacity import parse_insulation
 from gaugewalk.tables.raceway.fill import parse_raceway
+from gaugewalk.tables.raceway.install import PULL_EVERY_FT
 from gaugewalk.tables.conductor.sizes import parse_size
 
 SCHEMA_VERSION = 1
@@ -175,7 +176,11 @@ class Defaults(_Strict):
     slack_per_end_ft: float = Field(2.0, ge=0.0, le=50.0)
     """Wire left at each end for terminations [ft] (common practice), for the takeoff."""
     waste_pct: float = Field(5.0, ge=0.0, le=100.0)
-    """Allowance for offcuts [%] (common practice), for the takeoff."""
+    """Allowance on each conductor cut for measuring and pulling [%] (common practice), for the
+    takeoff."""
+    pull_every_ft: float = Field(PULL_EVERY_FT, ge=0.0, le=10_000.0)
+    """A pull point (conduit body or pull box) on a long run at least this often [ft] (common
+    practice: about every 100 ft); 0: only where bends need one (NEC 358.26 and kin)."""
     colour_scheme: str = "common"
     """Conductor colours for the takeoff. ``common``: black/red/blue on 120/240 V and 208Y/120 V,
     brown/orange/yellow on 480Y/277 V and 480 V, white or grey neutrals, green EGC (common

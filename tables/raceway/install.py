@@ -18,10 +18,22 @@ from gaugewalk.tables.raceway.fill import parse_raceway
 #: (common practice for a rough count: the termination plus one more, e.g. at a pull box,
 #: conduit body or transition along the way). A job-level number, not code.
 CONNECTORS_PER_END = 2
-#: Degrees between pull points (NEC 358.26, 344.26, 342.26, 352.26, 362.26, 348.26, 350.26, 356.26).
+#: Most degrees of bends between pull points: the equivalent of four quarter bends. The same rule
+#: in each raceway article's "Bends - Number in One Run" section: NEC 342.26 (IMC), 344.26 (RMC),
+#: 348.26 (FMC), 350.26 (LFMC), 352.26 (PVC), 353.26 (HDPE), 356.26 (LFNC), 358.26 (EMT),
+#: 362.26 (ENT); each family's section is ``InstallRule.bends_section``.
 MAX_BEND_DEGREES = 360
 #: Degrees per recorded bend: each bend counted as one 90-degree elbow (common practice).
 DEGREES_PER_BEND = 90
+#: A pull point on a long run at least this often [ft] (common practice: about every 100 ft of
+#: straight run keeps the pulling tension and the pull itself manageable); the job may set its own.
+PULL_EVERY_FT = 100.0
+#: Largest trade size whose pull points are conduit bodies; larger raceways get pull boxes
+#: (common practice: conduit bodies are stocked and used up to about trade size 2).
+CONDUIT_BODY_LARGEST_TRADE_SIZE = 2.0
+#: Sizing of pull boxes for conductors 4 AWG and larger.
+PULL_BOX_SIZING_RULE = ("NEC 314.28(A): for conductors 4 AWG and larger, a straight-pull box at "
+                        "least 8 x the trade size long, an angle pull 6 x")
 
 
 @dataclass(frozen=True)
@@ -45,6 +57,17 @@ class InstallRule:
     spacing: tuple[Spacing, ...]    # by trade size, ascending
     support_source: str             # the section(s) the end distance and spacing come from
     bends_section: str              # the xxx.26 section limiting bends between pull points
+    conduit_bodies: bool = True     # pull points may be conduit bodies (False: boxes, handholes)
+
+    def pull_point(self, trade_size: str) -> str:
+        """What a pull point is at ``trade_size``: a conduit body up to
+        ``CONDUIT_BODY_LARGEST_TRADE_SIZE``, a pull box above it (common practice); on raceway
+        laid underground, a pull box or handhole."""
+        if not self.conduit_bodies:
+            return "pull box or handhole"
+        if trade_size_value(trade_size) <= CONDUIT_BODY_LARGEST_TRADE_SIZE + 1e-9:
+            return "conduit body"
+        return "pull box"
 
     def max_spacing_ft(self, trade_size: str) -> float | None:
         """Largest distance between supports for ``trade_size`` [ft]; None: no supports counted."""
@@ -126,7 +149,7 @@ RULES: dict[str, InstallRule] = {
             "HDPE", "NEC Article 353", None, "sold in coils and reels (common practice)", False,
             0.0, (),
             "none counted: HDPE is installed underground or encased (NEC 353.10)",
-            "NEC 353.26",
+            "NEC 353.26", conduit_bodies=False,
         ),
         InstallRule(
             "FMC", "NEC Article 348", None, "sold in coils (common practice)", False,

@@ -110,6 +110,9 @@ def test_fittings_worked_by_hand(takeoff):
         ("support", "PVC-40", "2"): 60,
         # 3 bends x 2 raceways
         ("90-degree elbow", "PVC-40", "2"): 6,
+        # 150 ft > 100 ft (pull point every 100 ft, common practice): 2 stretches, 1 pull point
+        # per raceway, x 2 raceways; trade size 2 takes a conduit body (common practice)
+        ("conduit body", "PVC-40", "2"): 2,
     }
 
 
@@ -144,12 +147,49 @@ def test_rigid_conduit_lists_no_loose_couplings():
     assert t.raceway_lines[0].sticks == 10
 
 
-def test_more_than_four_bends_is_flagged_with_the_article():
-    # NEC 358.26: at most 360 degrees of bends between pull points
+def test_more_than_four_bends_get_a_pull_point_and_a_warning_with_the_article():
+    # NEC 358.26: at most 360 degrees of bends between pull points; 5 x 90 = 450 degrees
     run = RunMaterial("R9", 80.0, 1, "cu", "THHN/THWN-2", "12 AWG", ("black",),
                       neutral_size="12 AWG", raceway="EMT", raceway_size="1/2", bends=5)
     t = takeoff_from_runs([run], SETTINGS)
-    assert any("R9" in w and "NEC 358.26" in w and "450 degrees" in w for w in t.warnings)
+    assert any("R9" in w and "NEC 358.26" in w and "450 degrees" in w and "1 pull point" in w
+               for w in t.warnings)
+    assert {f.item: f.count for f in t.fitting_lines}["conduit body"] == 1
+
+
+@pytest.mark.parametrize(("bends", "length", "every", "expected"), [
+    # NEC 358.26 and kin: 4 quarter bends (360 degrees) between pull points
+    (4, 80.0, 100.0, (0, 0)),
+    (5, 80.0, 100.0, (1, 1)),
+    (8, 80.0, 100.0, (1, 1)),     # 4 + 4
+    (9, 80.0, 100.0, (2, 2)),     # 4 + 4 + 1
+    # every 100 ft (common practice): 100 ft is one stretch, 100.5 ft two, 250 ft three
+    (0, 100.0, 100.0, (0, 0)),
+    (0, 100.5, 100.0, (1, 0)),
+    (0, 250.0, 100.0, (2, 0)),
+    # both: 3 stretches for length, 2 for bends; one set of pull points serves both
+    (6, 250.0, 100.0, (2, 1)),
+    # 0: no length limit
+    (0, 900.0, 0.0, (0, 0)),
+])
+def test_pull_points_by_bends_and_by_length(bends, length, every, expected):
+    from gaugewalk.model.walk.takeoff.fittings import pull_points_for
+
+    assert pull_points_for(bends, length, every) == expected
+
+
+def test_pull_points_are_conduit_bodies_up_to_trade_size_2_and_boxes_above():
+    # common practice; a pull box is sized by NEC 314.28(A) for 4 AWG and larger
+    def items(raceway, size):
+        run = RunMaterial("R", 180.0, 1, "cu", "THHN/THWN-2", "250 kcmil", ("black", "red", "blue"),
+                          raceway=raceway, raceway_size=size)
+        return {f.item: f for f in takeoff_from_runs([run], SETTINGS).fitting_lines}
+
+    assert items("EMT", "2")["conduit body"].count == 1
+    box = items("EMT", "2-1/2")["pull box"]
+    assert box.count == 1 and "NEC 314.28(A)" in box.basis and "NEC 358.26" in box.basis
+    # HDPE is laid underground (NEC 353.10): no conduit bodies
+    assert items("HDPE", "2")["pull box or handhole"].count == 1
 
 
 def test_a_run_whose_conductors_fit_no_raceway_is_left_out_and_said_so():

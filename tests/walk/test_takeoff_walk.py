@@ -90,6 +90,8 @@ def test_walk_takeoff_worked_by_hand(computed):
         ("connector", "PVC-40"): 8,      # 2 x 2 x 2
         ("support", "PVC-40"): 60,       # NEC Table 352.30, 2 in: 5 ft; (ceil(144/5) + 1) x 2
         ("90-degree elbow", "PVC-40"): 6,  # F1 bends = 3, x 2 raceways
+        # F1 150 ft: a pull point past 100 ft (common practice), x 2 raceways; trade size 2
+        ("conduit body", "PVC-40"): 2,
     }
     assert takeoff.warnings == ()
 
@@ -200,3 +202,25 @@ def test_a_put_up_with_an_unknown_size_is_refused_with_its_field(tmp_path, capsy
     assert gaugewalk(cmd_takeoff, [str(bad)]) == 2
     err = capsys.readouterr().err
     assert "putups" in err and "5 AWG" in err and err.count("\n") == 1
+
+
+def test_the_pull_point_spacing_is_a_job_setting(tmp_path, capsys):
+    from gaugewalk.model.walkfile.store import loads_walk
+
+    def conduit_bodies(setting: str) -> int:
+        text = WALK.read_text(encoding="utf-8").replace("waste_pct = 10.0",
+                                                        f"waste_pct = 10.0\n{setting}")
+        job = loads_walk(text, "pulls.toml")
+        t = build_takeoff(job, compute_job(job))
+        return sum(f.count for f in t.fitting_lines if f.item == "conduit body")
+
+    # F1 is 150 ft in two raceways, 3 bends (within NEC 352.26's 360 degrees)
+    assert conduit_bodies("") == 2                       # default 100 ft: one each
+    assert conduit_bodies("pull_every_ft = 60") == 4     # 150 / 60 -> 3 stretches, 2 each
+    assert conduit_bodies("pull_every_ft = 0") == 0      # bends only
+    bad = tmp_path / "bad.toml"
+    bad.write_text(WALK.read_text(encoding="utf-8").replace(
+        "waste_pct = 10.0", "waste_pct = 10.0\npull_every_ft = -5"), encoding="utf-8")
+    assert gaugewalk(cmd_takeoff, [str(bad)]) == 2
+    err = capsys.readouterr().err
+    assert "pull_every_ft" in err and err.count("\n") == 1

@@ -120,6 +120,15 @@ def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.
         )
         out.append("Elbows: one 90-degree elbow of the raceway's trade size per bend recorded on "
                    "the walk (small EMT is often bent in the field instead).")
+        every = (f" and every {settings.pull_every_ft:g} ft of run (the job's setting; common "
+                 "practice)" if settings.pull_every_ft > 0 else "")
+        out.append(
+            "Pull points: where the bends between pull points would pass "
+            f"{raceway_install.MAX_BEND_DEGREES} degrees (the xxx.26 section of each raceway's "
+            f"article){every}, the bends assumed shared out so one pull point serves both; "
+            "conduit bodies up to trade size "
+            f"{raceway_install.CONDUIT_BODY_LARGEST_TRADE_SIZE:g}, pull boxes above (common "
+            "practice). Their connectors are within the two per end counted.")
     for family in sorted(families):
         rule = families[family]
         sticks = (f"{rule.stick_source}" if rule.stick_ft is not None else rule.stick_source)
@@ -159,6 +168,7 @@ def settings_for(job) -> TakeoffSettings:
               if listed is not None else DEFAULT_PUTUPS)
     return TakeoffSettings(
         slack_per_end_ft=d.slack_per_end_ft,
+        pull_every_ft=d.pull_every_ft,
         waste_pct=d.waste_pct,
         putups=putups,
     )

@@ -2,11 +2,13 @@
 
 Raceway is counted per type and trade size from each run's raceway sizing, one raceway per
 parallel set (NEC 310.10(G)(4)); sticks, couplings, connectors, supports (the xxx.30 section of
-the raceway's article) and elbows (one per recorded 90-degree bend) follow from it.
+the raceway's article), elbows (one per recorded 90-degree bend) and pull points (conduit bodies
+or pull boxes, ``pull_points_for``) follow from it.
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 from functools import lru_cache
 from typing import Sequence
@@ -14,7 +16,8 @@ from typing import Sequence
 from gaugewalk.model.walk.takeoff.lines import FittingLine, RacewayLine, RunMaterial, TakeoffSettings
 from gaugewalk.tables.raceway import install as raceway_install
 
-ITEM_ORDER = {"coupling": 0, "connector": 1, "support": 2, "90-degree elbow": 3}
+ITEM_ORDER = {"coupling": 0, "connector": 1, "support": 2, "90-degree elbow": 3,
+              "conduit body": 4, "pull box": 4, "pull box or handhole": 4}
 
 
 @dataclass
@@ -25,6 +28,32 @@ class RacewayCount:
     fitting_lines: tuple[FittingLine, ...]
     families: dict[str, raceway_install.InstallRule] = field(default_factory=dict)
     warnings: list[str] = field(default_factory=list)
+
+
+def pull_points_for(bends: int, length_ft: float, every_ft: float) -> tuple[int, int]:
+    """Pull points one raceway needs, and how many of them the bends alone need.
+
+    Enough that no stretch between pull points (or the ends) holds more than
+    ``MAX_BEND_DEGREES`` of bends, 90 degrees per recorded bend (NEC 342.26, 344.26, 348.26,
+    350.26, 352.26, 353.26, 356.26, 358.26, 362.26), or is longer than ``every_ft`` [ft] (the
+    job's setting, common practice; 0: no length limit). Assumes the bends can be shared out so
+    that one pull point serves both limits."""
+    per_stretch = raceway_install.MAX_BEND_DEGREES // raceway_install.DEGREES_PER_BEND
+    by_bends = -(-bends // per_stretch) if bends > 0 else 1
+    by_length = math.ceil(round(length_ft / every_ft, 9)) if every_ft > 0 and length_ft > 0 else 1
+    return max(1, by_bends, by_length) - 1, max(0, by_bends - 1)
+
+
+def _pull_basis(rule: raceway_install.InstallRule, kind: str, settings: TakeoffSettings) -> str:
+    every = (f" or every {settings.pull_every_ft:g} ft of run (the job's setting; common practice)"
+             if settings.pull_every_ft > 0 else "")
+    text = (f"a pull point where the bends between pull points would pass "
+            f"{raceway_install.MAX_BEND_DEGREES} degrees ({rule.bends_section}){every}; "
+            f"conduit bodies up to trade size {raceway_install.CONDUIT_BODY_LARGEST_TRADE_SIZE:g}, "
+            f"pull boxes above (common practice)")
+    if kind != "conduit body":
+        text += f"; size boxes by {raceway_install.PULL_BOX_SIZING_RULE}"
+    return text
 
 
 @lru_cache(maxsize=256)
@@ -84,14 +113,18 @@ def count_raceway(runs: Sequence[RunMaterial], settings: TakeoffSettings) -> Rac
         if run.bends:
             add_fitting("90-degree elbow", *key, run.bends * run.sets,
                         "one per 90-degree bend recorded on the walk")
+        points, for_bends = pull_points_for(run.bends, run.length_ft, settings.pull_every_ft)
+        if points:
+            kind = rule.pull_point(run.raceway_size)
+            add_fitting(kind, *key, points * run.sets, _pull_basis(rule, kind, settings))
+        if for_bends:
             degrees = run.bends * raceway_install.DEGREES_PER_BEND
-            if degrees > raceway_install.MAX_BEND_DEGREES:
-                warnings.append(
-                    f"run {run.run_id}: {run.bends} bends ({degrees} degrees) exceed "
-                    f"{raceway_install.MAX_BEND_DEGREES} degrees between pull points "
-                    f"({rule.bends_section}) unless a pull point (box or conduit body) "
-                    f"breaks the route"
-                )
+            warnings.append(
+                f"run {run.run_id}: {run.bends} bends ({degrees} degrees) pass "
+                f"{raceway_install.MAX_BEND_DEGREES} degrees between pull points "
+                f"({rule.bends_section}); {for_bends} pull point(s) counted, to be placed "
+                f"between the bends"
+            )
 
     raceway_lines = []
     for key in sorted(race_len, key=race_sort):

@@ -59,6 +59,7 @@ class TakeoffSettings:
     waste_pct: float = 5.0              # [%] offcut allowance (common practice)
     putups: tuple[PutUp, ...] = DEFAULT_PUTUPS
     cut_sizes: tuple[str, ...] = CUT_SIZES  # sizes the supplier cuts to length
+    pull_every_ft: float = raceway_install.PULL_EVERY_FT  # [ft] pull point on long runs; 0: none
     connectors_per_end: int = raceway_install.CONNECTORS_PER_END
     scheme_sources: tuple[str, ...] = ()  # the colour rules the runs used, for the assumptions
 
@@ -143,9 +144,10 @@ class RacewayLine:
 
 @dataclass(frozen=True)
 class FittingLine:
-    """Couplings, connectors, supports or elbows for one raceway type and trade size."""
+    """Couplings, connectors, supports, elbows or pull points for one raceway type and trade size."""
 
-    item: str                       # "coupling" | "connector" | "support" | "90-degree elbow"
+    item: str                       # "coupling", "connector", "support", "90-degree elbow",
+                                    # "conduit body", "pull box", "pull box or handhole"
     raceway: str
     trade_size: str
     count: int

@@ -34,6 +34,7 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
     ("conductor_temp_c", "Conductor °C", "for resistance, Ch. 9 Table 8"),
     ("slack_per_end_ft", "Slack/end ft", "for the takeoff"),
     ("waste_pct", "Waste %", "for the takeoff"),
+    ("pull_every_ft", "Pull point ft", "on long runs; 0: for bends only"),
 )
 
 
