@@ -62,7 +62,9 @@ class Report:
     summary: tuple[tuple[str, str], ...]        # (label, value): runs, runs with problems...
     footage: tuple[SizeFootage, ...]
     takeoff: Takeoff
-    wire_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]      # (columns, rows)
+    order_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]     # (columns, rows)
+    wire_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
+    pull_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
     raceway_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
     fitting_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
     assumptions: tuple[str, ...]
@@ -178,7 +180,9 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         summary=summary,
         footage=takeoff.footage_by_size(),
         takeoff=takeoff,
+        order_table=order_table_of(takeoff),
         wire_table=wire_table_of(takeoff),
+        pull_table=pull_table_of(takeoff),
         raceway_table=raceway_table_of(takeoff),
         fitting_table=fitting_table_of(takeoff),
         assumptions=takeoff.assumptions,
@@ -222,3 +226,77 @@ def fitting_table_of(t: Takeoff):
     columns = ("Item", "Raceway", "Trade size", "Count", "Basis")
     rows = tuple((f.item, f.raceway, f.trade_size, str(f.count), f.basis) for f in t.fitting_lines)
     return columns, rows
+
+
+def order_table_of(t: Takeoff, priced=None):
+    """The order as ``(columns, rows)`` of text: one row per orderable item; with ``priced`` (a
+    ``gaugewalk.model.walk.takeoff.prices.PricedOrder``) the unit price and cost of each."""
+    from gaugewalk.model.walk.takeoff.prices import money
+
+    columns = ("Item", "Description", "Quantity", "Unit")
+    if priced is not None:
+        columns += ("Unit price", "Cost")
+    rows = []
+    for i, line in enumerate(t.order_lines):
+        row = (line.item, line.description, f"{line.quantity:,}", line.unit)
+        if priced is not None:
+            p = priced.lines[i]
+            row += (money(p.unit_price) or "no price", money(p.cost))
+        rows.append(row)
+    return columns, tuple(rows)
+
+
+def priced_summary(priced) -> tuple[str, ...]:
+    """The total of a priced order and the items with no price, as sentences."""
+    out = [f"Total of the priced lines: {priced.total_cost:,.2f}"]
+    if priced.unpriced:
+        out.append(f"No price for {len(priced.unpriced)} item(s): "
+                   + "; ".join(f"{u.item} ({u.description})" for u in priced.unpriced))
+    return tuple(out)
+
+
+@dataclass(frozen=True)
+class PullGroup:
+    """The pull list of one conductor line: its pieces and the runs cut from each."""
+
+    conductor: str                              # e.g. "12 AWG copper THHN/THWN-2, black (phase)"
+    pieces: tuple[tuple[str, str, str], ...]    # (piece, offcut [ft], runs with their cuts [ft])
+
+
+def _conductor_text(w: WireLine) -> str:
+    material = MATERIAL_NAMES.get(w.material, w.material)
+    if w.insulation == "bare":
+        return f"{w.size} bare {material} ({w.function})"
+    return f"{w.size} {material} {w.insulation}, {w.colour} ({w.function})"
+
+
+def pull_list_of(t: Takeoff, runs_per_piece: int | None = None) -> tuple[PullGroup, ...]:
+    """Which runs come off which piece, per conductor line, pieces numbered from 1. A run in
+    parallel sets names the set. ``runs_per_piece`` shortens long lists ("and 12 more")."""
+    out = []
+    for w in t.wire_lines:
+        parallel = {c.run_id for c in w.cuts if c.set_no > 1}
+        pieces = []
+        for n, p in enumerate(w.pieces, 1):
+            names = [f"{c.run_id}{f' (set {c.set_no})' if c.run_id in parallel else ''} {c.ft}"
+                     for c in p.cuts]
+            if runs_per_piece is not None and len(names) > runs_per_piece:
+                names = names[:runs_per_piece] + [f"and {len(p.cuts) - runs_per_piece} more"]
+            label = (f"{p.length_ft:,} ft {p.label}" if p.cut_to_length
+                     else f"{p.label}")
+            pieces.append((f"{n}: {label}", str(p.offcut_ft), ", ".join(names)))
+        out.append(PullGroup(_conductor_text(w), tuple(pieces)))
+    return tuple(out)
+
+
+PULL_COLUMNS = ("Conductor", "Piece", "Offcut [ft]", "Runs and cuts [ft]")
+
+
+def pull_table_of(t: Takeoff, runs_per_piece: int | None = None):
+    """The pull list as ``(columns, rows)`` of text, the conductor named on its first piece."""
+    rows = tuple(
+        (g.conductor if i == 0 else "", piece, offcut, runs)
+        for g in pull_list_of(t, runs_per_piece)
+        for i, (piece, offcut, runs) in enumerate(g.pieces)
+    )
+    return PULL_COLUMNS, rows

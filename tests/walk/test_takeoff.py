@@ -270,14 +270,24 @@ def test_more_hots_than_the_scheme_has_colours_is_refused():
         phase_colours_for(colours.scheme("120/240"), 3, False)
 
 
-def test_rows_have_one_quantity_per_unit_and_no_totals(takeoff):
+def test_order_rows_are_one_per_item_with_a_unit_and_no_totals(takeoff):
     rows = takeoff.to_rows()
-    assert all(set(r) == set(rows[0]) for r in rows)
-    assert not any("total" in str(r["item"]).lower() for r in rows)
-    wire = [r for r in rows if r["section"] == "wire"]
-    assert len(wire) == len(takeoff.wire_lines)
-    boxes = [r for r in rows if r["section"] == "wire order" and r["item"] == "500 ft box"]
-    assert [r["quantity_each"] for r in boxes] == [1, 1, 1]
+    assert all(tuple(r) == ("item", "description", "quantity", "unit") for r in rows)
+    assert not any("total" in str(r["item"] + r["description"]).lower() for r in rows)
+    assert len({r["item"] for r in rows}) == len(rows)            # each item once
+    by_item = {r["item"]: r for r in rows}
+    # one 500 ft box of each 12 AWG colour
+    boxes = [r for r in rows if r["unit"] == "box"]
+    assert [(r["item"], r["quantity"]) for r in boxes] == [
+        ("CU.12AWG.THHN/THWN-2.BLACK.BOX500", 1), ("CU.12AWG.THHN/THWN-2.WHITE.BOX500", 1),
+        ("CU.12AWG.THHN/THWN-2.GREEN.BOX500", 1)]
+    # 3/0 AWG cut to length, by the foot: 2 cuts of 170 ft
+    assert (by_item["CU.3/0AWG.THHN/THWN-2.RED.CUT"]["quantity"],
+            by_item["CU.3/0AWG.THHN/THWN-2.RED.CUT"]["unit"]) == (340, "ft")
+    # EMT 1/2 by the foot in whole 10 ft lengths: 100 ft; PVC-40 2: 300 ft
+    assert (by_item["EMT.1/2.10FT"]["quantity"], by_item["EMT.1/2.10FT"]["unit"]) == (100, "ft")
+    assert by_item["PVC-40.2.10FT"]["description"] == "PVC-40, trade size 2, 10 ft lengths"
+    assert (by_item["EMT.1/2.SUPPORT"]["quantity"], by_item["EMT.1/2.SUPPORT"]["unit"]) == (12, "each")
 
 
 # --- put-up search against brute force ---------------------------------------------------------

@@ -101,26 +101,26 @@ def test_colour_rules_are_cited_in_the_assumptions(computed):
     assert "NEC 200.6" in text and "NEC 250.119" in text and "common practice" in text
 
 
-def test_csv_has_one_header_row_and_units_in_quantity_columns(capsys):
+def test_csv_is_an_order_a_supplier_takes(capsys):
     assert gaugewalk(cmd_takeoff, [str(WALK), "--csv"]) == 0
-    out = capsys.readouterr().out
+    captured = capsys.readouterr()
+    out = captured.out
     rows = list(csv.reader(io.StringIO(out)))
-    assert tuple(rows[0]) == ROW_FIELDS
-    assert "quantity_ft" in rows[0] and "quantity_each" in rows[0]
-    # only the first row is a header
-    assert sum(1 for r in rows if tuple(r) == ROW_FIELDS) == 1
+    assert tuple(rows[0]) == ROW_FIELDS == ("item", "description", "quantity", "unit")
+    assert sum(1 for r in rows if tuple(r) == ROW_FIELDS) == 1      # one header row
     assert all(len(r) == len(ROW_FIELDS) for r in rows)
     data = list(csv.DictReader(io.StringIO(out)))
-    assert not any("total" in (r["item"] + r["section"]).lower() for r in data)
-    black = [r for r in data if r["section"] == "wire" and r["size"] == "3/0 AWG"
-             and r["colour"] == "black"]
-    assert [(float(r["net_ft"]), int(r["quantity_ft"]), int(r["left_over_ft"])) for r in black] \
-        == [(308.0, 340, 0)]
-    supports = [r for r in data if r["item"] == "support" and r["raceway"] == "EMT"]
-    assert int(supports[0]["quantity_each"]) == 12 and "358.30" in supports[0]["basis"]
-    # the assumptions and the caution travel with the data, in rows of their own section
-    assert any(r["section"] == "assumption" and "slack" in r["basis"] for r in data)
-    assert [r["basis"] for r in data if r["section"] == "caution"] == [CAUTION]
+    assert not any("total" in (r["item"] + r["description"]).lower() for r in data)
+    assert {r["unit"] for r in data} == {"box", "ft", "each"}
+    by_item = {r["item"]: r for r in data}
+    # 3/0 AWG black: two cuts of (150 + 4) x 1.10 -> 170 ft, cut to length
+    assert by_item["CU.3/0AWG.THHN/THWN-2.BLACK.CUT"] == {
+        "item": "CU.3/0AWG.THHN/THWN-2.BLACK.CUT",
+        "description": "3/0 AWG copper THHN/THWN-2, black, cut to length",
+        "quantity": "340", "unit": "ft"}
+    assert by_item["EMT.1/2.SUPPORT"]["quantity"] == "12"           # NEC 358.30(A)
+    # the caution goes with it, on stderr, so the order stays clean
+    assert CAUTION in captured.err
     check_golden("takeoff_walk.csv", out)
 
 

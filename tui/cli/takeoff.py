@@ -1,9 +1,12 @@
-"""``gaugewalk takeoff FILE [--csv | --json]``: the rough material list of a walk.
+"""``gaugewalk takeoff FILE [--csv | --json] [--prices PRICES.csv]``: the material list of a walk.
 
-Without an option: aligned text for people. ``--csv``: one header row, a column per attribute,
-quantities in ``quantity_ft`` / ``quantity_each`` (unit in the name), no totals rows; the
-assumptions, warnings and the caution follow as rows of their own ``section`` with the text in
-``basis``. ``--json``: everything, nested.
+Without an option: aligned text for people: the order, the conductor lines with their cut lists,
+the pull list, raceway, fittings, warnings and assumptions. ``--csv``: the order in the shape a
+supplier takes, one row per orderable item (``item``, ``description``, ``quantity``, ``unit``),
+no totals rows; the warnings and the caution go to stderr. ``--json``: everything, nested.
+``--prices FILE`` puts the user's unit prices against the order (unit price and cost per line, a
+total and the items with no price); a price file that cannot be used stops the command (exit 2)
+before anything is written.
 """
 
 from __future__ import annotations
@@ -15,18 +18,25 @@ import os
 import sys
 from pathlib import Path
 
-from gaugewalk.model.walk.takeoff import ROW_FIELDS, Takeoff, TakeoffError, build_takeoff
+from gaugewalk.model.walk.takeoff import (
+    PRICED_FIELDS, ROW_FIELDS, Takeoff, TakeoffError, build_takeoff,
+)
 from gaugewalk.tui.cli.main import CAUTION, UsageError
 
 NAME = "takeoff"
-HELP = "List the conductors, raceway and fittings a walk needs (rough takeoff)."
+HELP = "List the order, cut lists, raceway and fittings a walk needs (rough takeoff)."
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("file", metavar="FILE", help="walk file (.toml)")
     form = parser.add_mutually_exclusive_group()
-    form.add_argument("--csv", action="store_true", help="write CSV for a spreadsheet")
+    form.add_argument("--csv", action="store_true",
+                      help="write the order as CSV: item, description, quantity, unit")
     form.add_argument("--json", action="store_true", help="write JSON")
+    parser.add_argument(
+        "--prices", metavar="PRICES.csv",
+        help="your unit prices, one a line: item or description, unit_price[, unit] "
+             "(unit: ft, C, M, each, box, reel, ...); adds cost per line and a total")
 
 
 def load_computed(path: str):
@@ -59,13 +69,34 @@ def _aligned(columns: tuple[str, ...], rows: list[tuple[str, ...]], indent: str 
     return [line(columns), line(["-" * w for w in widths])] + [line(r) for r in rows]
 
 
-def render_text(takeoff: Takeoff, title: str) -> str:
-    """The takeoff as aligned text for a terminal."""
-    from gaugewalk.model.report.content import fitting_table_of, raceway_table_of, wire_table_of
+def render_text(takeoff: Takeoff, title: str, priced=None, runs_per_piece: int | None = None) -> str:
+    """The takeoff as aligned text for a terminal; ``priced`` adds prices and the total,
+    ``runs_per_piece`` shortens the pull list (the app's footage view)."""
+    from gaugewalk.model.report.content import (
+        fitting_table_of, order_table_of, priced_summary, pull_list_of, raceway_table_of,
+        wire_table_of,
+    )
 
     out = [title, ""]
+    columns, rows = order_table_of(takeoff, priced)
+    out.append("Order")
+    out += _aligned(columns, list(rows)) if rows else ["  none"]
+    if priced is not None:
+        out += [f"  {line}" for line in priced_summary(priced)]
+    out.append("")
+    columns, rows = wire_table_of(takeoff)
+    out.append("Conductors: cuts, pieces ordered and the fewest any packing could use")
+    out += _aligned(columns, list(rows)) if rows else ["  none"]
+    out.append("")
+    out.append("Pull list: which runs come off which piece (cut lengths [ft])")
+    groups = pull_list_of(takeoff, runs_per_piece)
+    for group in groups:
+        out.append(f"  {group.conductor}")
+        out += [f"    {piece}, {offcut} ft left: {runs}" for piece, offcut, runs in group.pieces]
+    if not groups:
+        out.append("  none")
+    out.append("")
     for heading, (columns, rows) in (
-        ("Conductors", wire_table_of(takeoff)),
         ("Raceway", raceway_table_of(takeoff)),
         ("Fittings", fitting_table_of(takeoff)),
     ):
@@ -82,36 +113,47 @@ def render_text(takeoff: Takeoff, title: str) -> str:
     return "\n".join(out) + "\n"
 
 
-def write_csv(takeoff: Takeoff, stream) -> None:
-    """The takeoff rows as CSV, then one row per warning, assumption and the caution."""
-    writer = csv.DictWriter(stream, fieldnames=ROW_FIELDS)
+def write_csv(takeoff: Takeoff, stream, priced=None) -> None:
+    """The order as CSV: one header row, then one row per orderable item (``Takeoff.to_rows``)."""
+    writer = csv.DictWriter(stream, fieldnames=ROW_FIELDS if priced is None else PRICED_FIELDS)
     writer.writeheader()
-    for row in takeoff.to_rows():
-        writer.writerow(row)
-    blank = {name: "" for name in ROW_FIELDS}
-    for section, texts in (("warning", takeoff.warnings), ("assumption", takeoff.assumptions),
-                           ("caution", (CAUTION,))):
-        for text in texts:
-            writer.writerow({**blank, "section": section, "basis": text})
+    writer.writerows(takeoff.to_rows(priced))
+
+
+def _priced(path: str | None, takeoff: Takeoff):
+    """The order priced from the file at ``path`` (None: no prices); a bad file is a
+    ``UsageError`` naming its line."""
+    if path is None:
+        return None
+    from gaugewalk.model.walk.takeoff.prices import PriceFileError, price_order, read_prices
+
+    try:
+        return price_order(takeoff.order_lines, read_prices(path))
+    except PriceFileError as exc:
+        raise UsageError(str(exc)) from None
 
 
 def run(args: argparse.Namespace) -> int:
     job, _result, takeoff = load_computed(args.file)
+    priced = _priced(args.prices, takeoff)
     try:
-        _write(args, job, takeoff)
+        _write(args, job, takeoff, priced)
     except BrokenPipeError:  # the reader stopped early (``| head``): not an error
         sys.stdout = open(os.devnull, "w")  # noqa: SIM115 - keeps Python's exit flush quiet
     return 0
 
 
-def _write(args: argparse.Namespace, job, takeoff: Takeoff) -> None:
+def _write(args: argparse.Namespace, job, takeoff: Takeoff, priced) -> None:
     if args.csv:
-        write_csv(takeoff, sys.stdout)
+        write_csv(takeoff, sys.stdout, priced)
+        for warning in takeoff.warnings:
+            print(f"warning: {warning}", file=sys.stderr)
+        print(CAUTION, file=sys.stderr)
     elif args.json:
-        data = {"job": job.job.name, "file": Path(args.file).name, **takeoff.to_dict(),
+        data = {"job": job.job.name, "file": Path(args.file).name, **takeoff.to_dict(priced),
                 "caution": CAUTION}
         sys.stdout.write(json.dumps(data, indent=2) + "\n")
     else:
         title = f"Takeoff: {job.job.name or Path(args.file).name}"
-        sys.stdout.write(render_text(takeoff, title))
+        sys.stdout.write(render_text(takeoff, title, priced))
     sys.stdout.flush()

@@ -32,7 +32,7 @@ svg text { font-family: system-ui, sans-serif; font-size: 12px; }
 """.strip()
 
 _NUMERIC = {"Length [ft]", "Drop [%]", "Total drop [%]", "Net [ft]", "With waste [ft]",
-            "Left over [ft]", "Count"}
+            "Cuts [ft]", "Offcut [ft]", "Count", "Quantity"}
 
 
 def _table(columns, rows, *, problem_rows: set[int] = frozenset(), label: str = "") -> str:
@@ -119,8 +119,12 @@ def render_html(report: Report) -> str:
                       label="Conductor footage by size"))
 
     out.append("<h2>Material list</h2>")
+    out.append("<h3>Order</h3>")
+    out.append(_table(*report.order_table, label="Order"))
     out.append("<h3>Conductors</h3>")
     out.append(_table(*report.wire_table, label="Conductors"))
+    out.append("<h3>Pull list</h3>")
+    out.append(_table(*report.pull_table, label="Pull list"))
     out.append("<h3>Raceway</h3>")
     out.append(_table(*report.raceway_table, label="Raceway"))
     out.append("<h3>Fittings</h3>")

@@ -70,7 +70,9 @@ def render_md(report: Report) -> str:
     out += _table(("Material", "Size", "Net [ft]", "With waste [ft]"),
                   [("copper" if f.material == "cu" else "aluminum", f.size, f"{f.net_ft:.1f}",
                     str(f.with_waste_ft)) for f in report.footage]) + [""]
-    out += ["## Material list", "", "### Conductors", ""] + _table(*report.wire_table) + [""]
+    out += ["## Material list", "", "### Order", ""] + _table(*report.order_table) + [""]
+    out += ["### Conductors", ""] + _table(*report.wire_table) + [""]
+    out += ["### Pull list", ""] + _table(*report.pull_table) + [""]
     out += ["### Raceway", ""] + _table(*report.raceway_table) + [""]
     out += ["### Fittings", ""] + _table(*report.fitting_table) + [""]
     if report.warnings:

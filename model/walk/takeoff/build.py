@@ -18,6 +18,7 @@ from gaugewalk.model.walk.takeoff.footage import (
 from gaugewalk.model.walk.takeoff.lines import (
     RunMaterial, Takeoff, TakeoffError, TakeoffSettings, WireLine,
 )
+from gaugewalk.model.walk.takeoff.order import order_lines
 from gaugewalk.model.walk.takeoff.packing import EXACT_MAX_CUTS, pack_cuts
 from gaugewalk.tables.conductor.sizes import size_index
 from gaugewalk.tables.order import colours as colour_table
@@ -63,6 +64,7 @@ def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = T
         _assumptions(settings, race.families, any(r.sets > 1 for r in runs),
                      any(r.egc_size for r in runs), wire_lines),
         tuple(notes + race.warnings), settings,
+        order_lines(tuple(wire_lines), race.raceway_lines, race.fitting_lines),
     )
 
 

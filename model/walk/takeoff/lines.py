@@ -7,15 +7,13 @@ from dataclasses import dataclass, field
 from typing import NamedTuple
 
 from gaugewalk.tables.conductor.sizes import size_index
-from gaugewalk.tables.order.putups import CUT_SIZES, DEFAULT_PUTUPS, SOURCE as PUTUP_SOURCE, PutUp
+from gaugewalk.tables.order.putups import CUT_SIZES, DEFAULT_PUTUPS, PutUp
 from gaugewalk.tables.raceway import install as raceway_install
 
-#: CSV columns of ``Takeoff.to_rows()``, in order. Quantities carry their unit in the name.
-ROW_FIELDS: tuple[str, ...] = (
-    "section", "item", "material", "insulation", "size", "function", "colour",
-    "raceway", "trade_size", "net_ft", "waste_pct", "quantity_ft", "quantity_each",
-    "left_over_ft", "basis",
-)
+#: CSV columns of ``Takeoff.to_rows()``, in order: one row per orderable item.
+ROW_FIELDS: tuple[str, ...] = ("item", "description", "quantity", "unit")
+#: The same with the user's prices.
+PRICED_FIELDS: tuple[str, ...] = ROW_FIELDS + ("unit_price", "cost")
 
 
 class TakeoffError(ValueError):
@@ -155,6 +153,18 @@ class FittingLine:
 
 
 @dataclass(frozen=True)
+class OrderLine:
+    """One orderable item."""
+
+    item: str                       # the item code
+    description: str
+    quantity: int                   # in ``unit``
+    unit: str                       # "ft", "each", or how a put-up is sold ("box", "reel", ...)
+    section: str                    # "wire", "raceway" or "fitting"
+    ft_per_unit: int | None         # [ft] in one unit (a reel's length; 1 for ft); None: fittings
+
+
+@dataclass(frozen=True)
 class SizeFootage:
     material: str
     size: str
@@ -172,6 +182,7 @@ class Takeoff:
     assumptions: tuple[str, ...]
     warnings: tuple[str, ...] = ()    # runs left out or needing attention, by run id
     settings: TakeoffSettings = field(default_factory=TakeoffSettings)
+    order_lines: tuple[OrderLine, ...] = ()   # every orderable item once (``order.order_lines``)
 
     def footage_by_size(self) -> tuple[SizeFootage, ...]:
         """Conductor footage per material and size, smallest size first (copper before aluminum)."""
@@ -185,49 +196,57 @@ class Takeoff:
                for (mat, size), ft in net.items()]
         return tuple(sorted(out, key=lambda s: (s.material != "cu", s.material, size_index(s.size))))
 
-    def to_rows(self) -> list[dict[str, str | int | float]]:
-        """Flat rows for a spreadsheet, columns ``ROW_FIELDS``; blank where not applicable. No
-        totals rows: every row is one thing to order."""
-        rows: list[dict[str, str | int | float]] = []
+    def to_rows(self, priced=None) -> list[dict[str, str | int]]:
+        """The order as rows for a spreadsheet, columns ``ROW_FIELDS`` (``PRICED_FIELDS`` with
+        ``priced``, a ``prices.PricedOrder`` of ``order_lines``): one row per orderable item, no
+        totals rows; text made safe from formula injection (``order.spreadsheet_safe``)."""
+        from gaugewalk.model.walk.takeoff.order import spreadsheet_safe
+        from gaugewalk.model.walk.takeoff.prices import money
 
-        def row(**values) -> None:
-            rows.append({name: values.get(name, "") for name in ROW_FIELDS})
-
-        for w in self.wire_lines:
-            row(section="wire", item="conductor", material=w.material, insulation=w.insulation,
-                size=w.size, function=w.function, colour=w.colour, net_ft=w.net_ft,
-                waste_pct=w.waste_pct, quantity_ft=w.with_waste_ft, left_over_ft=w.left_over_ft,
-                basis="(length + 2 x slack) x conductors x sets, plus waste")
-            if not w.order:
-                row(section="wire order", item="cut to length", material=w.material,
-                    insulation=w.insulation, size=w.size, function=w.function, colour=w.colour,
-                    quantity_ft=w.order_ft, quantity_each=1,
-                    basis="no put-up listed for this size")
-            for p in w.order:
-                row(section="wire order", item=p.label, material=w.material,
-                    insulation=w.insulation, size=w.size, function=w.function, colour=w.colour,
-                    quantity_ft=p.length_ft * p.count, quantity_each=p.count, basis=PUTUP_SOURCE)
-        for r in self.raceway_lines:
-            row(section="raceway", item=r.raceway, raceway=r.raceway, trade_size=r.trade_size,
-                quantity_ft=r.length_ft, quantity_each="" if r.sticks is None else r.sticks,
-                basis=r.basis)
-        for f in self.fitting_lines:
-            row(section="fitting", item=f.item, raceway=f.raceway, trade_size=f.trade_size,
-                quantity_each=f.count, basis=f.basis)
+        rows = []
+        for i, line in enumerate(self.order_lines):
+            row = {"item": line.item, "description": line.description,
+                   "quantity": line.quantity, "unit": line.unit}
+            if priced is not None:
+                p = priced.lines[i]
+                row["unit_price"] = money(p.unit_price)
+                row["cost"] = money(p.cost)
+            rows.append({k: spreadsheet_safe(v) for k, v in row.items()})
         return rows
 
-    def to_dict(self) -> dict:
-        """Everything, for JSON."""
+    def to_dict(self, priced=None) -> dict:
+        """Everything, for JSON; with ``priced`` (a ``prices.PricedOrder`` of ``order_lines``)
+        the order lines carry unit prices and costs, with ``total_cost`` and ``unpriced``."""
         def wire(w: WireLine) -> dict:
+            numbers = {p: i + 1 for i, p in enumerate(w.pieces)}
+            piece_of = {c: numbers[p] for p in w.pieces for c in p.cuts}
             return {
                 "material": w.material, "insulation": w.insulation, "size": w.size,
                 "function": w.function, "colour": w.colour, "net_ft": w.net_ft,
                 "waste_pct": w.waste_pct, "with_waste_ft": w.with_waste_ft,
-                "order": [{"put_up": p.label, "length_ft": p.length_ft, "count": p.count}
-                          for p in w.order],
+                "order": [{"put_up": p.label, "length_ft": p.length_ft, "count": p.count,
+                           "offcut_ft": p.offcut_ft} for p in w.order],
                 "order_ft": w.order_ft, "left_over_ft": w.left_over_ft, "runs": list(w.runs),
+                "lower_bound_count": w.lower_bound_count,
+                "lower_bound_offcut_ft": w.lower_bound_offcut_ft,
+                "packing": w.packing,
+                "cuts": [{"run": c.run_id, "set": c.set_no, "ft": c.ft, "piece": piece_of[c]}
+                         for c in w.cuts],
+                "pieces": [{"piece": numbers[p], "put_up": p.label, "length_ft": p.length_ft,
+                            "used_ft": p.used_ft, "offcut_ft": p.offcut_ft,
+                            "cut_to_length": p.cut_to_length} for p in w.pieces],
             }
-        return {
+
+        def order(i: int, line: OrderLine) -> dict:
+            out = {"item": line.item, "description": line.description,
+                   "quantity": line.quantity, "unit": line.unit, "section": line.section}
+            if priced is not None:
+                p = priced.lines[i]
+                out["unit_price"] = None if p.unit_price is None else float(p.unit_price)
+                out["cost"] = None if p.cost is None else float(p.cost)
+            return out
+
+        data = {
             "wire": [wire(w) for w in self.wire_lines],
             "raceway": [
                 {"raceway": r.raceway, "trade_size": r.trade_size, "length_ft": r.length_ft,
@@ -239,6 +258,7 @@ class Takeoff:
                  "count": f.count, "basis": f.basis}
                 for f in self.fitting_lines
             ],
+            "order": [order(i, line) for i, line in enumerate(self.order_lines)],
             "footage_by_size": [
                 {"material": s.material, "size": s.size, "net_ft": s.net_ft,
                  "with_waste_ft": s.with_waste_ft}
@@ -247,3 +267,8 @@ class Takeoff:
             "assumptions": list(self.assumptions),
             "warnings": list(self.warnings),
         }
+        if priced is not None:
+            data["total_cost"] = float(priced.total_cost)
+            data["unpriced"] = [{"item": u.item, "description": u.description}
+                                for u in priced.unpriced]
+        return data

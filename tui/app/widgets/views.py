@@ -3,7 +3,8 @@
 The tree goes from each service through feeders, transformers and panels to the branch runs, with
 the cumulative drop at every node; it is built only when shown, with the chain of sources open
 and each panel's branch runs folded. The footage tally shows the takeoff's conductor feet by
-material and size with a bar for each in text blocks (readable without colour), then the takeoff.
+material and size with a bar for each in text blocks (readable without colour), then the takeoff:
+the order, the cut lists and a short pull list.
 """
 
 from __future__ import annotations
@@ -106,6 +107,11 @@ class SupplyTree(Tree):
 
 
 # ----- footage ---------------------------------------------------------------------------------
+#: Runs named per piece in the footage view's pull list (the rest counted; the command line and
+#: the report name them all).
+PULL_LIST_RUNS = 6
+
+
 def footage_text(session: WalkSession, width: int = 78) -> str:
     """Conductor feet by material and size with a text bar each, then the takeoff: the same
     ``gaugewalk.model.walk.takeoff`` numbers as ``gaugewalk takeoff`` and the report."""
@@ -142,5 +148,6 @@ def footage_text(session: WalkSession, width: int = 78) -> str:
         lines.append(f"{'all':<13} {total:>8,.0f} {sum(r.with_waste_ft for r in rows):>8,}")
     route = sum(r.length_ft for r in session.job.runs)
     lines += ["", f"Route length of {len(session.job.runs)} runs: {route:,.0f} ft", "", "─" * 20, ""]
-    lines.append(escape(render_text(takeoff, "[Takeoff]").replace("[Takeoff]", "Takeoff")))
+    lines.append(escape(render_text(takeoff, "[Takeoff]", runs_per_piece=PULL_LIST_RUNS)
+                        .replace("[Takeoff]", "Takeoff")))
     return "\n".join(lines)
