@@ -270,14 +270,19 @@ def _conductor_text(w: WireLine) -> str:
     return f"{w.size} {material} {w.insulation}, {w.colour} ({w.function})"
 
 
-def pull_list_of(t: Takeoff, runs_per_piece: int | None = None) -> tuple[PullGroup, ...]:
+def pull_list_of(t: Takeoff, runs_per_piece: int | None = None,
+                 pieces_per_line: int | None = None) -> tuple[PullGroup, ...]:
     """Which runs come off which piece, per conductor line, pieces numbered from 1. A run in
-    parallel sets names the set. ``runs_per_piece`` shortens long lists ("and 12 more")."""
+    parallel sets names the set. ``runs_per_piece`` and ``pieces_per_line`` shorten long lists
+    ("and 12 more")."""
     out = []
     for w in t.wire_lines:
         parallel = {c.run_id for c in w.cuts if c.set_no > 1}
         pieces = []
         for n, p in enumerate(w.pieces, 1):
+            if pieces_per_line is not None and n > pieces_per_line:
+                pieces.append(("", "", f"and {len(w.pieces) - pieces_per_line} more pieces"))
+                break
             names = [f"{c.run_id}{f' (set {c.set_no})' if c.run_id in parallel else ''} {c.ft}"
                      for c in p.cuts]
             if runs_per_piece is not None and len(names) > runs_per_piece:

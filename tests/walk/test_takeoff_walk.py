@@ -224,3 +224,13 @@ def test_the_pull_point_spacing_is_a_job_setting(tmp_path, capsys):
     assert gaugewalk(cmd_takeoff, [str(bad)]) == 2
     err = capsys.readouterr().err
     assert "pull_every_ft" in err and err.count("\n") == 1
+
+
+def test_the_pull_list_names_every_run_or_says_how_many_are_left_out(computed):
+    _, _, takeoff = computed
+    full = cmd_takeoff.render_text(takeoff, "t")
+    # 12 AWG black: B1 (60 + 4) x 1.10 -> 71 ft and B2 (40 + 4) x 1.10 -> 49 ft off box 1
+    assert "    1: 500 ft box, 380 ft left: B1 71, B2 49" in full
+    assert "F1 (set 1) 170, F1 (set 2) 170" in full             # parallel sets named
+    short = cmd_takeoff.render_text(takeoff, "t", runs_per_piece=1, pieces_per_line=1)
+    assert "    1: 500 ft box, 380 ft left: B1 71, and 1 more" in short

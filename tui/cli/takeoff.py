@@ -69,9 +69,10 @@ def _aligned(columns: tuple[str, ...], rows: list[tuple[str, ...]], indent: str 
     return [line(columns), line(["-" * w for w in widths])] + [line(r) for r in rows]
 
 
-def render_text(takeoff: Takeoff, title: str, priced=None, runs_per_piece: int | None = None) -> str:
+def render_text(takeoff: Takeoff, title: str, priced=None, runs_per_piece: int | None = None,
+                pieces_per_line: int | None = None) -> str:
     """The takeoff as aligned text for a terminal; ``priced`` adds prices and the total,
-    ``runs_per_piece`` shortens the pull list (the app's footage view)."""
+    ``runs_per_piece`` and ``pieces_per_line`` shorten the pull list (the app's footage view)."""
     from gaugewalk.model.report.content import (
         fitting_table_of, order_table_of, priced_summary, pull_list_of, raceway_table_of,
         wire_table_of,
@@ -89,10 +90,11 @@ def render_text(takeoff: Takeoff, title: str, priced=None, runs_per_piece: int |
     out += _aligned(columns, list(rows)) if rows else ["  none"]
     out.append("")
     out.append("Pull list: which runs come off which piece (cut lengths [ft])")
-    groups = pull_list_of(takeoff, runs_per_piece)
+    groups = pull_list_of(takeoff, runs_per_piece, pieces_per_line)
     for group in groups:
         out.append(f"  {group.conductor}")
-        out += [f"    {piece}, {offcut} ft left: {runs}" for piece, offcut, runs in group.pieces]
+        out += [f"    {piece}, {offcut} ft left: {runs}" if piece else f"    {runs}"
+                for piece, offcut, runs in group.pieces]
     if not groups:
         out.append("  none")
     out.append("")

@@ -107,9 +107,10 @@ class SupplyTree(Tree):
 
 
 # ----- footage ---------------------------------------------------------------------------------
-#: Runs named per piece in the footage view's pull list (the rest counted; the command line and
-#: the report name them all).
+#: Runs named per piece and pieces shown per conductor line in the footage view's pull list (the
+#: rest counted; ``gaugewalk takeoff`` and the report list them all).
 PULL_LIST_RUNS = 6
+PULL_LIST_PIECES = 3
 
 
 def footage_text(session: WalkSession, width: int = 78) -> str:
@@ -148,6 +149,7 @@ def footage_text(session: WalkSession, width: int = 78) -> str:
         lines.append(f"{'all':<13} {total:>8,.0f} {sum(r.with_waste_ft for r in rows):>8,}")
     route = sum(r.length_ft for r in session.job.runs)
     lines += ["", f"Route length of {len(session.job.runs)} runs: {route:,.0f} ft", "", "─" * 20, ""]
-    lines.append(escape(render_text(takeoff, "[Takeoff]", runs_per_piece=PULL_LIST_RUNS)
+    lines.append(escape(render_text(takeoff, "[Takeoff]", runs_per_piece=PULL_LIST_RUNS,
+                                    pieces_per_line=PULL_LIST_PIECES)
                         .replace("[Takeoff]", "Takeoff")))
     return "\n".join(lines)
