@@ -3,7 +3,6 @@ the properties every packing must have (``gaugewalk.model.walk.takeoff.packing``
 
 from __future__ import annotations
 
-import itertools
 from collections import Counter
 
 import pytest
