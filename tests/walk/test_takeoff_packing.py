@@ -148,8 +148,9 @@ def test_every_packing_places_each_cut_once_and_overfills_nothing(group):
         else:
             assert piece.used_ft <= piece.length_ft               # nothing overfilled
             assert piece.length_ft in {u.length_ft for u in putups}
-    remainders = [q for q in p.pieces if q.cut_to_length and len(q.cuts) > 1 or
-                  q.cut_to_length and q.cuts[0].ft <= longest]
+    # pieces cut to length other than a single cut longer than every put-up
+    remainders = [q for q in p.pieces
+                  if q.cut_to_length and not (len(q.cuts) == 1 and q.cuts[0].ft > longest)]
     assert len(remainders) <= (1 if cut else 0)                   # only where the supplier cuts
     for q in remainders:
         assert q.length_ft < min(u.length_ft for u in putups)     # shorter than any put-up
