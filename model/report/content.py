@@ -170,6 +170,8 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         ("Runs meeting every limit", str(len(job.runs) - failing)),
         ("Runs with problems", str(failing)),
         ("Conductor to order [ft]", str(sum(w.with_waste_ft for w in takeoff.wire_lines))),
+        ("Offcut left on boxes and reels [ft]",
+         str(sum(w.left_over_ft for w in takeoff.wire_lines))),
     )
     return Report(
         title=f"Site walk report: {h.name}" if h.name else "Site walk report",

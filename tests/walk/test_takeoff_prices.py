@@ -103,6 +103,18 @@ def test_a_malformed_price_file_names_its_line(tmp_path, capsys, text, message):
     assert "\x1b" not in captured.err                           # no terminal control echoed
 
 
+def test_each_prices_a_box_and_a_box_price_cannot_price_feet():
+    from gaugewalk.model.walk.takeoff.lines import OrderLine
+    from gaugewalk.model.walk.takeoff.prices import price_order
+
+    box = OrderLine("B", "a box", 2, "box", "wire", 500)
+    cut = OrderLine("C", "a cut", 40, "ft", "wire", 1)
+    priced = price_order([box], parse_prices("B,80,each\n"))
+    assert priced.total_cost == Decimal("160.00")                  # 2 boxes x 80
+    with pytest.raises(PriceFileError, match="line 1: priced per box, but C is ordered by the foot"):
+        price_order([cut], parse_prices("C,80,box\n"))
+
+
 def test_a_unit_that_does_not_fit_the_item_names_the_line(tmp_path, capsys):
     # couplings are ordered each; a price per foot cannot be put against them
     path = write(tmp_path, "a,1\nEMT.1/2.COUPLING,0.85,ft\n")

@@ -8,7 +8,8 @@ repeated blanks. A header line naming the columns may come first (``item``, ``de
 starting with ``#`` are skipped. ``unit_price`` is a plain number (a leading ``$`` is allowed),
 never negative. ``unit`` is optional: without it the price is per the order line's own unit;
 ``ft``, ``C`` (per 100 ft) and ``M`` (per 1,000 ft) price anything ordered by length, a box or a
-reel by its feet; ``each`` and the put-up words (``box``, ``reel``, ...) must be the line's unit.
+reel by its feet; ``each`` prices anything counted (a fitting, a box, a reel); a put-up word
+(``box``, ``reel``, ...) must be the line's unit.
 
 Money is kept in decimal; each cost is rounded to cents. A file that cannot be used gets one
 message naming the file and line (``PriceFileError``).
@@ -226,7 +227,7 @@ def _unit(text: str, name: str, n: int) -> str | None:
 def _per_line_unit(price: Price, line: OrderLine, book: PriceBook) -> Decimal:
     """The price per the order line's unit. Raises ``PriceFileError`` where the units differ and
     one cannot be turned into the other."""
-    if price.unit is None or price.unit == line.unit:
+    if price.unit is None or price.unit == line.unit or (price.unit == "each" and line.unit != "ft"):
         return price.unit_price
     if price.unit in _LENGTH_UNITS and line.ft_per_unit is not None:
         return price.unit_price * line.ft_per_unit / _LENGTH_UNITS[price.unit]
