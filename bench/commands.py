@@ -1,0 +1,43 @@
+"""The headless commands as the user runs them: whole processes, start to exit, each beside a
+baseline process taken in turn with it.
+
+- ``gaugewalk calc`` sizing one run (the README's example); baseline: a bare ``python -c pass``.
+- ``gaugewalk check`` of the sample walk (384 runs); baseline: a process that only parses the
+  same file with ``tomllib``.
+"""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+from bench.timing import process_best
+
+CALC_ARGS = ("calc", "--amps", "40", "--length", "120+35+2*12", "--volts", "240", "--continuous")
+
+
+def _gaugewalk() -> list[str]:
+    """The installed ``gaugewalk`` command beside this interpreter, as the user starts it."""
+    script = Path(sys.executable).parent / "gaugewalk"
+    if script.exists():
+        return [str(script)]
+    return [sys.executable, "-m", "gaugewalk.tui.cli.main"]
+
+
+def command_figures(sample: Path, starts: int) -> dict:
+    """Best wall time [s] of each command and its baseline, ``starts`` rounds interleaved."""
+    cli = _gaugewalk()
+    commands = {
+        "python": [sys.executable, "-c", "pass"],
+        "calc": [*cli, *CALC_ARGS],
+        "parse": [sys.executable, "-c",
+                  "import sys, tomllib\nwith open(sys.argv[1], 'rb') as f: tomllib.load(f)",
+                  str(sample)],
+        "check": [*cli, "check", str(sample)],
+    }
+    # check exits 1 when a run is over its limits: still a whole check, timed as one
+    best = process_best(commands, starts, ok={"check": (0, 1)})
+    return {
+        "python_s": best["python"], "calc_s": best["calc"],
+        "check_parse_s": best["parse"], "check_s": best["check"],
+    }
