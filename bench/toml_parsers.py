@@ -19,6 +19,7 @@ such. For each parser, on the synthetic walk of ``--runs`` runs and on every wal
 from __future__ import annotations
 
 import argparse
+import functools
 import importlib
 import json
 import re
@@ -30,16 +31,25 @@ from bench.timing import interleaved, process_best
 
 ROOT = Path(__file__).resolve().parent.parent
 
-# name -> (module, how its error text gives line and column)
-PARSERS: dict[str, tuple[str, str]] = {
-    "tomllib": ("tomllib", r"\(at line (\d+), column (\d+)\)"),
-    # tomllib is tomli's pure-Python code in the standard library; tomli's wheels for CPython
-    # are compiled with mypyc, so tomli measures that compilation of the same parser
-    "tomli (mypyc-compiled)": ("tomli", r"\(at line (\d+), column (\d+)\)"),
-    "rtoml (Rust)": ("rtoml", r"at line (\d+) column (\d+)"),
-    "toml-rs (Rust)": ("toml_rs", r"at line (\d+), column (\d+)"),
-    "pytomlpp (C++)": ("pytomlpp", r"at line (\d+), column (\d+)"),
+# name -> (module, keyword arguments of its loads, how its error text gives line and column)
+PARSERS: dict[str, tuple[str, dict, str]] = {
+    "tomllib": ("tomllib", {}, r"\(at line (\d+), column (\d+)\)"),
+    # tomllib is tomli's pure-Python code of Python 3.11 (TOML 1.0); tomli's wheels for CPython
+    # are compiled with mypyc, and tomli 2.3 and later read TOML 1.1
+    "tomli (mypyc-compiled)": ("tomli", {}, r"\(at line (\d+), column (\d+)\)"),
+    "rtoml (Rust)": ("rtoml", {}, r"at line (\d+) column (\d+)"),
+    "toml-rs (Rust)": ("toml_rs", {}, r"at line (\d+), column (\d+)"),
+    "toml-rs, TOML 1.0": ("toml_rs", {"toml_version": "1.0.0"}, r"at line (\d+), column (\d+)"),
+    "pytomlpp (C++)": ("pytomlpp", {}, r"at line (\d+), column (\d+)"),
 }
+
+NEWER_SYNTAX = {
+    "newline in an inline table": "a = {x = 1,\n y = 2}\n",
+    "escape \\e": 'a = "\\e"\n',
+    "time without seconds": "a = 07:32\n",
+}
+"""TOML 1.1 that tomllib (TOML 1.0) refuses: a parser that reads it would accept walk files that
+gaugewalk reads today with a syntax message, and that other TOML 1.0 tools cannot read."""
 
 
 def _malformed(sample: str) -> list[tuple[str, str, int]]:
@@ -91,31 +101,35 @@ def main(argv: list[str] | None = None) -> int:
         walks[p.name] = p.read_text(encoding="utf-8")
     reference = {name: tomllib.loads(text) for name, text in walks.items()}
 
-    loaded = {}
-    for label, (module, _) in PARSERS.items():
+    loaded = {}   # label -> its loads
+    version = {}
+    for label, (module, kwargs, _) in PARSERS.items():
         try:
-            loaded[label] = importlib.import_module(module)
+            m = importlib.import_module(module)
         except ImportError:
             print(f"{label}: not installed (pip install it into the venv to compare)")
-    version = {label: getattr(m, "__version__", "") or _dist_version(PARSERS[label][0])
-               for label, m in loaded.items()}
+            continue
+        loaded[label] = functools.partial(m.loads, **kwargs)
+        version[label] = getattr(m, "__version__", "") or _dist_version(module)
 
     out: dict = {"parsers": {}}
     print(f"parse time against tomllib, best of {args.repeat} interleaved (ratio: lower is faster)")
     for walk, text in walks.items():
-        fns = {label: (lambda m=m, t=text: m.loads(t)) for label, m in loaded.items()}
+        fns = {label: (lambda f=f, t=text: f(t)) for label, f in loaded.items()}
         best = interleaved(fns, args.repeat)
         base = best["tomllib"][0]
         print(f"  {walk} ({len(text) / 1024:,.0f} KiB):")
-        for label, m in loaded.items():
-            same = m.loads(text) == reference[walk] and _types(m.loads(text)) == _types(reference[walk])
+        for label, f in loaded.items():
+            data = f(text)
+            same = data == reference[walk] and _types(data) == _types(reference[walk])
             ms = best[label][0]
             entry = out["parsers"].setdefault(label, {"version": version[label], "walks": {}})
             entry["walks"][walk] = {"parse_ms": ms, "ratio": ms / base, "same_data": same}
             print(f"    {label:<24} {ms:8.2f} ms  {ms / base:5.2f}x  same data as tomllib: "
                   f"{'yes' if same else 'NO'}")
 
-    imports = _import_times([PARSERS[label][0] for label in loaded], args.starts)
+    modules = sorted({PARSERS[label][0] for label in loaded})
+    imports = _import_times(modules, args.starts)
     print(f"import time in a fresh process, less a bare start (best of {args.starts}):")
     for label in loaded:
         ms = imports[PARSERS[label][0]]
@@ -126,14 +140,18 @@ def main(argv: list[str] | None = None) -> int:
     print("errors on malformed walks (the line the message should name; what each parser says):")
     for what, text, line in _malformed(sample):
         print(f"  {what}, line {line}:")
-        for label, m in loaded.items():
-            pattern = PARSERS[label][1]
+        for label, f in loaded.items():
+            pattern = PARSERS[label][2]
             try:
-                m.loads(text)
+                f(text)
             except Exception as exc:  # each parser has its own error class
                 said = str(exc)
                 found = re.search(pattern, said)
                 got = (int(found.group(1)), int(found.group(2))) if found else None
+                if hasattr(exc, "lineno"):  # as tomllib's error has from Python 3.14 on
+                    attrs = (exc.lineno, getattr(exc, "colno", None))
+                    if got is not None and attrs != got:
+                        print(f"    {label}: text says {got}, attributes say {attrs}")
                 verdict = ("line and column" if got and got[0] == line
                            else f"WRONG LINE {got[0]}" if got else "NO LINE")
                 first = " ".join(said.split())
@@ -142,6 +160,28 @@ def main(argv: list[str] | None = None) -> int:
             out["parsers"][label].setdefault("errors", {})[what] = {
                 "line": line, "said": got, "verdict": verdict}
             print(f"    {label:<24} {verdict:<16} {first[:110]}")
+    print("the error's class; lineno and colno attributes (tomllib has them from Python 3.14 on):")
+    for label, f in loaded.items():
+        try:
+            f("a = \n")
+        except Exception as exc:
+            attrs = [a for a in ("lineno", "colno") if hasattr(exc, a)]
+            bases = [c.__name__ for c in type(exc).__mro__[1:3]]
+            print(f"  {label:<24} {type(exc).__name__} ({', '.join(bases)}); attributes: "
+                  f"{', '.join(attrs) or 'none'}")
+            out["parsers"][label]["error_attributes"] = attrs
+    print("TOML 1.1 syntax that tomllib (TOML 1.0) refuses:")
+    for what, text in NEWER_SYNTAX.items():
+        said = []
+        for label, f in loaded.items():
+            try:
+                f(text)
+            except Exception:  # each parser has its own error class
+                said.append(f"{label}: refuses")
+            else:
+                said.append(f"{label}: READS IT")
+            out["parsers"][label].setdefault("toml_1_1", {})[what] = said[-1].endswith("READS IT")
+        print(f"  {what}: " + "; ".join(said))
     if args.json:
         print(json.dumps(out))
     return 0
