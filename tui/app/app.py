@@ -10,10 +10,11 @@ import os
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from textual import work
+from textual import events, work
 from textual.app import App, ComposeResult
 from textual.widgets import Footer, Header, Static
 
+from gaugewalk.tui.app.keyorder import deliver_in_order
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.recent import RecentWalks
 from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
@@ -56,6 +57,14 @@ class WalkApp(App[int]):
         self.session: WalkSession | None = None
         self.exit_message: str | None = None
         self.theme = "textual-light" if light_terminal() else "textual-dark"
+
+    async def on_event(self, event: events.Event) -> None:
+        """A key or a paste for a screen of fields is applied at once, in the order it came
+        (``gaugewalk.tui.app.keyorder``); everything else goes Textual's way."""
+        if isinstance(event, (events.Key, events.Paste)) and not event.is_forwarded:
+            if await deliver_in_order(self, event):
+                return
+        await super().on_event(event)
 
     # ----- opening ----------------------------------------------------------------------
     def on_mount(self) -> None:

@@ -47,6 +47,7 @@ KEYS: tuple[KeyAction, ...] = (
     # walk screen
     KeyAction("walk.new", "n", "new_run", "New run", "Record a new run (from, to, length, load).", "walk", priority=True),
     KeyAction("walk.edit", "e", "edit_run", "Edit", "Edit the run under the cursor (Enter does the same).", "walk", priority=True),
+    KeyAction("walk.choose", "enter", "choose", "Open", "Edit the run under the cursor; in the supply tree, open or fold a source.", "walk", footer=False, priority=True, key_display="Enter"),
     KeyAction("walk.delete", "delete", "delete_run", "Delete", "Delete the run under the cursor (undo brings it back).", "walk", footer=False, key_display="Del"),
     KeyAction("walk.undo", "ctrl+z", "undo", "Undo", "Undo the last run change.", "walk", key_display="^z"),
     KeyAction("walk.redo", "ctrl+y", "redo", "Redo", "Redo what was undone.", "walk", footer=False, key_display="^y"),
@@ -64,7 +65,7 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("walk.job", "j", "job_settings", "Job", "Job settings: the defaults every run inherits; all runs recompute.", "walk", priority=True),
     KeyAction("walk.save", "ctrl+s", "save_now", "Save", "Save again now (every change is already saved at once).", "walk", footer=False, key_display="^s"),
     # run card
-    KeyAction("card.store", "enter", "store", "Store+next", "Store the run and start the next one.", "card", key_display="Enter"),
+    KeyAction("card.store", "enter", "store", "Store+next", "Store the run and start the next one.", "card", priority=True, key_display="Enter"),
     KeyAction("card.close", "escape", "close_card", "Close", "Close the card; an unstored draft is kept for the next new run.", "card", key_display="Esc"),
     KeyAction("card.next", "tab", "next_field", "Next field", "Next field; accepts the shown completion first.", "card", footer=False, key_display="Tab"),
     KeyAction("card.prev", "shift+tab", "prev_field", "Prev field", "Previous field.", "card", footer=False, key_display="S-Tab"),
@@ -74,8 +75,9 @@ KEYS: tuple[KeyAction, ...] = (
     # trial change
     KeyAction("trial.keep", "ctrl+s", "keep", "Keep", "Keep the trial change (it can be undone).", "trial", key_display="^s"),
     KeyAction("trial.drop", "escape", "close_trial", "Discard", "Leave without changing the walk.", "trial", key_display="Esc"),
+    KeyAction("trial.next", "enter", "next_field", "Next field", "Next field (the effect shows as you type).", "trial", footer=False, priority=True, key_display="Enter"),
     # job settings
-    KeyAction("job.store", "ctrl+s", "store", "Store", "Store the settings (Enter does the same); every run recomputes.", "job", key_display="^s"),
+    KeyAction("job.store", "ctrl+s,enter", "store", "Store", "Store the settings (Enter does the same); every run recomputes.", "job", priority=True, key_display="^s"),
     KeyAction("job.leave", "escape", "leave", "Leave unchanged", "Leave the settings as they were.", "job", key_display="Esc"),
     # first screen and new walk
     KeyAction("start.new", "n", "new", "New walk", "Start a new walk (asks for its file).", "start"),

@@ -20,10 +20,10 @@ from textual.suggester import SuggestFromList
 from textual.widget import Widget
 from textual.widgets import Footer, Header, Input, Label, Static
 
-from gaugewalk.model.walk.job import Load, Run, Source
+from gaugewalk.model.walk.job import CONNECTION_NAMES, Load, Run, Source
 from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError, parse_load
-from gaugewalk.tui.app.earlykeys import EarlyKeys
+from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import KEYS, bindings_for
 from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.tui.app.sheet.rows import size_text
@@ -149,13 +149,11 @@ def parse_load_text(text: str) -> tuple[float, str, float | None]:
 
 
 class CardInput(Input):
-    """A card field: Enter submits (the card stores the run), shown in the footer with the
-    label the key table gives it."""
+    """A card field. Moving into it selects its text (so typing replaces what the card
+    proposed) when the focus moves, not when its Focus event arrives (``keyorder``)."""
 
-    BINDINGS = [
-        Binding("enter", "submit", next(k.label for k in KEYS if k.id == "card.store"),
-                key_display="Enter", id="card.store"),
-    ]
+    def __init__(self, *args, **kwargs) -> None:
+        super().__init__(*args, select_on_focus=False, **kwargs)
 
 
 class Note(Widget):
@@ -175,7 +173,7 @@ class Note(Widget):
         return self._text
 
 
-class RunCard(EarlyKeys, Screen):
+class RunCard(TypedInOrder, Screen):
     """Record a new run (``run_id`` None) or edit one."""
 
     BINDINGS = bindings_for("card")
@@ -188,6 +186,7 @@ class RunCard(EarlyKeys, Screen):
         self.touched: set[str] = set()
         self.stored: list[str] = []
         self._auto: dict[str, str] = {}
+        self._seen: dict[str, str] = {}  # each field's text as the card last handled it
         self._candidate: Run | None = None
         self.soft: set[str] = set()
         self._hints: dict[str, tuple[str, bool]] = {}
@@ -201,7 +200,12 @@ class RunCard(EarlyKeys, Screen):
     # ----- layout -----------------------------------------------------------------------
     def compose(self) -> ComposeResult:
         yield Header()
-        names = self.session.known_names()
+        self._choices = {
+            "from": self.session.source_ids(),
+            "to": self.session.known_names(),
+            "circuit": list(CONNECTION_NAMES),
+            "material": ["cu", "al"],
+        }
         with Horizontal(id="card-body"):
             with Vertical(id="card-fields"):
                 for f in FIELDS:
@@ -209,15 +213,8 @@ class RunCard(EarlyKeys, Screen):
                         yield Static("─ more (ctrl+o) ─", classes="card-rule")
                     with Horizontal(classes="card-row" + (" card-main" if f.main else "")):
                         yield Label(f.label, classes="card-label")
-                        suggester = None
-                        if f.key == "from":
-                            suggester = SuggestFromList(self.session.source_ids(), case_sensitive=False)
-                        elif f.key == "to":
-                            suggester = SuggestFromList(names, case_sensitive=False)
-                        elif f.key == "circuit":
-                            suggester = SuggestFromList(["LN", "LL", "LLN", "MW", "3P", "3PN"], case_sensitive=False)
-                        elif f.key == "material":
-                            suggester = SuggestFromList(["cu", "al"], case_sensitive=False)
+                        choices = self._choices.get(f.key)
+                        suggester = SuggestFromList(choices, case_sensitive=False) if choices else None
                         yield CardInput(
                             placeholder=f.placeholder, id=f"f-{f.key}", compact=True,
                             suggester=suggester, classes="card-input",
@@ -236,9 +233,11 @@ class RunCard(EarlyKeys, Screen):
 
     def _focus_field(self, key: str) -> None:
         """Focus a field with its text selected, so typing replaces it."""
-        inp = self._input(key)
-        inp.focus()
-        inp.select_all()
+        self.move_to(self._input(key))
+
+    def field_entered(self, field: Input) -> None:
+        field.select_all()
+        self._message_for_focus()
 
     def values(self) -> dict[str, str]:
         return {k: self._input(k).value for k in FIELD_KEYS}
@@ -246,6 +245,7 @@ class RunCard(EarlyKeys, Screen):
     def _set(self, key: str, value: str) -> None:
         """Put a value in a field on the person's behalf (not counted as typed)."""
         self._auto[key] = value
+        self._seen[key] = value
         self._input(key).value = value
 
     def _set_values(self, values: dict[str, str]) -> None:
@@ -273,9 +273,7 @@ class RunCard(EarlyKeys, Screen):
         self.recheck()
         if focus == "to":
             self._sticky = f"From {self._input('from').value} (shift+tab to change it). Type where the run goes."
-        self._focus_field(focus)
-        self._message_for_focus()
-        self.keys_ready(self._input(focus))
+        self.start_typing(self._input(focus))
 
     def _fresh_values(self, source_id: str | None) -> dict[str, str]:
         s = self.session
@@ -318,12 +316,17 @@ class RunCard(EarlyKeys, Screen):
     # ----- live checking ----------------------------------------------------------------
     @on(Input.Changed, ".card-input")
     def _changed(self, event: Input.Changed) -> None:
-        key = (event.input.id or "")[2:]
-        if event.value != event.input.value:
-            return  # a late message about text already replaced (fast typing, a stored card)
-        if event.value == self._auto.get(key):
-            self.recheck()  # a value the card put there itself (messages arrive later)
-            return
+        """A change made neither by a key (``field_typed`` saw those) nor by the card."""
+        if event.value == event.input.value:  # not a late message about text since replaced
+            self.field_typed(event.input)
+
+    def field_typed(self, field: Input) -> None:
+        """A key changed ``field``: it now holds what the person typed (called at once, in the
+        order of the keys, by ``keyorder``)."""
+        key = (field.id or "")[2:]
+        if field.value == self._seen.get(key):
+            return  # the card's own change (a stored card, a completion already handled)
+        self._seen[key] = field.value
         self._auto.pop(key, None)
         self.touched.add(key)
         if self.run_id is None:
@@ -610,11 +613,15 @@ class RunCard(EarlyKeys, Screen):
 
     # ----- keys -------------------------------------------------------------------------
     def take_completion(self, field: Input) -> None:
-        """Accept the completion shown in ``field`` (a source or a name already in the walk)."""
-        suggestion = field._suggestion
+        """Accept the completion shown in ``field`` (a source or a name already in the walk),
+        worked out now from the same list the field suggests from (the field's own suggestion
+        arrives later, and may not have arrived when Tab is typed right behind)."""
+        key = (field.id or "")[2:]
+        suggestion = complete(field.value, self._choices.get(key, ()))
         if suggestion and field.cursor_at_end and suggestion != field.value:
             field.value = suggestion
             field.cursor_position = len(suggestion)
+            self.field_typed(field)
 
     def action_next_field(self, take_completion: bool = True) -> None:
         focused = self.focused
@@ -632,17 +639,7 @@ class RunCard(EarlyKeys, Screen):
         target = "panel" if key in main else "from"
         self._focus_field(target)
 
-    @on(Input.Submitted, ".card-input")
-    def _submitted(self, event: Input.Submitted) -> None:
-        event.stop()
-        self.action_store()
-
-    def early_enter(self) -> None:
-        self.action_store()
-
     def action_store(self) -> None:
-        if self.hold_enter():
-            return
         if self.session.busy:
             self._sticky = "Not stored yet — the walk is still being sized; press Enter again in a moment."
             self._message_for_focus()
@@ -687,7 +684,6 @@ class RunCard(EarlyKeys, Screen):
         )
         self.recheck()
         self._focus_field("to")
-        self._early_field = self._input("to")
 
     def action_close_card(self) -> None:
         if self.run_id is None:
@@ -720,6 +716,14 @@ def _circuit_hint(system: str, connection: str, dest) -> str:
         return ""
     lead = "" if connection else "all: "
     return f"{lead}{conn} {c.volts:g} V {c.phases}ph"
+
+
+def complete(text: str, choices) -> str | None:
+    """The first of ``choices`` that starts with ``text`` (any case), as the field suggests it."""
+    low = text.casefold()
+    if not low:
+        return None
+    return next((c for c in choices if c.casefold().startswith(low)), None)
 
 
 def _label(key: str) -> str:

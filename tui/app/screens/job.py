@@ -4,14 +4,13 @@ every run and says what moved."""
 from __future__ import annotations
 
 from rich.markup import escape
-from textual import on
 from textual.app import ComposeResult
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from gaugewalk.model.walk.job import Defaults, JobHeader
-from gaugewalk.tui.app.earlykeys import EarlyKeys
+from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.model.session.session import WalkSession
 
@@ -46,7 +45,7 @@ def _text(value) -> str:
     return str(value)
 
 
-class JobSettingsScreen(EarlyKeys, Screen):
+class JobSettingsScreen(TypedInOrder, Screen):
     """Edit the job's header and defaults; Enter or ctrl+s stores them, Esc leaves them."""
 
     BINDINGS = bindings_for("job")
@@ -69,16 +68,15 @@ class JobSettingsScreen(EarlyKeys, Screen):
                 with Horizontal(classes="card-row"):
                     yield Label(label, classes="job-label")
                     wide = " job-wide" if key.startswith("job.") else ""
-                    yield Input(_text(value), id="s-" + key.replace(".", "-"), compact=True, classes="card-input" + wide)
+                    yield Input(_text(value), id="s-" + key.replace(".", "-"), compact=True,
+                                classes="card-input" + wide, select_on_focus=False)
                     yield Static(escape(help_), id="sh-" + key.replace(".", "-"), classes="card-hint")
         yield Static("", id="job-msg")
         yield Footer()
 
     def on_mount(self) -> None:
         self.app.sub_title = "Job settings"
-        first = self.query_one("#s-material", Input)
-        first.focus()
-        self.keys_ready(first)
+        self.start_typing(self.query_one("#s-job-name", Input))
 
     def _values(self) -> tuple[dict, dict]:
         header: dict = {}
@@ -94,10 +92,6 @@ class JobSettingsScreen(EarlyKeys, Screen):
                 defaults[key] = text if key in text_keys else _number(text)
         return header, defaults
 
-    @on(Input.Submitted)
-    def _submitted(self) -> None:
-        self.action_store()
-
     def action_store(self) -> None:
         header, defaults = self._values()
         msg = self.query_one("#job-msg", Static)
@@ -112,7 +106,7 @@ class JobSettingsScreen(EarlyKeys, Screen):
             except ValueError as exc:
                 inp = self.query_one(f"#s-{key}", Input)
                 inp.add_class("-invalid")
-                inp.focus()
+                self.move_to(inp)
                 label = next(lab for k, lab, _ in SETTINGS if k == key)
                 msg.update(f"✗ Not stored — {escape(label)}: {escape(str(exc))}")
                 return
@@ -128,7 +122,7 @@ class JobSettingsScreen(EarlyKeys, Screen):
                 try:
                     inp = self.query_one("#s-" + key.replace(".", "-"), Input)
                     inp.add_class("-invalid")
-                    inp.focus()
+                    self.move_to(inp)
                 except Exception:
                     pass
                 label = next((lab for k, lab, _ in SETTINGS if k == key), loc)

@@ -4,7 +4,6 @@ feeder, see what it does to that run and to everything downstream, then keep it 
 from __future__ import annotations
 
 from rich.markup import escape
-from textual import on
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
@@ -13,7 +12,7 @@ from textual.widgets import Footer, Header, Input, Label, Static
 from gaugewalk.model.walk.job import Run
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.sheet.rows import size_text
-from gaugewalk.tui.app.earlykeys import EarlyKeys
+from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.model.session.session import WalkSession, fmt_pct
 
 TRIAL_FIELDS = (
@@ -24,7 +23,7 @@ TRIAL_FIELDS = (
 )
 
 
-class TrialScreen(EarlyKeys, Screen):
+class TrialScreen(TypedInOrder, Screen):
     """A what-if on one run, computed on a copy of the walk; ctrl+s keeps it."""
 
     BINDINGS = bindings_for("trial")
@@ -52,12 +51,14 @@ class TrialScreen(EarlyKeys, Screen):
             for key, label, help_ in TRIAL_FIELDS:
                 with Horizontal(classes="card-row"):
                     yield Label(label, classes="card-label")
-                    yield Input(self._current(run, key), id=f"t-{key}", compact=True, classes="card-input")
+                    yield Input(self._current(run, key), id=f"t-{key}", compact=True, classes="card-input",
+                                select_on_focus=False)
                     yield Static(escape(help_), id=f"th-{key}", classes="card-hint")
             if self.panel is not None:
                 with Horizontal(classes="card-row"):
                     yield Label("Secondary", classes="card-label")
-                    yield Input(self.panel.system, id="t-system", compact=True, classes="card-input")
+                    yield Input(self.panel.system, id="t-system", compact=True, classes="card-input",
+                                select_on_focus=False)
                     yield Static(escape(f"{self.panel.id} secondary and the panels on it"),
                                  id="th-system", classes="card-hint")
         yield Static("", id="trial-compare")
@@ -76,16 +77,13 @@ class TrialScreen(EarlyKeys, Screen):
     def on_mount(self) -> None:
         self.app.sub_title = f"Trial change on {self.run_id}"
         first = self.query_one("#t-material", Input)
-        first.focus()
         self.recheck()
-        self.keys_ready(first)
+        self.start_typing(first)
 
-    @on(Input.Changed)
-    def _changed(self) -> None:
+    def field_typed(self, field: Input) -> None:
         self.recheck()
 
-    @on(Input.Submitted)
-    def _submitted(self) -> None:
+    def action_next_field(self) -> None:
         self.focus_next()
 
     def recheck(self) -> None:

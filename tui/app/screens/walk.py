@@ -21,7 +21,7 @@ VIEWS = ("runs", "tree", "footage")
 
 
 # actions of keys that open another screen (priority bindings in gaugewalk.tui.app.keys)
-_OPENERS = {"new_run", "edit_run", "trial", "job_settings"}
+_OPENERS = {"new_run", "edit_run", "choose", "trial", "job_settings"}
 VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage"}
 
 
@@ -124,10 +124,30 @@ class WalkScreen(Screen):
 
     @on(SupplyTree.NodeSelected)
     def _tree_chosen(self, event: SupplyTree.NodeSelected) -> None:
-        """Enter on a branch run in the tree edits it (a source node opens or folds)."""
+        """A click on a branch run in the tree edits it (a source node opens or folds)."""
         data = event.node.data
         if data and data[0] == "run" and not event.node.allow_expand:
             self.open_card(data[1])
+
+    def action_choose(self) -> None:
+        """Enter: edit the run under the cursor; on a source in the supply tree, open or fold it.
+        A priority key (like n and e), so the card opens before the keys typed after it are
+        taken, and they go into the card."""
+        if self.view == "tree":
+            tree = self.query_one(SupplyTree)
+            node = tree.cursor_node
+            if node is None:
+                return
+            data = node.data
+            if data and data[0] == "run" and not node.allow_expand:
+                self.open_card(data[1])
+            else:
+                tree.action_select_cursor()
+            return
+        if self.view == "runs":
+            key = self.query_one(RunSheet).cursor_key
+            if key is not None:
+                self.open_card(key)
 
     @on(RunSheet.Chosen)
     def _chosen(self, event: RunSheet.Chosen) -> None:

@@ -111,7 +111,7 @@ class RunSheet(ScrollView, can_focus=True):
             self.key = key
 
     class Chosen(Message):
-        """Enter was pressed on the run ``key``."""
+        """The run ``key`` was double-clicked (Enter is the walk screen's key)."""
 
         def __init__(self, sheet: "RunSheet", key: str) -> None:
             super().__init__()
@@ -309,10 +309,3 @@ class RunSheet(ScrollView, can_focus=True):
                 self.post_message(self.Chosen(self, self.rows[self.view[pos]].key))
             self._set_cursor(pos)
 
-    def key_enter(self, event: events.Key) -> None:
-        if self.screen is not self.app.screen:
-            return  # typed ahead into a screen that has just opened over this one
-        key = self.cursor_key
-        if key is not None:
-            event.stop()
-            self.post_message(self.Chosen(self, key))
