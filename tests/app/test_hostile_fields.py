@@ -16,7 +16,8 @@ from gaugewalk.model.engine.circuits import CircuitError, parse_system
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.sizes import parse_size
 from tests.support.app_helpers import new_app, opened, write_walk
-from gaugewalk.tui.app.screens.card import RunCard, parse_load_text
+from gaugewalk.model.session.card_form import parse_load_text
+from gaugewalk.tui.app.screens.card import RunCard
 
 hostile = st.one_of(
     st.text(max_size=80),
@@ -77,11 +78,9 @@ async def test_hostile_entries_in_the_card_are_refused_at_the_field_and_nothing_
         assert isinstance(card, RunCard)
         for key in ("length", "load", "sets", "size", "circuit"):
             for text in HOSTILE_IN_THE_APP:
-                card._set_values({**card.values(), "to": "Dough mixer", "length": "40",
-                                  "load": "16A", key: text})
-                card._store_tried = True
-                card.recheck()
-                card._store_tried = False
+                card.form.values.update({"to": "Dough mixer", "length": "40", "load": "16A", key: text})
+                card._show_values()
+                card.recheck(store_tried=True)
                 assert key in card.errors, (key, text[:20])
                 card.action_store()
                 await pilot.pause()

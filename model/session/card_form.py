@@ -1,0 +1,585 @@
+"""The run card as a form, without a screen: its fields, what it fills in for the person, and
+everything worked out from the texts (each field's check, the run they make, the live answer).
+
+The app's run card (``gaugewalk.tui.app.screens.card``) lays the form out and takes the keys;
+nothing here imports Textual. A new field is added here once: an entry in ``FIELDS``, a check in
+``CHECKS`` (reading the text into a value, with the reason when it cannot) and its place in the
+run (``_run_data``).
+
+Public API:
+
+- ``FIELDS``, ``FIELD_KEYS``, ``label(key)``; ``choices(session)``: what each field completes from.
+- ``CardForm(session, run_id=None)``: ``start()`` (fills the fields, says where typing starts),
+  ``type(key, text)`` (the person typed; returns the fields the form filled in on their behalf),
+  ``check(store_tried=False) -> CardCheck``, ``next_card(run, new_source)`` after a store.
+- ``run_to_fields(run)``, ``new_source_from(id, text)``, ``parse_load_text(text)``,
+  ``complete(text, choices)``.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass, field
+from datetime import date
+from typing import Callable, Iterable
+
+from gaugewalk.model.engine.contract import RunResult
+from gaugewalk.model.engine.lengths import LengthError, parse_length
+from gaugewalk.model.engine.loads import LoadError, parse_load
+from gaugewalk.model.session.session import WalkSession, fmt_ft
+from gaugewalk.model.walk.job import CONNECTION_NAMES, Load, Run, Source
+
+
+@dataclass(frozen=True)
+class CardField:
+    """One field of the card: key, label, the hint shown while it is empty, and whether it is
+    one of the main fields (typed for every run, in walking order)."""
+
+    key: str
+    label: str
+    placeholder: str
+    main: bool = False
+
+
+FIELDS: tuple[CardField, ...] = (
+    CardField("from", "From", "source id", True),
+    CardField("to", "To", "load or panel", True),
+    CardField("length", "Length", "e.g. 85+12+2*6", True),
+    CardField("load", "Load", "16A 1.8kVA 5kW", True),
+    CardField("panel", "New panel", "system; xfmr …"),
+    CardField("circuit", "Circuit", "LN LL LLN MW 3P"),
+    CardField("continuous", "Continuous", "yes / no"),
+    CardField("spread", "Spread", "no: load at the end"),
+    CardField("sets", "Sets", "1"),
+    CardField("size", "Size", "blank: picked"),
+    CardField("material", "Material", "cu / al"),
+    CardField("raceway", "Raceway", "EMT, PVC-40, ..."),
+    CardField("id", "Run id", ""),
+    CardField("notes", "Notes", ""),
+)
+FIELD_KEYS = tuple(f.key for f in FIELDS)
+MAIN_KEYS = tuple(f.key for f in FIELDS if f.main)
+COPIED_FROM_PREVIOUS = ("circuit", "continuous", "material", "raceway")
+"""Fields a new card copies from the last branch run from the same source."""
+FOLLOWING = (*COPIED_FROM_PREVIOUS, "id")
+"""Fields the form fills in for the person, and keeps filling while they are not typed in."""
+YES = {"y", "yes", "true", "1", "on"}
+NO = {"", "n", "no", "false", "0", "off"}
+MAX_SETS = 20
+"""Most conductors in parallel per phase the card takes (the walk model's limit)."""
+
+
+def label(key: str) -> str:
+    return next((f.label for f in FIELDS if f.key == key), key)
+
+
+def choices(session: WalkSession) -> dict[str, list[str]]:
+    """What each field completes from (Tab takes the first that starts with the text)."""
+    return {
+        "from": session.source_ids(),
+        "to": session.known_names(),
+        "circuit": list(CONNECTION_NAMES),
+        "material": ["cu", "al"],
+    }
+
+
+def complete(text: str, options: Iterable[str]) -> str | None:
+    """The first of ``options`` that starts with ``text`` (any case), or None."""
+    low = text.casefold()
+    if not low:
+        return None
+    return next((c for c in options if c.casefold().startswith(low)), None)
+
+
+def yes_no(text: str) -> bool | None:
+    t = text.strip().lower()
+    if t in YES:
+        return True
+    if t in NO:
+        return False
+    return None
+
+
+def run_to_fields(run: Run) -> dict[str, str]:
+    """The card's texts for an existing run."""
+    load = ""
+    if run.load is not None:
+        load = f"{run.load.value:g}{run.load.unit}"
+        if run.load.pf is not None:
+            load += f" pf{run.load.pf:g}"
+    return {
+        "from": run.from_,
+        "to": run.to,
+        "length": run.length,
+        "load": load,
+        "panel": "",
+        "circuit": run.connection or "",
+        "continuous": "yes" if run.continuous else "no",
+        "spread": "yes" if run.distributed else "no",
+        "sets": str(run.sets),
+        "size": run.size or "",
+        "material": run.material or "",
+        "raceway": run.raceway or "",
+        "id": run.id,
+        "notes": run.notes,
+    }
+
+
+SOURCE_WORDS = {
+    "panel": "panel", "transformer": "transformer", "xfmr": "transformer", "xf": "transformer",
+    "switchboard": "switchboard", "swbd": "switchboard",
+}
+
+
+def new_source_from(source_id: str, text: str) -> Source:
+    """A source declared from the run card: ``208Y/120``, ``xfmr 208Y/120 75kVA``,
+    ``switchboard 480Y/277``. A transformer's system is its secondary. Raises ValueError with a
+    sentence."""
+    from gaugewalk.model.engine.circuits import CircuitError, parse_system
+
+    words = text.split()
+    kind = "panel"
+    if words and words[0].lower() in SOURCE_WORDS:
+        kind = SOURCE_WORDS[words.pop(0).lower()]
+    kva = None
+    rest = []
+    for w in words:
+        low = w.lower()
+        if low.endswith("kva") and low[:-3].replace(".", "", 1).isdigit():
+            kva = float(low[:-3])
+        else:
+            rest.append(w)
+    if not rest:
+        raise ValueError("give the new source's system, e.g. 208Y/120 (xfmr 208Y/120 for a transformer)")
+    try:
+        system = parse_system(" ".join(rest))
+    except CircuitError as exc:
+        raise ValueError(str(exc)) from None
+    try:
+        return Source(id=source_id, kind=kind, system=system, kva=kva)
+    except Exception as exc:
+        raise ValueError(_first_error(exc)) from None
+
+
+def parse_load_text(text: str) -> tuple[float, str, float | None]:
+    """``16A``, ``5kW pf0.9`` -> (value, unit, pf or None). Raises LoadError."""
+    t = text.strip()
+    pf = None
+    low = t.lower()
+    if " pf" in low:
+        i = low.rindex(" pf")
+        pf_text = t[i + 3:].strip().lstrip("=").strip()
+        t = t[:i].strip()
+        try:
+            pf = float(pf_text)
+        except ValueError:
+            raise LoadError(f"'pf{pf_text}' is not a power factor; write e.g. pf0.9") from None
+        if not 0 < pf <= 1:
+            raise LoadError("a power factor is above 0 and at most 1")
+    value, unit = parse_load(t)
+    return value, unit, pf
+
+
+@dataclass
+class CardCheck:
+    """What the card's texts say now: the reason each wrong field is wrong, a short note for
+    each right one, the fields merely still empty (``soft``: "needed", not wrong), the run they
+    make (None while anything is wrong) and its live answer."""
+
+    errors: dict[str, str] = field(default_factory=dict)
+    hints: dict[str, str] = field(default_factory=dict)
+    soft: set[str] = field(default_factory=set)
+    run: Run | None = None
+    new_source: Source | None = None
+    result: RunResult | None = None
+    cannot: str | None = None   # why the run cannot be sized yet (it can still be stored)
+    feet: float | None = None
+
+
+@dataclass
+class _Reading:
+    """The texts being read, and what each check has made of them so far."""
+
+    form: "CardForm"
+    v: dict[str, str]
+    errors: dict[str, str] = field(default_factory=dict)
+    hints: dict[str, str] = field(default_factory=dict)
+    got: dict[str, object] = field(default_factory=dict)
+
+    @property
+    def job(self):
+        return self.form.session.job
+
+
+def _check_from(r: _Reading) -> None:
+    src = r.v["from"].strip()
+    r.got["from"] = src
+    if not src:
+        r.errors["from"] = "give the source the run starts at"
+    elif r.job.source(src) is None:
+        known = ", ".join(r.form.session.source_ids()[:8]) or "none yet"
+        r.errors["from"] = f"no source '{src}' in this walk (sources: {known})"
+    else:
+        source = r.job.source(src)
+        r.hints["from"] = f"{source.kind} {source.system.split()[0]}"
+
+
+def _check_to(r: _Reading) -> None:
+    to = r.v["to"].strip()
+    dest = r.job.source(to) if to else None
+    r.got["to"], r.got["dest"] = to, dest
+    if not to:
+        r.errors["to"] = "name the load or the panel the run goes to"
+    elif dest is not None:
+        r.hints["to"] = f"feeds {dest.kind} {dest.id}"
+    else:
+        r.hints["to"] = "a load; panel? ^o" if not r.v["panel"].strip() else "new source"
+
+
+def _check_length(r: _Reading) -> None:
+    try:
+        feet = parse_length(r.v["length"])
+        r.got["feet"] = feet
+        r.hints["length"] = f"= {fmt_ft(feet)} ft"
+    except LengthError as exc:
+        r.errors["length"] = str(exc) if r.v["length"].strip() else "type the length along the route"
+
+
+def _check_load(r: _Reading) -> None:
+    text = r.v["load"]
+    r.got["load"] = None
+    if text.strip():
+        try:
+            value, unit, pf = parse_load_text(text)
+            r.got["load"] = Load(value=value, unit=unit, pf=pf)
+        except LoadError as exc:
+            r.errors["load"] = str(exc)
+        except Exception as exc:  # pydantic range check
+            r.errors["load"] = _first_error(exc)
+    elif r.got.get("dest") is None and not r.v["panel"].strip():
+        r.errors["load"] = "a branch run needs its load (16A, 1.8kVA, 5kW)"
+    else:
+        r.hints["load"] = "what the panel serves"
+
+
+def _check_panel(r: _Reading) -> None:
+    text = r.v["panel"].strip()
+    r.got["new_source"] = None
+    if not text:
+        return
+    dest = r.got.get("dest")
+    if dest is not None:
+        r.errors["panel"] = f"'{r.got['to']}' is already a {dest.kind}; leave this blank"
+        return
+    try:
+        new = new_source_from(str(r.got["to"]), text)
+    except ValueError as exc:
+        r.errors["panel"] = str(exc)
+        return
+    r.got["new_source"] = new
+    r.hints["panel"] = f"{new.kind} {new.system}"
+
+
+def _check_circuit(r: _Reading) -> None:
+    circuit = r.v["circuit"].strip().upper()
+    r.got["connection"] = circuit or None
+    if circuit and circuit not in CONNECTION_NAMES:
+        r.errors["circuit"] = f"one of {', '.join(CONNECTION_NAMES)} (blank: all the source offers)"
+    elif "from" not in r.errors:
+        r.hints["circuit"] = _circuit_hint(r.job.source(r.got["from"]).system, circuit, r.got.get("dest"))
+
+
+def _check_yes_no(key: str, name: str) -> Callable[[_Reading], None]:
+    def check(r: _Reading) -> None:
+        value = yes_no(r.v[key])
+        r.got[name] = bool(value)
+        if value is None:
+            r.errors[key] = "yes or no"
+    return check
+
+
+def _check_sets(r: _Reading) -> None:
+    r.got["sets"] = 1
+    if r.v["sets"].strip():
+        try:
+            sets = int(r.v["sets"])
+            if not 1 <= sets <= MAX_SETS:
+                raise ValueError
+            r.got["sets"] = sets
+        except ValueError:
+            r.errors["sets"] = f"a whole number from 1 to {MAX_SETS}"
+
+
+def _check_size(r: _Reading) -> None:
+    r.got["size"] = None
+    if r.v["size"].strip():
+        from gaugewalk.tables.conductor.sizes import parse_size
+
+        try:
+            r.got["size"] = parse_size(r.v["size"])
+            r.hints["size"] = f"fixed {r.got['size']}"
+        except Exception as exc:
+            r.errors["size"] = str(exc)
+
+
+def _check_material(r: _Reading) -> None:
+    material = r.v["material"].strip().lower() or None
+    r.got["material"] = material
+    if material not in (None, "cu", "al"):
+        r.errors["material"] = "cu or al (blank: the job default)"
+    if material is None:
+        r.hints["material"] = f"job: {r.job.defaults.material}"
+
+
+def _check_raceway(r: _Reading) -> None:
+    raceway = r.v["raceway"].strip() or None
+    r.got["raceway"] = raceway
+    if raceway is None:
+        r.hints["raceway"] = f"job: {r.job.defaults.raceway}"
+        return
+    from gaugewalk.model.engine.sizing import resolve_raceway
+
+    try:
+        rtype, _, _ = resolve_raceway(raceway)
+        r.hints["raceway"] = rtype
+    except ValueError as exc:
+        r.errors["raceway"] = str(exc)
+
+
+def _check_id(r: _Reading) -> None:
+    run_id = r.v["id"].strip()
+    r.got["id"] = run_id
+    if not run_id:
+        r.errors["id"] = "every run needs an id"
+    elif run_id != r.form.run_id and r.job.run(run_id) is not None:
+        r.errors["id"] = f"'{run_id}' is taken; next free is {r.job.next_run_id('R')}"
+
+
+CHECKS: tuple[tuple[str, Callable[[_Reading], None]], ...] = (
+    ("from", _check_from),
+    ("to", _check_to),
+    ("length", _check_length),
+    ("load", _check_load),
+    ("panel", _check_panel),
+    ("circuit", _check_circuit),
+    ("continuous", _check_yes_no("continuous", "continuous")),
+    ("spread", _check_yes_no("spread", "distributed")),
+    ("sets", _check_sets),
+    ("size", _check_size),
+    ("material", _check_material),
+    ("raceway", _check_raceway),
+    ("id", _check_id),
+)
+"""Each field's check, in an order where a check may use what the earlier ones read."""
+
+
+def _run_data(r: _Reading) -> dict:
+    """The run's fields (walk model names) from what the checks read."""
+    g = r.got
+    return {
+        "id": g["id"], "from": g["from"], "to": g["to"], "length": r.v["length"].strip(),
+        "load": g["load"], "continuous": g["continuous"], "distributed": g["distributed"],
+        "connection": g["connection"], "sets": g["sets"], "size": g["size"],
+        "material": g["material"], "raceway": g["raceway"], "notes": r.v["notes"].strip(),
+    }
+
+
+class CardForm:
+    """One run card: the texts of its fields, which of them the person typed (the others the
+    form fills in and keeps following the run), and what they make. ``run_id`` None records a
+    new run; else the card edits that run."""
+
+    def __init__(self, session: WalkSession, run_id: str | None = None) -> None:
+        self.session = session
+        self.run_id = run_id
+        self.values: dict[str, str] = {k: "" for k in FIELD_KEYS}
+        self.typed: set[str] = set()
+        self.restored = False  # the card came back from a draft
+
+    # ----- filling in -------------------------------------------------------------------
+    def start(self) -> str | None:
+        """Fill the card: the run being edited, the unstored card kept from last time, or a new
+        card. Returns the field typing starts in (None: the run to edit is gone)."""
+        s = self.session
+        if self.run_id is not None:
+            run = s.job.run(self.run_id)
+            if run is None:
+                return None
+            self.values = run_to_fields(run)
+            return "length"
+        if s.draft:
+            self.values = {k: s.draft.get(k, "") for k in FIELD_KEYS}
+            self.typed = {k for k, v in s.draft.items() if v}
+            self.restored = True
+            return "from"
+        self.values = self.fresh(None)
+        return "to" if s.job.source(self.values["from"]) is not None else "from"
+
+    def fresh(self, source_id: str | None) -> dict[str, str]:
+        """A new card's texts: from ``source_id`` (else the last run's source), with the circuit,
+        continuous, material and raceway of the last branch run from that source."""
+        s = self.session
+        prev = s.previous_like(source_id)
+        values = {k: "" for k in FIELD_KEYS}
+        values["from"] = source_id or (prev.from_ if prev else (s.source_ids()[:1] or [""])[0])
+        same = s.previous_like(values["from"])
+        if same is not None and same.from_ == values["from"] and not s.job.is_feeder(same):
+            copied = run_to_fields(same)
+            for k in COPIED_FROM_PREVIOUS:
+                values[k] = copied[k]
+        values["continuous"] = values["continuous"] or "no"
+        values["spread"] = "no"
+        values["sets"] = "1"
+        values["id"] = self.next_id(same if same is not None and same.from_ == values["from"] else None)
+        return values
+
+    def next_card(self, stored: Run, new_source: Source | None) -> str:
+        """After ``stored`` was stored: a new card from the same source (from the panel just
+        declared, whose runs usually come next). Returns that source id."""
+        next_from = new_source.id if new_source is not None else stored.from_
+        self.values = self.fresh(next_from)
+        self.typed = set()
+        self.restored = False
+        return next_from
+
+    def next_id(self, like: Run | None, feeder: bool = False) -> str:
+        """The next free id in the style of the last run from the same source (``LP1-7`` ->
+        ``LP1-8``), else ``R`` and a number (``F`` and a number for a feeder)."""
+        job = self.session.job
+        if feeder:
+            return job.next_run_id("F")
+        if like is not None:
+            m = re.match(r"^(.*?)(\d+)$", like.id)
+            if m and m.group(1):
+                return job.next_run_id(m.group(1))
+        return job.next_run_id("R")
+
+    def type(self, key: str, text: str) -> dict[str, str]:
+        """The person typed ``text`` into ``key``. Returns the fields the form changed on their
+        behalf (fields nobody typed in follow the run)."""
+        self.values[key] = text
+        self.typed.add(key)
+        if key in ("from", "to", "panel") and self.run_id is None:
+            return self._follow()
+        return {}
+
+    def _follow(self) -> dict[str, str]:
+        """Fields nobody typed in follow the run: a feeder takes every hot and the neutral its
+        source offers (circuit blank); a branch copies the last branch from the same source."""
+        s = self.session
+        v = self.values
+        source_id = v["from"].strip()
+        feeder = s.job.source(v["to"].strip()) is not None or bool(v["panel"].strip())
+        copied = {k: "" for k in COPIED_FROM_PREVIOUS}
+        copied["continuous"] = "no"
+        same = s.previous_like(source_id) if s.job.source(source_id) is not None else None
+        if same is not None and same.from_ == source_id and not s.job.is_feeder(same):
+            copied.update({k: run_to_fields(same)[k] for k in COPIED_FROM_PREVIOUS})
+        if feeder:
+            copied["circuit"] = ""
+        like = same if same is not None and same.from_ == source_id else None
+        copied["id"] = self.next_id(like, feeder)
+        changed = {}
+        for k in FOLLOWING:
+            if k not in self.typed and v[k] != copied[k]:
+                v[k] = changed[k] = copied[k]
+        return changed
+
+    def draft(self) -> dict[str, str] | None:
+        """The texts to keep for later (a new card only)."""
+        return dict(self.values) if self.run_id is None else None
+
+    # ----- checking ---------------------------------------------------------------------
+    def check(self, store_tried: bool = False) -> CardCheck:
+        """Check every field, build the run if they allow it and size it in the walk."""
+        r = _Reading(self, dict(self.values))
+        for _key, check in CHECKS:
+            check(r)
+        out = CardCheck(feet=r.got.get("feet"), new_source=r.got.get("new_source"))
+        run = None
+        if not r.errors:
+            data = self._keep_unshown(_run_data(r), r.hints)
+            try:
+                run = Run.model_validate(data)
+            except Exception as exc:
+                r.errors.update(_pydantic_fields(exc))
+        if run is not None:
+            preview = self.session.preview(run, replaces=self.run_id, new_source=out.new_source)
+            out.result = preview.result
+            out.cannot = preview.cannot_size
+            for field_key, message in preview.problems:
+                key = _CARD_FIELD.get(field_key or "", "to" if field_key is None else "from")
+                r.errors.setdefault(key, message)
+        out.errors, out.hints = r.errors, r.hints
+        out.run = run if not r.errors else None
+        # an empty field nobody has reached yet is "needed", not wrong
+        out.soft = {
+            k for k in r.errors
+            if not r.v[k].strip() and k not in self.typed and not store_tried
+        }
+        return out
+
+    def _keep_unshown(self, fields: dict, hints: dict[str, str]) -> dict:
+        """The run as the card says, keeping what the card does not show (segments, bends,
+        device, overrides...) from the run being edited. A new or re-measured length is dated
+        today; segments that no longer add up to a changed length are dropped (undo brings
+        them back), and the length field says so."""
+        original = self.session.job.run(self.run_id) if self.run_id is not None else None
+        if original is None:
+            return {**fields, "measured_on": date.today()}
+        data = original.model_dump(by_alias=True)
+        load = fields.get("load")
+        fields = {**fields, "load": load.model_dump() if load is not None else None}
+        data.update(fields)
+        if fields["length"] != original.length:
+            data["measured_on"] = date.today()
+            if original.segments:
+                data["segments"] = []
+                hints["length"] = (hints.get("length", "") + f"; drops {len(original.segments)} segments").lstrip("; ")
+        return data
+
+
+_CARD_FIELD = {
+    "from": "from", "to": "to", "length": "length", "load": "load", "load.value": "load",
+    "load.unit": "load", "load.pf": "load", "connection": "circuit", "sets": "sets",
+    "size": "size", "material": "material", "raceway": "raceway", "id": "id",
+    "continuous": "continuous", "distributed": "spread", "notes": "notes",
+}
+"""The card field each walk-model field of a run is typed in."""
+
+
+def _circuit_hint(system: str, connection: str, dest) -> str:
+    """What the circuit field means in volts: ``LN 120 V 1ph``; blank shows the default."""
+    from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
+    from gaugewalk.model.walk.checks import default_connection
+
+    try:
+        conn = connection or default_connection(system, dest is not None and dest.kind == "transformer")
+        c = resolve_circuit(system, conn)
+    except (CircuitError, KeyError):
+        return ""
+    lead = "" if connection else "all: "
+    return f"{lead}{conn} {c.volts:g} V {c.phases}ph"
+
+
+def _first_error(exc: Exception) -> str:
+    errors = getattr(exc, "errors", None)
+    if callable(errors):
+        try:
+            first = errors()[0]
+            return str(first.get("msg", exc)).removeprefix("Value error, ")
+        except Exception:
+            pass
+    return str(exc)
+
+
+def _pydantic_fields(exc: Exception) -> dict[str, str]:
+    out: dict[str, str] = {}
+    errors = getattr(exc, "errors", None)
+    if not callable(errors):
+        return {"to": str(exc)}
+    for e in errors():
+        loc = ".".join(str(x) for x in e.get("loc", ()))
+        key = _CARD_FIELD.get(loc.replace("from_", "from"), _CARD_FIELD.get(loc.split(".")[0], "notes"))
+        out.setdefault(key, str(e.get("msg", "")).removeprefix("Value error, "))
+    return out or {"to": str(exc)}

@@ -1,0 +1,101 @@
+"""The run card's form without a screen: what a new card holds, what follows what is typed, each
+field's check, the run the texts make and its live answer."""
+
+from __future__ import annotations
+
+import pytest
+
+from gaugewalk.model.session.card_form import FIELD_KEYS, CardForm, complete
+from gaugewalk.model.session.session import WalkSession
+from tests.support.app_helpers import write_walk
+
+
+@pytest.fixture
+def session(tmp_path):
+    return WalkSession.open(write_walk(tmp_path))
+
+
+def _typed(form: CardForm, **texts: str) -> CardForm:
+    for key, text in texts.items():
+        form.type(key, text)
+    return form
+
+
+def test_a_new_card_starts_on_to_from_the_last_runs_source_with_its_circuit(session):
+    form = CardForm(session)
+    assert form.start() == "to"
+    v = form.values
+    # the invented walk's last run R1 is from LP1, LN
+    assert (v["from"], v["circuit"], v["id"], v["sets"], v["continuous"]) == ("LP1", "LN", "R2", "1", "no")
+    assert set(v) == set(FIELD_KEYS)
+
+
+def test_the_texts_make_a_run_whose_live_answer_is_the_hand_worked_drop(session):
+    form = CardForm(session)
+    form.start()  # from LP1, circuit LN (the last run's)
+    checked = _typed(form, to="Mixer", length="30+20", load="10A", size="12").check()
+    assert checked.errors == {}
+    assert checked.run is not None and checked.run.to == "Mixer" and checked.feet == 50
+    # NEC 2023 Ch. 9 Table 8, 12 AWG stranded Cu 1.98 ohm/kft (DC method, 75 degC):
+    # 2 x 10 A x 1.98 x 50 ft / 1000 = 1.98 V = 1.65 % of 120 V (line-to-neutral)
+    assert checked.result.voltage_drop_pct == pytest.approx(1.65, abs=0.005)
+
+
+@pytest.mark.parametrize("key, text, reason", [
+    ("length", "12q", "unknown unit"),
+    ("load", "16", "no unit"),
+    ("sets", "21", "1 to 20"),
+    ("circuit", "XY", "one of LN"),
+    ("material", "gold", "cu or al"),
+    ("from", "LP9", "no source 'LP9'"),
+    ("id", "R1", "'R1' is taken"),
+])
+def test_a_wrong_field_is_named_with_its_reason_and_no_run_is_made(session, key, text, reason):
+    form = CardForm(session)
+    form.start()
+    _typed(form, to="Mixer", length="40", load="16A")
+    form.type(key, text)
+    checked = form.check()
+    assert reason in checked.errors[key]
+    assert checked.run is None
+
+
+def test_empty_fields_nobody_reached_are_needed_not_wrong_until_a_store_is_tried(session):
+    form = CardForm(session)
+    form.start()
+    assert form.check().soft == {"to", "length", "load"}
+    assert form.check(store_tried=True).soft == set()
+
+
+def test_a_run_to_a_source_is_a_feeder_with_every_hot_and_an_f_id(session):
+    form = CardForm(session)
+    form.start()
+    changed = form.type("from", "SVC")
+    changed.update(form.type("to", "LP1"))
+    assert form.values["circuit"] == "" and form.values["id"] == "F2"
+    assert changed["id"] == "F2"
+
+
+def test_fields_the_person_typed_are_not_followed(session):
+    form = CardForm(session)
+    form.start()
+    form.type("id", "MIX-1")
+    form.type("to", "LP1")  # now a feeder: the id would be F2, but it was typed
+    assert form.values["id"] == "MIX-1"
+
+
+def test_a_panel_declared_on_the_card_is_the_new_source_and_the_next_card_starts_from_it(session):
+    form = CardForm(session)
+    form.start()
+    _typed(form, **{"from": "SVC", "to": "LP2", "length": "120", "panel": "208Y/120"})
+    checked = form.check()
+    assert checked.errors == {} and checked.new_source.id == "LP2"
+    assert checked.new_source.system == "208Y/120V 3ph 4w"
+    assert form.next_card(checked.run, checked.new_source) == "LP2"
+    assert form.values["from"] == "LP2" and form.typed == set()
+
+
+def test_completion_takes_the_first_name_that_starts_with_the_text_in_any_case():
+    assert complete("pro", ["Panel", "Proofer", "Prover"]) == "Proofer"
+    assert complete("", ["Proofer"]) is None
+    assert complete("x", ["Proofer"]) is None
