@@ -87,11 +87,13 @@ def _round(value: float | None, places: int = 4) -> float | None:
     return None if value is None else round(value, places)
 
 
+def _plural(n: int, word: str) -> str:
+    return f"{n} {word}" if n == 1 else f"{n} {word}s"
+
+
 def _table(path: str, job: Job, result: JobResult) -> str:
-    head = f"{'run':<10} {'from':<8} {'to':<24} {'ft':>7} {'load':>13} {'size':>14} " \
-           f"{'drop%':>6} {'total%':>6}  status"
-    lines = [f"{job.job.name or path}: {len(job.runs)} runs, {len(job.sources)} sources", "",
-             head, "-" * len(head)]
+    """One line per run, the id and source columns as wide as their longest entry."""
+    rows = []
     for r in job.runs:
         rr = result.runs.get(r.id)
         to = r.to if len(r.to) <= 24 else r.to[:23] + "~"
@@ -101,8 +103,18 @@ def _table(path: str, job: Job, result: JobResult) -> str:
             size = f"{rr.sets}x{rr.size}" if rr.sets > 1 else rr.size
             vd, tot = f"{rr.voltage_drop_pct:.2f}", f"{rr.total_drop_pct:.2f}"
             status = "ok" if rr.ok else "OVER"
-        lines.append(f"{r.id:<10} {r.from_:<8} {to:<24} {r.length_ft:>7.1f} {_load_text(r):>13} "
-                     f"{size:>14} {vd:>6} {tot:>6}  {status}")
+        rows.append((r.id, r.from_, to, f"{r.length_ft:.1f}", _load_text(r), size, vd, tot, status))
+    wid = max([len("run"), *(len(row[0]) for row in rows)])
+    wfrom = max([len("from"), *(len(row[1]) for row in rows)])
+
+    def line(cells) -> str:
+        i, f, to, ft, load, size, vd, tot, status = cells
+        return (f"{i:<{wid}} {f:<{wfrom}} {to:<24} {ft:>7} {load:>13} {size:>14} "
+                f"{vd:>6} {tot:>6}  {status}")
+
+    head = line(("run", "from", "to", "ft", "load", "size", "drop%", "total%", "status"))
+    title = f"{job.job.name or path}: {_plural(len(job.runs), 'run')}, {_plural(len(job.sources), 'source')}"
+    lines = [title, "", head, "-" * len(head)] + [line(row) for row in rows]
     lines.append("")
     if result.problems:
         lines.append(f"{len(result.problems)} problem(s):")
