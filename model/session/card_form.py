@@ -384,6 +384,24 @@ def _run_data(r: _Reading) -> dict:
     }
 
 
+_ID_TAIL = re.compile(r"^(.*?)(\d+(?:/\d+)*)$")
+"""An id's stem and its closing numbers (``LPA-`` and ``9/11``)."""
+
+
+def _next_with_stem(job, stem: str) -> str:
+    """``stem`` and one past the highest number any id with that stem ends in."""
+    used = {r.id for r in job.runs}
+    highest = 0
+    for rid in used:
+        m = _ID_TAIL.match(rid)
+        if m and m.group(1) == stem:
+            highest = max(highest, *(int(n) for n in m.group(2).split("/")))
+    n = highest + 1
+    while f"{stem}{n}" in used:
+        n += 1
+    return f"{stem}{n}"
+
+
 class CardForm:
     """One run card: the texts of its fields, which of them the person typed (the others the
     form fills in and keeps following the run), and what they make. ``run_id`` None records a
@@ -408,12 +426,28 @@ class CardForm:
             self.values = run_to_fields(run)
             return "length"
         if s.draft:
-            self.values = {k: s.draft.get(k, "") for k in FIELD_KEYS}
-            self.typed = {k for k, v in s.draft.items() if v}
-            self.restored = True
-            return "from"
-        self.values = self.fresh(None)
-        return "to" if s.job.source(self.values["from"]) is not None else "from"
+            self._restore(s.draft)
+        else:
+            self.values = self.fresh(None)
+        return self.first_needed()
+
+    def first_needed(self) -> str:
+        """Where typing starts on a new or restored card: the first main field still empty or
+        wrong (To on a fresh card, whose From is the last run's source)."""
+        errors = self.check().errors
+        return next((k for k in MAIN_KEYS if k in errors), "to")
+
+    def _restore(self, draft: dict[str, str]) -> None:
+        """Bring back an unstored card. The draft keeps texts only, so the fields the card
+        fills in (circuit, id...) count as typed only where they differ from what it would fill
+        in now; the others follow the run again (a card restored and moved to another source
+        takes that source's ids)."""
+        self.values = {k: str(draft.get(k, "")) for k in FIELD_KEYS}
+        self.typed = {k for k in FIELD_KEYS if k not in FOLLOWING and self.values[k]}
+        following = self._following_values()
+        self.typed |= {k for k in FOLLOWING if self.values[k] != following[k]}
+        self._follow()
+        self.restored = True
 
     def fresh(self, source_id: str | None) -> dict[str, str]:
         """A new card's texts: from ``source_id`` (else the last run's source), with the circuit,
@@ -443,15 +477,22 @@ class CardForm:
         return next_from
 
     def next_id(self, like: Run | None, feeder: bool = False) -> str:
-        """The next free id in the style of the last run from the same source (``LP1-7`` ->
-        ``LP1-8``), else ``R`` and a number (``F`` and a number for a feeder)."""
+        """The next free id in the style of the last run from the same source, else ``R`` and a
+        number (``F`` and a number for a feeder).
+
+        The style is the id's stem before its closing numbers: ``LP1-7`` -> ``LP1-8``; an id
+        ending in circuit positions (``LPA-9/11``) steps past the highest number used with
+        that stem (``LPA-12``). A stem naming another source (a run from LPA stored as
+        ``LPB-12``) is not this source's style."""
         job = self.session.job
         if feeder:
             return job.next_run_id("F")
         if like is not None:
-            m = re.match(r"^(.*?)(\d+)$", like.id)
-            if m and m.group(1):
-                return job.next_run_id(m.group(1))
+            m = _ID_TAIL.match(like.id)
+            stem = m.group(1) if m else ""
+            named = stem.rstrip(" -_./#")
+            if stem and not (named != like.from_ and job.source(named) is not None):
+                return _next_with_stem(job, stem)
         return job.next_run_id("R")
 
     def type(self, key: str, text: str) -> dict[str, str]:
@@ -464,8 +505,18 @@ class CardForm:
         return {}
 
     def _follow(self) -> dict[str, str]:
-        """Fields nobody typed in follow the run: a feeder takes every hot and the neutral its
-        source offers (circuit blank); a branch copies the last branch from the same source."""
+        """Fields nobody typed in follow the run; returns those that changed."""
+        following = self._following_values()
+        changed = {}
+        for k in FOLLOWING:
+            if k not in self.typed and self.values[k] != following[k]:
+                self.values[k] = changed[k] = following[k]
+        return changed
+
+    def _following_values(self) -> dict[str, str]:
+        """What the fields the card fills in hold for the run as typed: a feeder takes every
+        hot and the neutral its source offers (circuit blank); a branch copies the last branch
+        from the same source."""
         s = self.session
         v = self.values
         source_id = v["from"].strip()
@@ -479,11 +530,7 @@ class CardForm:
             copied["circuit"] = ""
         like = same if same is not None and same.from_ == source_id else None
         copied["id"] = self.next_id(like, feeder)
-        changed = {}
-        for k in FOLLOWING:
-            if k not in self.typed and v[k] != copied[k]:
-                v[k] = changed[k] = copied[k]
-        return changed
+        return copied
 
     def draft(self) -> dict[str, str] | None:
         """The texts to keep for later (a new card only)."""

@@ -99,3 +99,117 @@ def test_completion_takes_the_first_name_that_starts_with_the_text_in_any_case()
     assert complete("pro", ["Panel", "Proofer", "Prover"]) == "Proofer"
     assert complete("", ["Proofer"]) is None
     assert complete("x", ["Proofer"]) is None
+
+
+# An invented walk with two panels whose runs are named by their circuit positions.
+TWO_PANELS = """\
+schema = 1
+
+[job]
+name = "Dockside deli"
+
+[[source]]
+id = "SVC"
+kind = "service"
+system = "208Y/120V 3ph 4w"
+
+[[source]]
+id = "LPA"
+kind = "panel"
+system = "208Y/120V 3ph 4w"
+
+[[source]]
+id = "LPB"
+kind = "panel"
+system = "208Y/120V 3ph 4w"
+
+[[run]]
+id = "F1"
+from = "SVC"
+to = "LPA"
+length = "40"
+
+[[run]]
+id = "F2"
+from = "SVC"
+to = "LPB"
+length = "60"
+
+[[run]]
+id = "LPA-1"
+from = "LPA"
+to = "Till"
+length = "30"
+load = { value = 6, unit = "A" }
+connection = "LN"
+
+[[run]]
+id = "LPA-9/11"
+from = "LPA"
+to = "Slicer"
+length = "25"
+load = { value = 12, unit = "A" }
+connection = "LL"
+
+[[run]]
+id = "LPB-11"
+from = "LPB"
+to = "Fryer"
+length = "20"
+load = { value = 20, unit = "A" }
+connection = "LL"
+"""
+
+
+@pytest.fixture
+def panels(tmp_path):
+    return WalkSession.open(write_walk(tmp_path, TWO_PANELS))
+
+
+def test_an_id_ending_in_circuit_positions_steps_past_the_highest_position(panels):
+    form = CardForm(panels)
+    form.start()
+    form.type("from", "LPA")
+    assert form.values["id"] == "LPA-12"  # after LPA-9/11, not LPA-9/12 or LPA-9/11/12
+    form.type("from", "LPB")
+    assert form.values["id"] == "LPB-12"
+
+
+def test_an_id_in_the_style_of_another_source_is_not_copied(panels):
+    from gaugewalk.model.walk.job import Run
+
+    stray = Run.model_validate({"id": "LPB-12", "from": "LPA", "to": "Mixer", "length": "10",
+                                "load": {"value": 5, "unit": "A"}, "connection": "LN"})
+    assert panels.put_run(stray) is None
+    form = CardForm(panels)
+    form.start()
+    form.type("from", "LPA")
+    assert not form.values["id"].startswith("LPB")
+
+
+def test_a_restored_card_moved_to_another_source_takes_that_sources_ids(panels):
+    form = CardForm(panels)
+    form.start()
+    form.type("from", "LPB")
+    form.type("to", "Toaster")
+    assert form.values["id"] == "LPB-12"
+    panels.keep_draft(form.draft())  # the app stops here; the card is kept as texts
+
+    again = CardForm(panels)
+    assert again.start() == "length"  # the first main field still needed
+    assert again.restored and again.values["to"] == "Toaster"
+    again.type("from", "LPA")
+    assert again.values["id"] == "LPA-12"  # the id was the card's, not typed: it follows
+
+
+def test_a_restored_card_keeps_an_id_that_was_typed(panels):
+    form = CardForm(panels)
+    form.start()
+    form.type("from", "LPB")
+    form.type("to", "Toaster")
+    form.type("id", "TOAST")
+    panels.keep_draft(form.draft())
+    again = CardForm(panels)
+    again.start()
+    again.type("from", "LPA")
+    assert again.values["id"] == "TOAST"

@@ -68,6 +68,7 @@ class RunCard(TypedInOrder, Screen):
         self._answer_text = ""
         self._said: tuple[str, bool] | None = None
         self._sticky: str | None = None
+        self._last_main = "to"
 
     @property
     def errors(self) -> dict[str, str]:
@@ -123,6 +124,9 @@ class RunCard(TypedInOrder, Screen):
 
     def field_entered(self, field: Input) -> None:
         field.select_all()
+        key = (field.id or "")[2:]
+        if key in MAIN_KEYS:
+            self._last_main = key  # where ctrl+o comes back to
         self._message_for_focus()
 
     def values(self) -> dict[str, str]:
@@ -286,10 +290,10 @@ class RunCard(TypedInOrder, Screen):
         self.focus_previous()
 
     def action_toggle_more(self) -> None:
+        """ctrl+o: from a main field to the other fields, and back to the main field left."""
         focused = self.focused
         key = (focused.id or "")[2:] if isinstance(focused, Input) else ""
-        target = "panel" if key in MAIN_KEYS else "from"
-        self._focus_field(target)
+        self._focus_field("panel" if key in MAIN_KEYS else self._last_main)
 
     def action_store(self) -> None:
         if self.session.busy:
