@@ -90,20 +90,21 @@ async def test_quit_leaves_at_once_when_all_is_saved(tmp_path):
         assert app.return_code == 0
 
 
-async def test_quit_asks_when_a_typed_run_card_would_be_lost(tmp_path):
-    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+async def test_quit_keeps_a_typed_run_card_for_next_time_without_asking(tmp_path):
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
         await pilot.press("n")
         await type_text(pilot, "Freezer")
-        await pilot.press("escape")  # the card closes; the draft is kept
-        await pilot.press("ctrl+q")
-        assert isinstance(app.screen, AskScreen)
-        assert "run card" in shown(app, "#ask-question")
-        await pilot.press("n")  # stay
-        assert isinstance(app.screen, WalkScreen) and app.return_code is None
-        await pilot.press("n")  # the draft comes back
-        assert app.screen.values()["to"] == "Freezer"
+        await pilot.press("ctrl+q")  # from the open card: nothing is lost, so no question
+        await pilot.pause()
+        assert app.return_code == 0
+    again = new_app(path, tmp_path / "cfg")
+    async with again.run_test(size=(80, 24)) as pilot:
+        await opened(again, pilot)
+        await pilot.press("n")  # the card comes back
+        assert again.screen.values()["to"] == "Freezer"
 
 
 async def test_a_missing_walk_is_created_only_after_asking(tmp_path):

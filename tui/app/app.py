@@ -227,7 +227,10 @@ class WalkApp(App[int]):
         self.theme = "textual-light" if self.theme == "textual-dark" else "textual-dark"
 
     async def action_quit(self) -> None:
-        lose = self.session.lose_on_quit if self.session and not self.session.read_only else None
+        """Quit; ask only when changes could not be saved. An unstored run card is not lost:
+        it is kept beside the walk as it is typed and comes back with n next time."""
+        s = self.session
+        lose = s.lose_on_quit if s is not None and not s.read_only and not s.state.saved else None
         if not lose:
             self.exit(0)
             return
