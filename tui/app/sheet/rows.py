@@ -85,6 +85,8 @@ def all_rows(session: WalkSession) -> list[SheetRow]:
 
 def detail_lines(session: WalkSession, run: Run | None) -> str:
     """Two or three lines about one run, for under the sheet (Rich markup escaped by caller)."""
+    if run is None and session.job.runs:
+        return "No run matches the filter. Esc clears the filters."
     if run is None:
         return "No run here. Press n to record the first run."
     res = session.result_for(run.id)

@@ -145,9 +145,12 @@ class RunSheet(ScrollView, can_focus=True):
         self._rebuild_view(self.cursor_key)
 
     def sort_by(self, key: str | None, reverse: bool = False) -> None:
+        """Sort by a column; the cursor goes to the first row and the view to the top, where
+        the sort put the runs just asked for (the worst, sorted in reverse)."""
         self.sort_key = key
         self.sort_reverse = reverse
-        self._rebuild_view(self.cursor_key)
+        self.cursor = 0
+        self._rebuild_view(None)
 
     def _rebuild_view(self, keep_key: str | None) -> None:
         rows = self.rows
