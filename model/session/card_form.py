@@ -23,7 +23,7 @@ from dataclasses import dataclass, field
 from datetime import date
 from typing import Callable, Iterable
 
-from gaugewalk.model.engine.contract import RunResult
+from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError, parse_load
 from gaugewalk.model.session.session import WalkSession, fmt_ft
@@ -45,7 +45,7 @@ FIELDS: tuple[CardField, ...] = (
     CardField("from", "From", "source id", True),
     CardField("to", "To", "load or panel", True),
     CardField("length", "Length", "e.g. 85+12+2*6", True),
-    CardField("load", "Load", "16A 1.8kVA 5kW", True),
+    CardField("load", "Load", "16A, 5kW 208V", True),
     CardField("panel", "New panel", "system; xfmr …"),
     CardField("circuit", "Circuit", "LN LL LLN MW 3P"),
     CardField("continuous", "Continuous", "yes / no"),
@@ -161,8 +161,32 @@ def new_source_from(source_id: str, text: str) -> Source:
         raise ValueError(_first_error(exc)) from None
 
 
-def parse_load_text(text: str) -> tuple[float, str, float | None]:
-    """``16A``, ``5kW pf0.9`` -> (value, unit, pf or None). Raises LoadError."""
+@dataclass(frozen=True)
+class LoadText:
+    """The load field read: the load, its power factor if given, and the voltage [V], poles or
+    phases it states for its circuit (None where it says nothing)."""
+
+    value: float
+    unit: str
+    pf: float | None = None
+    volts: float | None = None
+    poles: int | None = None
+    phases: int | None = None
+
+    @property
+    def states_circuit(self) -> bool:
+        return self.volts is not None or self.poles is not None or self.phases is not None
+
+
+_VOLTS_WORD = re.compile(r"^(\d{2,3})v$")
+_POLES_WORD = re.compile(r"^([123])p(?:ole)?$")
+_PHASES_WORD = re.compile(r"^([13])ph$")
+
+
+def read_load_text(text: str) -> LoadText:
+    """``16A``, ``5kW pf0.9``, ``16A 208V``, ``30A 3P``, ``10kVA 480V 3ph``: the load, then in
+    any order its power factor, the voltage it runs at and its poles or phases. Raises
+    LoadError with a sentence."""
     t = text.strip()
     pf = None
     low = t.lower()
@@ -176,8 +200,74 @@ def parse_load_text(text: str) -> tuple[float, str, float | None]:
             raise LoadError(f"'pf{pf_text}' is not a power factor; write e.g. pf0.9") from None
         if not 0 < pf <= 1:
             raise LoadError("a power factor is above 0 and at most 1")
-    value, unit = parse_load(t)
-    return value, unit, pf
+    # "120 V", "2 pole": the number and its word belong together
+    words = re.sub(r"(?<=\d)\s+(?=(?:v|p|pole|ph)\b)", "", t, flags=re.IGNORECASE).split()
+    volts = poles = phases = None
+    while len(words) > 1:
+        last = words[-1].lower()
+        if (m := _VOLTS_WORD.match(last)) and volts is None:
+            volts = float(m.group(1))
+        elif (m := _POLES_WORD.match(last)) and poles is None:
+            poles = int(m.group(1))
+        elif (m := _PHASES_WORD.match(last)) and phases is None:
+            phases = int(m.group(1))
+        else:
+            break
+        words.pop()
+    value, unit = parse_load(" ".join(words))
+    return LoadText(value, unit, pf, volts, poles, phases)
+
+
+def parse_load_text(text: str) -> tuple[float, str, float | None]:
+    """``16A``, ``5kW pf0.9`` -> (value, unit, pf or None). Raises LoadError."""
+    read = read_load_text(text)
+    return read.value, read.unit, read.pf
+
+
+BRANCH_CONNECTIONS = ("LN", "LL", "3P")
+"""The circuits a branch run's load can ask for by its voltage and poles, most usual first:
+one pole and the neutral, two poles, three poles (a neutral with more poles is typed)."""
+
+
+def circuit_for_load(system_id: str, load: LoadText) -> str:
+    """The connection the voltage, poles or phases a load states asks for on ``system_id``.
+    Raises ValueError naming what the system gives when none fits."""
+    from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
+
+    offered = []
+    for conn in BRANCH_CONNECTIONS:
+        try:
+            offered.append((conn, resolve_circuit(system_id, conn)))
+        except CircuitError:
+            continue
+    for conn, c in offered:
+        if ((load.volts is None or abs(c.volts - load.volts) < 0.5)
+                and (load.poles is None or c.hots == load.poles)
+                and (load.phases is None or c.phases == load.phases)):
+            return conn
+    said = " ".join(x for x in (
+        f"{load.volts:g} V" if load.volts is not None else "",
+        f"{load.poles}-pole" if load.poles is not None else "",
+        f"{load.phases}-phase" if load.phases is not None else "",
+    ) if x)
+    gives = "; ".join(circuit_words(c) for _, c in offered)
+    raise ValueError(f"{system_id} gives {gives}: not {said}")
+
+
+def default_branch_circuit(system_id: str) -> str:
+    """A branch run's circuit when nothing says otherwise: one pole and the neutral where the
+    system has a neutral (the usual branch circuit, common practice), else two poles."""
+    from gaugewalk.model.engine.circuits import SYSTEMS
+
+    return "LN" if SYSTEMS[system_id].has_neutral else "LL"
+
+
+def circuit_words(circuit) -> str:
+    """A ``Circuit`` in words: ``120 V, 1 pole and neutral``, ``208 V, 3 poles, 3-phase``."""
+    poles = f"{circuit.hots} pole" + ("s" if circuit.hots > 1 else "")
+    neutral = " and neutral" if circuit.neutral else ""
+    phase = ", 3-phase" if circuit.phases == 3 else ""
+    return f"{circuit.volts:g} V, {poles}{neutral}{phase}"
 
 
 @dataclass
@@ -194,6 +284,8 @@ class CardCheck:
     result: RunResult | None = None
     cannot: str | None = None   # why the run cannot be sized yet (it can still be stored)
     feet: float | None = None
+    circuit: Circuit | None = None  # what the circuit field means on the source (None: unknown)
+    connection: str = ""        # the circuit field's connection ("": every hot and the neutral)
 
 
 @dataclass
@@ -248,10 +340,12 @@ def _check_length(r: _Reading) -> None:
 def _check_load(r: _Reading) -> None:
     text = r.v["load"]
     r.got["load"] = None
+    r.got["load_text"] = None
     if text.strip():
         try:
-            value, unit, pf = parse_load_text(text)
-            r.got["load"] = Load(value=value, unit=unit, pf=pf)
+            read = read_load_text(text)
+            r.got["load_text"] = read
+            r.got["load"] = Load(value=read.value, unit=read.unit, pf=read.pf)
         except LoadError as exc:
             r.errors["load"] = str(exc)
         except Exception as exc:  # pydantic range check
@@ -281,12 +375,39 @@ def _check_panel(r: _Reading) -> None:
 
 
 def _check_circuit(r: _Reading) -> None:
+    """The circuit as typed or filled in, its voltage and poles in words (``circuit_words``);
+    wrong when the load states a voltage or poles it does not give."""
+    from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
+    from gaugewalk.model.walk.checks import default_connection
+
     circuit = r.v["circuit"].strip().upper()
     r.got["connection"] = circuit or None
+    r.got["circuit"] = None
     if circuit and circuit not in CONNECTION_NAMES:
         r.errors["circuit"] = f"one of {', '.join(CONNECTION_NAMES)} (blank: all the source offers)"
-    elif "from" not in r.errors:
-        r.hints["circuit"] = _circuit_hint(r.job.source(r.got["from"]).system, circuit, r.got.get("dest"))
+        return
+    if "from" in r.errors:
+        return
+    system = r.job.source(r.got["from"]).system
+    dest = r.got.get("dest")
+    conn = circuit or default_connection(system, dest is not None and dest.kind == "transformer")
+    try:
+        c = resolve_circuit(system, conn)
+    except CircuitError as exc:
+        r.errors["circuit"] = str(exc)
+        return
+    r.got["circuit"] = c
+    r.hints["circuit"] = ("all: " if not circuit else "") + _short_words(c)
+    load = r.got.get("load_text")
+    feeder = dest is not None or bool(r.v["panel"].strip())
+    if load is not None and load.states_circuit and not feeder:
+        try:
+            wanted = circuit_for_load(system, load)
+        except ValueError as exc:
+            r.errors["load"] = str(exc)
+            return
+        if wanted != conn:
+            r.errors["circuit"] = f"{conn} is {circuit_words(c)}; the load says {wanted}"
 
 
 def _check_yes_no(key: str, name: str) -> Callable[[_Reading], None]:
@@ -444,27 +565,21 @@ class CardForm:
         takes that source's ids)."""
         self.values = {k: str(draft.get(k, "")) for k in FIELD_KEYS}
         self.typed = {k for k in FIELD_KEYS if k not in FOLLOWING and self.values[k]}
-        following = self._following_values()
+        following = self._following_values(self.values)
         self.typed |= {k for k in FOLLOWING if self.values[k] != following[k]}
         self._follow()
         self.restored = True
 
     def fresh(self, source_id: str | None) -> dict[str, str]:
-        """A new card's texts: from ``source_id`` (else the last run's source), with the circuit,
-        continuous, material and raceway of the last branch run from that source."""
+        """A new card's texts: from ``source_id`` (else the last run's source), with what the
+        card fills in for a branch run from it (``_following_values``)."""
         s = self.session
         prev = s.previous_like(source_id)
         values = {k: "" for k in FIELD_KEYS}
         values["from"] = source_id or (prev.from_ if prev else (s.source_ids()[:1] or [""])[0])
-        same = s.previous_like(values["from"])
-        if same is not None and same.from_ == values["from"] and not s.job.is_feeder(same):
-            copied = run_to_fields(same)
-            for k in COPIED_FROM_PREVIOUS:
-                values[k] = copied[k]
-        values["continuous"] = values["continuous"] or "no"
         values["spread"] = "no"
         values["sets"] = "1"
-        values["id"] = self.next_id(same if same is not None and same.from_ == values["from"] else None)
+        values.update(self._following_values(values))
         return values
 
     def next_card(self, stored: Run, new_source: Source | None) -> str:
@@ -500,36 +615,50 @@ class CardForm:
         behalf (fields nobody typed in follow the run)."""
         self.values[key] = text
         self.typed.add(key)
-        if key in ("from", "to", "panel") and self.run_id is None:
+        if key in ("from", "to", "panel", "load") and self.run_id is None:
             return self._follow()
         return {}
 
     def _follow(self) -> dict[str, str]:
         """Fields nobody typed in follow the run; returns those that changed."""
-        following = self._following_values()
+        following = self._following_values(self.values)
         changed = {}
         for k in FOLLOWING:
             if k not in self.typed and self.values[k] != following[k]:
                 self.values[k] = changed[k] = following[k]
         return changed
 
-    def _following_values(self) -> dict[str, str]:
-        """What the fields the card fills in hold for the run as typed: a feeder takes every
-        hot and the neutral its source offers (circuit blank); a branch copies the last branch
-        from the same source."""
+    def _following_values(self, v: dict[str, str]) -> dict[str, str]:
+        """What the fields the card fills in hold for the run as typed in ``v``.
+
+        A feeder's circuit is blank: every hot and the neutral its panel needs (the walk checks
+        it delivers the panel's system). A branch run's circuit is never left blank, which
+        would mean every hot and the neutral of the source: it is what the load states (its
+        voltage, poles or phases), else the last branch run's from the same source, else one
+        pole and the neutral (``default_branch_circuit``); the card shows it in words. The
+        other fields copy the last branch run from the same source."""
         s = self.session
-        v = self.values
         source_id = v["from"].strip()
+        source = s.job.source(source_id)
         feeder = s.job.source(v["to"].strip()) is not None or bool(v["panel"].strip())
         copied = {k: "" for k in COPIED_FROM_PREVIOUS}
         copied["continuous"] = "no"
-        same = s.previous_like(source_id) if s.job.source(source_id) is not None else None
-        if same is not None and same.from_ == source_id and not s.job.is_feeder(same):
-            copied.update({k: run_to_fields(same)[k] for k in COPIED_FROM_PREVIOUS})
-        if feeder:
+        same = s.previous_like(source_id) if source is not None else None
+        like = same if same is not None and same.from_ == source_id and not s.job.is_feeder(same) else None
+        if like is not None:
+            copied.update({k: run_to_fields(like)[k] for k in COPIED_FROM_PREVIOUS})
+        if feeder or source is None:
             copied["circuit"] = ""
-        like = same if same is not None and same.from_ == source_id else None
-        copied["id"] = self.next_id(like, feeder)
+        else:
+            stated = None
+            try:
+                load = read_load_text(v["load"]) if v["load"].strip() else None
+                if load is not None and load.states_circuit:
+                    stated = circuit_for_load(source.system, load)
+            except (LoadError, ValueError):
+                stated = None  # the load field says what is wrong
+            copied["circuit"] = stated or copied["circuit"] or default_branch_circuit(source.system)
+        copied["id"] = self.next_id(same if same is not None and same.from_ == source_id else None, feeder)
         return copied
 
     def draft(self) -> dict[str, str] | None:
@@ -543,6 +672,7 @@ class CardForm:
         for _key, check in CHECKS:
             check(r)
         out = CardCheck(feet=r.got.get("feet"), new_source=r.got.get("new_source"))
+        out.circuit, out.connection = r.got.get("circuit"), r.got.get("connection") or ""
         run = None
         if not r.errors:
             data = self._keep_unshown(_run_data(r), r.hints)
@@ -595,18 +725,10 @@ _CARD_FIELD = {
 """The card field each walk-model field of a run is typed in."""
 
 
-def _circuit_hint(system: str, connection: str, dest) -> str:
-    """What the circuit field means in volts: ``LN 120 V 1ph``; blank shows the default."""
-    from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
-    from gaugewalk.model.walk.checks import default_connection
-
-    try:
-        conn = connection or default_connection(system, dest is not None and dest.kind == "transformer")
-        c = resolve_circuit(system, conn)
-    except (CircuitError, KeyError):
-        return ""
-    lead = "" if connection else "all: "
-    return f"{lead}{conn} {c.volts:g} V {c.phases}ph"
+def _short_words(circuit) -> str:
+    """The circuit in a few characters for beside its field: ``120 V 1-pole+N``."""
+    neutral = "+N" if circuit.neutral else ""
+    return f"{circuit.volts:g} V {circuit.hots}-pole{neutral}"
 
 
 def _first_error(exc: Exception) -> str:

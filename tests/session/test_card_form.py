@@ -213,3 +213,71 @@ def test_a_restored_card_keeps_an_id_that_was_typed(panels):
     again.start()
     again.type("from", "LPA")
     assert again.values["id"] == "TOAST"
+
+
+def test_the_first_branch_run_from_a_new_panel_is_one_pole_and_neutral_not_every_hot(session):
+    form = CardForm(session)
+    form.start()
+    _typed(form, **{"from": "SVC", "to": "LP2", "length": "60", "panel": "208Y/120"})
+    checked = form.check()
+    assert form.next_card(checked.run, checked.new_source) == "LP2"
+    session.put_run(checked.run, new_source=checked.new_source)
+    form.values = form.fresh("LP2")
+    assert form.values["circuit"] == "LN"
+    checked = _typed(form, to="Display case", length="50", load="10A", size="12").check()
+    c = checked.circuit
+    # 208Y/120 V: 120 V line to neutral (common practice: the wye's 208 / sqrt 3)
+    assert (c.volts, c.hots, c.neutral, c.phases) == (120, 1, True, 1)
+    # NEC 2023 Ch. 9 Table 8, 12 AWG stranded Cu 1.98 ohm/kft: 2 x 10 A x 1.98 x 50 ft / 1000
+    # = 1.98 V = 1.65 % of 120 V (as every hot and the neutral it would have been about 0.8 %)
+    assert checked.result.voltage_drop_pct == pytest.approx(1.65, abs=0.005)
+
+
+@pytest.mark.parametrize("load, circuit", [
+    ("16A 120V", "LN"),
+    ("16A 208V", "LL"),
+    ("16 A 208 V", "LL"),
+    ("16A 2P", "LL"),
+    ("30A 3P", "3P"),
+    ("5kVA 208V 3ph", "3P"),
+    ("5kW 208V pf0.9", "LL"),
+    ("16A 1P", "LN"),
+])
+def test_a_branch_circuit_follows_the_voltage_and_poles_its_load_states(session, load, circuit):
+    form = CardForm(session)
+    form.start()  # from LP1, 208Y/120 V; the last run there is LN
+    _typed(form, to="Oven", length="30", load=load)
+    assert form.values["circuit"] == circuit
+    assert form.check().errors == {}
+
+
+def test_a_load_voltage_the_panel_does_not_give_is_refused_naming_what_it_gives(session):
+    form = CardForm(session)
+    form.start()
+    _typed(form, to="Heater", length="30", load="16A 240V")
+    error = form.check().errors["load"]
+    assert "not 240 V" in error and "120 V" in error and "208 V" in error
+
+
+def test_a_typed_circuit_that_disagrees_with_the_load_is_refused_at_the_circuit(session):
+    form = CardForm(session)
+    form.start()
+    _typed(form, to="Heater", length="30", circuit="LN", load="16A 208V")
+    assert "the load says LL" in form.check().errors["circuit"]
+
+
+def test_a_panel_without_a_neutral_defaults_its_branch_runs_to_two_poles(tmp_path):
+    walk = TWO_PANELS.replace('id = "LPB"\nkind = "panel"\nsystem = "208Y/120V 3ph 4w"',
+                              'id = "LPB"\nkind = "panel"\nsystem = "480V 3ph 3w"')
+    walk = walk.replace('system = "208Y/120V 3ph 4w"', 'system = "480V 3ph 3w"', 1)  # the service
+    walk = walk.replace('connection = "LN"', 'connection = "LL"')
+    walk = walk.replace('id = "LPA"\nkind = "panel"\nsystem = "208Y/120V 3ph 4w"',
+                        'id = "LPA"\nkind = "panel"\nsystem = "480V 3ph 3w"')
+    walk = walk[:walk.index('[[run]]\nid = "LPA-1"')]  # feeders only: nothing to copy
+    session = WalkSession.open(write_walk(tmp_path, walk))
+    form = CardForm(session)
+    form.start()
+    form.type("from", "LPB")
+    assert form.values["circuit"] == "LL"
+    c = _typed(form, to="Heater", length="30", load="10A").check().circuit
+    assert (c.volts, c.hots, c.neutral) == (480, 2, False)

@@ -194,6 +194,12 @@ class RunCard(TypedInOrder, Screen):
     def _show_answer(self, checked: CardCheck) -> None:
         run, res = checked.run, checked.result
         lines = ["[b]Answer[/b] (live)"]
+        c = checked.circuit
+        if c is not None:  # always in words: a circuit nobody chose never hides
+            conn = checked.connection or "every hot"
+            phase = " 3-phase" if c.phases == 3 else ""
+            poles = f"{c.hots} pole" + ("s" if c.hots > 1 else "") + (" + neutral" if c.neutral else "")
+            lines += [f"Circuit   [b]{escape(conn)}: {c.volts:g} V{phase}[/b]", f"          {poles}"]
         if run is None or res is None:
             lines.append("")
             if run is not None and checked.cannot:
