@@ -85,7 +85,7 @@ async def test_editing_a_length_updates_the_drop_and_the_footage(tmp_path):
         # NEC 2023 Ch. 9 Table 8: 12 AWG stranded uncoated copper 1.98 ohm/kft at 75 C.
         # 120 V two-wire: VD = 2 * 16 A * 1.98 * 100 ft / 1000 = 6.336 V = 5.28 % of 120 V
         assert session.result_for("R1").voltage_drop_pct == pytest.approx(5.28, abs=0.01)
-        assert sheet_cells(app)["R1"][6] == "5.28"
+        assert sheet_cells(app)["R1"][8] == "5.28"
         await pilot.press("2")  # supply tree first, then footage: both must follow the edit
         await pilot.press("3")
         # hot + neutral + EGC, all 12 AWG (Table 250.122: 20 A device -> 12 AWG Cu), each
@@ -101,7 +101,7 @@ async def test_editing_a_length_updates_the_drop_and_the_footage(tmp_path):
         await pilot.pause()
         # half the length, half the drop (Ohm's law): 2.64 %
         assert session.result_for("R1").voltage_drop_pct == pytest.approx(2.64, abs=0.01)
-        assert sheet_cells(app)["R1"][6] == "2.64"
+        assert sheet_cells(app)["R1"][8] == "2.64"
         await pilot.press("3")
         # 3 x (50 + 2 + 2) = 162 ft
         assert re.search(r"Cu 12 AWG +162 ", shown(app, "#footage-text"))

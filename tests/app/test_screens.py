@@ -151,9 +151,9 @@ async def test_runs_failing_a_limit_are_marked_with_a_symbol_and_words_and_can_b
         await opened(app, pilot)
         cells = sheet_cells(app)
         # R1: 5.28 % over its 3 % branch target (NEC Ch. 9 Table 8 arithmetic in test_app_recording)
-        assert cells["R1"][-1] == "▲ over drop"
+        assert cells["R1"][-1] == "▲ drop"
         # R2: 14 AWG Cu carries 20 A at 75 C (Table 310.16), the load is 40 A
-        assert cells["R2"][-1] == "✗ short amps"
+        assert cells["R2"][-1] == "✗ amps"
         assert cells["R3"][-1] == "✓ ok"
         await pilot.press("exclamation_mark")  # problems only
         assert set(sheet_cells(app)) == {"R1", "R2"}
@@ -175,7 +175,7 @@ async def test_sorting_by_drop_puts_the_worst_run_last_and_reverse_first(tmp_pat
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
         sheet = app.screen.query_one(RunSheet)
-        await pilot.press(*["s"] * 7)  # id, from, to, feet, load, size, drop
+        await pilot.press(*["s"] * 9)  # id, from, to, feet, load, circuit, device, size, drop
         assert sheet.sort_key == "drop"
         assert sheet.visible_keys()[-1] == "R1"
         await pilot.press("r")
@@ -213,7 +213,7 @@ async def test_job_settings_recompute_every_run_and_can_be_undone(tmp_path):
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
-        assert sheet_cells(app)["R1"][-1] == "▲ over drop"
+        assert sheet_cells(app)["R1"][-1] == "▲ drop"
         await pilot.press("j")
         field = app.screen.query_one("#s-branch_drop_pct")
         field.focus()
@@ -223,11 +223,11 @@ async def test_job_settings_recompute_every_run_and_can_be_undone(tmp_path):
         await pilot.pause()
         assert isinstance(app.screen, WalkScreen)
         # 5.28 % is within a 6 % branch target; with the feeder's drop it is over the 5 % total
-        assert sheet_cells(app)["R1"][-1] == "▲ over total"
+        assert sheet_cells(app)["R1"][-1] == "▲ total"
         assert tomllib.loads(path.read_text())["defaults"]["branch_drop_pct"] == 6
         await pilot.press("ctrl+z")
         await pilot.pause()
-        assert sheet_cells(app)["R1"][-1] == "▲ over drop"
+        assert sheet_cells(app)["R1"][-1] == "▲ drop"
         assert "branch_drop_pct" not in tomllib.loads(path.read_text())["defaults"]
 
 
@@ -272,7 +272,7 @@ async def test_a_trial_change_shows_its_effect_and_changes_nothing_until_kept(tm
         await pilot.press("ctrl+s")
         await pilot.pause()
         assert isinstance(app.screen, WalkScreen)
-        assert sheet_cells(app)["R1"][6] == "3.31"
+        assert sheet_cells(app)["R1"][8] == "3.31"
     assert 'size = "10 AWG"' in path.read_text()
 
 
@@ -298,7 +298,7 @@ async def test_no_color_and_the_light_look_keep_every_state_in_words(tmp_path, m
         assert app.no_color
         await pilot.press("f3")
         assert app.theme == "textual-light"
-        assert sheet_cells(app)["R2"][-1] == "✗ short amps"
+        assert sheet_cells(app)["R2"][-1] == "✗ amps"
         assert "✓ saved" in app.title
 
 

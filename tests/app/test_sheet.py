@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import pytest
 
-from tests.support.app_helpers import SMALL_WALK, new_app, opened, shown, type_text, write_walk
+from tests.support.app_helpers import SMALL_WALK, new_app, opened, sheet_cells, shown, type_text, write_walk
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
 
 
@@ -47,3 +47,34 @@ async def test_a_filter_that_finds_nothing_says_so_and_how_to_clear_it(tmp_path)
         await pilot.pause()
         detail = shown(app, "#detail")
         assert "No run matches the filter" in detail and "Press n" not in detail
+
+
+async def test_the_sheet_shows_each_runs_circuit_and_device_and_fits_80_columns(tmp_path):
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        assert sheet.virtual_size.width <= sheet.scrollable_content_region.width  # no side scroll
+        cells = sheet_cells(app)
+        titles = [c.title for c in sheet.columns]
+        circuit, device = titles.index("Circuit"), titles.index("OCPD")
+        # R1: LN on 208Y/120 V, 120 V one pole; F1: every hot and the neutral, 208 V three poles
+        assert cells["R1"][circuit] == "120V 1P" and cells["F1"][circuit] == "208V 3P"
+        # 16 A noncontinuous on 12 AWG: a 20 A device (NEC 240.4(D), 240.6(A))
+        assert cells["R1"][device] == "20A"
+        await pilot.press("down")
+        assert "120 V, 1 pole and neutral" in shown(app, "#detail")
+
+
+async def test_a_wide_terminal_shows_long_run_ids_whole_before_it_widens_the_to_column(tmp_path):
+    long_id = "KITCHEN-LINE-RECEPTACLES-7"
+    text = SMALL_WALK.replace('id = "R1"', f'id = "{long_id}"')
+    app = new_app(write_walk(tmp_path, text), tmp_path / "cfg")
+    async with app.run_test(size=(160, 30)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        widths = {c.key: c.width for c in sheet.columns}
+        assert widths["id"] >= len(long_id)
+        assert sheet.virtual_size.width <= sheet.scrollable_content_region.width
+        line = "".join(seg.text for seg in sheet.render_line(1))
+        assert long_id in line

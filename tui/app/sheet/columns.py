@@ -5,14 +5,18 @@ from __future__ import annotations
 from gaugewalk.tui.app.widgets.runsheet import SheetColumn
 
 COLUMNS: tuple[SheetColumn, ...] = (
-    SheetColumn("id", "Run", 8),
-    SheetColumn("from", "From", 6),
-    SheetColumn("to", "To", 11, grow=True),
+    SheetColumn("id", "Run", 6),
+    SheetColumn("from", "From", 5),
+    SheetColumn("to", "To", 7, grow=True),
     SheetColumn("feet", "Feet", 5, right=True),
     SheetColumn("load", "Load", 6, right=True),
-    SheetColumn("size", "Size", 10),
-    SheetColumn("drop", "Drop%", 5, right=True),
-    SheetColumn("total", "Tot%", 5, right=True),
-    SheetColumn("status", "Status", 12),
+    SheetColumn("circuit", "Circuit", 7),
+    SheetColumn("device", "OCPD", 5, right=True),
+    SheetColumn("size", "Size", 9),
+    SheetColumn("drop", "VD%", 4, right=True),
+    SheetColumn("total", "Tot%", 4, right=True),
+    SheetColumn("status", "Status", 9),
 )
-SORT_KEYS = ("id", "from", "to", "feet", "load", "size", "drop", "total", "status")
+"""79 cells wide with the cursor mark at 80 columns; a wider terminal first widens the columns
+whose entries are cut (ids, sources), then To."""
+SORT_KEYS = tuple(c.key for c in COLUMNS)

@@ -56,6 +56,6 @@ def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024) -> list[SheetRo
             return None
         rid, frm, to = str(r.get("id", "")), str(r.get("from", "")), str(r.get("to", ""))
         cells = (rid, frm, to, _feet(r.get("length", "")), _load(r.get("load"), to in source_ids),
-                 "", "", "", SIZING)
+                 "", "", "", "", "", SIZING)
         rows.append(SheetRow(rid, cells, False, {}, "", frm))
     return rows

@@ -2,10 +2,18 @@
 
 from __future__ import annotations
 
-from gaugewalk.model.walk.job import Run
+import math
+from functools import lru_cache
+
+from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.contract import RunResult
+from gaugewalk.model.session.card_form import circuit_words
+from gaugewalk.model.session.session import (
+    STATUS_AMPS, STATUS_DROP, STATUS_ERROR, STATUS_OK, STATUS_TOTAL, WalkSession, fmt_ft,
+)
+from gaugewalk.model.walk.checks import connection_of, default_connection
+from gaugewalk.model.walk.job import Run
 from gaugewalk.tables.conductor.sizes import size_index
-from gaugewalk.model.session.session import WalkSession, fmt_ft, fmt_pct
 from gaugewalk.tui.app.widgets.runsheet import SheetRow
 
 
@@ -26,27 +34,91 @@ def size_text(res: RunResult | None) -> str:
     return f"{lead}{size} {mat}"
 
 
-def sheet_row(session: WalkSession, run: Run) -> SheetRow:
+SHEET_STATUS = {
+    STATUS_OK: "✓ ok", STATUS_DROP: "▲ drop", STATUS_TOTAL: "▲ total", STATUS_AMPS: "✗ amps",
+    STATUS_ERROR: "✗ unsized",
+}
+"""The status column's short words (the detail line under the sheet gives the full ones)."""
+
+
+@lru_cache(maxsize=256)
+def _circuit(system: str, connection: str) -> tuple[str, tuple[float, int]]:
+    """The circuit column: voltage and poles (``120V 1P``), and its sort value."""
+    try:
+        c = resolve_circuit(system, connection)
+    except CircuitError:
+        return "?", (0.0, 0)
+    return f"{c.volts:g}V {c.hots}P", (c.volts, c.hots)
+
+
+def source_kinds(session: WalkSession) -> dict[str, tuple[str, str]]:
+    """Each source's system and kind, looked up once for a whole sheet."""
+    return {s.id: (s.system, s.kind) for s in session.job.sources}
+
+
+def circuit_cell(run: Run, sources: dict[str, tuple[str, str]]) -> tuple[str, tuple[float, int] | None]:
+    """The run's circuit column and its sort value; a run naming no circuit takes its
+    source's default (``default_connection``)."""
+    source = sources.get(run.from_)
+    if source is None:
+        return "—", None
+    conn = run.connection
+    if conn is None:
+        to = sources.get(run.to)
+        conn = default_connection(source[0], to is not None and to[1] == "transformer")
+    return _circuit(source[0], conn)
+
+
+def _circuit_words(session: WalkSession, run: Run) -> str:
+    """The run's circuit in words (``120 V, 1 pole and neutral``), or "" when unknown."""
+    source = session.job.source(run.from_)
+    conn = connection_of(session.job, run)
+    if source is None or conn is None:
+        return ""
+    try:
+        return circuit_words(resolve_circuit(source.system, conn))
+    except CircuitError:
+        return ""
+
+
+def pct4(value: float | None) -> str:
+    """A percentage in at most four characters: ``2.10``, ``12.3``, ``123``."""
+    if value is None or not math.isfinite(value):
+        return "—"
+    if value < 9.995:
+        return f"{value:.2f}"
+    if value < 99.95:
+        return f"{value:.1f}"
+    return f"{value:.0f}" if value < 999.5 else ">999"
+
+
+def sheet_row(session: WalkSession, run: Run, sources: dict[str, tuple[str, str]] | None = None) -> SheetRow:
     res = session.result_for(run.id)
     st = session.status(run, res)
+    circuit, circuit_sort = circuit_cell(run, sources if sources is not None else source_kinds(session))
     cells = (
         run.id,
         run.from_,
         run.to,
         fmt_ft(run.length_ft),
         load_text(run),
+        circuit,
+        f"{res.ocpd_a}A" if res else "—",
         size_text(res),
-        fmt_pct(res.voltage_drop_pct) if res else "—",
-        fmt_pct(res.total_drop_pct) if res else "—",
-        st.words,
+        pct4(res.voltage_drop_pct) if res else "—",
+        pct4(res.total_drop_pct) if res else "—",
+        SHEET_STATUS.get(st.words, st.words),
     )
-    search = " ".join((run.id, run.from_, run.to, run.length, load_text(run), cells[5], st.words, run.notes)).lower()
+    search = " ".join((run.id, run.from_, run.to, run.length, load_text(run), circuit, cells[7],
+                       st.words, run.notes)).lower()
     sort = {
         "id": _natural(run.id),
         "from": run.from_.lower(),
         "to": run.to.lower(),
         "feet": run.length_ft,
         "load": (res.amps if res else None),
+        "circuit": circuit_sort,
+        "device": (res.ocpd_a if res else None),
         "size": (_size_rank(res) if res else None),
         "drop": (res.voltage_drop_pct if res else None),
         "total": (res.total_drop_pct if res else None),
@@ -80,7 +152,8 @@ def _natural(text: str) -> str:
 
 
 def all_rows(session: WalkSession) -> list[SheetRow]:
-    return [sheet_row(session, r) for r in session.job.runs]
+    sources = source_kinds(session)
+    return [sheet_row(session, r, sources) for r in session.job.runs]
 
 
 def detail_lines(session: WalkSession, run: Run | None) -> str:
@@ -92,7 +165,9 @@ def detail_lines(session: WalkSession, run: Run | None) -> str:
     res = session.result_for(run.id)
     st = session.status(run, res)
     kind = "feeder" if session.job.is_feeder(run) else "branch"
-    head = f"{run.id}  {run.from_} → {run.to}  ({kind})  {run.length} = {fmt_ft(run.length_ft)} ft"
+    words = _circuit_words(session, run)
+    head = (f"{run.id}  {run.from_} → {run.to}  ({kind}{', ' + words if words else ''})  "
+            f"{run.length} = {fmt_ft(run.length_ft)} ft")
     if res is None:
         body = "not sized"
     else:

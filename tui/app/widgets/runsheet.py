@@ -7,7 +7,7 @@ already formatted cells; the sheet keeps a view order (filtered and sorted indic
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Callable, Sequence
 
 from rich.segment import Segment
@@ -58,6 +58,37 @@ def _fit(text: str, width: int, right: bool) -> str:
 def format_line(columns: Sequence[SheetColumn], cells: Sequence[str]) -> str:
     """Cells fitted to their columns, separated by one space."""
     return " ".join(_fit(c, col.width, col.right) for col, c in zip(columns, cells))
+
+
+def line_width(columns: Sequence[SheetColumn]) -> int:
+    """A row's width: the two-cell cursor mark, the columns and the spaces between them."""
+    return 2 + sum(c.width for c in columns) + max(len(columns) - 1, 0)
+
+
+MAX_FIT = 40
+"""Widest a column grows to show its longest entry (an id is at most 40 characters) [cells]."""
+
+
+def fit_columns(base: Sequence[SheetColumn], longest: Sequence[int], width: int) -> list[SheetColumn]:
+    """The columns for a sheet ``width`` cells wide: the room beyond the base layout goes first
+    to the columns whose longest entry is cut (ids, sources, in column order), then to the
+    growing column(s)."""
+    room = width - line_width(base)
+    columns = list(base)
+    for i, c in enumerate(base):
+        if room <= 0:
+            break
+        want = min(longest[i] if i < len(longest) else 0, MAX_FIT) - c.width
+        if want > 0 and not c.grow:
+            add = min(want, room)
+            columns[i] = replace(c, width=c.width + add)
+            room -= add
+    growers = [i for i, c in enumerate(base) if c.grow]
+    if room > 0 and growers:
+        share, extra = divmod(room, len(growers))
+        for n, i in enumerate(growers):
+            columns[i] = replace(columns[i], width=columns[i].width + share + (1 if n < extra else 0))
+    return columns
 
 
 class SheetHeading(Widget):
@@ -129,6 +160,7 @@ class RunSheet(ScrollView, can_focus=True):
         self.filter_text: str = ""
         self.filter_pred: Callable[[SheetRow], bool] | None = None
         self._index: dict[str, int] = {}
+        self._longest: list[int] = []  # each column's longest entry [cells]
 
     # ----- data -------------------------------------------------------------------------
     def set_rows(self, rows: list[SheetRow], keep_key: str | None = None) -> None:
@@ -137,6 +169,10 @@ class RunSheet(ScrollView, can_focus=True):
             keep_key = self.cursor_key
         self.rows = rows
         self._index = {r.key: i for i, r in enumerate(rows)}
+        self._longest = [max((len(r.cells[i]) for r in rows if i < len(r.cells)), default=0)
+                         for i in range(len(self.columns))]
+        if self.is_mounted:
+            self._fit_columns()
         self._rebuild_view(keep_key)
 
     def set_filter(self, text: str = "", pred: Callable[[SheetRow], bool] | None = None) -> None:
@@ -172,7 +208,7 @@ class RunSheet(ScrollView, can_focus=True):
                 v = rows[i].sort.get(key)
                 if v is None:
                     return (1, 0, "")
-                if isinstance(v, (int, float)):
+                if isinstance(v, (int, float, tuple)):
                     return (0, v, "")
                 return (0, 0, str(v))
 
@@ -204,7 +240,7 @@ class RunSheet(ScrollView, can_focus=True):
         return None
 
     def _line_width(self) -> int:
-        return 2 + sum(c.width + 1 for c in self.columns)
+        return line_width(self.columns)
 
     @property
     def cursor_key(self) -> str | None:
@@ -285,18 +321,14 @@ class RunSheet(ScrollView, can_focus=True):
         self._scroll_cursor_into_view()
 
     def _fit_columns(self) -> None:
-        """Give a growing column the width the terminal has beyond the base layout."""
+        """Fit the columns to the terminal's width (``fit_columns``)."""
         base = getattr(self, "_base_columns", None)
         if base is None:
             base = self._base_columns = list(self.columns)
-        room = self.scrollable_content_region.width - (2 + sum(c.width + 1 for c in base))
-        growers = [i for i, c in enumerate(base) if c.grow]
-        columns = list(base)
-        if room > 0 and growers:
-            share, extra = divmod(room, len(growers))
-            for n, i in enumerate(growers):
-                c = base[i]
-                columns[i] = SheetColumn(c.key, c.title, c.width + share + (1 if n < extra else 0), c.right, c.grow)
+        width = self.scrollable_content_region.width
+        if width <= 0:
+            return
+        columns = fit_columns(base, self._longest, width)
         if columns != self.columns:
             self.columns = columns
             self.virtual_size = Size(self._line_width(), len(self.view))
