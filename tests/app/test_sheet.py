@@ -78,3 +78,11 @@ async def test_a_wide_terminal_shows_long_run_ids_whole_before_it_widens_the_to_
         assert sheet.virtual_size.width <= sheet.scrollable_content_region.width
         line = "".join(seg.text for seg in sheet.render_line(1))
         assert long_id in line
+
+
+async def test_the_view_bar_counts_one_run_as_one_run(tmp_path):
+    one = SMALL_WALK[:SMALL_WALK.index('[[run]]\nid = "R1"')]  # the feeder alone
+    app = new_app(write_walk(tmp_path, one), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        assert "1 run" in shown(app, "#view-bar") and "1 runs" not in shown(app, "#view-bar")

@@ -90,7 +90,7 @@ class WalkScreen(Screen):
             parts.append(f"[reverse b] {t} [/]" if v == self.view else f" {t} ")
         total = len(sheet.rows)
         flagged = sum(1 for r in sheet.rows if r.flag)
-        info = f"{total} runs"
+        info = f"{total} run" if total == 1 else f"{total} runs"
         if flagged:
             info += f", ▲ {flagged} with a problem"
         filt = []
