@@ -510,17 +510,21 @@ _ID_TAIL = re.compile(r"^(.*?)(\d+(?:/\d+)*)$")
 
 
 def _next_with_stem(job, stem: str) -> str:
-    """``stem`` and one past the highest number any id with that stem ends in."""
+    """``stem`` and one past the highest number any id with that stem ends in, as many digits
+    as the ids write (``LP2-09`` -> ``LP2-10``, ``LP1-M01`` -> ``LP1-M02``)."""
     used = {r.id for r in job.runs}
-    highest = 0
+    highest = digits = 0
     for rid in used:
         m = _ID_TAIL.match(rid)
         if m and m.group(1) == stem:
-            highest = max(highest, *(int(n) for n in m.group(2).split("/")))
+            numbers = m.group(2).split("/")
+            highest = max(highest, *(int(n) for n in numbers))
+            if numbers[0].startswith("0"):
+                digits = max(digits, len(numbers[0]))
     n = highest + 1
-    while f"{stem}{n}" in used:
+    while f"{stem}{n:0{digits}d}" in used:
         n += 1
-    return f"{stem}{n}"
+    return f"{stem}{n:0{digits}d}"
 
 
 class CardForm:

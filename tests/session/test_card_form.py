@@ -281,3 +281,13 @@ def test_a_panel_without_a_neutral_defaults_its_branch_runs_to_two_poles(tmp_pat
     assert form.values["circuit"] == "LL"
     c = _typed(form, to="Heater", length="30", load="10A").check().circuit
     assert (c.volts, c.hots, c.neutral) == (480, 2, False)
+
+
+def test_an_id_written_with_leading_zeros_keeps_its_width(tmp_path):
+    walk = TWO_PANELS.replace('id = "LPB-11"', 'id = "LPB-01"')
+    form = CardForm(WalkSession.open(write_walk(tmp_path, walk)))
+    form.start()
+    form.type("from", "LPB")
+    assert form.values["id"] == "LPB-02"
+    form.type("from", "LPA")
+    assert form.values["id"] == "LPA-12"

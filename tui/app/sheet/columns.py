@@ -5,14 +5,14 @@ from __future__ import annotations
 from gaugewalk.tui.app.widgets.runsheet import SheetColumn
 
 COLUMNS: tuple[SheetColumn, ...] = (
-    SheetColumn("id", "Run", 6),
+    SheetColumn("id", "Run", 7),
     SheetColumn("from", "From", 5),
-    SheetColumn("to", "To", 7, grow=True),
+    SheetColumn("to", "To", 8, grow=True),
     SheetColumn("feet", "Feet", 5, right=True),
     SheetColumn("load", "Load", 6, right=True),
     SheetColumn("circuit", "Circuit", 7),
     SheetColumn("device", "OCPD", 5, right=True),
-    SheetColumn("size", "Size", 9),
+    SheetColumn("size", "Size", 7),
     SheetColumn("drop", "VD%", 4, right=True),
     SheetColumn("total", "Tot%", 4, right=True),
     SheetColumn("status", "Status", 9),

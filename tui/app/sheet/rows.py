@@ -92,6 +92,11 @@ def pct4(value: float | None) -> str:
     return f"{value:.0f}" if value < 999.5 else ">999"
 
 
+def sheet_size_text(res: RunResult | None) -> str:
+    """The size column: ``12 Cu``, ``2/0 Al``, ``2×250k Cu`` (the detail line says AWG)."""
+    return size_text(res).replace(" AWG", "")
+
+
 def sheet_row(session: WalkSession, run: Run, sources: dict[str, tuple[str, str]] | None = None) -> SheetRow:
     res = session.result_for(run.id)
     st = session.status(run, res)
@@ -104,7 +109,7 @@ def sheet_row(session: WalkSession, run: Run, sources: dict[str, tuple[str, str]
         load_text(run),
         circuit,
         f"{res.ocpd_a}A" if res else "—",
-        size_text(res),
+        sheet_size_text(res),
         pct4(res.voltage_drop_pct) if res else "—",
         pct4(res.total_drop_pct) if res else "—",
         SHEET_STATUS.get(st.words, st.words),
