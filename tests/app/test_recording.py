@@ -270,3 +270,25 @@ async def test_keys_typed_in_one_burst_record_runs_in_order(tmp_path):
         ("R2", "Sheeter", "45", {"value": 8, "unit": "A"}),
         ("R3", "Oven", "60", {"value": 30, "unit": "A"}),
     ]
+
+
+async def test_the_card_shows_the_circuit_in_words_beside_the_answer_as_the_load_sets_it(tmp_path):
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")
+        # from LP1 (208Y/120 V), as its last run R1: one pole and the neutral at 120 V
+        assert "LN: 120 V" in shown(app, "#answer") and "1 pole + neutral" in shown(app, "#answer")
+        await type_text(pilot, "Dough sheeter")
+        await pilot.press("tab")
+        await type_text(pilot, "30")
+        await pilot.press("tab")
+        await type_text(pilot, "20A 208V")
+        await pilot.pause()
+        answer = shown(app, "#answer")
+        assert "LL: 208 V" in answer and "2 poles" in answer
+        await pilot.press("enter")
+        await pilot.pause()
+    run = {r["id"]: r for r in tomllib.loads(path.read_text())["run"]}["R2"]
+    assert run["connection"] == "LL" and run["load"] == {"value": 20, "unit": "A"}
