@@ -38,10 +38,8 @@ async def _record(tmp_path, name: str, burst: bool) -> list[dict]:
             for key in SCRIPT:  # all in the app's queue before the first is handled
                 app._driver.send_message(_event(key))
         else:
-            for key in SCRIPT:
+            for key in SCRIPT:  # each key handled, and the screen redrawn, before the next
                 app._driver.send_message(_event(key))
-                await pilot.pause()
-                await app.workers.wait_for_complete()
                 await pilot.pause()
         await pilot.pause(0.3)
         await app.workers.wait_for_complete()
