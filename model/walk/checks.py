@@ -50,7 +50,7 @@ class Problem:
         }
 
 
-_LONG_WORD = re.compile(r"\S{61,}")
+_LONG_WORD = re.compile(r"\S{61,}|\s{61,}")
 
 
 _CONTROL = {c: repr(chr(c))[1:-1] for c in (*range(32), 127, 0x85, 0x2028, 0x2029)}
@@ -58,8 +58,8 @@ _CONTROL = {c: repr(chr(c))[1:-1] for c in (*range(32), 127, 0x85, 0x2028, 0x202
 
 def _clip(text: str) -> str:
     """Keep a problem on one readable line: control characters and line breaks in an echoed
-    value are shown escaped (``\\n``), and any word over 60 characters (a pasted id or value) is
-    shortened."""
+    value are shown escaped (``\\n``), and any word or gap over 60 characters (a pasted id or
+    value, a run of spaces) is shortened."""
     text = text.translate(_CONTROL)
     return _LONG_WORD.sub(lambda m: f"{m.group(0)[:40]}…({len(m.group(0)):,} characters)", text)
 
