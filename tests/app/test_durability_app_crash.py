@@ -73,8 +73,7 @@ def _wait_for(marker: Path, proc: subprocess.Popen, seconds: float = 60.0) -> No
         time.sleep(0.05)
 
 
-async def test_killed_app_loses_nothing_stored_and_offers_the_card_being_typed(tmp_path, monkeypatch):
-    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "xdg"))
+async def test_killed_app_loses_nothing_stored_and_offers_the_card_being_typed(tmp_path):
     walk = write_walk(tmp_path)
     marker = tmp_path / "typed"
     proc = _start_app(walk, tmp_path / "cfg1", marker)

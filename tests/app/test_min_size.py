@@ -4,14 +4,7 @@ from __future__ import annotations
 
 import tomllib
 
-import pytest
-
 from tests.support.app_helpers import new_app, opened, sheet_cells, type_text, write_walk
-
-
-@pytest.fixture(autouse=True)
-def _config_elsewhere(tmp_path, monkeypatch):
-    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "xdg"))
 
 
 async def test_a_smallest_size_set_in_job_settings_resizes_the_feeder_and_is_saved(tmp_path):

@@ -12,11 +12,6 @@ from tests.support.app_helpers import SMALL_WALK, new_app, opened, shown, sheet_
 from gaugewalk.tui.app.screens.card import RunCard
 
 
-@pytest.fixture(autouse=True)
-def _config_elsewhere(tmp_path, monkeypatch):
-    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "xdg"))
-
-
 async def test_a_walk_of_several_runs_typed_by_keys_ends_in_the_expected_toml(tmp_path):
     path = write_walk(tmp_path)
     app = new_app(path, tmp_path / "cfg")

@@ -16,11 +16,6 @@ from gaugewalk.tui.app.screens.walk import WalkScreen
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
 
 
-@pytest.fixture(autouse=True)
-def _config_elsewhere(tmp_path, monkeypatch):
-    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "xdg"))
-
-
 # A second branch whose fixed 14 AWG conductor is far short of its 40 A load:
 # NEC 2023 Table 310.16, 14 AWG Cu at 75 C carries 20 A.
 TWO_PROBLEMS = SMALL_WALK + """

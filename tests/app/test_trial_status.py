@@ -2,14 +2,7 @@
 
 from __future__ import annotations
 
-import pytest
-
 from tests.support.app_helpers import new_app, opened, shown, type_text, write_walk
-
-
-@pytest.fixture(autouse=True)
-def _config_elsewhere(tmp_path, monkeypatch):
-    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "xdg"))
 
 
 async def test_a_trial_that_fixes_the_drop_shows_ok_beside_the_old_problem(tmp_path):

@@ -11,7 +11,7 @@ import re
 import time
 
 import pytest
-from hypothesis import example, given, settings
+from hypothesis import example, given
 from hypothesis import strategies as st
 
 import gaugewalk.model.engine.lengths as lengths
@@ -120,7 +120,6 @@ def lengths_with_values(draw):
     return text + draw(spaces), total
 
 
-@settings(max_examples=600, deadline=None)
 @given(lengths_with_values())
 @example(("85+12+2*6", 109.0))
 @example(("36m+8ft", 36 / 0.3048 + 8))
@@ -146,7 +145,6 @@ near_lengths = st.text(st.sampled_from(GRAMMAR_CHARS), max_size=30)
 anything = st.text(max_size=60)
 
 
-@settings(max_examples=1200, deadline=None)
 @given(st.one_of(near_lengths, anything, st.builds(lambda a, b: a + b, near_lengths, anything)))
 @example("1.2.3")
 @example("12 ft 6")

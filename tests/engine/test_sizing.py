@@ -5,7 +5,7 @@ import math
 from dataclasses import replace
 
 import pytest
-from hypothesis import given, settings
+from hypothesis import given
 from hypothesis import strategies as st
 
 from gaugewalk.model.engine.drop import conductor_z
@@ -242,7 +242,6 @@ circuits = st.sampled_from([C240, C480_3, circuit_from_volts(120, 1), circuit_fr
                             resolve_circuit("208Y/120V 3ph 4w", "3PN", nonlinear=True)])
 
 
-@settings(max_examples=150, deadline=None)
 @given(circuits, st.floats(min_value=1, max_value=300), st.floats(min_value=5, max_value=800),
        st.booleans(), st.sampled_from(["cu", "al"]), st.sampled_from(["dc", "kfactor", "ac"]),
        st.sampled_from([None, 60, 75]), st.sampled_from([30.0, 40.0]))

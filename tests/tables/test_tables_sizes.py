@@ -1,7 +1,7 @@
 """Conductor size names and spellings (gaugewalk.tables.conductor.sizes)."""
 
 import pytest
-from hypothesis import given, settings
+from hypothesis import given
 from hypothesis import strategies as st
 
 from gaugewalk.tables.errors import TableLookupError
@@ -67,7 +67,6 @@ def test_size_index_and_is_awg_accept_any_spelling():
         size_index("5")
 
 
-@settings(max_examples=300, deadline=None)
 @given(st.text(max_size=12))
 def test_any_typed_text_gives_a_size_or_a_clear_refusal(text):
     # rule: user mistakes give a message, never a traceback of another kind
@@ -77,7 +76,6 @@ def test_any_typed_text_gives_a_size_or_a_clear_refusal(text):
         assert "sizes are 18 AWG" in str(err)
 
 
-@settings(max_examples=300, deadline=None)
 @given(st.text(max_size=16))
 def test_any_typed_text_gives_a_raceway_or_a_clear_refusal(text):
     try:

@@ -292,7 +292,7 @@ def test_order_rows_are_one_per_item_with_a_unit_and_no_totals(takeoff):
 
 # --- put-up search against brute force ---------------------------------------------------------
 
-from hypothesis import given, settings, strategies as st  # noqa: E402
+from hypothesis import given, strategies as st  # noqa: E402
 
 from gaugewalk.tables.order.putups import PutUp  # noqa: E402
 
@@ -312,7 +312,6 @@ def _brute_force(need: int, lengths: list[int]) -> tuple[int, int]:
     return best
 
 
-@settings(max_examples=150, deadline=None)
 @given(
     need=st.integers(min_value=1, max_value=6000),
     lengths=st.lists(st.sampled_from([250, 300, 500, 1000, 1500, 2500]), min_size=1, max_size=3,

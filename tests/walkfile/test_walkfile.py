@@ -8,7 +8,7 @@ from datetime import date
 from pathlib import Path
 
 import pytest
-from hypothesis import given, settings
+from hypothesis import given
 from hypothesis import strategies as st
 
 from gaugewalk.model.walk.job import Job, Load, Run, Source
@@ -62,7 +62,6 @@ def test_load_save_load_loses_nothing_and_keeps_the_length_as_typed():
 _text = st.text(alphabet=st.characters(blacklist_categories=("Cs",), blacklist_characters="\x00"), max_size=30)
 
 
-@settings(max_examples=60, deadline=None)
 @given(
     name=_text,
     notes=_text,
