@@ -4,7 +4,8 @@ from __future__ import annotations
 
 import pytest
 
-from tests.support.app_helpers import new_app, opened, type_text, write_walk
+from tests.support.app_helpers import new_app, opened, type_text
+from tests.support.walks import write_walk
 from gaugewalk.tui.app.screens.card import RunCard
 from gaugewalk.tui.app.screens.job import JobSettingsScreen
 

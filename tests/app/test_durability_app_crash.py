@@ -17,7 +17,8 @@ from pathlib import Path
 
 from gaugewalk.model.walkfile.drafts import Draft, clear_draft, draft_path, load_draft, save_draft
 from gaugewalk.model.walkfile.lock import lock_path
-from tests.support.app_helpers import new_app, opened, type_text, write_walk
+from tests.support.app_helpers import new_app, opened, type_text
+from tests.support.walks import write_walk
 from tests.support.paths import REPO
 
 

@@ -15,7 +15,8 @@ from gaugewalk.model.engine.loads import LoadError
 from gaugewalk.model.engine.circuits import CircuitError, parse_system
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.sizes import parse_size
-from tests.support.app_helpers import new_app, opened, write_walk
+from tests.support.app_helpers import new_app, opened
+from tests.support.walks import write_walk
 from gaugewalk.model.session.card_form import parse_load_text
 from gaugewalk.tui.app.screens.card import RunCard
 

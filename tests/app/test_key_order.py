@@ -8,7 +8,8 @@ import tomllib
 import pytest
 from textual import events
 
-from tests.support.app_helpers import new_app, opened, write_walk
+from tests.support.app_helpers import new_app, opened
+from tests.support.walks import write_walk
 
 # Keys as Textual names them. Every kind of key that moves the focus or acts is in it: Tab (with
 # a completion taken), Down, Up, shift+Tab, ctrl+o there and back, Backspace, Enter storing and

@@ -4,7 +4,8 @@ from __future__ import annotations
 
 import tomllib
 
-from tests.support.app_helpers import new_app, opened, sheet_cells, type_text, write_walk
+from tests.support.app_helpers import new_app, opened, sheet_cells, type_text
+from tests.support.walks import write_walk
 
 
 async def test_a_smallest_size_set_in_job_settings_resizes_the_feeder_and_is_saved(tmp_path):

@@ -8,7 +8,8 @@ from datetime import date
 
 import pytest
 
-from tests.support.app_helpers import SMALL_WALK, new_app, opened, shown, sheet_cells, type_text, write_walk
+from tests.support.app_helpers import new_app, opened, shown, sheet_cells, type_text
+from tests.support.walks import SMALL_WALK, write_walk
 from gaugewalk.tui.app.screens.card import RunCard
 
 

@@ -7,7 +7,15 @@ import tomllib
 
 import pytest
 
-from tests.support.app_helpers import SMALL_WALK, new_app, opened, settle, sheet_cells, shown, type_text, write_walk
+from tests.support.app_helpers import new_app, opened, settle, sheet_cells, shown, type_text
+from tests.support.walks import (
+    SMALL_WALK,
+    run_table,
+    source_table,
+    tables_text,
+    walk_text,
+    write_walk,
+)
 from gaugewalk.tui.app.keys import KEYS
 from gaugewalk.tui.app.recent import RecentWalks
 from gaugewalk.tui.cli.main import CAUTION
@@ -18,24 +26,10 @@ from gaugewalk.tui.app.widgets.runsheet import RunSheet
 
 # A second branch whose fixed 14 AWG conductor is far short of its 40 A load:
 # NEC 2023 Table 310.16, 14 AWG Cu at 75 C carries 20 A.
-TWO_PROBLEMS = SMALL_WALK + """
-[[run]]
-id = "R2"
-from = "LP1"
-to = "Deck oven"
-length = "10"
-load = { value = 40, unit = "A" }
-connection = "LL"
-size = "14 AWG"
-
-[[run]]
-id = "R3"
-from = "SVC"
-to = "Sign"
-length = "20"
-load = { value = 2, unit = "A" }
-connection = "LN"
-"""
+TWO_PROBLEMS = SMALL_WALK + tables_text("run", [
+    run_table("R2", "LP1", "Deck oven", "10", load=(40, "A"), connection="LL", size="14 AWG"),
+    run_table("R3", "SVC", "Sign", "20", load=(2, "A"), connection="LN"),
+])
 
 
 async def test_footer_and_key_guide_are_made_from_the_same_key_table(tmp_path):
@@ -411,48 +405,13 @@ async def test_a_walk_with_comments_is_warned_about_before_the_first_save(tmp_pa
 
 
 # An invented shop: a 480Y/277 V service, a step-down transformer and a 208Y/120 V panel.
-WITH_TRANSFORMER = """\
-schema = 1
-
-[job]
-name = "Kiln Row pottery"
-
-[[source]]
-id = "SVC"
-kind = "service"
-system = "480Y/277V 3ph 4w"
-
-[[source]]
-id = "T1"
-kind = "transformer"
-system = "208Y/120V 3ph 4w"
-kva = 30
-
-[[source]]
-id = "LP1"
-kind = "panel"
-system = "208Y/120V 3ph 4w"
-
-[[run]]
-id = "F1"
-from = "SVC"
-to = "T1"
-length = "60"
-
-[[run]]
-id = "F2"
-from = "T1"
-to = "LP1"
-length = "10"
-
-[[run]]
-id = "R1"
-from = "LP1"
-to = "Kiln"
-length = "50"
-load = { value = 24, unit = "A" }
-connection = "LL"
-"""
+WITH_TRANSFORMER = walk_text(
+    "Kiln Row pottery",
+    sources=[source_table("SVC", "service", "480Y/277V 3ph 4w"),
+             source_table("T1", "transformer", kva=30), source_table("LP1", "panel")],
+    runs=[run_table("F1", "SVC", "T1", "60"), run_table("F2", "T1", "LP1", "10"),
+          run_table("R1", "LP1", "Kiln", "50", load=(24, "A"), connection="LL")],
+)
 
 
 async def test_a_transformer_secondary_can_be_tried_at_another_voltage_with_its_panels(tmp_path):

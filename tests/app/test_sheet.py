@@ -5,7 +5,8 @@ from __future__ import annotations
 
 import pytest
 
-from tests.support.app_helpers import SMALL_WALK, new_app, opened, sheet_cells, shown, type_text, write_walk
+from tests.support.app_helpers import new_app, opened, sheet_cells, shown, type_text
+from tests.support.walks import SMALL_WALK, write_walk
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
 
 

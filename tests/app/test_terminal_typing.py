@@ -20,7 +20,7 @@ from pathlib import Path
 
 import pytest
 
-from tests.support.app_helpers import write_walk
+from tests.support.walks import write_walk
 
 pytestmark = pytest.mark.skipif(
     shutil.which("tmux") is None,

@@ -2,7 +2,8 @@
 
 from __future__ import annotations
 
-from tests.support.app_helpers import new_app, opened, shown, type_text, write_walk
+from tests.support.app_helpers import new_app, opened, shown, type_text
+from tests.support.walks import write_walk
 
 
 async def test_a_trial_that_fixes_the_drop_shows_ok_beside_the_old_problem(tmp_path):

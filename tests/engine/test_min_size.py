@@ -8,6 +8,7 @@ from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.sizing import SizingError, evaluate
 from gaugewalk.model.engine.circuits import circuit_from_volts
 from gaugewalk.tui.cli.main import main
+from tests.support.walks import run_table, source_table, walk_text
 
 CIRCUIT_120 = circuit_from_volts(120, 1)
 
@@ -53,12 +54,11 @@ def test_calc_takes_min_size(capsys):
 
 def test_a_walk_default_min_size_reaches_every_run(tmp_path):
     walk = tmp_path / "floor.toml"
-    walk.write_text(
-        'schema = 1\n[job]\nname = "Floor check (test walk)"\n[defaults]\nmin_size = "12"\n'
-        '[[source]]\nid = "P1"\nkind = "service"\nsystem = "120/240V 1ph 3w"\n'
-        '[[run]]\nid = "R1"\nfrom = "P1"\nto = "Lights"\nlength = "40"\n'
-        'load = { value = 9, unit = "A" }\nconnection = "LN"\n'
-    )
+    walk.write_text(walk_text(
+        "Floor check (test walk)", defaults={"min_size": "12"},
+        sources=[source_table("P1", "service", "120/240V 1ph 3w")],
+        runs=[run_table("R1", "P1", "Lights", "40", load=(9, "A"), connection="LN")],
+    ))
     from gaugewalk.model.walk.compute import compute_job
     from gaugewalk.model.walkfile.store import load_walk
 

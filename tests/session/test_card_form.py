@@ -7,7 +7,7 @@ import pytest
 
 from gaugewalk.model.session.card_form import FIELD_KEYS, CardForm, complete
 from gaugewalk.model.session.session import WalkSession
-from tests.support.app_helpers import write_walk
+from tests.support.walks import write_walk
 
 
 @pytest.fixture

@@ -7,7 +7,7 @@ import tomllib
 import pytest
 
 from gaugewalk.model.walk.job import Run, Source
-from tests.support.app_helpers import write_walk
+from tests.support.walks import make_run, write_walk
 from gaugewalk.model.session.session import STATUS_DROP, STATUS_OK, WalkSession
 
 
@@ -16,11 +16,9 @@ def session(tmp_path):
     return WalkSession.open(write_walk(tmp_path))
 
 
-def _run(**fields) -> Run:
-    data = {"id": "R2", "from": "LP1", "to": "Slicer", "length": "20",
-            "load": {"value": 4, "unit": "A"}, "connection": "LN"}
-    data.update(fields)
-    return Run.model_validate(data)
+def _run(**changes) -> Run:
+    """R2, a 4 A slicer on LP1, with ``changes``."""
+    return make_run("R2", "LP1", "Slicer", "20", **{"load": (4, "A"), "connection": "LN", **changes})
 
 
 def test_a_run_over_its_drop_target_says_so_in_words(session):

@@ -1,4 +1,5 @@
-"""Helpers for the app tests: a small invented walk, typing into the app, reading the sheet."""
+"""Helpers for the app tests: starting the app, typing into it, reading the sheet (the walks
+they open are in ``tests.support.walks``)."""
 
 from __future__ import annotations
 
@@ -6,54 +7,11 @@ from pathlib import Path
 
 from gaugewalk.tui.app.app import WalkApp, make_app
 
-# An invented tenant fit-out: a 208Y/120 V service feeding one panel. DC method so the drops can
-# be checked by hand from NEC Ch. 9 Table 8.
-SMALL_WALK = """\
-schema = 1
-
-[job]
-name = "Harbour Lane bakery"
-
-[defaults]
-method = "dc"
-
-[[source]]
-id = "SVC"
-kind = "service"
-system = "208Y/120V 3ph 4w"
-
-[[source]]
-id = "LP1"
-kind = "panel"
-system = "208Y/120V 3ph 4w"
-
-[[run]]
-id = "F1"
-from = "SVC"
-to = "LP1"
-length = "40"
-
-[[run]]
-id = "R1"
-from = "LP1"
-to = "Proofer"
-length = "100"
-load = { value = 16, unit = "A" }
-connection = "LN"
-size = "12 AWG"
-"""
-
 KEY_NAMES = {
     " ": "space", "+": "plus", "*": "asterisk", "/": "slash", ".": "full_stop", "-": "minus",
     "'": "apostrophe", '"': "quotation_mark", "#": "number_sign", "(": "left_parenthesis",
     ")": "right_parenthesis",
 }
-
-
-def write_walk(folder: Path, text: str = SMALL_WALK, name: str = "walk.toml") -> Path:
-    path = folder / name
-    path.write_text(text, encoding="utf-8")
-    return path
 
 
 def new_app(path: Path | None, config: Path) -> WalkApp:

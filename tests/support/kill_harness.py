@@ -30,9 +30,10 @@ import time
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from gaugewalk.model.walk.job import Job, JobHeader, Load, Run, Source
+from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walkfile.store import backup_path, dumps_walk, loads_walk, save_walk
 from tests.support.paths import REPO
+from tests.support.walks import make_job, run_table, source_table
 
 
 
@@ -46,24 +47,21 @@ def walk_versions(count: int, runs: int = 40) -> list[Job]:
     out = []
     for k in range(count):
         sources = [
-            Source(id="SVC", kind="service", system="208Y/120V 3ph 4w", name="Service"),
-            Source(id="LP1", kind="panel", system="208Y/120V 3ph 4w", name="Filling hall"),
-            Source(id="LP2", kind="panel", system="208Y/120V 3ph 4w", name="Warehouse"),
+            source_table("SVC", "service", name="Service"),
+            source_table("LP1", "panel", name="Filling hall"),
+            source_table("LP2", "panel", name="Warehouse"),
         ]
-        items = [
-            Run(id="F1", **{"from": "SVC"}, to="LP1", length=f"{60 + k}+12"),
-            Run(id="F2", **{"from": "SVC"}, to="LP2", length=f"{140 + k}"),
-        ]
+        items = [run_table("F1", "SVC", "LP1", f"{60 + k}+12"),
+                 run_table("F2", "SVC", "LP2", f"{140 + k}")]
         for i in range(runs):
-            items.append(Run(
-                id=f"R{i + 1}", **{"from": "LP1" if i % 2 else "LP2"},
-                to=f"{_LOADS[i % len(_LOADS)]} {i // len(_LOADS) + 1}",
-                length=f"{30 + (i * 7 + k) % 90}+2*{6 + i % 4}",
-                load=Load(value=4 + (i * 3 + k) % 16, unit="A"),
-                notes=f"walked in pass {k}, stop {i}",
+            items.append(run_table(
+                f"R{i + 1}", "LP1" if i % 2 else "LP2",
+                f"{_LOADS[i % len(_LOADS)]} {i // len(_LOADS) + 1}",
+                f"{30 + (i * 7 + k) % 90}+2*{6 + i % 4}",
+                load=(4 + (i * 3 + k) % 16, "A"), notes=f"walked in pass {k}, stop {i}",
             ))
-        out.append(Job(job=JobHeader(name="Quarry Road bottling plant", notes=f"version {k}"),
-                       sources=sources, runs=items))
+        out.append(make_job("Quarry Road bottling plant", notes=f"version {k}", sources=sources,
+                            runs=items))
     return out
 
 

@@ -8,20 +8,13 @@ import random
 import pytest
 
 from gaugewalk.model.walk.compute import compute_job, recompute_run, run_spec_for
-from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Load, Run, Source
+from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Load, Source
 from gaugewalk.model.engine.sizing import evaluate
+from tests.support.walks import make_run
 
 SQRT3 = math.sqrt(3.0)
 # NEC 2023 Ch. 9 Table 8, uncoated stranded copper, DC resistance at 75 C [ohm/kft] (from memory)
 R75 = {"12 AWG": 1.98, "8 AWG": 0.778, "6 AWG": 0.491, "4 AWG": 0.308}
-
-
-def run(rid, frm, to, length, *, load=None, size=None, connection=None, **kw) -> Run:
-    data = {"id": rid, "from": frm, "to": to, "length": length, "size": size,
-            "connection": connection, **kw}
-    if load is not None:
-        data["load"] = {"value": load[0], "unit": load[1]}
-    return Run.model_validate(data)
 
 
 def chain_job() -> Job:
@@ -39,14 +32,14 @@ def chain_job() -> Job:
             Source(id="LP2", kind="panel", system="208Y/120V 3ph 4w"),
         ],
         runs=[
-            run("F1", "SVC", "HA", "200", size="6 AWG"),
-            run("F2", "HA", "T1", "50", size="8 AWG"),
-            run("F3", "T1", "LP1", "100", size="4 AWG"),
-            run("F4", "LP1", "LP2", "150", size="8 AWG"),
-            run("R1", "LP2", "Office receptacles", "80", load=(16, "A"), size="12 AWG",
+            make_run("F1", "SVC", "HA", "200", size="6 AWG"),
+            make_run("F2", "HA", "T1", "50", size="8 AWG"),
+            make_run("F3", "T1", "LP1", "100", size="4 AWG"),
+            make_run("F4", "LP1", "LP2", "150", size="8 AWG"),
+            make_run("R1", "LP2", "Office receptacles", "80", load=(16, "A"), size="12 AWG",
                 connection="LN"),
-            run("R2", "LP1", "Kiln", "30", load=(10, "kVA"), size="8 AWG", connection="3P"),
-            run("R3", "HA", "Yard lights", "120", load=(20, "A"), size="8 AWG", connection="LN"),
+            make_run("R2", "LP1", "Kiln", "30", load=(10, "kVA"), size="8 AWG", connection="3P"),
+            make_run("R3", "HA", "Yard lights", "120", load=(20, "A"), size="8 AWG", connection="LN"),
         ],
     )
 

@@ -6,17 +6,17 @@ import pytest
 from pydantic import ValidationError
 
 from gaugewalk.model.walk.job import Job, Run, Source
+from tests.support.walks import make_job, run_table, source_table
 
 
 def _job() -> Job:
-    return Job.model_validate({
-        "defaults": {"material": "al", "raceway": "pvc"},
-        "source": [{"id": "SVC", "kind": "service", "system": "120/240"},
-                   {"id": "SP", "kind": "panel", "system": "120/240V 1ph 3w"}],
-        "run": [{"id": "F1", "from": "SVC", "to": "SP", "length": "300"},
-                {"id": "R7", "from": "SP", "to": "Pump", "length": "85+12+2*6",
-                 "load": {"value": 10, "unit": "A"}, "material": "cu"}],
-    })
+    return make_job(
+        None, defaults={"material": "al", "raceway": "pvc"},
+        sources=[source_table("SVC", "service", "120/240"),
+                 source_table("SP", "panel", "120/240V 1ph 3w")],
+        runs=[run_table("F1", "SVC", "SP", "300"),
+              run_table("R7", "SP", "Pump", "85+12+2*6", load=(10, "A"), material="cu")],
+    )
 
 
 def test_lookups_find_sources_runs_and_feeders():

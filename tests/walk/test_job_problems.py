@@ -7,37 +7,17 @@ import pytest
 
 from gaugewalk.model.walkfile.store import WalkFileError, check_walk_text, loads_walk
 from gaugewalk.tui.cli.main import main
+from tests.support.walks import panel_walk, run_table
 
-GOOD = """schema = 1
+GOOD = panel_walk(
+    "Problem fixture",
+    run_table("R1", "LP1", "Sign", "40", load=(5, "A"), connection="LN"),
+    feeder_length="60",
+)
+"""The walk every case edits; the expected line numbers are lines of this text:
 
-[job]
-name = "Problem fixture"
-
-[[source]]
-id = "SVC"
-kind = "service"
-system = "208Y/120V 3ph 4w"
-
-[[source]]
-id = "LP1"
-kind = "panel"
-system = "208Y/120V 3ph 4w"
-
-[[run]]
-id = "F1"
-from = "SVC"
-to = "LP1"
-length = "60"
-
-[[run]]
-id = "R1"
-from = "LP1"
-to = "Sign"
-length = "40"
-load = { value = 5, unit = "A" }
-connection = "LN"
-"""
-
+schema (1), [job] (3), [[source]] SVC (6) and LP1 (11), [[run]] F1 (16) and R1 (22); R1's length
+is on line 26, its load on 27 and its connection on 28."""
 
 def test_the_fixture_itself_is_clean():
     assert check_walk_text(GOOD, "good.toml")[1] == []

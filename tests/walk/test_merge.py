@@ -8,37 +8,16 @@ from gaugewalk.model.walk.merge import merge_jobs
 from gaugewalk.model.walkfile.store import dumps_walk, load_walk, loads_walk
 from gaugewalk.tui.cli.main import main
 from tests.support.paths import SAMPLES
+from tests.support.walks import panel_walk, run_table, tables_text
 
-BASE = """schema = 1
-
-[job]
-name = "Two floors"
-
-[[source]]
-id = "SVC"
-kind = "service"
-system = "208Y/120V 3ph 4w"
-
-[[source]]
-id = "LP1"
-kind = "panel"
-system = "208Y/120V 3ph 4w"
-
-[[run]]
-id = "F1"
-from = "SVC"
-to = "LP1"
-length = "60"
-"""
+BASE = panel_walk("Two floors", feeder_length="60")
 
 
 def _walk(*runs: str, extra: str = "") -> str:
-    text = BASE + extra
-    for r in runs:
-        rid, to, length = r.split("|")
-        text += (f'\n[[run]]\nid = "{rid}"\nfrom = "LP1"\nto = "{to}"\nlength = "{length}"\n'
-                 f'load = {{ value = 10, unit = "A" }}\nconnection = "LN"\n')
-    return text
+    """BASE, then ``extra``, then a 10 A branch on LP1 for each ``"id|to|length"``."""
+    return BASE + extra + tables_text("run", [
+        run_table(rid, "LP1", to, length, load=(10, "A"), connection="LN")
+        for rid, to, length in (r.split("|") for r in runs)])
 
 
 def test_walks_of_different_floors_merge_with_every_run_kept_in_order():

@@ -4,11 +4,10 @@ import os
 import time
 
 from gaugewalk.model.walkfile.store import LEFTOVER_AGE_S, load_walk, save_walk
+from tests.support.walks import source_table, walk_text
 
-WALK = (
-    'schema = 1\n[job]\nname = "Sweep check (test walk)"\n'
-    '[[source]]\nid = "SVC"\nkind = "service"\nsystem = "120/240V 1ph 3w"\n'
-)
+WALK = walk_text("Sweep check (test walk)",
+                 sources=[source_table("SVC", "service", "120/240V 1ph 3w")])
 
 
 def test_old_leftovers_of_killed_saves_are_removed_and_young_ones_kept(tmp_path):
