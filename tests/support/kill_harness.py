@@ -181,10 +181,16 @@ class SaveKillTrials:
 
 
 class CommandKillTrials:
-    """Run one command that rewrites ``target`` (``gaugewalk add``, ``merge``) and kill it after
-    a random delay. Before each trial ``target`` holds ``old`` and its backup ``old_backup``; after
-    it, ``target`` must hold ``old`` or ``new`` (what a finished run writes, found by one run to
-    the end first) and the backup must be whole: ``old`` when the file is ``new``."""
+    """Run one command that rewrites ``target`` (``gaugewalk add``, ``merge``) and kill it part
+    way. Before each trial ``target`` holds ``old`` and its backup ``old_backup``; after it,
+    ``target`` must hold ``old`` or ``new`` (what a finished run writes, found by running it to
+    the end first) and the backup must be whole: ``old`` when the file is ``new``.
+
+    The kills come in turn in three kinds, each at a random moment: anywhere in the run (timed
+    from three runs to the end), in the last quarter of the time before the rename that puts the
+    new file in place (aimed at the save), and after that rename is seen, within what the run
+    has left (its lock release and its message). The third kind is timed from the rename
+    itself, not from the clock, so a slower machine still gives kills on both sides of it."""
 
     def __init__(self, folder: Path, target: Path, argv: list[str], old: bytes,
                  old_backup: bytes, *, spawn: bool = False) -> None:
@@ -196,30 +202,14 @@ class CommandKillTrials:
         self.spawn = spawn
         times, replaced_at = [], []
         for _ in range(3):
-            self._reset()
-            before = os.stat(self.target).st_ino
+            before = self._reset()
             started = time.perf_counter()
             child = self._start()
-            seen = None
-            while True:  # watch for the rename that puts the new file in place
-                try:
-                    if seen is None and os.stat(self.target).st_ino != before:
-                        seen = time.perf_counter() - started
-                except FileNotFoundError:
-                    pass
-                if isinstance(child, subprocess.Popen):
-                    status = child.poll()
-                    if status is not None:
-                        break
-                else:
-                    done, status = os.waitpid(child, os.WNOHANG)
-                    if done:
-                        status = os.waitstatus_to_exitcode(status)
-                        break
-                time.sleep(0.0002)
+            seen = self._watch(child, before, started, stop_at_rename=False)
             times.append(time.perf_counter() - started)
             if seen is not None:
                 replaced_at.append(seen)
+            status = self._wait(child)
             if status != 0:
                 break
         self.duration_s = sorted(times)[len(times) // 2]
@@ -230,7 +220,8 @@ class CommandKillTrials:
         if self.new in (None, old):
             raise RuntimeError(f"{' '.join(argv)} did not change {self.target.name}")
 
-    def _reset(self) -> None:
+    def _reset(self) -> int:
+        """Put the old file and backup back; return the file's inode."""
         for left in _leftovers(self.folder, self.target.name):
             left.unlink()
         # a save killed between its two renames leaves the file and its backup as one inode
@@ -238,6 +229,7 @@ class CommandKillTrials:
         for path, data in ((self.target, self.old), (backup_path(self.target), self.old_backup)):
             path.unlink(missing_ok=True)
             path.write_bytes(data)
+        return os.stat(self.target).st_ino
 
     def _start(self) -> int | subprocess.Popen:
         if self.spawn:
@@ -263,18 +255,45 @@ class CommandKillTrials:
         _, status = os.waitpid(child, 0)
         return os.waitstatus_to_exitcode(status)
 
+    def _ended(self, child) -> bool:
+        """Whether the child has ended (it is not reaped: ``_wait`` gives its status)."""
+        if isinstance(child, subprocess.Popen):
+            return child.poll() is not None
+        return os.waitid(os.P_PID, child, os.WEXITED | os.WNOHANG | os.WNOWAIT) is not None
+
+    def _watch(self, child, before: int, started: float, *, stop_at_rename: bool) -> float | None:
+        """Poll until the child ends (or, with ``stop_at_rename``, until the new file is in
+        place); return when the rename was seen [s after ``started``], None if it was not."""
+        seen = None
+        while True:
+            if seen is None:
+                try:
+                    if os.stat(self.target).st_ino != before:
+                        seen = time.perf_counter() - started
+                        if stop_at_rename:
+                            return seen
+                except FileNotFoundError:
+                    pass
+            if self._ended(child):
+                return seen
+            time.sleep(0.0002)
+
     def run(self, trials: int, rng: random.Random) -> KillReport:
         report = KillReport()
-        for _ in range(trials):
-            self._reset()
+        for n in range(trials):
+            before = self._reset()
+            started = time.perf_counter()
             child = self._start()
-            if self.replaced_at_s is not None and rng.random() < 0.5:
-                # half the kills aimed at the save: the last quarter of the time before the rename
-                delay = max(0.0, self.replaced_at_s * rng.uniform(0.75, 1.0))
-            else:
+            kind = n % 3 if self.replaced_at_s is not None else 0
+            if kind == 2:  # after the rename, within what the run has left
+                self._watch(child, before, started, stop_at_rename=True)
+                delay = rng.uniform(0.0, max(self.duration_s - self.replaced_at_s, 0.0))
+            elif kind == 1:  # aimed at the save: the last quarter of the time before the rename
+                delay = self.replaced_at_s * rng.uniform(0.75, 1.0)
+            else:  # anywhere in the run, or just after it
                 delay = rng.uniform(0.0, self.duration_s * 1.1)
-            report.delays_s.append(delay)
             time.sleep(delay)
+            report.delays_s.append(time.perf_counter() - started)
             pid = child.pid if isinstance(child, subprocess.Popen) else child
             _kill(pid)
             status = self._wait(child)
