@@ -15,6 +15,8 @@ import time
 import tomllib
 from pathlib import Path
 
+import pytest
+
 from gaugewalk.model.walkfile.drafts import Draft, clear_draft, draft_path, load_draft, save_draft
 from gaugewalk.model.walkfile.lock import lock_path
 from tests.support.app_helpers import new_app, opened, type_text
@@ -74,6 +76,7 @@ def _wait_for(marker: Path, proc: subprocess.Popen, seconds: float = 60.0) -> No
         time.sleep(0.05)
 
 
+@pytest.mark.slow
 async def test_killed_app_loses_nothing_stored_and_offers_the_card_being_typed(tmp_path):
     walk = write_walk(tmp_path)
     marker = tmp_path / "typed"
@@ -164,6 +167,7 @@ def test_a_broken_or_foreign_draft_is_ignored_never_an_error(tmp_path):
     assert load_draft(walk) is None
 
 
+@pytest.mark.slow
 def test_a_draft_save_killed_part_way_leaves_the_old_draft_or_the_new(tmp_path):
     """SIGKILL a process saving drafts in a loop, 60 times: the draft on disk always reads back
     as one of the drafts written."""

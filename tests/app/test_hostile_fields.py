@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import math
 
+import pytest
 from hypothesis import example, given
 from hypothesis import strategies as st
 from pydantic import ValidationError
@@ -29,6 +30,7 @@ hostile = st.one_of(
 )
 
 
+@pytest.mark.slow
 @given(hostile)
 @example("5kW pf0.9")
 def test_card_field_readers_refuse_hostile_text_with_their_own_error(text):
@@ -48,6 +50,7 @@ def test_card_field_readers_refuse_hostile_text_with_their_own_error(text):
             assert pf is None or 0 < pf <= 1
 
 
+@pytest.mark.slow
 @given(st.sampled_from(["id", "from", "to", "length", "size", "raceway", "insulation", "notes"]), hostile)
 def test_a_run_built_from_hostile_text_is_valid_or_a_validation_error(field, text):
     data = {"id": "R1", "from": "LP1", "to": "Pump", "length": "10", field: text}

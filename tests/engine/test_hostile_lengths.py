@@ -120,6 +120,7 @@ def lengths_with_values(draw):
     return text + draw(spaces), total
 
 
+@pytest.mark.slow
 @given(lengths_with_values())
 @example(("85+12+2*6", 109.0))
 @example(("36m+8ft", 36 / 0.3048 + 8))
@@ -145,6 +146,7 @@ near_lengths = st.text(st.sampled_from(GRAMMAR_CHARS), max_size=30)
 anything = st.text(max_size=60)
 
 
+@pytest.mark.slow
 @given(st.one_of(near_lengths, anything, st.builds(lambda a, b: a + b, near_lengths, anything)))
 @example("1.2.3")
 @example("12 ft 6")
@@ -172,10 +174,10 @@ def test_anything_else_is_rejected_with_a_length_error(text):
 
 def test_input_past_the_cap_is_refused_at_once_however_long():
     long = "12+" * 33_334  # 100,002 characters
-    started = time.perf_counter()
+    started = time.process_time()  # CPU time: a busy machine does not stretch it
     with pytest.raises(LengthError, match=f"longer than {MAX_LENGTH_CHARS}"):
         parse_length(long)
-    assert time.perf_counter() - started < 1.0  # generous: a cap check, not a parse
+    assert time.process_time() - started < 1.0  # generous: a cap check, not a parse
 
 
 def _time_parse(text: str) -> float:
@@ -192,6 +194,7 @@ def _time_parse(text: str) -> float:
     return best
 
 
+@pytest.mark.slow
 @pytest.mark.parametrize("unit", ["12+", "2*6ft+", "12'6\"-", "1 ", "x", "ft"])
 def test_parse_time_grows_linearly_with_the_input(monkeypatch, unit):
     """With the cap lifted, ten times the input takes about ten times as long. Allowed up to 40x:

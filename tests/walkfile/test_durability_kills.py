@@ -14,6 +14,8 @@ import gaugewalk.tui.cli.main  # noqa: F401  (imported before forking, so each c
 from gaugewalk.model.walkfile.store import backup_path, dumps_walk, save_walk
 from tests.support.kill_harness import CommandKillTrials, SaveKillTrials, walk_versions
 
+pytestmark = pytest.mark.slow
+
 SAVE_TRIALS = 240
 COMMAND_TRIALS = 40
 

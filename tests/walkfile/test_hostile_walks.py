@@ -100,6 +100,7 @@ def _set(data: dict, where: tuple, value) -> dict:
     return data
 
 
+@pytest.mark.slow
 @settings(suppress_health_check=[HealthCheck.too_slow])
 @given(st.lists(st.tuples(st.sampled_from(TARGETS), hostile_values), min_size=1, max_size=3))
 @example([(("run", 2, "load", "value"), float("nan"))])
@@ -134,6 +135,7 @@ def test_hostile_values_in_a_walk_file_give_clear_messages_never_a_traceback(tmp
     assert not backup_path(path).exists()
 
 
+@pytest.mark.slow
 @given(st.binary(max_size=2000))
 @example(b"\xff\xfe\x00\x00junk")
 @example(b"schema = 1\n\x00\x01")
