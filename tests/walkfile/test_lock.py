@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import json
 import os
+import select
 import socket
 import subprocess
 import sys
@@ -144,8 +145,10 @@ def test_a_half_written_lock_is_treated_as_held_then_cleared_once_old(tmp_path):
         assert lock.stale is not None and "no longer running" in lock.message
 
 
-def _race_for_lock(walk, ready_fd: int, go_path) -> None:
-    """In a forked child: wait for the start signal, try to take the lock, hold it briefly."""
+def _race_for_lock(walk, ready_fd: int, go_path, done_path) -> None:
+    """In a forked child: wait for the start signal, try to take the lock, and say how it went;
+    the winner holds the lock until every racer has said (so no racer can come late and find it
+    free, however busy the machine)."""
     while not os.path.exists(go_path):
         time.sleep(0.0005)
     try:
@@ -157,9 +160,23 @@ def _race_for_lock(walk, ready_fd: int, go_path) -> None:
         os.write(ready_fd, b"E")
         os._exit(1)
     os.write(ready_fd, b"W")
-    time.sleep(0.1)
+    while not os.path.exists(done_path):
+        time.sleep(0.0005)
     lock.release()
     os._exit(0)
+
+
+def _read_answers(fd: int, count: int, seconds: float = 60.0) -> bytes:
+    """Up to ``count`` one-byte answers from the racers (fewer if they stop answering)."""
+    got = b""
+    deadline = time.monotonic() + seconds
+    while len(got) < count and time.monotonic() < deadline:
+        if select.select([fd], [], [], 0.5)[0]:
+            chunk = os.read(fd, count - len(got))
+            if not chunk:
+                break
+            got += chunk
+    return got
 
 
 @pytest.mark.parametrize("stale_first", [False, True])
@@ -169,6 +186,7 @@ def test_racing_openers_get_exactly_one_lock_even_over_a_stale_one(tmp_path, sta
     for round_ in range(6):
         walk = tmp_path / f"race{round_}.toml"
         go = tmp_path / f"go{round_}"
+        done = tmp_path / f"done{round_}"
         if stale_first:
             _write_lock(walk, _dead_pid())
         r, w = os.pipe()
@@ -177,13 +195,14 @@ def test_racing_openers_get_exactly_one_lock_even_over_a_stale_one(tmp_path, sta
             pid = os.fork()
             if pid == 0:
                 os.close(r)
-                _race_for_lock(walk, w, go)
+                _race_for_lock(walk, w, go, done)
             pids.append(pid)
         os.close(w)
         go.touch()
+        outcome = _read_answers(r, 8)
+        done.touch()
         for pid in pids:
             os.waitpid(pid, 0)
-        outcome = b""
         while chunk := os.read(r, 64):
             outcome += chunk
         os.close(r)
