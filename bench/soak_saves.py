@@ -25,16 +25,21 @@ from tests.support.kill_harness import CommandKillTrials, SaveKillTrials, walk_v
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(prog="python -m bench.soak_saves", description=__doc__,
                                      formatter_class=argparse.RawDescriptionHelpFormatter)
-    parser.add_argument("--trials", type=int, default=2000, help="kills of save_walk (default 2000)")
+    parser.add_argument("--trials", type=int, default=2000,
+                        help="kills of save_walk (default 2000)")
     parser.add_argument("--command-trials", type=int, default=None,
                         help="kills of add and of merge each (default: trials / 5)")
     parser.add_argument("--spawn", action="store_true",
-                        help="run add and merge as fresh 'python -m gaugewalk.tui.cli.main' processes")
-    parser.add_argument("--runs", type=int, default=300, help="runs in the walk saved (default 300)")
+                        help="run add and merge as fresh 'python -m gaugewalk.tui.cli.main' "
+                             "processes")
+    parser.add_argument("--runs", type=int, default=300,
+                        help="runs in the walk saved (default 300)")
     parser.add_argument("--seed", type=int, default=int(time.time()))
-    parser.add_argument("--folder", type=Path, default=None, help="where to write (default: a temp folder)")
+    parser.add_argument("--folder", type=Path, default=None,
+                        help="where to write (default: a temp folder)")
     args = parser.parse_args(argv)
-    command_trials = args.command_trials if args.command_trials is not None else max(args.trials // 5, 1)
+    command_trials = (args.command_trials if args.command_trials is not None
+                      else max(args.trials // 5, 1))
     rng = random.Random(args.seed)
     print(f"seed {args.seed}", flush=True)
     versions = walk_versions(6, runs=args.runs)
@@ -58,7 +63,8 @@ def main(argv: list[str] | None = None) -> int:
         trials = CommandKillTrials(folder, walk, argv, dumps_walk(versions[1]).encode(),
                                    dumps_walk(versions[0]).encode(), spawn=args.spawn)
         report = trials.run(command_trials, rng)
-        print(report.line("gaugewalk add"), f"(a run takes {trials.duration_s * 1000:.0f} ms)", flush=True)
+        print(report.line("gaugewalk add"), f"(a run takes {trials.duration_s * 1000:.0f} ms)",
+              flush=True)
         for problem in report.torn[:20]:
             print("  ", problem)
         torn += len(report.torn)
@@ -74,7 +80,8 @@ def main(argv: list[str] | None = None) -> int:
                                    dumps_walk(versions[2]).encode(),
                                    dumps_walk(versions[3]).encode(), spawn=args.spawn)
         report = trials.run(command_trials, rng)
-        print(report.line("gaugewalk merge"), f"(a run takes {trials.duration_s * 1000:.0f} ms)", flush=True)
+        print(report.line("gaugewalk merge"),
+              f"(a run takes {trials.duration_s * 1000:.0f} ms)", flush=True)
         for problem in report.torn[:20]:
             print("  ", problem)
         torn += len(report.torn)

@@ -59,7 +59,8 @@ def build() -> Job:
     def add(rid, frm, to, length, load=None, **kw):
         data = {"id": rid, "from": frm, "to": to, "length": length, **kw}
         if load is not None:
-            data["load"] = {"value": load[0], "unit": load[1], **({"pf": load[2]} if len(load) > 2 else {})}
+            data["load"] = {"value": load[0], "unit": load[1],
+                            **({"pf": load[2]} if len(load) > 2 else {})}
         runs.append(Run.model_validate(data))
 
     def route(base: int, spread: int) -> str:
@@ -94,8 +95,8 @@ def build() -> Job:
                 distributed=True, connection="LN", bends=rng.randint(2, 6))
     # H3: dock doors, levelers, chargers, unit heaters, exhaust
     for door in range(1, 25):
-        add(f"H3-D{door:02d}", "H3", f"Dock door {door} operator", route(20 + 12 * abs(door - 12), 20),
-            load=(2.1, "A"), connection="3P", bends=3)
+        add(f"H3-D{door:02d}", "H3", f"Dock door {door} operator",
+            route(20 + 12 * abs(door - 12), 20), load=(2.1, "A"), connection="3P", bends=3)
     for n in range(1, 13):
         add(f"H3-C{n:02d}", "H3", f"Forklift charger {n}", route(60 + 6 * n, 40),
             load=(rng.choice([12, 14, 16]), "A"), connection="3P", continuous=True, bends=4)
@@ -138,14 +139,18 @@ def build() -> Job:
     # L1B break room
     for what, load, conn, cont in (
         ("Refrigerator 1", (6, "A"), "LN", False), ("Refrigerator 2", (6, "A"), "LN", False),
-        ("Microwave 1", (1500, "W", 1.0), "LN", False), ("Microwave 2", (1500, "W", 1.0), "LN", False),
+        ("Microwave 1", (1500, "W", 1.0), "LN", False),
+        ("Microwave 2", (1500, "W", 1.0), "LN", False),
         ("Coffee brewer", (1.8, "kW", 1.0), "LN", False), ("Dishwasher", (10, "A"), "LN", False),
         ("Vending machines", (12, "A"), "LN", True), ("Ice machine", (9, "A"), "LL", True),
-        ("Break room lights", (800, "VA"), "LN", True), ("Counter receptacles A", (1440, "VA"), "LN", False),
-        ("Counter receptacles B", (1440, "VA"), "LN", False), ("Water cooler", (4, "A"), "LN", True),
+        ("Break room lights", (800, "VA"), "LN", True),
+        ("Counter receptacles A", (1440, "VA"), "LN", False),
+        ("Counter receptacles B", (1440, "VA"), "LN", False),
+        ("Water cooler", (4, "A"), "LN", True),
         ("TV and media", (5, "A"), "LN", False), ("Locker room lights", (600, "VA"), "LN", True),
         ("Locker room fan", (3, "A"), "LN", True), ("Washer", (12, "A"), "LN", False),
-        ("Dryer", (5.6, "kW", 1.0), "LL", False), ("Instant water heater", (9, "kW", 1.0), "LL", False),
+        ("Dryer", (5.6, "kW", 1.0), "LL", False),
+        ("Instant water heater", (9, "kW", 1.0), "LL", False),
     ):
         rid = f"L1B-{len([r for r in runs if r.from_ == 'L1B']) + 1:02d}"
         add(rid, "L1B", what, route(15, 30), load=load, connection=conn, continuous=cont,

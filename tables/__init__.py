@@ -1,4 +1,5 @@
-"""gaugewalk's published electrical tables (NEC/NFPA 70, 2023 edition unless a module says otherwise).
+"""gaugewalk's published electrical tables (NEC/NFPA 70, 2023 edition unless a module says
+otherwise).
 
 Pure data with lookups, standard library only; never imports Textual. Installed as
 ``gaugewalk.tables`` (the bare name ``tables`` belongs to an HDF5 library). Rooms:

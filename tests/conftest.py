@@ -31,7 +31,8 @@ XDG_FOLDERS = ("XDG_CONFIG_HOME", "XDG_STATE_HOME", "XDG_DATA_HOME", "XDG_CACHE_
 @pytest.fixture(autouse=True)
 def _xdg_folders_of_its_own(tmp_path_factory, monkeypatch):
     base = tmp_path_factory.mktemp("xdg")
-    for name in XDG_FOLDERS:
-        monkeypatch.setenv(name, str(base / name.removeprefix("XDG_").removesuffix("_HOME").lower()))
+    for name in XDG_FOLDERS:  # XDG_CONFIG_HOME: .../xdg0/config
+        folder = name.removeprefix("XDG_").removesuffix("_HOME").lower()
+        monkeypatch.setenv(name, str(base / folder))
     for name in ("COLORFGBG", "NO_COLOR"):
         monkeypatch.delenv(name, raising=False)

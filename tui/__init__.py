@@ -1,1 +1,2 @@
-"""gaugewalk's terminal faces: the command line (``gaugewalk.tui.cli.main``) and the Textual app (``gaugewalk.tui.app.app``)."""
+"""gaugewalk's terminal faces: the command line (``gaugewalk.tui.cli.main``) and the Textual app
+(``gaugewalk.tui.app.app``)."""

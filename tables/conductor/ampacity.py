@@ -6,9 +6,9 @@ Columns 60, 75 and 90 C for copper and for aluminum or copper-clad aluminum. Val
 printed since the 2011 edition (2020 and 2023 included); many free charts still show the older
 numbers for 14 and 12 AWG and a few large sizes. 18 and 16 AWG copper appear only in the 90 C
 column; aluminum starts at 12 AWG. The small-conductor limits of 240.4(D) still apply
-(``gaugewalk.tables.protection.ocpd.small_conductor_max_ocpd``). Typed from memory; the cells revised in 2011 agree
-with the project's trade notes, and the tests check the ambient factors against the 310.15(B)
-equation they come from.
+(``gaugewalk.tables.protection.ocpd.small_conductor_max_ocpd``). Typed from memory; the cells
+revised in 2011 agree with the project's trade notes, and the tests check the ambient factors
+against the 310.15(B) equation they come from.
 
 Section numbers are the 2023 edition's: the ambient table was 310.15(B)(2)(a) in 2011-2017 and
 310.15(B)(1) in 2020; the adjustment for more than three conductors was 310.15(B)(3)(a) in
@@ -19,8 +19,8 @@ from __future__ import annotations
 
 import re
 
-from gaugewalk.tables.errors import TableLookupError, choices
 from gaugewalk.tables.conductor.sizes import canonical
+from gaugewalk.tables.errors import TableLookupError, choices
 
 COLUMNS = (60, 75, 90)
 

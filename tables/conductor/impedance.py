@@ -12,8 +12,8 @@ reproduction while typing.
 
 from __future__ import annotations
 
-from gaugewalk.tables.errors import TableLookupError, choices
 from gaugewalk.tables.conductor.sizes import canonical
+from gaugewalk.tables.errors import TableLookupError, choices
 
 RACEWAY_FAMILIES: tuple[str, ...] = ("pvc", "aluminum", "steel")
 
@@ -73,7 +73,9 @@ def family_of(name: str) -> str:
     key = str(name).strip().lower()
     if key in RACEWAY_FAMILIES:
         return key
-    from gaugewalk.tables.raceway.fill import raceway_family  # raceway types live in gaugewalk.tables.raceway.fill
+    from gaugewalk.tables.raceway.fill import (
+        raceway_family,  # raceway types live in gaugewalk.tables.raceway.fill
+    )
     return raceway_family(name)
 
 

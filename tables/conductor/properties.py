@@ -17,8 +17,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from gaugewalk.tables.errors import TableLookupError, choices
 from gaugewalk.tables.conductor.sizes import SIZES, canonical
+from gaugewalk.tables.errors import TableLookupError, choices
 
 ALPHA: dict[str, float] = {"cu": 0.00323, "al": 0.00330}
 """Temperature coefficient [1/C] at 75 C, NEC Ch. 9 Table 8 note 2."""

@@ -70,7 +70,8 @@ SCHEMES: dict[str, ColourScheme] = {
         # common practice; white neutral per NEC 200.6(A)
         ColourScheme("208Y/120", "208Y/120 V 3-phase 4-wire", ("black", "red", "blue"), "white"),
         # common practice; gray neutral keeps it apart from a 120 V white one (NEC 200.6(D))
-        ColourScheme("480Y/277", "480Y/277 V 3-phase 4-wire", ("brown", "orange", "yellow"), "gray"),
+        ColourScheme("480Y/277", "480Y/277 V 3-phase 4-wire", ("brown", "orange", "yellow"),
+                     "gray"),
         # common practice
         ColourScheme("120/240", "120/240 V 1-phase 3-wire", ("black", "red"), "white"),
         # B phase is the high leg: orange per NEC 110.15, B position per NEC 408.3(E)(1)
@@ -83,7 +84,8 @@ SCHEMES: dict[str, ColourScheme] = {
         ),
         # common practice for 3-wire 240 V and 480 V deltas without a neutral
         ColourScheme("240 delta", "240 V 3-phase 3-wire delta", ("black", "red", "blue"), None),
-        ColourScheme("480 delta", "480 V 3-phase 3-wire delta", ("brown", "orange", "yellow"), None),
+        ColourScheme("480 delta", "480 V 3-phase 3-wire delta", ("brown", "orange", "yellow"),
+                     None),
     )
 }
 
@@ -127,7 +129,8 @@ def check_scheme(scheme_: ColourScheme) -> list[str]:
     problems: list[str] = []
     if scheme_.neutral is not None and scheme_.neutral not in NEUTRAL_FINISHES:
         problems.append(
-            f"{scheme_.label}: the neutral must be white or gray (NEC 200.6(A)), not {scheme_.neutral}"
+            f"{scheme_.label}: the neutral must be white or gray (NEC 200.6(A)), "
+            f"not {scheme_.neutral}"
         )
     if scheme_.egc not in EGC_FINISHES:
         problems.append(

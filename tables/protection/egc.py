@@ -16,8 +16,8 @@ the table's own text.
 
 from __future__ import annotations
 
-from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.sizes import KCMIL_NUMBERS, SIZES
+from gaugewalk.tables.errors import TableLookupError
 
 # NEC 2023 Table 250.122: (rating not exceeding [A], copper, aluminum or copper-clad aluminum).
 EGC_TABLE: tuple[tuple[int, str, str], ...] = (

@@ -4,14 +4,15 @@ small conductors.
 240.6(A) (Table 240.6(A) in the 2017 and later editions) lists the standard ratings for fuses and
 inverse time circuit breakers, and adds 1, 3, 6 and 601 A as standard ratings for fuses only.
 10 A: in the 2014 edition it was one of the additional fuse-only ratings; from the 2017 edition it
-is the first entry of Table 240.6(A) for breakers and fuses alike (from memory). ``next_standard_rating``
-picks from 15 A up, the ratings a general-purpose circuit breaker comes in.
+is the first entry of Table 240.6(A) for breakers and fuses alike (from memory).
+``next_standard_rating`` picks from 15 A up, the ratings a general-purpose circuit breaker comes
+in.
 """
 
 from __future__ import annotations
 
-from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.sizes import canonical
+from gaugewalk.tables.errors import TableLookupError
 
 STANDARD_RATINGS: tuple[int, ...] = (
     15, 20, 25, 30, 35, 40, 45, 50, 60, 70, 80, 90, 100, 110, 125, 150, 175, 200, 225, 250,

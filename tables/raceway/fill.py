@@ -13,8 +13,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass, field
 
-from gaugewalk.tables.errors import TableLookupError, choices
 from gaugewalk.tables.conductor.sizes import canonical
+from gaugewalk.tables.errors import TableLookupError, choices
 
 # ---------------------------------------------------------------- Table 1
 
@@ -38,7 +38,10 @@ TRADE_SIZES: tuple[str, ...] = ("1/2", "3/4", "1", "1-1/4", "1-1/2", "2", "2-1/2
 
 
 def _t4(*pairs: tuple[float, float]) -> dict[str, tuple[float, float]]:
-    return dict(zip(TRADE_SIZES, pairs))
+    """Pairs from the smallest trade size up; a raceway made in fewer sizes lists fewer."""
+    if len(pairs) > len(TRADE_SIZES):
+        raise ValueError(f"Table 4 rows: {len(pairs)} values for {len(TRADE_SIZES)} trade sizes")
+    return dict(zip(TRADE_SIZES[: len(pairs)], pairs, strict=True))
 
 
 # NEC 2023 Ch. 9 Table 4: trade size -> (internal diameter [in], total area 100 % [in^2]).
@@ -74,7 +77,8 @@ class RacewayType:
     label: str                # words for a report
     article: str              # NEC article, e.g. "358"
     family: str               # Table 9 family: "pvc", "aluminum" or "steel"
-    table4: dict[str, tuple[float, float]] = field(repr=False)  # trade size -> (ID [in], area [in^2])
+    # trade size -> (internal diameter [in], area [in^2])
+    table4: dict[str, tuple[float, float]] = field(repr=False)
 
 
 RACEWAY_TYPES: dict[str, RacewayType] = {r.name: r for r in (
@@ -177,7 +181,7 @@ def _t5(sizes: str, pairs: tuple[tuple[float, float], ...]) -> dict[str, tuple[f
     names = [canonical(s) for s in sizes.split()]
     if len(names) != len(pairs):
         raise ValueError(f"Table 5 rows: {len(names)} sizes for {len(pairs)} values")
-    return dict(zip(names, pairs))
+    return dict(zip(names, pairs, strict=True))
 
 
 # NEC 2023 Ch. 9 Table 5: size -> (approximate diameter [in], approximate area [in^2]).

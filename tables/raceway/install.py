@@ -92,7 +92,8 @@ def trade_size_value(trade_size: str) -> float:
             frac = float(fraction)
         return (int(whole) if whole else 0) + frac
     except (ValueError, ZeroDivisionError):
-        raise ValueError(f"not a trade size: {trade_size!r} (expected e.g. 3/4, 1, 1-1/4)") from None
+        raise ValueError(
+            f"not a trade size: {trade_size!r} (expected e.g. 3/4, 1, 1-1/4)") from None
 
 
 _EVERY_10 = (Spacing(float("inf"), 10.0),)

@@ -20,10 +20,8 @@ import pytest
 from gaugewalk.model.walkfile.drafts import Draft, clear_draft, draft_path, load_draft, save_draft
 from gaugewalk.model.walkfile.lock import lock_path
 from tests.support.app_helpers import new_app, opened, type_text
-from tests.support.walks import write_walk
 from tests.support.paths import REPO
-
-
+from tests.support.walks import write_walk
 
 # The app, headless, driven by keys in its own process: store one run, then type most of a second
 # one and stop there (the card open, nothing stored), saying so through a marker file.
@@ -69,7 +67,8 @@ def _wait_for(marker: Path, proc: subprocess.Popen, seconds: float = 60.0) -> No
     deadline = time.monotonic() + seconds
     while not marker.exists():
         if proc.poll() is not None:
-            raise AssertionError(f"the app process ended early: {proc.stderr.read().decode()[-2000:]}")
+            said = proc.stderr.read().decode() if proc.stderr else ""
+            raise AssertionError(f"the app process ended early: {said[-2000:]}")
         if time.monotonic() > deadline:
             proc.kill()
             raise AssertionError("the app process did not get to the typing in time")
@@ -157,8 +156,9 @@ def test_a_draft_is_written_whole_and_read_back(tmp_path):
 
 def test_a_broken_or_foreign_draft_is_ignored_never_an_error(tmp_path):
     walk = tmp_path / "shop.toml"
-    for junk in (b"", b"\xff\xfe", b"[1, 2]", b'{"fields": 3}', b'{"fields": {"to": 5}, "run_id": 7}',
-                 b"{" * 100_000, b'{"fields": {}}' + b" " * 300_000):
+    for junk in (b"", b"\xff\xfe", b"[1, 2]", b'{"fields": 3}',
+                 b'{"fields": {"to": 5}, "run_id": 7}', b"{" * 100_000,
+                 b'{"fields": {}}' + b" " * 300_000):
         draft_path(walk).write_bytes(junk)
         got = load_draft(walk)
         assert got is None or got.fields == {}

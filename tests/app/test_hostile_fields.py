@@ -10,23 +10,24 @@ from hypothesis import example, given
 from hypothesis import strategies as st
 from pydantic import ValidationError
 
-from gaugewalk.model.walk.job import Run
+from gaugewalk.model.engine.circuits import CircuitError, parse_system
 from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError
-from gaugewalk.model.engine.circuits import CircuitError, parse_system
-from gaugewalk.tables.errors import TableLookupError
+from gaugewalk.model.session.card_form import parse_load_text
+from gaugewalk.model.walk.job import Run
 from gaugewalk.tables.conductor.sizes import parse_size
+from gaugewalk.tables.errors import TableLookupError
+from gaugewalk.tui.app.screens.card import RunCard
 from tests.support.app_helpers import new_app, opened
 from tests.support.walks import write_walk
-from gaugewalk.model.session.card_form import parse_load_text
-from gaugewalk.tui.app.screens.card import RunCard
 
 hostile = st.one_of(
     st.text(max_size=80),
     st.text(st.characters(exclude_categories=("Cs",)), min_size=200, max_size=3000),
-    st.sampled_from(["nan", "NaN A", "inf", "-inf", "1e999", "1e999A", "-5", "-5A", "0A", "5A pfnan",
-                     "5kW pf1e-400", "5kW pfinf", "5kW pf-1", "٣٤A", "１２", "12\n3", "\x00",
-                     "\u202e21", "9" * 400, "1" * 100_000, "🙂" * 50, "5 kW pf 0.9 pf 0.8"]),
+    st.sampled_from(["nan", "NaN A", "inf", "-inf", "1e999", "1e999A", "-5", "-5A", "0A",
+                     "5A pfnan", "5kW pf1e-400", "5kW pfinf", "5kW pf-1", "٣٤A", "１２", "12\n3",
+                     "\x00", "\u202e21", "9" * 400, "1" * 100_000, "🙂" * 50,
+                     "5 kW pf 0.9 pf 0.8"]),
 )
 
 
@@ -51,7 +52,8 @@ def test_card_field_readers_refuse_hostile_text_with_their_own_error(text):
 
 
 @pytest.mark.slow
-@given(st.sampled_from(["id", "from", "to", "length", "size", "raceway", "insulation", "notes"]), hostile)
+@given(st.sampled_from(["id", "from", "to", "length", "size", "raceway", "insulation", "notes"]),
+       hostile)
 def test_a_run_built_from_hostile_text_is_valid_or_a_validation_error(field, text):
     data = {"id": "R1", "from": "LP1", "to": "Pump", "length": "10", field: text}
     try:
@@ -66,7 +68,8 @@ HOSTILE_IN_THE_APP = ["nan", "inf", "-5", "1e999", "1" * 100_000, "٣٤", "\x00"
                       "\u202e21", "12\n3"]
 
 
-async def test_hostile_entries_in_the_card_are_refused_at_the_field_and_nothing_is_written(tmp_path):
+async def test_hostile_entries_in_the_card_are_refused_at_the_field_and_nothing_is_written(
+        tmp_path):
     path = write_walk(tmp_path)
     before = path.read_bytes()
     app = new_app(path, tmp_path / "cfg")

@@ -1,4 +1,5 @@
-"""Recording runs in the app by keys: what ends up on disk, live answers, refusals, undo, reopening."""
+"""Recording runs in the app by keys: what ends up on disk, live answers, refusals, undo,
+reopening."""
 
 from __future__ import annotations
 
@@ -8,9 +9,9 @@ from datetime import date
 
 import pytest
 
-from tests.support.app_helpers import new_app, opened, shown, sheet_cells, type_text
-from tests.support.walks import SMALL_WALK, write_walk
 from gaugewalk.tui.app.screens.card import RunCard
+from tests.support.app_helpers import new_app, opened, sheet_cells, shown, type_text
+from tests.support.walks import SMALL_WALK, write_walk
 
 
 async def test_a_walk_of_several_runs_typed_by_keys_ends_in_the_expected_toml(tmp_path):
@@ -112,7 +113,8 @@ async def test_editing_a_length_updates_the_drop_and_the_footage(tmp_path):
         (["shift+tab"] * 3, "LP7", "no source 'LP7'"),          # a source not in the walk
     ],
 )
-async def test_invalid_entries_are_refused_with_a_message_and_nothing_is_written(tmp_path, field_keys, text, reason):
+async def test_invalid_entries_are_refused_with_a_message_and_nothing_is_written(
+        tmp_path, field_keys, text, reason):
     path = write_walk(tmp_path)
     before = path.read_bytes()
     app = new_app(path, tmp_path / "cfg")
@@ -212,7 +214,8 @@ async def test_a_new_panel_can_be_declared_on_the_spot_from_the_run_card(tmp_pat
     data = tomllib.loads(path.read_text())
     assert {"id": "LP2", "kind": "panel", "system": "208Y/120V 3ph 4w"} in data["source"]
     # a feeder: F ids
-    assert {"id": "F2", "from": "SVC", "to": "LP2", "length": "120", "measured_on": date.today()} in data["run"]
+    assert {"id": "F2", "from": "SVC", "to": "LP2", "length": "120",
+            "measured_on": date.today()} in data["run"]
 
 
 async def test_to_completes_from_names_already_in_the_walk_with_tab(tmp_path):
@@ -230,7 +233,8 @@ async def test_to_completes_from_names_already_in_the_walk_with_tab(tmp_path):
 
 
 async def test_editing_a_run_keeps_what_the_card_does_not_show(tmp_path):
-    text = SMALL_WALK.replace('size = "12 AWG"\n', 'size = "12 AWG"\nbends = 3\nocpd_a = 20\nambient_c = 40.0\n')
+    text = SMALL_WALK.replace('size = "12 AWG"\n',
+                              'size = "12 AWG"\nbends = 3\nocpd_a = 20\nambient_c = 40.0\n')
     path = write_walk(tmp_path, text)
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
@@ -257,11 +261,13 @@ async def test_keys_typed_in_one_burst_record_runs_in_order(tmp_path):
                   "tab", *"30A", "enter"])
         names = {"tab": "\t", "enter": "\r"}
         for key in burst:
-            app._driver.send_message(events.Key(key, names.get(key, key)))  # no waiting between keys
+            # no waiting between keys
+            app._driver.send_message(events.Key(key, names.get(key, key)))
         await pilot.pause(0.5)
         await app.workers.wait_for_complete()
         await pilot.pause()
-    runs = [(r["id"], r["to"], r["length"], r.get("load")) for r in tomllib.loads(path.read_text())["run"]]
+    runs = [(r["id"], r["to"], r["length"], r.get("load"))
+            for r in tomllib.loads(path.read_text())["run"]]
     assert runs[2:] == [
         ("R2", "Sheeter", "45", {"value": 8, "unit": "A"}),
         ("R3", "Oven", "60", {"value": 30, "unit": "A"}),

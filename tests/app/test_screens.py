@@ -7,6 +7,12 @@ import tomllib
 
 import pytest
 
+from gaugewalk.tui.app.keys import KEYS
+from gaugewalk.tui.app.recent import RecentWalks
+from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
+from gaugewalk.tui.app.screens.walk import WalkScreen
+from gaugewalk.tui.app.widgets.runsheet import RunSheet
+from gaugewalk.tui.cli.main import CAUTION
 from tests.support.app_helpers import new_app, opened, settle, sheet_cells, shown, type_text
 from tests.support.walks import (
     SMALL_WALK,
@@ -16,13 +22,6 @@ from tests.support.walks import (
     walk_text,
     write_walk,
 )
-from gaugewalk.tui.app.keys import KEYS
-from gaugewalk.tui.app.recent import RecentWalks
-from gaugewalk.tui.cli.main import CAUTION
-from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
-from gaugewalk.tui.app.screens.walk import WalkScreen
-from gaugewalk.tui.app.widgets.runsheet import RunSheet
-
 
 # A second branch whose fixed 14 AWG conductor is far short of its 40 A load:
 # NEC 2023 Table 310.16, 14 AWG Cu at 75 C carries 20 A.
@@ -108,7 +107,8 @@ async def test_a_missing_walk_is_created_only_after_asking(tmp_path):
         assert isinstance(app.screen, WalkScreen)
     data = tomllib.loads(path.read_text())
     assert data["job"]["name"] == "new-site"
-    assert data["source"] == [{"id": "SVC", "kind": "service", "system": "208Y/120V 3ph 4w", "name": "Service"}]
+    assert data["source"] == [{"id": "SVC", "kind": "service", "system": "208Y/120V 3ph 4w",
+                               "name": "Service"}]
 
 
 async def test_declining_to_create_a_missing_walk_writes_nothing(tmp_path):
@@ -134,7 +134,8 @@ async def test_a_broken_walk_file_ends_with_status_2_and_a_message_naming_the_fi
     assert path.read_bytes() == before
 
 
-async def test_runs_failing_a_limit_are_marked_with_a_symbol_and_words_and_can_be_filtered(tmp_path):
+async def test_runs_failing_a_limit_are_marked_with_a_symbol_and_words_and_can_be_filtered(
+        tmp_path):
     app = new_app(write_walk(tmp_path, TWO_PROBLEMS), tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
@@ -180,7 +181,8 @@ async def test_the_supply_tree_shows_the_cumulative_drop_at_every_node(tmp_path)
         s = app.session
         f1, r1 = s.result_for("F1"), s.result_for("R1")
         # percent drops in series add up: service -> F1 -> LP1 bus -> R1 -> load
-        assert r1.total_drop_pct == pytest.approx(f1.voltage_drop_pct + r1.voltage_drop_pct, abs=1e-6)
+        assert r1.total_drop_pct == pytest.approx(f1.voltage_drop_pct + r1.voltage_drop_pct,
+                                                  abs=1e-6)
         labels = {}
         for node in _walk_tree(tree.root):
             if node.data:
@@ -433,7 +435,8 @@ async def test_a_transformer_secondary_can_be_tried_at_another_voltage_with_its_
         # the kiln's line-to-line circuit is now 240 V instead of 208 V: the same 24 A drops a
         # smaller share of a higher voltage through the same size (Ohm's law, percent of V)
         assert r1_after.size == r1_before.size
-        assert r1_after.voltage_drop_pct == pytest.approx(r1_before.voltage_drop_pct * 208 / 240, rel=1e-6)
+        assert r1_after.voltage_drop_pct == pytest.approx(r1_before.voltage_drop_pct * 208 / 240,
+                                                          rel=1e-6)
     data = tomllib.loads(path.read_text())
     systems = {s["id"]: s["system"] for s in data["source"]}
     assert systems == {"SVC": "480Y/277V 3ph 4w", "T1": "120/240V 1ph 3w", "LP1": "120/240V 1ph 3w"}

@@ -1,4 +1,5 @@
-"""``gaugewalk calc`` through ``gaugewalk.tui.cli.main.main``: output, JSON, exit codes and one-line errors."""
+"""``gaugewalk calc`` through ``gaugewalk.tui.cli.main.main``: output, JSON, exit codes and
+one-line errors."""
 
 import json
 import math
@@ -96,7 +97,8 @@ def test_a_failing_fixed_size_lists_its_problems(capsys):
          "no raceway type"),
         (["--amps", "10", "--length", "10", "--volts", "0"], "--volts", "above 0"),
         (["--amps", "10", "--length", "10", "--volts", "120", "--pf", "1.5"], "--pf", "at most 1"),
-        (["--amps", "10", "--length", "10", "--volts", "120", "--phase", "2"], "--phase", "invalid"),
+        (["--amps", "10", "--length", "10", "--volts", "120", "--phase", "2"], "--phase",
+         "invalid"),
         (["--amps", "10", "--length", "10", "--volts", "120", "--insulation", "PAPER"],
          "--insulation", "no insulation type"),
         (["--amps", "10", "--length", "10", "--volts", "120", "--ambient", "80", "--insulation",

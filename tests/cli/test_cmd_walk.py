@@ -4,17 +4,16 @@ from __future__ import annotations
 
 import json
 import math
-from pathlib import Path
 
 from gaugewalk.model.walkfile.store import backup_path, json_schema_text, load_walk
 from gaugewalk.tui.cli.main import main
 from tests.support.paths import SAMPLES, SCHEMA
 
 
-
 def test_new_creates_a_walk_and_refuses_to_write_over_one(tmp_path, capsys):
     path = tmp_path / "shed.toml"
-    assert main(["new", str(path), "--name", "Shed", "--service", "120/240", "--date", "2024-06-01"]) == 0
+    assert main(["new", str(path), "--name", "Shed", "--service", "120/240",
+                 "--date", "2024-06-01"]) == 0
     job = load_walk(path)
     assert job.job.name == "Shed" and job.source("SVC").system == "120/240V 1ph 3w"
     before = path.read_bytes()
@@ -41,8 +40,10 @@ def test_a_walk_built_from_the_command_line_computes_the_feeder_from_its_loads(t
     # 40 A at 240 V = 9600 VA, plus 1200 VA: 10800 VA / 240 V = 45 A (S = V I, single-phase)
     assert runs["F-SP"]["amps"] == 45.0
     assert math.isclose(runs["R2"]["total_drop_pct"],
-                        runs["F-SP"]["voltage_drop_pct"] + runs["R2"]["voltage_drop_pct"], abs_tol=2e-4)
-    for key in ("id", "from", "to", "length_ft", "size", "voltage_drop_pct", "total_drop_pct", "ok"):
+                        runs["F-SP"]["voltage_drop_pct"] + runs["R2"]["voltage_drop_pct"],
+                        abs_tol=2e-4)
+    for key in ("id", "from", "to", "length_ft", "size", "voltage_drop_pct", "total_drop_pct",
+                "ok"):
         assert key in runs["R1"]
     assert data["summary"]["runs"] == 3 and data["summary"]["all_ok"] is True
     assert "qualified, licensed" in data["caution"]
@@ -92,8 +93,8 @@ def test_check_exits_0_on_a_passing_sample_and_1_on_the_one_with_a_known_problem
 def test_the_committed_json_schema_is_up_to_date():
     committed = SCHEMA.read_text()
     assert committed == json_schema_text(), (
-        "regenerate: python -c 'from gaugewalk.model.walkfile.store import SCHEMA_FILE, json_schema_text; "
-        "SCHEMA_FILE.write_text(json_schema_text())'")
+        "regenerate: python -c 'from gaugewalk.model.walkfile.store import SCHEMA_FILE, "
+        "json_schema_text; SCHEMA_FILE.write_text(json_schema_text())'")
 
 
 def test_the_schema_command_prints_the_schema_naming_the_file_keys(capsys):

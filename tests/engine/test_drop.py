@@ -6,7 +6,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from gaugewalk.model.walk.chain import cumulative_drop, upstream_drop, within_limit
+from gaugewalk.model.engine.circuits import circuit_from_volts
 from gaugewalk.model.engine.drop import (
     K_FACTOR,
     conductor_z,
@@ -16,9 +16,9 @@ from gaugewalk.model.engine.drop import (
     temperature_corrected,
     voltage_drop,
 )
-from gaugewalk.model.engine.circuits import circuit_from_volts
-from gaugewalk.tables.conductor import properties as conductors
+from gaugewalk.model.walk.chain import cumulative_drop, upstream_drop, within_limit
 from gaugewalk.tables.conductor import impedance
+from gaugewalk.tables.conductor import properties as conductors
 from gaugewalk.tables.conductor.sizes import SIZES
 
 POWER_SIZES_CU = SIZES[SIZES.index("14 AWG"):]
@@ -66,7 +66,8 @@ def test_ac_method_at_085_reproduces_table_9_effective_z(material, family):
         table = impedance.table_ze_085(size, material, family)
         lo = (r - half_unit(r)) * 0.85 + (x - half_unit(x)) * sin
         hi = (r + half_unit(r)) * 0.85 + (x + half_unit(x)) * sin
-        assert lo <= table + half_unit(table) and table - half_unit(table) <= hi, (size, ours, table)
+        assert lo <= table + half_unit(table) and table - half_unit(table) <= hi, (size, ours,
+                                                                                   table)
         assert ours == pytest.approx(table, rel=0.06), (size, ours, table)
 
 
@@ -160,7 +161,8 @@ def test_drop_grows_with_length_and_current(method, size, family, pf, amps, leng
     assert voltage_drop(c, amps, length * more, z).volts > base
 
 
-@given(methods_st, families_st, pf_st, st.integers(min_value=0, max_value=len(impedance.TABLE9_SIZES) - 2))
+@given(methods_st, families_st, pf_st,
+       st.integers(min_value=0, max_value=len(impedance.TABLE9_SIZES) - 2))
 def test_drop_falls_as_the_size_grows(method, family, pf, i):
     # a larger conductor has less resistance (NEC Ch. 9 Tables 8 and 9), so less drop
     small, big = impedance.TABLE9_SIZES[i], impedance.TABLE9_SIZES[i + 1]
@@ -181,7 +183,8 @@ def test_three_phase_drop_is_root_three_over_two_of_single_phase(size, amps, len
 def test_cumulative_drop_adds_along_the_chain_and_restarts_after_a_transformer():
     # percent drops in series add (common practice); a transformer secondary starts over
     assert cumulative_drop([1.0, 1.5, 2.0]) == pytest.approx([1.0, 2.5, 4.5])
-    assert cumulative_drop([1.0, 1.5, 0.5, 2.0], restart_at=[2]) == pytest.approx([1.0, 2.5, 0.5, 2.5])
+    assert cumulative_drop([1.0, 1.5, 0.5, 2.0], restart_at=[2]) == pytest.approx(
+        [1.0, 2.5, 0.5, 2.5])
     assert cumulative_drop([]) == []
     assert upstream_drop(2.5) == 2.5
     assert upstream_drop(2.5, from_transformer=True) == 0.0

@@ -30,11 +30,13 @@ def _ci(word: str) -> str:
 _WORD_END = r"(?![A-Za-z])"
 _FEET = "(?:" + "|".join(_ci(w) + _WORD_END for w in ("feet", "foot", "ft")) + "|'|’)"
 # a unit word may be glued to the multiplication x: 12ftx2
-_FEET_X = "(?:" + "|".join(_ci(w) + r"(?=[xX]" + _WORD_END + ")" for w in ("feet", "foot", "ft")) + ")"
+_FEET_X = ("(?:" + "|".join(_ci(w) + r"(?=[xX]" + _WORD_END + ")" for w in ("feet", "foot", "ft"))
+           + ")")
 _INCH_WORDS = ("inches", "inch", "in")
 _METRE_WORDS = ("metres", "metre", "meters", "meter", "m")
-_INCH = "(?:" + "|".join(_ci(w) + f"(?:{_WORD_END}|(?=[xX]{_WORD_END}))" for w in _INCH_WORDS) + '|"|”)'
-_METRE = "(?:" + "|".join(_ci(w) + f"(?:{_WORD_END}|(?=[xX]{_WORD_END}))" for w in _METRE_WORDS) + ")"
+_UNIT_END = f"(?:{_WORD_END}|(?=[xX]{_WORD_END}))"
+_INCH = "(?:" + "|".join(_ci(w) + _UNIT_END for w in _INCH_WORDS) + '|"|”)'
+_METRE = "(?:" + "|".join(_ci(w) + _UNIT_END for w in _METRE_WORDS) + ")"
 _NUM = r"(?:[0-9]+\.?[0-9]*|\.[0-9]+)"
 _TIMES = r"(?:\*|×|[xX]" + _WORD_END + ")"
 _S = _SPACE

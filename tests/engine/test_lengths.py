@@ -7,7 +7,12 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from gaugewalk.model.engine.lengths import MAX_LENGTH_CHARS, LengthError, format_length_ft, parse_length
+from gaugewalk.model.engine.lengths import (
+    MAX_LENGTH_CHARS,
+    LengthError,
+    format_length_ft,
+    parse_length,
+)
 
 UREG = pint.UnitRegistry()
 
@@ -110,7 +115,8 @@ def test_longest_accepted_input_still_parses():
 
 
 @pytest.mark.parametrize(
-    ("feet", "shown"), [(135.0, "135 ft"), (142.14, "142.1 ft"), (1234.0, "1,234 ft"), (0.04, "0 ft")]
+    ("feet", "shown"),
+    [(135.0, "135 ft"), (142.14, "142.1 ft"), (1234.0, "1,234 ft"), (0.04, "0 ft")],
 )
 def test_lengths_show_in_feet_to_a_tenth(feet, shown):
     assert format_length_ft(feet) == shown

@@ -4,9 +4,9 @@ import json
 
 import pytest
 
+from gaugewalk.model.engine.circuits import circuit_from_volts
 from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.sizing import SizingError, evaluate
-from gaugewalk.model.engine.circuits import circuit_from_volts
 from gaugewalk.tui.cli.main import main
 from tests.support.walks import run_table, source_table, walk_text
 

@@ -8,14 +8,13 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from gaugewalk.model.engine.drop import conductor_z
-from gaugewalk.model.engine.contract import RunSpec
-from gaugewalk.model.engine.sizing import START_SIZE, SizingError, evaluate
 from gaugewalk.model.engine.circuits import circuit_from_volts, resolve_circuit
-from gaugewalk.tables.conductor import ampacity
-from gaugewalk.tables.conductor import impedance
-from gaugewalk.tables.protection import ocpd
+from gaugewalk.model.engine.contract import RunSpec
+from gaugewalk.model.engine.drop import conductor_z
+from gaugewalk.model.engine.sizing import START_SIZE, SizingError, evaluate
+from gaugewalk.tables.conductor import ampacity, impedance
 from gaugewalk.tables.conductor.sizes import SIZES
+from gaugewalk.tables.protection import ocpd
 
 C240 = circuit_from_volts(240, 1)
 C480_3 = circuit_from_volts(480, 3)
@@ -65,7 +64,8 @@ def test_small_conductor_rule_pushes_25_a_on_75_c_terminals_to_10_awg():
     # Table 310.16 75 C: 12 AWG Cu 25 A would carry 25 A, but NEC 240.4(D)(5) limits 12 AWG Cu
     # to a 20 A device, so the 25 A device needs 10 AWG
     r = evaluate(spec(amps=25, terminal_temp=75))
-    assert (r.size, r.governed_by, r.min_ampacity_size) == ("10 AWG", "overcurrent device", "12 AWG")
+    assert (r.size, r.governed_by, r.min_ampacity_size) == ("10 AWG", "overcurrent device",
+                                                            "12 AWG")
 
 
 def test_bundling_upsizes_without_growing_the_egc():

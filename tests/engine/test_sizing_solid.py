@@ -2,9 +2,9 @@
 
 import pytest
 
+from gaugewalk.model.engine.circuits import circuit_from_volts
 from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.sizing import SizingError, evaluate
-from gaugewalk.model.engine.circuits import circuit_from_volts
 
 CIRCUIT_120 = circuit_from_volts(120, 1)
 

@@ -4,7 +4,6 @@ import math
 
 import pytest
 
-from gaugewalk.model.engine.loads import LoadError, load_amps, parse_load
 from gaugewalk.model.engine.circuits import (
     CONNECTIONS,
     SYSTEMS,
@@ -14,6 +13,7 @@ from gaugewalk.model.engine.circuits import (
     parse_system,
     resolve_circuit,
 )
+from gaugewalk.model.engine.loads import LoadError, load_amps, parse_load
 
 
 @pytest.mark.parametrize(
@@ -61,7 +61,8 @@ def test_three_phase_drop_factor_is_root_three_and_single_phase_is_two():
 
 def test_a_balanced_multiwire_leg_drops_against_line_to_neutral_with_factor_one():
     mw = resolve_circuit("120/240V 1ph 3w", "MW")
-    assert (mw.volts, mw.drop_factor, mw.hots, mw.neutral, mw.line_volts) == (120, 1.0, 2, True, 240)
+    assert (mw.volts, mw.drop_factor, mw.hots, mw.neutral, mw.line_volts) == (120, 1.0, 2, True,
+                                                                              240)
     # a balanced 240 V load on 2 hots drops the same percent as the multiwire legs against 120 V
     ll = resolve_circuit("120/240V 1ph 3w", "LL")
     assert ll.drop_factor / ll.volts == pytest.approx(mw.drop_factor / mw.volts)
@@ -110,7 +111,8 @@ def test_every_connection_a_system_can_supply_gives_a_consistent_circuit():
             except CircuitError:
                 continue
             assert c.hots <= SYSTEMS[system_id].hots
-            assert c.volts in (SYSTEMS[system_id].line_to_line_v, SYSTEMS[system_id].line_to_neutral_v)
+            system = SYSTEMS[system_id]
+            assert c.volts in (system.line_to_line_v, system.line_to_neutral_v)
 
 
 def test_calc_circuits_from_a_voltage_and_phase_count():
@@ -126,16 +128,16 @@ def test_calc_circuits_from_a_voltage_and_phase_count():
 
 @pytest.mark.parametrize(
     ("text", "parsed"),
-    [("16A", (16.0, "A")), ("1.8 kVA", (1.8, "kVA")), ("5kW", (5.0, "kW")), ("1500 w", (1500.0, "W")),
-     ("20 amps", (20.0, "A")), ("750va", (750.0, "VA"))],
+    [("16A", (16.0, "A")), ("1.8 kVA", (1.8, "kVA")), ("5kW", (5.0, "kW")),
+     ("1500 w", (1500.0, "W")), ("20 amps", (20.0, "A")), ("750va", (750.0, "VA"))],
 )
 def test_loads_are_read_with_their_unit(text, parsed):
     assert parse_load(text) == parsed
 
 
-@pytest.mark.parametrize(("text", "words"), [("16", "no unit"), ("0A", "above zero"), ("-3A", "not a load"),
-                                              ("5 hp", "unknown load unit"), ("", "not a load"),
-                                              ("nan A", "not a load")])
+@pytest.mark.parametrize(("text", "words"), [("16", "no unit"), ("0A", "above zero"),
+                                              ("-3A", "not a load"), ("5 hp", "unknown load unit"),
+                                              ("", "not a load"), ("nan A", "not a load")])
 def test_bad_loads_are_refused_with_a_reason(text, words):
     with pytest.raises(LoadError, match=words):
         parse_load(text)
@@ -148,7 +150,8 @@ def test_single_phase_amps_are_volt_amperes_over_volts():
 
 def test_three_phase_amps_divide_by_root_three_times_line_volts():
     # I = S / (sqrt(3) V_LL); 45 kVA at 208 V is 124.9 A (common practice)
-    assert load_amps(45, "kVA", circuit_from_volts(208, 3)) == pytest.approx(45000 / (math.sqrt(3) * 208))
+    assert load_amps(45, "kVA", circuit_from_volts(208, 3)) == pytest.approx(
+        45000 / (math.sqrt(3) * 208))
     assert load_amps(45, "kVA", circuit_from_volts(208, 3)) == pytest.approx(124.9, abs=0.05)
 
 

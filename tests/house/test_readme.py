@@ -1,8 +1,6 @@
 """The README's quick start stays true: CI runs exactly the test command it shows."""
 
-from pathlib import Path
 from tests.support.paths import REPO as ROOT
-
 
 
 def _ci_command() -> str:

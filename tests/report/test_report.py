@@ -9,9 +9,9 @@ from pathlib import Path
 
 import pytest
 
-from tests.walk.test_takeoff_walk import WALK, check_golden, gaugewalk
 from gaugewalk.tui.cli import report as cmd_report
 from gaugewalk.tui.cli.main import CAUTION
+from tests.walk.test_takeoff_walk import WALK, check_golden, gaugewalk
 
 
 class _Page(HTMLParser):
@@ -81,7 +81,7 @@ def page(tmp_path_factory):
 
 def _rows(parsed: _Page, label: str) -> dict[str, list[str]]:
     header, *body = parsed.tables[label]
-    return {row[0]: dict(zip(header, row)) for row in body} if header else {}
+    return {row[0]: dict(zip(header, row, strict=True)) for row in body} if header else {}
 
 
 def test_html_report_shows_the_caution_at_top_and_bottom(page):
@@ -119,7 +119,7 @@ def test_html_material_list_has_the_hand_worked_quantities(page):
     _, parsed = page
     wire = parsed.tables["Conductors"]
     header = wire[0]
-    rows = [dict(zip(header, r)) for r in wire[1:]]
+    rows = [dict(zip(header, r, strict=True)) for r in wire[1:]]
     blue = [r for r in rows if r["Size"] == "3/0 AWG" and r["Colour"] == "blue"]
     # (150 + 4) x 2 = 308; a cut per set of 154 x 1.10 = 169.4 -> 170 ft, 340 ft in all, less
     # than a 1,000 ft reel: cut to length (common practice for 3/0 AWG), nothing left over

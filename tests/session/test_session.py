@@ -6,9 +6,9 @@ import tomllib
 
 import pytest
 
+from gaugewalk.model.session.session import STATUS_DROP, STATUS_OK, WalkSession
 from gaugewalk.model.walk.job import Run, Source
 from tests.support.walks import make_run, write_walk
-from gaugewalk.model.session.session import STATUS_DROP, STATUS_OK, WalkSession
 
 
 @pytest.fixture
@@ -18,7 +18,8 @@ def session(tmp_path):
 
 def _run(**changes) -> Run:
     """R2, a 4 A slicer on LP1, with ``changes``."""
-    return make_run("R2", "LP1", "Slicer", "20", **{"load": (4, "A"), "connection": "LN", **changes})
+    keys = {"load": (4, "A"), "connection": "LN", **changes}
+    return make_run("R2", "LP1", "Slicer", "20", **keys)
 
 
 def test_a_run_over_its_drop_target_says_so_in_words(session):

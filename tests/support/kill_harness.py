@@ -1,9 +1,9 @@
 """Kill a process that is writing a walk (SIGKILL at a random moment) and check what is left.
 
-Used by ``tests/walkfile/test_durability_kills.py`` (a few hundred trials) and ``bench/soak_saves.py`` (as
-many as asked). Processes are forked from the test process, which has the model imported already,
-so a trial costs milliseconds, not an interpreter start; ``spawn=True`` runs the real command line
-in a fresh interpreter instead (slower, for the soak).
+Used by ``tests/walkfile/test_durability_kills.py`` (a few hundred trials) and
+``bench/soak_saves.py`` (as many as asked). Processes are forked from the test process, which has
+the model imported already, so a trial costs milliseconds, not an interpreter start;
+``spawn=True`` runs the real command line in a fresh interpreter instead (slower, for the soak).
 
 The walks are invented: "Quarry Road bottling plant", a 208Y/120 V service, two panels and a few
 dozen branch runs.
@@ -34,8 +34,6 @@ from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walkfile.store import backup_path, dumps_walk, loads_walk, save_walk
 from tests.support.paths import REPO
 from tests.support.walks import make_job, run_table, source_table
-
-
 
 _LOADS = ("Filler conveyor", "Capper", "Labeller", "Case packer", "Palletiser", "Rinse pump",
           "Bottle warmer", "Lab bench", "Break room", "Office lights", "Dock door", "Compressor")
@@ -233,8 +231,8 @@ class CommandKillTrials:
 
     def _start(self) -> int | subprocess.Popen:
         if self.spawn:
-            return subprocess.Popen([sys.executable, "-m", "gaugewalk.tui.cli.main", *self.argv], cwd=REPO,
-                                    stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+            return subprocess.Popen([sys.executable, "-m", "gaugewalk.tui.cli.main", *self.argv],
+                                    cwd=REPO, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
         pid = os.fork()
         if pid == 0:
             code = 3

@@ -234,8 +234,10 @@ class _Builder:
         # what is left goes straight from the service: large equipment
         while self.left > stop:
             kva = rng.choice((30.0, 45.0, 60.0, 75.0))
-            self._run(svc, f"{rng.choice(_AREAS)} {rng.choice(('chiller', 'fire pump', 'EV charger bank', 'compactor'))}",
-                      (40, 300), load={"value": kva, "unit": "kVA"}, connection="3P")
+            area = rng.choice(_AREAS)
+            what = rng.choice(("chiller", "fire pump", "EV charger bank", "compactor"))
+            self._run(svc, f"{area} {what}", (40, 300), load={"value": kva, "unit": "kVA"},
+                      connection="3P")
 
 
 def synthetic_walk_data(n_runs: int, seed: int = 7) -> dict:

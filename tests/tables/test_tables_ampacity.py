@@ -6,11 +6,17 @@ import math
 import pytest
 
 from gaugewalk.tables.conductor.ampacity import (
-    AMBIENT_ROWS, INSULATION_TEMP, TABLE_310_16, ambient_factor, ampacity, ccc_factor,
-    insulation_rating, parse_insulation,
+    AMBIENT_ROWS,
+    INSULATION_TEMP,
+    TABLE_310_16,
+    ambient_factor,
+    ampacity,
+    ccc_factor,
+    insulation_rating,
+    parse_insulation,
 )
-from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.sizes import SIZES
+from gaugewalk.tables.errors import TableLookupError
 
 
 @pytest.mark.parametrize(

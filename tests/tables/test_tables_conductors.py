@@ -1,6 +1,7 @@
-"""NEC Ch. 9 Table 8 (gaugewalk.tables.conductor.properties) against the AWG definition, reference libraries and
-the physics of resistivity."""
+"""NEC Ch. 9 Table 8 (gaugewalk.tables.conductor.properties) against the AWG definition, reference
+libraries and the physics of resistivity."""
 
+import itertools
 import math
 
 import pytest
@@ -8,10 +9,16 @@ from fluids.piping import t_from_gauge
 from pint import UnitRegistry
 
 from gaugewalk.tables.conductor.properties import (
-    ALPHA, SOLID_SIZES, TABLE_8, bare_area_in2, circular_mils, dc_resistance, diameter_in,
+    ALPHA,
+    SOLID_SIZES,
+    TABLE_8,
+    bare_area_in2,
+    circular_mils,
+    dc_resistance,
+    diameter_in,
 )
-from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.sizes import SIZES, is_awg
+from gaugewalk.tables.errors import TableLookupError
 
 UNITS = UnitRegistry()
 
@@ -122,7 +129,7 @@ def test_coated_copper_is_a_few_percent_above_uncoated(size):
 
 def test_resistance_and_area_are_monotonic_in_size():
     # NEC Ch. 9 Table 8: larger conductors have more area and less resistance
-    for small, large in zip(SIZES, SIZES[1:]):
+    for small, large in itertools.pairwise(SIZES):
         assert circular_mils(large) > circular_mils(small)
         assert diameter_in(large) > diameter_in(small)
         assert bare_area_in2(large) >= bare_area_in2(small)

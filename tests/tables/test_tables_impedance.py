@@ -1,16 +1,23 @@
-"""NEC Ch. 9 Table 9 (gaugewalk.tables.conductor.impedance) against its own note 2 and against Table 8."""
+"""NEC Ch. 9 Table 9 (gaugewalk.tables.conductor.impedance) against its own note 2 and against
+Table 8."""
 
+import itertools
 import math
 
 import pytest
 
-from gaugewalk.tables.conductor.properties import dc_resistance
-from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.impedance import (
-    RACEWAY_FAMILIES, TABLE9_SIZES, TABLE9_SIZES_AL, ac_resistance, in_table9, reactance,
+    RACEWAY_FAMILIES,
+    TABLE9_SIZES,
+    TABLE9_SIZES_AL,
+    ac_resistance,
+    in_table9,
+    reactance,
     table_ze_085,
 )
+from gaugewalk.tables.conductor.properties import dc_resistance
 from gaugewalk.tables.conductor.sizes import size_index
+from gaugewalk.tables.errors import TableLookupError
 
 SIN_085 = math.sin(math.acos(0.85))
 
@@ -71,7 +78,7 @@ def test_spot_values_and_the_sizes_table_9_lists():
     assert table_ze_085("12", "cu", "EMT") == 1.7  # a raceway type stands for its family
     assert TABLE9_SIZES[0] == "14 AWG" and TABLE9_SIZES[-1] == "1000 kcmil"
     assert TABLE9_SIZES_AL[0] == "12 AWG"
-    assert all(size_index(a) < size_index(b) for a, b in zip(TABLE9_SIZES, TABLE9_SIZES[1:]))
+    assert all(size_index(a) < size_index(b) for a, b in itertools.pairwise(TABLE9_SIZES))
     assert len(TABLE9_SIZES) == 21
 
 

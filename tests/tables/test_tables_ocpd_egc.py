@@ -1,14 +1,21 @@
 """Overcurrent device ratings (NEC 240.6(A), 240.4(D)) and EGC sizes (NEC Table 250.122)."""
 
+import itertools
+
 import pytest
 
-from gaugewalk.tables.protection.egc import EGC_TABLE, egc_printed, egc_size
-from gaugewalk.tables.errors import TableLookupError
-from gaugewalk.tables.protection.ocpd import (
-    ALL_RATINGS, FUSE_ONLY, STANDARD_RATINGS, is_standard_rating, next_rating_down,
-    next_standard_rating, small_conductor_max_ocpd,
-)
 from gaugewalk.tables.conductor.sizes import size_index
+from gaugewalk.tables.errors import TableLookupError
+from gaugewalk.tables.protection.egc import EGC_TABLE, egc_printed, egc_size
+from gaugewalk.tables.protection.ocpd import (
+    ALL_RATINGS,
+    FUSE_ONLY,
+    STANDARD_RATINGS,
+    is_standard_rating,
+    next_rating_down,
+    next_standard_rating,
+    small_conductor_max_ocpd,
+)
 
 
 def test_standard_ratings_are_those_of_240_6_a():
@@ -89,7 +96,7 @@ def test_a_device_between_rows_takes_the_next_row_up():
 def test_egc_sizes_never_shrink_as_the_rating_grows():
     # NEC Table 250.122 structure; aluminum never smaller than copper
     rows = [(r, egc_size(r, "cu"), egc_size(r, "al")) for r, _, _ in EGC_TABLE]
-    for (r1, cu1, al1), (r2, cu2, al2) in zip(rows, rows[1:]):
+    for (r1, cu1, al1), (r2, cu2, al2) in itertools.pairwise(rows):
         assert r2 > r1
         assert size_index(cu2) >= size_index(cu1) and size_index(al2) >= size_index(al1)
     for _, cu, al in rows:

@@ -5,13 +5,21 @@ import math
 import pytest
 
 from gaugewalk.tables.conductor.properties import bare_area_in2, diameter_in
+from gaugewalk.tables.conductor.sizes import SIZES
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.raceway.fill import (
-    RACEWAY_TYPES, TABLE5_INSULATIONS, TRADE_SIZES, fill_limit_pct, insulated_area_in2,
-    insulated_diameter_in, internal_area_in2, internal_diameter_in, parse_raceway,
-    raceway_family, trade_sizes,
+    RACEWAY_TYPES,
+    TABLE5_INSULATIONS,
+    TRADE_SIZES,
+    fill_limit_pct,
+    insulated_area_in2,
+    insulated_diameter_in,
+    internal_area_in2,
+    internal_diameter_in,
+    parse_raceway,
+    raceway_family,
+    trade_sizes,
 )
-from gaugewalk.tables.conductor.sizes import SIZES
 
 
 @pytest.mark.parametrize(("n", "pct"), [(1, 53.0), (2, 31.0), (3, 40.0), (4, 40.0), (40, 40.0)])

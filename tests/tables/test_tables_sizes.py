@@ -4,9 +4,9 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
+from gaugewalk.tables.conductor.sizes import SIZES, is_awg, next_larger, parse_size, size_index
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.raceway.fill import RACEWAY_TYPES, parse_raceway
-from gaugewalk.tables.conductor.sizes import SIZES, is_awg, next_larger, parse_size, size_index
 
 
 @pytest.mark.parametrize(

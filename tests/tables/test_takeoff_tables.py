@@ -4,13 +4,9 @@ from __future__ import annotations
 
 import pytest
 
-from gaugewalk.tables.order import colours
-
-from gaugewalk.tables.order import putups
-
+from gaugewalk.tables.order import colours, putups
 from gaugewalk.tables.raceway import install as raceway_install
 from gaugewalk.tables.raceway.install import install_rule, joints_for, sticks_for, supports_for
-
 
 # --- colours -------------------------------------------------------------------------------
 

@@ -7,9 +7,9 @@ import random
 
 import pytest
 
+from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.walk.compute import compute_job, recompute_run, run_spec_for
 from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Load, Source
-from gaugewalk.model.engine.sizing import evaluate
 from tests.support.walks import make_run
 
 SQRT3 = math.sqrt(3.0)
@@ -39,7 +39,8 @@ def chain_job() -> Job:
             make_run("R1", "LP2", "Office receptacles", "80", load=(16, "A"), size="12 AWG",
                 connection="LN"),
             make_run("R2", "LP1", "Kiln", "30", load=(10, "kVA"), size="8 AWG", connection="3P"),
-            make_run("R3", "HA", "Yard lights", "120", load=(20, "A"), size="8 AWG", connection="LN"),
+            make_run("R3", "HA", "Yard lights", "120", load=(20, "A"), size="8 AWG",
+                     connection="LN"),
         ],
     )
 

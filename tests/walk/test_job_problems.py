@@ -29,29 +29,53 @@ def _one(text: str):
     return problems
 
 
+def _swap(old: str, new: str):
+    """An edit of the fixture: ``old`` becomes ``new``."""
+    return lambda text: text.replace(old, new)
+
+
 # (what is wrong, the edit, expected line, where, field, words in the message)
 CASES = [
-    ("toml syntax", lambda t: t.replace('length = "40"', 'length = "40'), 26, "file", None, "not valid TOML"),
-    ("unknown key", lambda t: t.replace('length = "40"', 'length = "40"\ncolor = "red"'), 27, "run R1", "color", "not a key"),
-    ("bad length", lambda t: t.replace('length = "40"', 'length = "4O"'), 26, "run R1", "length", "cannot be read"),
-    ("negative load", lambda t: t.replace("value = 5", "value = -5"), 27, "run R1", "load.value", "above 0"),
-    ("missing length", lambda t: t.replace('length = "60"\n', ""), 16, "run F1", "length", "missing"),
-    ("zero sets", lambda t: t.replace('connection = "LN"', 'connection = "LN"\nsets = 0'), 29, "run R1", "sets", "at least 1"),
-    ("unknown kind", lambda t: t.replace('kind = "panel"', 'kind = "panle"'), 13, "source LP1", "kind", "panel"),
-    ("unknown system", lambda t: t.replace('system = "208Y/120V 3ph 4w"\n\n[[run]]', 'system = "208"\n\n[[run]]'), 14, "source LP1", "system", "208Y/120V"),
-    ("unknown size", lambda t: t.replace('connection = "LN"', 'connection = "LN"\nsize = "5 AWG"'), 29, "run R1", "size", "no conductor size"),
-    ("unknown raceway", lambda t: t.replace('connection = "LN"', 'connection = "LN"\nraceway = "pipe"'), 29, "run R1", "raceway", "no raceway type"),
-    ("bad date", lambda t: t.replace('name = "Problem fixture"', 'name = "x"\nwalked_on = "last tuesday"'), 5, "job", "walked_on", "date"),
-    ("dangling source", lambda t: t.replace('from = "LP1"', 'from = "LP9"'), 24, "run R1", "from", "not a source"),
-    ("duplicate run id", lambda t: t.replace('id = "R1"', 'id = "F1"'), 23, "run F1", "id", "used by another run"),
-    ("duplicate source id", lambda t: t.replace('id = "LP1"', 'id = "SVC"'), 12, "source SVC", "id", "used by another source"),
-    ("branch without load", lambda t: t.replace('load = { value = 5, unit = "A" }\n', ""), 22, "run R1", "load", "no load"),
-    ("connection the system cannot supply", lambda t: t.replace('system = "208Y/120V 3ph 4w"\n\n[[run]]', 'system = "240V 3ph 3w"\n\n[[run]]').replace('system = "208Y/120V 3ph 4w"\n\n[[source]]', 'system = "240V 3ph 3w"\n\n[[source]]'), 28, "run R1", "connection", "no neutral"),
-    ("feeder cannot bring the panel's system", lambda t: t.replace('system = "208Y/120V 3ph 4w"\n\n[[run]]', 'system = "480Y/277V 3ph 4w"\n\n[[run]]'), 19, "run F1", "to", "only a transformer"),
-    ("panel nothing feeds", lambda t: t.replace('to = "LP1"', 'to = "LP-X"\nload = { value = 1, unit = "A" }'), 11, "source LP1", None, "nothing feeds"),
-    ("service with a feeder", lambda t: t.replace('kind = "panel"', 'kind = "service"'), 13, "source LP1", "kind", "fed by the utility"),
-    ("segments not adding up", lambda t: t.replace('length = "60"', 'length = "60"\nsegments = [{ length = "50" }]'), 21, "run F1", "segments", "add up to 50"),
-    ("newer schema", lambda t: t.replace("schema = 1", "schema = 9"), 1, "file", "schema", "newer gaugewalk"),
+    ("toml syntax", _swap('length = "40"', 'length = "40'), 26, "file", None, "not valid TOML"),
+    ("unknown key", _swap('length = "40"', 'length = "40"\ncolor = "red"'),
+     27, "run R1", "color", "not a key"),
+    ("bad length", _swap('length = "40"', 'length = "4O"'),
+     26, "run R1", "length", "cannot be read"),
+    ("negative load", _swap("value = 5", "value = -5"), 27, "run R1", "load.value", "above 0"),
+    ("missing length", _swap('length = "60"\n', ""), 16, "run F1", "length", "missing"),
+    ("zero sets", _swap('connection = "LN"', 'connection = "LN"\nsets = 0'),
+     29, "run R1", "sets", "at least 1"),
+    ("unknown kind", _swap('kind = "panel"', 'kind = "panle"'), 13, "source LP1", "kind", "panel"),
+    ("unknown system", _swap('system = "208Y/120V 3ph 4w"\n\n[[run]]', 'system = "208"\n\n[[run]]'),
+     14, "source LP1", "system", "208Y/120V"),
+    ("unknown size", _swap('connection = "LN"', 'connection = "LN"\nsize = "5 AWG"'),
+     29, "run R1", "size", "no conductor size"),
+    ("unknown raceway", _swap('connection = "LN"', 'connection = "LN"\nraceway = "pipe"'),
+     29, "run R1", "raceway", "no raceway type"),
+    ("bad date", _swap('name = "Problem fixture"', 'name = "x"\nwalked_on = "last tuesday"'),
+     5, "job", "walked_on", "date"),
+    ("dangling source", _swap('from = "LP1"', 'from = "LP9"'),
+     24, "run R1", "from", "not a source"),
+    ("duplicate run id", _swap('id = "R1"', 'id = "F1"'),
+     23, "run F1", "id", "used by another run"),
+    ("duplicate source id", _swap('id = "LP1"', 'id = "SVC"'),
+     12, "source SVC", "id", "used by another source"),
+    ("branch without load", _swap('load = { value = 5, unit = "A" }\n', ""),
+     22, "run R1", "load", "no load"),
+    ("connection the system cannot supply",
+     _swap('system = "208Y/120V 3ph 4w"\n\n[[', 'system = "240V 3ph 3w"\n\n[['),  # SVC and LP1
+     28, "run R1", "connection", "no neutral"),
+    ("feeder cannot bring the panel's system",
+     _swap('system = "208Y/120V 3ph 4w"\n\n[[run]]', 'system = "480Y/277V 3ph 4w"\n\n[[run]]'),
+     19, "run F1", "to", "only a transformer"),
+    ("panel nothing feeds", _swap('to = "LP1"', 'to = "LP-X"\nload = { value = 1, unit = "A" }'),
+     11, "source LP1", None, "nothing feeds"),
+    ("service with a feeder", _swap('kind = "panel"', 'kind = "service"'),
+     13, "source LP1", "kind", "fed by the utility"),
+    ("segments not adding up",
+     _swap('length = "60"', 'length = "60"\nsegments = [{ length = "50" }]'),
+     21, "run F1", "segments", "add up to 50"),
+    ("newer schema", _swap("schema = 1", "schema = 9"), 1, "file", "schema", "newer gaugewalk"),
 ]
 
 
@@ -101,7 +125,8 @@ def test_a_source_that_failed_is_not_reported_again_through_its_runs():
 
 
 def test_all_problems_are_reported_at_once_in_line_order():
-    text = GOOD.replace('length = "40"', 'length = "4O"').replace('from = "LP1"', 'from = "LP1"\nsets = 0')
+    text = GOOD.replace('length = "40"', 'length = "4O"')
+    text = text.replace('from = "LP1"', 'from = "LP1"\nsets = 0')
     text = text.replace('kind = "panel"', 'kind = "panel"\nkva = -1')
     problems = _one(text)
     assert len(problems) == 3

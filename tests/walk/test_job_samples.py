@@ -3,14 +3,12 @@
 from __future__ import annotations
 
 import importlib.util
-from pathlib import Path
 
 import pytest
 
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walkfile.store import dumps_walk, load_walk
 from tests.support.paths import SAMPLES
-
 
 
 def _generator():
@@ -21,7 +19,8 @@ def _generator():
 
 
 @pytest.mark.parametrize("name, least, most", [
-    ("retail_fitout.toml", 35, 60), ("farm_workshop.toml", 15, 30), ("warehouse_dc2.toml", 300, 1000),
+    ("retail_fitout.toml", 35, 60), ("farm_workshop.toml", 15, 30),
+    ("warehouse_dc2.toml", 300, 1000),
 ])
 def test_each_sample_loads_and_saves_back_to_the_same_bytes(name, least, most):
     path = SAMPLES / name

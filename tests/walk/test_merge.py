@@ -2,13 +2,11 @@
 
 from __future__ import annotations
 
-from pathlib import Path
-
 from gaugewalk.model.walk.merge import merge_jobs
 from gaugewalk.model.walkfile.store import dumps_walk, load_walk, loads_walk
 from gaugewalk.tui.cli.main import main
 from tests.support.paths import SAMPLES
-from tests.support.walks import panel_walk, run_table, tables_text
+from tests.support.walks import panel_walk, run_table, source_table, tables_text
 
 BASE = panel_walk("Two floors", feeder_length="60")
 
@@ -22,10 +20,11 @@ def _walk(*runs: str, extra: str = "") -> str:
 
 def test_walks_of_different_floors_merge_with_every_run_kept_in_order():
     a = loads_walk(_walk("R1|Floor 1 lights|40", "R2|Floor 1 receptacles|55"))
-    b = loads_walk(_walk("R10|Floor 2 lights|80", extra='\n[[source]]\nid = "LP2"\nkind = "panel"\n'
-                   'system = "208Y/120V 3ph 4w"\n\n[[run]]\nid = "F2"\nfrom = "SVC"\nto = "LP2"\nlength = "90"\n'
-                   '\n[[run]]\nid = "R20"\nfrom = "LP2"\nto = "Floor 2 heater"\nlength = "30"\n'
-                   'load = { value = 4, unit = "kW" }\nconnection = "LL"\n'))
+    second_floor = tables_text("source", [source_table("LP2", "panel")]) + tables_text("run", [
+        run_table("F2", "SVC", "LP2", "90"),
+        run_table("R20", "LP2", "Floor 2 heater", "30", load=(4, "kW"), connection="LL"),
+    ])
+    b = loads_walk(_walk("R10|Floor 2 lights|80", extra=second_floor))
     merged = merge_jobs(a, b)
     assert merged.ok and not merged.conflicts
     assert [r.id for r in merged.job.runs] == ["F1", "R1", "R2", "F2", "R20", "R10"]
@@ -47,7 +46,8 @@ def test_the_same_id_with_different_content_is_a_conflict_that_stops_the_merge()
 
 def test_prefer_settles_conflicts_but_still_lists_them():
     a = loads_walk(_walk("R1|Floor 1 lights|40"))
-    b = loads_walk(_walk("R1|Floor 1 lights|44").replace('name = "Two floors"', 'name = "Second floor"'))
+    b = loads_walk(_walk("R1|Floor 1 lights|44").replace('name = "Two floors"',
+                                                         'name = "Second floor"'))
     for side, length, name in (("a", "40", "Two floors"), ("b", "44", "Second floor")):
         merged = merge_jobs(a, b, prefer=side)
         assert merged.job.run("R1").length == length
@@ -58,7 +58,8 @@ def test_prefer_settles_conflicts_but_still_lists_them():
 
 def test_header_keys_filled_on_one_side_only_are_kept_without_conflict():
     a = loads_walk(BASE.replace('name = "Two floors"', 'name = "Two floors"\nsite = "Dock St"'))
-    b = loads_walk(BASE.replace('name = "Two floors"', 'name = "Two floors"\nwalked_by = "K. Mbeki"'))
+    b = loads_walk(BASE.replace('name = "Two floors"',
+                                'name = "Two floors"\nwalked_by = "K. Mbeki"'))
     merged = merge_jobs(a, b)
     assert merged.ok and merged.job.job.site == "Dock St" and merged.job.job.walked_by == "K. Mbeki"
 

@@ -2,14 +2,24 @@
 
 from __future__ import annotations
 
+import itertools
+import math
+
 import pytest
+from hypothesis import given
+from hypothesis import strategies as st
 
 from gaugewalk.model.walk.takeoff import (
-    RunMaterial, TakeoffError, TakeoffSettings, conductor_footage, order_putups,
-    phase_colours_for, takeoff_from_runs,
+    RunMaterial,
+    TakeoffError,
+    TakeoffSettings,
+    conductor_footage,
+    order_putups,
+    phase_colours_for,
+    takeoff_from_runs,
 )
 from gaugewalk.tables.order import colours
-from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, putups_for
+from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, PutUp, putups_for
 
 SETTINGS = TakeoffSettings(slack_per_end_ft=2.0, waste_pct=10.0)
 
@@ -66,7 +76,8 @@ def test_parallel_feeder_counts_each_set(takeoff):
     for function, colour in (("phase", "black"), ("phase", "red"), ("phase", "blue"),
                              ("neutral", "white")):
         line = _wire(takeoff, "3/0 AWG", function, colour)
-        assert (line.net_ft, line.with_waste_ft, line.order_ft, line.left_over_ft) == (308, 340, 340, 0)
+        assert (line.net_ft, line.with_waste_ft, line.order_ft, line.left_over_ft) == (
+            308, 340, 340, 0)
         assert [(c.run_id, c.set_no, c.ft) for c in line.cuts] == [("F1", 1, 170), ("F1", 2, 170)]
         assert [(p.label, p.length_ft, p.count) for p in line.order] == [("cut to length", 340, 1)]
     # NEC 250.122(F): an EGC in each parallel raceway, at its own size: 154 x 2 = 308 ft of 4 AWG
@@ -287,25 +298,18 @@ def test_order_rows_are_one_per_item_with_a_unit_and_no_totals(takeoff):
     # EMT 1/2 by the foot in whole 10 ft lengths: 100 ft; PVC-40 2: 300 ft
     assert (by_item["EMT.1/2.10FT"]["quantity"], by_item["EMT.1/2.10FT"]["unit"]) == (100, "ft")
     assert by_item["PVC-40.2.10FT"]["description"] == "PVC-40, trade size 2, 10 ft lengths"
-    assert (by_item["EMT.1/2.SUPPORT"]["quantity"], by_item["EMT.1/2.SUPPORT"]["unit"]) == (12, "each")
+    assert (by_item["EMT.1/2.SUPPORT"]["quantity"], by_item["EMT.1/2.SUPPORT"]["unit"]) == (
+        12, "each")
 
 
 # --- put-up search against brute force ---------------------------------------------------------
 
-from hypothesis import given, strategies as st  # noqa: E402
-
-from gaugewalk.tables.order.putups import PutUp  # noqa: E402
-
-
-def _brute_force(need: int, lengths: list[int]) -> tuple[int, int]:
+def _brute_force(need: int, lengths: list[int]) -> tuple[int, int] | None:
     """Least left over, then fewest pieces, by trying every count up to covering the need alone."""
-    import itertools
-    import math as m
-
     best = None
-    ranges = [range(m.ceil(need / n) + 1) for n in lengths]
+    ranges = [range(math.ceil(need / n) + 1) for n in lengths]
     for counts in itertools.product(*ranges):
-        total = sum(c * n for c, n in zip(counts, lengths))
+        total = sum(c * n for c, n in zip(counts, lengths, strict=True))
         if total >= need:
             key = (total - need, sum(counts))
             best = key if best is None or key < best else best

@@ -6,7 +6,6 @@ import csv
 import io
 import json
 import os
-from pathlib import Path
 
 import pytest
 
@@ -21,7 +20,8 @@ WALK = GOLDEN / "takeoff_walk.toml"   # invented job: a bakery fit-out, 208Y/120
 
 
 def gaugewalk(module, argv: list[str]) -> int:
-    """Run ``gaugewalk MODULE.NAME ARGV...`` through the real dispatcher (``gaugewalk.tui.cli.main.main``)."""
+    """Run ``gaugewalk MODULE.NAME ARGV...`` through the real dispatcher
+    (``gaugewalk.tui.cli.main.main``)."""
     return main([module.NAME, *argv])
 
 

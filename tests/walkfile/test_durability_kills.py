@@ -25,7 +25,8 @@ def versions():
     return walk_versions(6)
 
 
-def test_save_walk_killed_at_random_moments_leaves_old_or_new_and_a_whole_backup(tmp_path, versions):
+def test_save_walk_killed_at_random_moments_leaves_old_or_new_and_a_whole_backup(tmp_path,
+                                                                                  versions):
     trials = SaveKillTrials(tmp_path, versions)
     report = trials.run(SAVE_TRIALS, random.Random(6001), max_delay_s=0.03)
     print(report.line("save_walk"))

@@ -22,11 +22,10 @@ from gaugewalk.model.walkfile.store import (
     backup_path,
     check_walk_text,
     dumps_walk,
-    load_walk,
     save_walk,
 )
-from tests.support.kill_harness import walk_versions
 from gaugewalk.tui.cli.main import main
+from tests.support.kill_harness import walk_versions
 
 MAX_MESSAGE = 700
 """One problem on one line: file, line, where, field and a sentence, which may list the allowed
@@ -94,7 +93,8 @@ def _set(data: dict, where: tuple, value) -> dict:
         else:
             return data  # an earlier change put a value where this one expects a table
     last = where[-1]
-    if isinstance(node, dict) or (isinstance(node, list) and isinstance(last, int) and last < len(node)):
+    if isinstance(node, dict) or (isinstance(node, list) and isinstance(last, int)
+                                  and last < len(node)):
         node[last] = value
         return out
     return data
@@ -108,7 +108,8 @@ def _set(data: dict, where: tuple, value) -> dict:
 @example([(("run", 0, "length"), float("inf"))])
 @example([(("source", 0, "id"), "S" * 20000)])
 @example([(("schema",), " " * 1000)])
-def test_hostile_values_in_a_walk_file_give_clear_messages_never_a_traceback(tmp_path_factory, changes):
+def test_hostile_values_in_a_walk_file_give_clear_messages_never_a_traceback(tmp_path_factory,
+                                                                              changes):
     data = BASE
     for where, value in changes:
         data = _set(data, where, value)
@@ -152,7 +153,8 @@ def test_binary_junk_is_refused_with_the_file_named(tmp_path_factory, junk):
     path.write_bytes(junk)
     code, _, err = _cli(["check", str(path)])
     _assert_clear_refusal(code, err, path)
-    code, _, err = _cli(["add", str(path), "--from", "SVC", "--to", "Pump", "--length", "10", "--amps", "5"])
+    code, _, err = _cli(["add", str(path), "--from", "SVC", "--to", "Pump", "--length", "10",
+                         "--amps", "5"])
     _assert_clear_refusal(code, err, path)
     assert path.read_bytes() == junk and not backup_path(path).exists()
 
@@ -168,7 +170,8 @@ def test_deep_nesting_is_refused_not_a_recursion_traceback(tmp_path, depth, open
 
 def test_duplicate_keys_are_refused_with_their_line(tmp_path):
     path = tmp_path / "walk.toml"
-    text = dumps_walk(walk_versions(1, runs=2)[0]).replace('to = "LP1"\n', 'to = "LP1"\nto = "LP2"\n', 1)
+    text = dumps_walk(walk_versions(1, runs=2)[0]).replace('to = "LP1"\n',
+                                                           'to = "LP1"\nto = "LP2"\n', 1)
     path.write_text(text)
     code, _, err = _cli(["check", str(path)])
     _assert_clear_refusal(code, err, path)
@@ -182,7 +185,8 @@ def test_an_empty_file_is_refused_not_read_as_an_empty_walk(tmp_path):
     code, _, err = _cli(["check", str(path)])
     _assert_clear_refusal(code, err, path)
     assert "empty" in err
-    code, _, err = _cli(["add", str(path), "--from", "SVC", "--to", "Pump", "--length", "10", "--amps", "5"])
+    code, _, err = _cli(["add", str(path), "--from", "SVC", "--to", "Pump", "--length", "10",
+                         "--amps", "5"])
     _assert_clear_refusal(code, err, path)
     assert path.read_bytes() == b""
 
@@ -193,7 +197,8 @@ def test_a_folder_instead_of_a_file_is_refused_by_every_command(tmp_path):
     good = tmp_path / "good.toml"
     save_walk(walk_versions(1, runs=2)[0], good)
     for argv in (["check", str(folder)],
-                 ["add", str(folder), "--from", "SVC", "--to", "Pump", "--length", "10", "--amps", "5"],
+                 ["add", str(folder), "--from", "SVC", "--to", "Pump", "--length", "10",
+                  "--amps", "5"],
                  ["merge", str(folder), str(good), "-o", str(tmp_path / "out.toml")],
                  ["merge", str(good), str(good), "-o", str(folder)]):
         code, _, err = _cli(argv)
@@ -227,7 +232,8 @@ def test_no_permission_to_write_is_a_message_and_the_walk_is_untouched(tmp_path)
                 code = 98  # the folder is writable after all: the test would prove nothing
             else:
                 out = io.StringIO()
-                with contextlib.redirect_stdout(out), contextlib.redirect_stderr(io.StringIO()) as err:
+                with (contextlib.redirect_stdout(out),
+                      contextlib.redirect_stderr(io.StringIO()) as err):
                     code = main(["add", str(path), "--from", "SVC", "--to", "Pump", "--length",
                                  "10", "--amps", "5"])
                 os.write(w, err.getvalue().encode())
@@ -258,7 +264,8 @@ def test_a_file_over_the_size_limit_is_refused_before_it_is_parsed(tmp_path):
 
 
 def test_more_runs_than_the_limit_are_refused_on_read_and_on_save(tmp_path):
-    run = '[[run]]\nid = "R{i}"\nfrom = "SVC"\nto = "x"\nlength = "1"\nload = {{ value = 1, unit = "A" }}\n'
+    run = ('[[run]]\nid = "R{i}"\nfrom = "SVC"\nto = "x"\nlength = "1"\n'
+           'load = {{ value = 1, unit = "A" }}\n')
     text = "schema = 1\n" + "".join(run.format(i=i) for i in range(MAX_RUNS + 1))
     assert len(text) < MAX_WALK_BYTES
     job, problems = check_walk_text(text, "big.toml")
@@ -290,7 +297,7 @@ def test_the_app_says_why_a_broken_walk_cannot_open_and_writes_nothing(tmp_path)
         path = tmp_path / name
         path.write_bytes(data)
 
-        async def run():
+        async def run(path):
             app = make_app(str(path), config_dir=tmp_path / "cfg")
             from textual.worker import WorkerCancelled
 
@@ -302,7 +309,7 @@ def test_the_app_says_why_a_broken_walk_cannot_open_and_writes_nothing(tmp_path)
                 await pilot.pause()
             return app
 
-        app = asyncio.run(run())
+        app = asyncio.run(run(path))
         assert app.return_code == 2, name
         assert app.exit_message and name in app.exit_message, (name, app.exit_message)
         assert "\n" not in app.exit_message and len(app.exit_message) < 2 * MAX_MESSAGE

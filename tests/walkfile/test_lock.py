@@ -1,4 +1,5 @@
-"""The walk lock: one writer at a time, told who holds it, stale locks from dead processes cleared."""
+"""The walk lock: one writer at a time, told who holds it, stale locks from dead processes
+cleared."""
 
 from __future__ import annotations
 
@@ -12,7 +13,6 @@ import time
 
 import pytest
 
-from tests.support.paths import REPO as REPO_ROOT
 from gaugewalk.model.walkfile.lock import (
     LockHolder,
     WalkLocked,
@@ -20,6 +20,7 @@ from gaugewalk.model.walkfile.lock import (
     lock_holder,
     lock_path,
 )
+from tests.support.paths import REPO as REPO_ROOT
 
 
 def _live_process():

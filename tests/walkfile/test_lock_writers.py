@@ -14,10 +14,17 @@ import time
 import pytest
 
 import gaugewalk.tui.cli.main  # noqa: F401  (imported before forking)
-from gaugewalk.model.walkfile.store import ChangedOnDisk, Fingerprint, dumps_walk, fingerprint, load_walk, save_walk
 from gaugewalk.model.walkfile.lock import LockHolder, lock_path
-from tests.support.kill_harness import walk_versions
+from gaugewalk.model.walkfile.store import (
+    ChangedOnDisk,
+    Fingerprint,
+    dumps_walk,
+    fingerprint,
+    load_walk,
+    save_walk,
+)
 from gaugewalk.tui.cli.main import main
+from tests.support.kill_harness import walk_versions
 
 
 @pytest.fixture
@@ -54,7 +61,8 @@ def test_add_onto_a_walk_open_in_the_app_is_refused_with_who_holds_it(walk, othe
     assert walk.read_bytes() == before
 
 
-def test_merge_onto_an_open_walk_is_refused_but_reading_it_is_fine(walk, other_app, tmp_path, capsys):
+def test_merge_onto_an_open_walk_is_refused_but_reading_it_is_fine(walk, other_app, tmp_path,
+                                                                   capsys):
     site = tmp_path / "site.toml"
     save_walk(walk_versions(1, runs=8)[0], site)
     before = walk.read_bytes()
@@ -69,7 +77,8 @@ def test_merge_onto_an_open_walk_is_refused_but_reading_it_is_fine(walk, other_a
 def test_a_stale_lock_left_by_a_dead_app_is_cleared_with_a_note(walk, capsys):
     proc = subprocess.Popen([sys.executable, "-c", "pass"])
     proc.wait()
-    holder = LockHolder("dana", socket.gethostname(), proc.pid, "2024-05-02T14:03:00+00:00", "gaugewalk app")
+    holder = LockHolder("dana", socket.gethostname(), proc.pid, "2024-05-02T14:03:00+00:00",
+                        "gaugewalk app")
     lock_path(walk).write_text(holder.to_json())
     assert main(_add(walk, "Glue station")) == 0
     err = capsys.readouterr().err
@@ -109,7 +118,8 @@ def _interleavings():
             yield order
 
 
-@pytest.mark.parametrize("order", list(_interleavings()), ids=lambda o: "-".join(a + s[0] for a, s in o))
+@pytest.mark.parametrize("order", list(_interleavings()),
+                         ids=lambda o: "-".join(a + s[0] for a, s in o))
 def test_no_interleaving_of_two_editors_loses_an_update(tmp_path, order):
     """A lost update is a save that replaces content its writer never read. With the fingerprint
     taken at read, every save either replaces exactly what its writer read, or is refused."""
@@ -138,7 +148,7 @@ def test_no_interleaving_of_two_editors_loses_an_update(tmp_path, order):
                 assert on_disk != read_bytes
     assert "saved" in outcome.values()
     # a refusal happens exactly when the other editor saved between this one's read and save
-    for who, step in order:
+    for who, _ in order:
         other = "B" if who == "A" else "A"
         i_read, i_save = order.index((who, "read")), order.index((who, "save"))
         other_saved_between = i_read < order.index((other, "save")) < i_save

@@ -29,7 +29,6 @@ from gaugewalk.model.walkfile.store import (
 from tests.support.paths import GOLDEN
 
 
-
 def test_the_canonical_golden_file_is_written_back_byte_for_byte():
     text = (GOLDEN / "walk_canonical.toml").read_text()
     assert dumps_walk(loads_walk(text)) == text
@@ -46,7 +45,8 @@ def test_the_written_file_is_toml_that_tomllib_reads_back_to_the_same_values():
     data = tomllib.loads(dumps_walk(job))
     assert data["run"][1]["load"] == {"value": 11.5, "unit": "kW", "pf": 0.98}
     assert data["job"]["walked_on"] == date(2024, 3, 18)
-    assert data["run"][0]["segments"][1] == {"length": "12+2*6", "note": "drop and offsets at the panel"}
+    assert data["run"][0]["segments"][1] == {"length": "12+2*6",
+                                             "note": "drop and offsets at the panel"}
 
 
 def test_load_save_load_loses_nothing_and_keeps_the_length_as_typed():
@@ -59,7 +59,8 @@ def test_load_save_load_loses_nothing_and_keeps_the_length_as_typed():
     assert again.run("R2").length_ft == pytest.approx(36 / 0.3048 + 8)
 
 
-_text = st.text(alphabet=st.characters(blacklist_categories=("Cs",), blacklist_characters="\x00"), max_size=30)
+_text = st.text(alphabet=st.characters(blacklist_categories=("Cs",), blacklist_characters="\x00"),
+                max_size=30)
 
 
 @given(
@@ -71,7 +72,8 @@ _text = st.text(alphabet=st.characters(blacklist_categories=("Cs",), blacklist_c
     length=st.sampled_from(["10", "85+12+2*6", "36m+8ft", "12'6\"", "150-12"]),
     continuous=st.booleans(),
 )
-def test_any_job_text_and_numbers_survive_a_round_trip(name, notes, value, pf, unit, length, continuous):
+def test_any_job_text_and_numbers_survive_a_round_trip(name, notes, value, pf, unit, length,
+                                                       continuous):
     job = new_walk(name=name, service_system="120/240V 1ph 3w")
     job.job.notes = notes
     job.runs.append(Run.model_validate({
@@ -191,5 +193,6 @@ def test_migrate_leaves_a_current_file_alone():
 
 def test_new_walk_starts_with_its_service():
     job = new_walk(name="Shed", service_system="120/240", walked_on=date(2024, 6, 1))
-    assert job.sources == [Source(id="SVC", kind="service", system="120/240V 1ph 3w", name="Service")]
+    assert job.sources == [Source(id="SVC", kind="service", system="120/240V 1ph 3w",
+                                  name="Service")]
     assert isinstance(job, Job) and job.job.walked_on == date(2024, 6, 1)

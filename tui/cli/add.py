@@ -12,9 +12,9 @@ import sys
 
 from pydantic import ValidationError
 
+from gaugewalk.model.walk.checks import Locator, problems_from_errors
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.job import Run
-from gaugewalk.model.walk.checks import Locator, problems_from_errors
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,
@@ -59,7 +59,8 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--raceway", help="e.g. EMT, PVC-40, RMC")
     parser.add_argument("--terminal-temp", type=int, choices=(60, 75, 90))
     parser.add_argument("--ambient", type=float, metavar="C", help="ambient temperature [C]")
-    parser.add_argument("--max-drop", type=float, metavar="PCT", help="drop target for this run [%%]")
+    parser.add_argument("--max-drop", type=float, metavar="PCT",
+                        help="drop target for this run [%%]")
     parser.add_argument("--bends", type=int, help="90-degree bends along the route")
     parser.add_argument("--measured-on", metavar="YYYY-MM-DD", help="date the length was measured")
     parser.add_argument("--notes", default="", help="notes on the run")
@@ -95,7 +96,8 @@ def run(args: argparse.Namespace) -> int:
     if job is None:
         return EXIT_INVALID
     if args.pf is not None and all(getattr(args, k) is None for k, _ in _LOADS):
-        print(f"{args.file}: --pf needs a load (--amps, --va, --kva, --watts or --kw)", file=sys.stderr)
+        print(f"{args.file}: --pf needs a load (--amps, --va, --kva, --watts or --kw)",
+              file=sys.stderr)
         return EXIT_INVALID
     run_id = args.run_id or job.next_run_id("R")
     if job.run(run_id) is not None:

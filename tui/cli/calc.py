@@ -11,15 +11,15 @@ import json
 import math
 import sys
 
+from gaugewalk.model.engine.circuits import CircuitError, circuit_from_volts
+from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.drop import METHODS
 from gaugewalk.model.engine.lengths import LengthError, format_length_ft, parse_length
 from gaugewalk.model.engine.loads import LoadError, load_amps
-from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.sizing import SizingError, evaluate, resolve_raceway
-from gaugewalk.model.engine.circuits import CircuitError, circuit_from_volts
 from gaugewalk.tables.conductor.ampacity import ambient_factor, insulation_rating, parse_insulation
-from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.sizes import parse_size
+from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tui.cli.main import CAUTION, UsageError
 
 NAME = "calc"
@@ -115,7 +115,8 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--max-drop", type=_number(), default=3.0, metavar="PCT",
                         help="drop target for this run [%%] (default 3)")
     parser.add_argument("--upstream-drop", type=_number(0.0, allow_equal=True), default=0.0,
-                        metavar="PCT", help="drop already taken from the service to the source [%%]")
+                        metavar="PCT",
+                        help="drop already taken from the service to the source [%%]")
     parser.add_argument("--max-total-drop", type=_number(), default=5.0, metavar="PCT",
                         help="drop target from the service to the load [%%] (default 5)")
     parser.add_argument("--method", choices=tuple(METHODS), default="ac",
@@ -143,8 +144,10 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         "upsizing to it enlarges the EGC in proportion (NEC 250.122(B))")
     parser.add_argument("--ocpd", type=_whole(1, 6000), metavar="A",
                         help="breaker or fuse rating [A]; default the next standard rating")
-    parser.add_argument("--no-egc", action="store_true", help="run no equipment grounding conductor")
-    parser.add_argument("--bare-egc", action="store_true", help="the EGC is bare (for conduit fill)")
+    parser.add_argument("--no-egc", action="store_true",
+                        help="run no equipment grounding conductor")
+    parser.add_argument("--bare-egc", action="store_true",
+                        help="the EGC is bare (for conduit fill)")
     parser.add_argument("--json", action="store_true", help="print one JSON object")
 
 

@@ -14,8 +14,8 @@ import sys
 from gaugewalk.model.walk.compute import JobResult, compute_job
 from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walkfile.store import WalkFileError, check_walk_text, read_walk_text
-from gaugewalk.tui.cli.main import CAUTION
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
+from gaugewalk.tui.cli.main import CAUTION
 
 NAME = "check"
 HELP = "Check a walk file and compute every run (exit 0 all within limits, 1 not, 2 invalid)."

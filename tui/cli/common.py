@@ -6,8 +6,8 @@ from __future__ import annotations
 import functools
 import sys
 
-from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walk.checks import Problem
+from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walkfile.store import WalkFileError, load_walk
 
 EXIT_OK = 0
@@ -21,8 +21,8 @@ def writes_walk(path_arg: str, tool: str):
     has it; a stale lock of a dead process is cleared with a note), give the command
     ``args.expected`` (the file's fingerprint before reading, for ``save_walk(expected=...)``), and
     turn a refused or failed save into one line on stderr and exit 2."""
-    from gaugewalk.model.walkfile.store import ChangedOnDisk, WalkFileError, fingerprint
     from gaugewalk.model.walkfile.lock import LockError, WalkLocked, acquire_lock
+    from gaugewalk.model.walkfile.store import ChangedOnDisk, WalkFileError, fingerprint
 
     def wrap(run):
         @functools.wraps(run)

@@ -50,7 +50,8 @@ def build_parser() -> argparse.ArgumentParser:
     subparsers = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     for module_name in COMMAND_MODULES:
         module = importlib.import_module(module_name)
-        sub = subparsers.add_parser(module.NAME, help=module.HELP, description=module.HELP, epilog=CAUTION)
+        sub = subparsers.add_parser(module.NAME, help=module.HELP, description=module.HELP,
+                                    epilog=CAUTION)
         module.add_arguments(sub)
         sub.set_defaults(_run=module.run)
     return parser

@@ -12,7 +12,14 @@ import argparse
 import sys
 
 from gaugewalk.model.walk.merge import merge_jobs
-from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, read_job, save_checked, writes_walk
+from gaugewalk.tui.cli.common import (
+    EXIT_INVALID,
+    EXIT_LIMITS,
+    EXIT_OK,
+    read_job,
+    save_checked,
+    writes_walk,
+)
 
 NAME = "merge"
 HELP = "Merge two walk files by run and source id; conflicts stop the merge unless --prefer."

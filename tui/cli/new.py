@@ -9,7 +9,7 @@ from pathlib import Path
 
 from pydantic import ValidationError
 
-from gaugewalk.model.walk.checks import problems_from_errors, Locator
+from gaugewalk.model.walk.checks import Locator, problems_from_errors
 from gaugewalk.model.walkfile.store import atomic_write, dumps_walk, new_walk
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_OK, print_problems
 
@@ -38,7 +38,8 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 def run(args: argparse.Namespace) -> int:
     path = Path(args.file)
     if path.exists():
-        print(f"{path}: already exists; 'gaugewalk new' does not write over a walk", file=sys.stderr)
+        print(f"{path}: already exists; 'gaugewalk new' does not write over a walk",
+              file=sys.stderr)
         return EXIT_INVALID
     if not path.parent.is_dir():
         print(f"{path}: the folder {path.parent} does not exist", file=sys.stderr)
@@ -53,10 +54,12 @@ def run(args: argparse.Namespace) -> int:
     try:
         atomic_write(path, dumps_walk(job).encode("utf-8"), keep_backup=False, create_only=True)
     except FileExistsError:
-        print(f"{path}: already exists; 'gaugewalk new' does not write over a walk", file=sys.stderr)
+        print(f"{path}: already exists; 'gaugewalk new' does not write over a walk",
+              file=sys.stderr)
         return EXIT_INVALID
     except OSError as exc:
         print(f"{path}: cannot write the walk: {exc.strerror or exc}", file=sys.stderr)
         return EXIT_INVALID
-    print(f"started {path}" + (f" with service SVC ({job.sources[0].system})" if job.sources else ""))
+    service = f" with service SVC ({job.sources[0].system})" if job.sources else ""
+    print(f"started {path}{service}")
     return EXIT_OK

@@ -96,7 +96,8 @@ def run_errors_of(job_result) -> dict[str, str]:
         if where.startswith("run "):
             rid = where[4:]
             if rid not in job_result.runs:
-                errors[rid] = f"{errors[rid]}; {problem.message}" if rid in errors else problem.message
+                errors[rid] = (f"{errors[rid]}; {problem.message}" if rid in errors
+                               else problem.message)
     return errors
 
 

@@ -12,8 +12,8 @@ import sys
 
 from pydantic import ValidationError
 
-from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.model.walk.checks import Locator, problems_from_errors
+from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,

@@ -60,11 +60,13 @@ def load_computed(path: str):
     return job, result, takeoff
 
 
-def _aligned(columns: tuple[str, ...], rows: list[tuple[str, ...]], indent: str = "  ") -> list[str]:
+def _aligned(columns: tuple[str, ...], rows: list[tuple[str, ...]],
+             indent: str = "  ") -> list[str]:
     widths = [max([len(c)] + [len(r[i]) for r in rows]) for i, c in enumerate(columns)]
 
     def line(cells) -> str:
-        return indent + "  ".join(cell.ljust(w) for cell, w in zip(cells, widths)).rstrip()
+        padded = (cell.ljust(w) for cell, w in zip(cells, widths, strict=True))
+        return indent + "  ".join(padded).rstrip()
 
     return [line(columns), line(["-" * w for w in widths])] + [line(r) for r in rows]
 

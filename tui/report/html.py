@@ -41,7 +41,7 @@ def _table(columns, rows, *, problem_rows: set[int] = frozenset(), label: str = 
     for i, row in enumerate(rows):
         cells = "".join(
             f"<td class=\"num\">{escape(v)}</td>" if c in _NUMERIC else f"<td>{escape(v)}</td>"
-            for c, v in zip(columns, row)
+            for c, v in zip(columns, row, strict=True)
         )
         cls = " class=\"problem\"" if i in problem_rows else ""
         body.append(f"<tr{cls}>{cells}</tr>")
@@ -72,7 +72,8 @@ def footage_chart_svg(report: Report, width: int = 640) -> str:
         name = f"{b.size} {'Cu' if b.material == 'cu' else 'Al'}"
         fill = "#b5651d" if b.material == "cu" else "#8a9099"
         parts.append(
-            f"<text x=\"{label_w - 6}\" y=\"{y + bar_h - 5}\" text-anchor=\"end\">{escape(name)}</text>"
+            f"<text x=\"{label_w - 6}\" y=\"{y + bar_h - 5}\" text-anchor=\"end\">"
+            f"{escape(name)}</text>"
             f"<rect x=\"{label_w}\" y=\"{y}\" width=\"{w:.1f}\" height=\"{bar_h}\" fill=\"{fill}\">"
             f"<title>{escape(name)}: {b.with_waste_ft} ft</title></rect>"
             f"<text x=\"{label_w + w + 4:.1f}\" y=\"{y + bar_h - 5}\">{b.with_waste_ft} ft</text>"

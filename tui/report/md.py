@@ -49,7 +49,7 @@ def footage_chart_text(report: Report) -> list[str]:
     names = [f"{f.size} {'Cu' if f.material == 'cu' else 'Al'}" for f in report.footage]
     pad = max(len(n) for n in names)
     lines = ["```"]
-    for name, f in zip(names, report.footage):
+    for name, f in zip(names, report.footage, strict=True):
         bar = "#" * max(1, round(_BAR_WIDTH * f.with_waste_ft / most))
         lines.append(f"{name.rjust(pad)} | {bar} {f.with_waste_ft} ft")
     lines.append("```")
