@@ -32,7 +32,10 @@ from typing import NamedTuple
 
 from gaugewalk.tables.equipment.horsepower import hp_text, parse_hp
 from gaugewalk.tables.equipment.hp_tables import (
-    MotorCurrent, checked_volts, keyed_by_hp, read_current,
+    MotorCurrent,
+    checked_volts,
+    keyed_by_hp,
+    read_current,
 )
 from gaugewalk.tables.equipment.motors import voltage_column
 from gaugewalk.tables.errors import TableLookupError, choices

@@ -32,7 +32,11 @@ from __future__ import annotations
 from fractions import Fraction
 
 from gaugewalk.tables.equipment.hp_tables import (
-    MotorCurrent, checked_volts, keyed_by_hp, read_current, row_hp,
+    MotorCurrent,
+    checked_volts,
+    keyed_by_hp,
+    read_current,
+    row_hp,
 )
 from gaugewalk.tables.errors import TableLookupError, choices
 

@@ -1,14 +1,23 @@
 """Locked-rotor currents: NEC 2023 Tables 430.251(A), 430.251(B) and the code letters of Table
 430.7(B)."""
 
+import itertools
 import math
+
 import pytest
 
-from gaugewalk.tables.equipment.locked_rotor import (
-    CODE_LETTERS, COLUMNS_430_251_A, COLUMNS_430_251_B, TABLE_430_251_A_LRA, TABLE_430_251_B_LRA,
-    code_letter_range, kva_per_hp, locked_rotor_amps, locked_rotor_amps_from_code_letter,
-)
 from gaugewalk.tables.equipment.horsepower import parse_hp
+from gaugewalk.tables.equipment.locked_rotor import (
+    CODE_LETTERS,
+    COLUMNS_430_251_A,
+    COLUMNS_430_251_B,
+    TABLE_430_251_A_LRA,
+    TABLE_430_251_B_LRA,
+    code_letter_range,
+    kva_per_hp,
+    locked_rotor_amps,
+    locked_rotor_amps_from_code_letter,
+)
 from gaugewalk.tables.equipment.motors import TABLE_430_250_FLC
 from gaugewalk.tables.errors import TableLookupError
 
@@ -51,7 +60,7 @@ def test_locked_rotor_kva_is_the_same_in_every_voltage_column(table, columns):
     for hp, row in table.items():
         reference = 230 if row[columns.index(230)] is not None else 460
         base = row[columns.index(reference)]
-        for volts, amps in zip(columns, row):
+        for volts, amps in zip(columns, row, strict=True):
             if amps is None:
                 continue
             expected = base * reference / volts
@@ -64,7 +73,7 @@ def test_locked_rotor_current_rises_with_horsepower():
         assert list(table) == sorted(table)
         for i, volts in enumerate(columns):
             amps = [row[i] for row in table.values() if row[i] is not None]
-            assert all(a < b for a, b in zip(amps, amps[1:])), volts
+            assert all(a < b for a, b in itertools.pairwise(amps)), volts
 
 
 def test_design_b_locked_rotor_current_is_about_six_times_full_load():
@@ -84,7 +93,7 @@ def test_code_letters_are_contiguous_in_steps_of_a_hundredth():
     letters = list(CODE_LETTERS)
     assert "".join(letters) == "ABCDEFGHJKLMNPRSTUV"
     assert CODE_LETTERS["A"][0] == 0.0 and CODE_LETTERS["V"] == (22.4, None)
-    for before, after in zip(letters, letters[1:]):
+    for before, after in itertools.pairwise(letters):
         assert round(CODE_LETTERS[after][0] - CODE_LETTERS[before][1], 2) == 0.01, after
 
 

@@ -4,8 +4,12 @@ of 430.52(C)(1)(b) and 430.52(C)(3)."""
 import pytest
 
 from gaugewalk.tables.equipment.motor_protection import (
-    DEVICES, MOTOR_TYPES, TABLE_430_52_PERCENT, branch_device_percent,
-    instantaneous_evaluation_threshold, starting_limit,
+    DEVICES,
+    MOTOR_TYPES,
+    TABLE_430_52_PERCENT,
+    branch_device_percent,
+    instantaneous_evaluation_threshold,
+    starting_limit,
 )
 from gaugewalk.tables.equipment.motors import motor_flc
 from gaugewalk.tables.errors import TableLookupError

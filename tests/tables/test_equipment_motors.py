@@ -1,14 +1,25 @@
 """Motor full-load currents, NEC 2023 Tables 430.247, 430.248 and 430.250, and the voltage column a
 system reads (the tables' headnotes)."""
 
+import itertools
 from fractions import Fraction
 
 import pytest
 
 from gaugewalk.tables.equipment.motors import (
-    COLUMNS_430_247, COLUMNS_430_248, COLUMNS_430_250, TABLE_430_247_FLC, TABLE_430_248_FLC,
-    TABLE_430_250_FLC, TABLE_430_250_SYNC_FLC, dc_motor_flc, flc_column, horsepowers, motor_flc,
-    synchronous_motor_flc, table_hp,
+    COLUMNS_430_247,
+    COLUMNS_430_248,
+    COLUMNS_430_250,
+    TABLE_430_247_FLC,
+    TABLE_430_248_FLC,
+    TABLE_430_250_FLC,
+    TABLE_430_250_SYNC_FLC,
+    dc_motor_flc,
+    flc_column,
+    horsepowers,
+    motor_flc,
+    synchronous_motor_flc,
+    table_hp,
 )
 from gaugewalk.tables.errors import TableLookupError
 
@@ -100,7 +111,7 @@ def test_current_rises_with_horsepower_in_every_column(table, columns):
     for volts in columns:
         amps = [a for _hp, a in _column(table, columns, volts)]
         assert len(amps) >= 5
-        assert all(a < b for a, b in zip(amps, amps[1:])), volts
+        assert all(a < b for a, b in itertools.pairwise(amps)), volts
 
 
 @pytest.mark.parametrize(("table", "columns"), [(TABLE_430_248_FLC, COLUMNS_430_248),

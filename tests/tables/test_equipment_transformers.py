@@ -4,10 +4,22 @@ ratings and typical impedances used only as stated assumptions."""
 import pytest
 
 from gaugewalk.tables.equipment.transformers import (
-    NOTES, SECONDARY_10_FT, SECONDARY_25_FT, SINGLE_PHASE_KVA, THREE_PHASE_KVA,
-    TYPICAL_BASIS, TYPICAL_IMPEDANCE_1PH, TYPICAL_IMPEDANCE_3PH, current_band,
-    min_secondary_ampacity_10ft, min_secondary_ampacity_25ft, next_standard_kva, rated_current,
-    thermal_overload_primary_multiple, transformer_protection, typical_impedance,
+    NOTES,
+    SECONDARY_10_FT,
+    SECONDARY_25_FT,
+    SINGLE_PHASE_KVA,
+    THREE_PHASE_KVA,
+    TYPICAL_BASIS,
+    TYPICAL_IMPEDANCE_1PH,
+    TYPICAL_IMPEDANCE_3PH,
+    current_band,
+    min_secondary_ampacity_10ft,
+    min_secondary_ampacity_25ft,
+    next_standard_kva,
+    rated_current,
+    thermal_overload_primary_multiple,
+    transformer_protection,
+    typical_impedance,
 )
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.protection.ocpd import next_standard_rating

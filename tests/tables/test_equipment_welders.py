@@ -5,8 +5,12 @@ import math
 import pytest
 
 from gaugewalk.tables.equipment.welders import (
-    CONDUCTOR_DEVICE_MAX_PCT, GROUP_FACTORS, TABLE_630_11_A_MULTIPLIERS, WELDER_DEVICE_MAX_PCT,
-    duty_cycle_multiplier, next_higher_duty_cycle_row,
+    CONDUCTOR_DEVICE_MAX_PCT,
+    GROUP_FACTORS,
+    TABLE_630_11_A_MULTIPLIERS,
+    WELDER_DEVICE_MAX_PCT,
+    duty_cycle_multiplier,
+    next_higher_duty_cycle_row,
 )
 from gaugewalk.tables.errors import TableLookupError
 
