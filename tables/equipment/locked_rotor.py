@@ -44,7 +44,7 @@ TABLE_430_251_A = "Table 430.251(A)"
 TABLE_430_251_B = "Table 430.251(B)"
 TABLE_430_7_B = "Table 430.7(B)"
 
-_ = None  # no entry in the printed table
+_: None = None  # no entry in the printed table
 
 # NEC 2023 Table 430.251(A), single-phase maximum locked-rotor current [A].
 COLUMNS_430_251_A: tuple[int, ...] = (115, 208, 230)

@@ -45,7 +45,7 @@ TABLE_430_248 = "Table 430.248"
 TABLE_430_250 = "Table 430.250"
 TABLE_430_250_SYNC = "Table 430.250 (synchronous, unity power factor)"
 
-_ = None  # no entry in the printed table
+_: None = None  # no entry in the printed table
 
 # NEC 2023 Table 430.248, full-load current [A], single-phase ac motors.
 COLUMNS_430_248: tuple[int, ...] = (115, 200, 208, 230)

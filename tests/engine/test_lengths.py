@@ -14,7 +14,7 @@ from gaugewalk.model.engine.lengths import (
     parse_length,
 )
 
-UREG = pint.UnitRegistry()
+UREG: pint.UnitRegistry = pint.UnitRegistry()
 
 
 def pint_feet(text: str) -> float:

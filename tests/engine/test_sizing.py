@@ -219,8 +219,11 @@ def independent_failures(s: RunSpec, size: str) -> list[str]:
     factor = ampacity.ambient_factor(s.ambient_c, ins) * ampacity.ccc_factor(
         s.ccc or s.circuit.hots + (1 if s.circuit.neutral and s.circuit.neutral_is_ccc else 0))
     fails = []
-    ta = ampacity.ampacity(size, s.material, term) * s.sets
-    corrected = ampacity.ampacity(size, s.material, ins) * factor * s.sets
+    at_terminal = ampacity.ampacity(size, s.material, term)
+    at_rating = ampacity.ampacity(size, s.material, ins)
+    assert at_terminal is not None and at_rating is not None, size  # a size Table 310.16 lists
+    ta = at_terminal * s.sets
+    corrected = at_rating * factor * s.sets
     if ta < design - 1e-9:
         fails.append("terminal")  # NEC 110.14(C)(1), 210.19(A)(1)(a)
     if corrected < s.amps - 1e-9:

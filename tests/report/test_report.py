@@ -79,7 +79,7 @@ def page(tmp_path_factory):
     return html, parsed
 
 
-def _rows(parsed: _Page, label: str) -> dict[str, list[str]]:
+def _rows(parsed: _Page, label: str) -> dict[str, dict[str, str]]:
     header, *body = parsed.tables[label]
     return {row[0]: dict(zip(header, row, strict=True)) for row in body} if header else {}
 

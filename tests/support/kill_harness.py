@@ -214,9 +214,10 @@ class CommandKillTrials:
         self.replaced_at_s = sorted(replaced_at)[len(replaced_at) // 2] if replaced_at else None
         if status != 0:
             raise RuntimeError(f"{' '.join(argv)} did not succeed on the untouched walk ({status})")
-        self.new = _read(self.target)
-        if self.new in (None, old):
+        new = _read(self.target)
+        if new is None or new == old:
             raise RuntimeError(f"{' '.join(argv)} did not change {self.target.name}")
+        self.new = new
 
     def _reset(self) -> int:
         """Put the old file and backup back; return the file's inode."""
@@ -282,12 +283,12 @@ class CommandKillTrials:
             before = self._reset()
             started = time.perf_counter()
             child = self._start()
-            kind = n % 3 if self.replaced_at_s is not None else 0
-            if kind == 2:  # after the rename, within what the run has left
+            replaced = self.replaced_at_s
+            if replaced is not None and n % 3 == 2:  # after the rename, within what is left
                 self._watch(child, before, started, stop_at_rename=True)
-                delay = rng.uniform(0.0, max(self.duration_s - self.replaced_at_s, 0.0))
-            elif kind == 1:  # aimed at the save: the last quarter of the time before the rename
-                delay = self.replaced_at_s * rng.uniform(0.75, 1.0)
+                delay = rng.uniform(0.0, max(self.duration_s - replaced, 0.0))
+            elif replaced is not None and n % 3 == 1:  # aimed at the save: the last quarter
+                delay = replaced * rng.uniform(0.75, 1.0)  # of the time before the rename
             else:  # anywhere in the run, or just after it
                 delay = rng.uniform(0.0, self.duration_s * 1.1)
             time.sleep(delay)
@@ -316,7 +317,8 @@ class CommandKillTrials:
                 report.torn.append(f"trial {report.trials}: {self.target.name} is neither the "
                                    f"old nor the new content ({size}, exit {status})")
                 continue
-            loads_walk(file.decode("utf-8"), self.target)
+            kept = self.new if file == self.new else self.old  # what the file holds
+            loads_walk(kept.decode("utf-8"), self.target)
             if back is not None:
                 loads_walk(back.decode("utf-8"), backup_path(self.target))
         return report

@@ -20,6 +20,7 @@ from __future__ import annotations
 
 import random
 from datetime import date, timedelta
+from typing import Any
 
 from gaugewalk.model.walk.job import Job
 
@@ -89,7 +90,7 @@ class _Builder:
 
     # ----- pieces -------------------------------------------------------------------------
     def _run(self, frm: str, to: str, length: tuple[int, int], *, feeder: bool = False,
-             **fields) -> dict:
+             **fields: Any) -> dict:
         rng = self.rng
         if feeder:
             self.feeder_no += 1
@@ -98,7 +99,7 @@ class _Builder:
             self.run_no += 1
             rid = f"R{self.run_no}"
         text, segments = _length(rng, *length)
-        run = {"id": rid, "from": frm, "to": to, "length": text}
+        run: dict[str, Any] = {"id": rid, "from": frm, "to": to, "length": text}
         if segments:
             run["segments"] = segments
         run.update(fields)
@@ -118,7 +119,7 @@ class _Builder:
         area = f"{rng.choice(_AREAS)} {rng.randint(1, 40)}"
         if kind == "lighting":
             amps = rng.choice((6, 8, 10, 12, 14, 16))
-            extra = {"distributed": True} if rng.random() < 0.4 else {}
+            extra: dict[str, Any] = {"distributed": True} if rng.random() < 0.4 else {}
             if rng.random() < 0.08:
                 extra["size"] = "12 AWG"
             self._run(panel, f"{area} {rng.choice(_LIGHTS)}", (40, 260),
@@ -131,9 +132,10 @@ class _Builder:
             return float(va)
         if kind == "motor":
             kva = rng.choice((3.0, 5.0, 7.5, 10.0, 15.0, 20.0))
-            self._run(panel, f"{area} {rng.choice(_MOTORS)}", (30, 300),
-                      load={"value": kva, "unit": "kVA"}, connection="3P",
-                      **({"raceway": "PVC-40"} if rng.random() < 0.15 else {}))
+            name = f"{area} {rng.choice(_MOTORS)}"
+            extra = {"raceway": "PVC-40"} if rng.random() < 0.15 else {}
+            self._run(panel, name, (30, 300), load={"value": kva, "unit": "kVA"},
+                      connection="3P", **extra)
             return kva * 1000.0
         kw = rng.choice((6.0, 9.0, 12.0, 15.0))
         self._run(panel, f"{area} duct heater", (30, 200),
@@ -152,9 +154,10 @@ class _Builder:
             return float(va)
         if kind == "equipment":
             amps = rng.choice((5, 8, 10, 12, 16))
-            self._run(panel, f"{area} {rng.choice(_EQUIPMENT)}", (20, 150),
-                      load={"value": amps, "unit": "A"}, connection="LN",
-                      **({"size": "10 AWG"} if rng.random() < 0.1 else {}))
+            name = f"{area} {rng.choice(_EQUIPMENT)}"
+            extra: dict[str, Any] = {"size": "10 AWG"} if rng.random() < 0.1 else {}
+            self._run(panel, name, (20, 150), load={"value": amps, "unit": "A"},
+                      connection="LN", **extra)
             return amps * 120.0
         if kind == "two-pole":
             kw = rng.choice((1.5, 3.0, 4.5, 5.0))
@@ -213,7 +216,8 @@ class _Builder:
             t_no += 1
             tid = f"B{b}-T{t_no}"
             panels = min(rng.randint(1, 3), max((room - 1) // 12, 1))
-            source = {"id": tid, "kind": "transformer", "system": "208Y/120V 3ph 4w"}
+            source: dict[str, Any] = {"id": tid, "kind": "transformer",
+                                      "system": "208Y/120V 3ph 4w"}
             self.sources.append(source)
             self._run(svc, tid, (20, 250), feeder=True)
             load = 0.0

@@ -20,7 +20,7 @@ from gaugewalk.tables.conductor.properties import (
 from gaugewalk.tables.conductor.sizes import SIZES, is_awg
 from gaugewalk.tables.errors import TableLookupError
 
-UNITS = UnitRegistry()
+UNITS: UnitRegistry = UnitRegistry()
 
 AWG_SIZES = [s for s in SIZES if is_awg(s)]
 KCMIL_SIZES = [s for s in SIZES if not is_awg(s)]

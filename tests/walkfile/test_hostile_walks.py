@@ -53,8 +53,8 @@ def _assert_clear_refusal(code: int, err: str, path) -> None:
 
 # -- values a walk file might hold --------------------------------------------------------------
 
-odd_text = st.text(st.characters(exclude_categories=("Cs",)), max_size=60)
-long_text = st.builds(lambda ch, n: ch * n, st.characters(exclude_categories=("Cs",)),
+odd_text = st.text(st.characters(exclude_categories=["Cs"]), max_size=60)
+long_text = st.builds(lambda ch, n: ch * n, st.characters(exclude_categories=["Cs"]),
                       st.integers(1000, 20000))
 hostile_values = st.one_of(
     st.just(float("nan")), st.just(float("inf")), st.just(float("-inf")),

@@ -59,7 +59,7 @@ def test_load_save_load_loses_nothing_and_keeps_the_length_as_typed():
     assert again.run("R2").length_ft == pytest.approx(36 / 0.3048 + 8)
 
 
-_text = st.text(alphabet=st.characters(blacklist_categories=("Cs",), blacklist_characters="\x00"),
+_text = st.text(alphabet=st.characters(blacklist_categories=["Cs"], blacklist_characters="\x00"),
                 max_size=30)
 
 

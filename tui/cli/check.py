@@ -10,6 +10,7 @@ from __future__ import annotations
 import argparse
 import json
 import sys
+from typing import Any
 
 from gaugewalk.model.walk.compute import JobResult, compute_job
 from gaugewalk.model.walk.job import Job
@@ -35,7 +36,7 @@ def _load_text(run) -> str:
 
 def results_json(path: str, job: Job, result: JobResult) -> dict:
     """The machine-readable results of ``check --json``."""
-    runs = []
+    runs: list[dict[str, Any]] = []
     for r in job.runs:
         rr = result.runs.get(r.id)
         entry = {

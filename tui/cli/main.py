@@ -11,6 +11,7 @@ from __future__ import annotations
 import argparse
 import importlib
 import sys
+from typing import NoReturn
 
 # Subcommand modules, in the order ``gaugewalk --help`` lists them.
 COMMAND_MODULES: tuple[str, ...] = (
@@ -36,7 +37,7 @@ class UsageError(Exception):
 
 
 class _Parser(argparse.ArgumentParser):
-    def error(self, message: str) -> None:  # argparse would print usage and exit 2 itself
+    def error(self, message: str) -> NoReturn:  # argparse would print usage and exit 2 itself
         raise UsageError(f"{self.prog}: {message}")
 
 

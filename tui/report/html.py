@@ -3,6 +3,7 @@ chart, nothing fetched from the network. Every piece of user text is escaped."""
 
 from __future__ import annotations
 
+from collections.abc import Set as AbstractSet
 from html import escape
 
 from gaugewalk.model.report.content import RUN_COLUMNS, Report
@@ -35,7 +36,7 @@ _NUMERIC = {"Length [ft]", "Drop [%]", "Total drop [%]", "Net [ft]", "With waste
             "Cuts [ft]", "Offcut [ft]", "Count", "Quantity"}
 
 
-def _table(columns, rows, *, problem_rows: set[int] = frozenset(), label: str = "") -> str:
+def _table(columns, rows, *, problem_rows: AbstractSet[int] = frozenset(), label: str = "") -> str:
     head = "".join(f"<th scope=\"col\">{escape(c)}</th>" for c in columns)
     body = []
     for i, row in enumerate(rows):
