@@ -11,7 +11,8 @@ import pytest
 
 from gaugewalk.tui.cli import report as cmd_report
 from gaugewalk.tui.cli.main import CAUTION
-from tests.walk.test_takeoff_walk import WALK, check_golden, gaugewalk
+from tests.support.golden import TAKEOFF_WALK as WALK
+from tests.support.golden import check_golden, gaugewalk
 
 
 class _Page(HTMLParser):

@@ -5,7 +5,6 @@ from __future__ import annotations
 import csv
 import io
 import json
-import os
 
 import pytest
 
@@ -13,26 +12,9 @@ from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.takeoff import ROW_FIELDS, build_takeoff
 from gaugewalk.model.walkfile.store import load_walk
 from gaugewalk.tui.cli import takeoff as cmd_takeoff
-from gaugewalk.tui.cli.main import CAUTION, main
-from tests.support.paths import GOLDEN
-
-WALK = GOLDEN / "takeoff_walk.toml"   # invented job: a bakery fit-out, 208Y/120 V
-
-
-def gaugewalk(module, argv: list[str]) -> int:
-    """Run ``gaugewalk MODULE.NAME ARGV...`` through the real dispatcher
-    (``gaugewalk.tui.cli.main.main``)."""
-    return main([module.NAME, *argv])
-
-
-def check_golden(name: str, text: str) -> None:
-    """Compare with tests/golden/NAME; GAUGEWALK_UPDATE_GOLDEN=1 rewrites it (read it first)."""
-    path = GOLDEN / name
-    if os.environ.get("GAUGEWALK_UPDATE_GOLDEN") == "1":
-        path.write_text(text, encoding="utf-8", newline="")
-    assert path.exists(), f"{path} is missing; run with GAUGEWALK_UPDATE_GOLDEN=1 and read it"
-    with open(path, encoding="utf-8", newline="") as handle:
-        assert text == handle.read()
+from gaugewalk.tui.cli.main import CAUTION
+from tests.support.golden import TAKEOFF_WALK as WALK
+from tests.support.golden import check_golden, gaugewalk
 
 
 @pytest.fixture(scope="module")

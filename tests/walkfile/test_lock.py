@@ -14,30 +14,13 @@ import time
 import pytest
 
 from gaugewalk.model.walkfile.lock import (
-    LockHolder,
     WalkLocked,
     acquire_lock,
     lock_holder,
     lock_path,
 )
+from tests.support.locks import dead_pid, live_process, write_lock
 from tests.support.paths import REPO as REPO_ROOT
-
-
-def _live_process():
-    """A process of our own that stays alive until killed: stands in for another opener."""
-    return subprocess.Popen([sys.executable, "-c", "import time; time.sleep(60)"])
-
-
-def _dead_pid() -> int:
-    proc = subprocess.Popen([sys.executable, "-c", "pass"])
-    proc.wait()
-    return proc.pid
-
-
-def _write_lock(walk, pid: int, host: str | None = None, since: str = "2024-05-02T14:03:00+00:00"):
-    holder = LockHolder("dana", host or socket.gethostname(), pid, since, "gaugewalk app")
-    lock_path(walk).write_text(holder.to_json())
-    return holder
 
 
 def test_the_lock_file_sits_beside_the_walk_with_json_naming_the_holder(tmp_path):
@@ -55,9 +38,9 @@ def test_the_lock_file_sits_beside_the_walk_with_json_naming_the_holder(tmp_path
 
 def test_a_second_opener_is_told_user_host_pid_and_since(tmp_path):
     walk = tmp_path / "shop.toml"
-    other = _live_process()
+    other = live_process()
     try:
-        _write_lock(walk, other.pid)
+        write_lock(walk, other.pid)
         with pytest.raises(WalkLocked) as caught:
             acquire_lock(walk)
         message = str(caught.value)
@@ -74,8 +57,8 @@ def test_a_second_opener_is_told_user_host_pid_and_since(tmp_path):
 
 def test_a_stale_lock_from_a_dead_process_is_cleared_with_a_message(tmp_path):
     walk = tmp_path / "shop.toml"
-    dead = _dead_pid()
-    _write_lock(walk, dead)
+    dead = dead_pid()
+    write_lock(walk, dead)
     assert lock_holder(walk) is None
     lock = acquire_lock(walk)
     try:
@@ -113,7 +96,7 @@ def test_a_lock_killed_with_its_process_is_stale_for_the_next_opener(tmp_path):
 
 def test_a_lock_from_another_host_is_honoured_and_says_how_to_clear_it(tmp_path):
     walk = tmp_path / "shop.toml"
-    _write_lock(walk, _dead_pid(), host="some-other-laptop")
+    write_lock(walk, dead_pid(), host="some-other-laptop")
     with pytest.raises(WalkLocked) as caught:
         acquire_lock(walk)
     assert "some-other-laptop" in str(caught.value)
@@ -123,9 +106,9 @@ def test_a_lock_from_another_host_is_honoured_and_says_how_to_clear_it(tmp_path)
 def test_releasing_never_removes_a_lock_that_is_no_longer_ours(tmp_path):
     walk = tmp_path / "shop.toml"
     lock = acquire_lock(walk)
-    other = _live_process()
+    other = live_process()
     try:
-        _write_lock(walk, other.pid)  # someone cleared ours by hand and took it
+        write_lock(walk, other.pid)  # someone cleared ours by hand and took it
         lock.release()
         assert lock_path(walk).exists()
         assert lock_holder(walk).pid == other.pid
@@ -189,7 +172,7 @@ def test_racing_openers_get_exactly_one_lock_even_over_a_stale_one(tmp_path, sta
         go = tmp_path / f"go{round_}"
         done = tmp_path / f"done{round_}"
         if stale_first:
-            _write_lock(walk, _dead_pid())
+            write_lock(walk, dead_pid())
         r, w = os.pipe()
         pids = []
         for _ in range(8):

@@ -7,14 +7,13 @@ from __future__ import annotations
 import itertools
 import os
 import socket
-import subprocess
 import sys
 import time
 
 import pytest
 
 import gaugewalk.tui.cli.main  # noqa: F401  (imported before forking)
-from gaugewalk.model.walkfile.lock import LockHolder, lock_path
+from gaugewalk.model.walkfile.lock import lock_path
 from gaugewalk.model.walkfile.store import (
     ChangedOnDisk,
     Fingerprint,
@@ -25,6 +24,7 @@ from gaugewalk.model.walkfile.store import (
 )
 from gaugewalk.tui.cli.main import main
 from tests.support.kill_harness import walk_versions
+from tests.support.locks import dead_pid, live_process, write_lock
 
 
 @pytest.fixture
@@ -37,10 +37,8 @@ def walk(tmp_path):
 @pytest.fixture
 def other_app(walk):
     """Another live process holding the walk, as the app does while it is open."""
-    proc = subprocess.Popen([sys.executable, "-c", "import time; time.sleep(60)"])
-    holder = LockHolder("dana", socket.gethostname(), proc.pid, "2024-05-02T14:03:00+00:00",
-                        "gaugewalk app")
-    lock_path(walk).write_text(holder.to_json())
+    proc = live_process()
+    write_lock(walk, proc.pid)
     yield proc
     proc.kill()
     proc.wait()
@@ -75,11 +73,7 @@ def test_merge_onto_an_open_walk_is_refused_but_reading_it_is_fine(walk, other_a
 
 
 def test_a_stale_lock_left_by_a_dead_app_is_cleared_with_a_note(walk, capsys):
-    proc = subprocess.Popen([sys.executable, "-c", "pass"])
-    proc.wait()
-    holder = LockHolder("dana", socket.gethostname(), proc.pid, "2024-05-02T14:03:00+00:00",
-                        "gaugewalk app")
-    lock_path(walk).write_text(holder.to_json())
+    write_lock(walk, dead_pid())
     assert main(_add(walk, "Glue station")) == 0
     err = capsys.readouterr().err
     assert "no longer running" in err and "cleared" in err
