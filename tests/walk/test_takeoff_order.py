@@ -11,7 +11,12 @@ import json
 
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.takeoff import (
-    OrderLine, RunMaterial, TakeoffSettings, build_takeoff, spreadsheet_safe, takeoff_from_runs,
+    OrderLine,
+    RunMaterial,
+    TakeoffSettings,
+    build_takeoff,
+    spreadsheet_safe,
+    takeoff_from_runs,
 )
 from gaugewalk.model.walk.takeoff.lines import PutUpCount, WireLine
 from gaugewalk.model.walk.takeoff.order import order_lines, putup_unit, size_code
@@ -78,7 +83,8 @@ def test_no_csv_cell_can_start_a_formula(capsys, tmp_path):
     assert gaugewalk(cmd_takeoff, [str(hostile), "--csv"]) == 0
     rows = list(csv.reader(io.StringIO(capsys.readouterr().out)))
     assert any("=HYPERLINK" in cell for row in rows for cell in row)
-    assert not any(cell.startswith(("=", "+", "-", "@", "\t", "\r")) for row in rows for cell in row)
+    assert not any(cell.startswith(("=", "+", "-", "@", "\t", "\r"))
+                   for row in rows for cell in row)
 
     # and any cell the order could hold, through the CSV writer
     job = loads_walk(WALK.read_text(encoding="utf-8"), "walk.toml")

@@ -6,7 +6,8 @@ from __future__ import annotations
 from collections import Counter
 
 import pytest
-from hypothesis import given, settings, strategies as st
+from hypothesis import given
+from hypothesis import strategies as st
 
 from gaugewalk.model.walk.takeoff.lines import Cut
 from gaugewalk.model.walk.takeoff.packing import l2_bound, pack_cuts
@@ -96,7 +97,8 @@ def test_no_put_up_listed_cuts_everything_to_length_in_one_piece():
 def test_order_lines_count_pieces_per_put_up_with_their_offcut():
     p = pack_cuts(cuts(400, 400, 400, 300), P12, cut_to_length=False)
     [line] = p.order()
-    assert (line.label, line.length_ft, line.count, line.offcut_ft) == ("1,000 ft reel", 1000, 2, 500)
+    assert (line.label, line.length_ft, line.count, line.offcut_ft) == ("1,000 ft reel", 1000, 2,
+                                                                        500)
 
 
 def test_the_same_cuts_pack_the_same_way_every_time():
@@ -133,7 +135,6 @@ def groups(draw, max_cuts: int = 40):
     return cuts(*feet), putups, cut
 
 
-@settings(max_examples=300, deadline=None)
 @given(groups())
 def test_every_packing_places_each_cut_once_and_overfills_nothing(group):
     given_cuts, putups, cut = group
@@ -191,7 +192,6 @@ def _brute_force(feet: list[int], lengths: tuple[int, ...], cut: bool) -> tuple[
     return best if best is not None else (0, len(long_ones))
 
 
-@settings(max_examples=200, deadline=None)
 @given(groups(max_cuts=6))
 def test_small_groups_match_a_brute_force_search(group):
     given_cuts, putups, cut = group

@@ -111,7 +111,8 @@ def test_each_prices_a_box_and_a_box_price_cannot_price_feet():
     cut = OrderLine("C", "a cut", 40, "ft", "wire", 1)
     priced = price_order([box], parse_prices("B,80,each\n"))
     assert priced.total_cost == Decimal("160.00")                  # 2 boxes x 80
-    with pytest.raises(PriceFileError, match="line 1: priced per box, but C is ordered by the foot"):
+    with pytest.raises(PriceFileError,
+                       match="line 1: priced per box, but C is ordered by the foot"):
         price_order([cut], parse_prices("C,80,box\n"))
 
 

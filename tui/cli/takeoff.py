@@ -19,7 +19,11 @@ import sys
 from pathlib import Path
 
 from gaugewalk.model.walk.takeoff import (
-    PRICED_FIELDS, ROW_FIELDS, Takeoff, TakeoffError, build_takeoff,
+    PRICED_FIELDS,
+    ROW_FIELDS,
+    Takeoff,
+    TakeoffError,
+    build_takeoff,
 )
 from gaugewalk.tui.cli.main import CAUTION, UsageError
 
@@ -76,7 +80,11 @@ def render_text(takeoff: Takeoff, title: str, priced=None, runs_per_piece: int |
     """The takeoff as aligned text for a terminal; ``priced`` adds prices and the total,
     ``runs_per_piece`` and ``pieces_per_line`` shorten the pull list (the app's footage view)."""
     from gaugewalk.model.report.content import (
-        fitting_table_of, order_table_of, priced_summary, pull_list_of, raceway_table_of,
+        fitting_table_of,
+        order_table_of,
+        priced_summary,
+        pull_list_of,
+        raceway_table_of,
         wire_table_of,
     )
 
