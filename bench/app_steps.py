@@ -20,6 +20,7 @@ import os
 import statistics
 import time
 from pathlib import Path
+from typing import Any
 
 from bench.timing import maxrss_mb
 from bench.walks import deepest_branch
@@ -153,7 +154,7 @@ def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> d
                     marks.setdefault(mark, now)
         return strip
 
-    RunSheet.render_line = render_line
+    RunSheet.render_line = render_line  # type: ignore[method-assign]  # timed, line by line
 
     # every frame the app composes (in a headless run it is composed, not written)
     probes: dict[str, object] = {}
@@ -168,7 +169,7 @@ def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> d
                     del probes[mark]
         return original_display(self, screen, renderable)
 
-    App._display = display
+    App._display = display  # type: ignore[method-assign]  # every frame composed, timed
     latencies: dict[str, list[float]] = {"scroll": [], "filter": [], "card": [], "typing": []}
     keyed: list[tuple[str, float]] = []
 
@@ -231,9 +232,10 @@ def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> d
             card = app.screen
             field = card.query_one("#f-load")
             # down: the load field, its text selected so typing replaces it
-            await key_to_frame(pilot, "down", lambda f=field: card.focused is f, "typing")
+            await key_to_frame(pilot, "down", lambda f=field, c=card: c.focused is f, "typing")
             for k, ch in enumerate(text):
-                await key_to_frame(pilot, ch, lambda f=field, v=text[: k + 1]: f.value == v, "typing")
+                await key_to_frame(pilot, ch, lambda f=field, v=text[: k + 1]: f.value == v,
+                                   "typing")
             await pilot.pause()
             phase("typing")
             wanted["stored"] = (target.id, text)
@@ -260,7 +262,8 @@ def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> d
         data = tomllib.loads(path.read_text(encoding="utf-8"))
         on_disk = next(r for r in data["run"] if r["id"] == target.id)["load"]["value"]
         if abs(on_disk - values[(stores - 1) % 2]) > 1e-9:
-            raise RuntimeError(f"the walk file holds load {on_disk} for {target.id}, not the stored value")
+            raise RuntimeError(f"the walk file holds load {on_disk} for {target.id}, "
+                               "not the stored value")
         return {
             "app_edit_ms": min(steps), "app_edit_median_ms": statistics.median(steps),
             "app_edit_worst_ms": max(steps), "app_edit_run": target.id,
@@ -279,7 +282,8 @@ def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> d
                 if app.return_code is not None:
                     raise RuntimeError(app.exit_message or "the app closed")
                 await asyncio.sleep(0.001)
-            out = {"first_paint_s": marks["rows"] - t0, "sized_paint_s": marks["sized"] - t0}
+            out: dict[str, Any] = {"first_paint_s": marks["rows"] - t0,
+                                   "sized_paint_s": marks["sized"] - t0}
             while app.session is None or app.session.busy:
                 await asyncio.sleep(0.005)
             out["runs_shown"] = len(app.screen.query_one(RunSheet).rows)

@@ -44,15 +44,19 @@ FRAME_MS = 1000.0 / 60.0
 
 TARGETS: tuple[Target, ...] = (
     Target("calc_ratio", 4.0, "`gaugewalk calc`, one run, whole process / bare `python -c pass`"),
-    Target("check_ratio", 3.0, "`gaugewalk check` of the sample walk / a process only parsing it (tomllib)"),
+    Target("check_ratio", 3.0,
+           "`gaugewalk check` of the sample walk / a process only parsing it (tomllib)"),
     Target("open_ratio", 1.5, "open: load_walk + compute_job / tomllib parse"),
     Target("save_ratio", 1.0, "save: dumps_walk / tomli_w.dumps"),
     Target("recompute_ratio", 0.25, "full recompute: compute_job / tomllib parse"),
     Target("edit_ratio", 0.02, "one-run edit to results and totals / tomllib parse"),
-    Target("app_edit_ratio", 0.15, "app: store a run, Enter to saved and repainted / tomllib parse"),
-    Target("stall_frames", 1.0, "app: longest event-loop stall, typing and storing / one frame (1/60 s)"),
+    Target("app_edit_ratio", 0.15,
+           "app: store a run, Enter to saved and repainted / tomllib parse"),
+    Target("stall_frames", 1.0,
+           "app: longest event-loop stall, typing and storing / one frame (1/60 s)"),
     Target("start_ratio", 1.3, "app start to first row, sample walk / bare Textual app"),
-    Target("start_sized_ratio", 1.5, "app start to first sized row, sample walk / bare Textual app"),
+    Target("start_sized_ratio", 1.5,
+           "app start to first sized row, sample walk / bare Textual app"),
     Target("sized_ratio", 2.0, "first sized row / first shown row, N runs"),
     Target("worst_key_ms", 50.0, "worst key to repaint: scrolling, filtering, run card [ms]"),
     Target("peak_mb", 200.0, "peak memory, largest resident set [MB]"),
@@ -64,8 +68,9 @@ LINEAR_SLACK = 1.5
 per run at 5,000."""
 SCALED = ("open_ms", "tomllib_ms", "recompute_ms", "save_ms", "tomli_w_ms", "edit_ms",
           "app_edit_ms", "first_paint_s", "sized_paint_s", "peak_mb")
-JSON_KEYS = ("open_ratio", "save_ratio", "edit_ms", "recompute_ms", "start_ratio", "first_paint_s",
-             "peak_mb", "app_edit_ms", "start_sized_s", "sized_paint_s") + tuple(t.key for t in TARGETS)
+JSON_KEYS = (("open_ratio", "save_ratio", "edit_ms", "recompute_ms", "start_ratio",
+              "first_paint_s", "peak_mb", "app_edit_ms", "start_sized_s", "sized_paint_s")
+             + tuple(t.key for t in TARGETS))
 """Always in the JSON line (None when not measured, e.g. with ``--no-app``)."""
 
 
@@ -120,7 +125,8 @@ def measure(n: int, repeat: int, starts: int, app: bool, stores: int, whole: boo
     if app:
         config = config_dir(tmp)
         if whole:
-            log(f"  app start on {SAMPLE.name} against a bare Textual app, {starts} processes each...")
+            log(f"  app start on {SAMPLE.name} against a bare Textual app, "
+                f"{starts} processes each...")
             sample = sample_copy(tmp)
             bare, start = [], []
             for _ in range(starts):
@@ -140,8 +146,8 @@ def measure(n: int, repeat: int, starts: int, app: bool, stores: int, whole: boo
             out[key] = min(o[key] for o in opens)
         for key in ("app_edit_worst_ms", "edit_stall_worst_ms", "frames_dropped"):
             out[key] = max(o[key] for o in opens)
-        out["worst_key_ms"] = max(out["worst_scroll_ms"], out["worst_filter_ms"], out["worst_card_ms"],
-                                  out["worst_typing_ms"])
+        out["worst_key_ms"] = max(out["worst_scroll_ms"], out["worst_filter_ms"],
+                                  out["worst_card_ms"], out["worst_typing_ms"])
         out["app_rss_mb"] = max(o["peak_mb"] for o in opens)
         out["peak_mb"] = max(out["model_rss_mb"], out["app_rss_mb"])
     ratios(out)
@@ -161,7 +167,8 @@ def _cpu() -> str:
 # ---------------------------------------------------------------------------------------------
 
 def main(argv: list[str] | None = None) -> int:
-    parser = argparse.ArgumentParser(prog="python -m bench.benchmarks", description=__doc__.split("\n")[0])
+    parser = argparse.ArgumentParser(prog="python -m bench.benchmarks",
+                                     description=__doc__.split("\n")[0])
     parser.add_argument("--runs", type=int, default=TARGET_RUNS, help="runs in the synthetic walk")
     parser.add_argument("--json", action="store_true", help="end with one JSON object")
     parser.add_argument("--scaling", action="store_true",
@@ -169,7 +176,8 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--repeat", type=int, default=9, help="timed repeats of each model step")
     parser.add_argument("--starts", type=int, default=4,
                         help="app start-up processes per figure (headless commands: twice as many)")
-    parser.add_argument("--stores", type=int, default=4, help="runs stored from the run card per app process")
+    parser.add_argument("--stores", type=int, default=4,
+                        help="runs stored from the run card per app process")
     parser.add_argument("--no-app", action="store_true", help="skip the app figures")
     parser.add_argument("--child", help=argparse.SUPPRESS)
     parser.add_argument("--file", help=argparse.SUPPRESS)
@@ -229,7 +237,9 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def _run_child(args, t0: float) -> dict | None:
-    path = Path(args.file) if args.file else None
+    if args.child != "bare" and not args.file:
+        raise SystemExit(f"--child {args.child} needs --file")
+    path = Path(args.file or ".")
     if args.child in ("core", "memory", "tracemalloc"):
         from bench import model_steps
 

@@ -31,7 +31,7 @@ def child_core(path: Path, repeat: int) -> dict:
     import tomli_w
 
     from gaugewalk.model.session.session import WalkSession
-    from gaugewalk.model.walk.compute import compute_job
+    from gaugewalk.model.walk.compute import JobResult, compute_job
     from gaugewalk.model.walk.job import Run
     from gaugewalk.model.walk.takeoff import build_takeoff
     from gaugewalk.model.walkfile.store import dumps_walk, load_walk, save_walk
@@ -59,7 +59,7 @@ def child_core(path: Path, repeat: int) -> dict:
     # one-run edit: the deepest branch, its load changed so the feeders above it and the drop
     # below them move as well
     session = WalkSession(path, job)
-    session.save = lambda: True          # the save is its own figure
+    session.save = lambda: True  # type: ignore[method-assign]  # the save is its own figure
     target = deepest_branch(job)
     base = target.model_dump(by_alias=True, exclude_defaults=True)
     values = [target.load.value, target.load.value * 1.5]
@@ -80,9 +80,11 @@ def child_core(path: Path, repeat: int) -> dict:
         raise RuntimeError("the one-run edit wrote the walk file: put_run no longer saves through "
                            "WalkSession.save, so this figure would hold a save; measure it apart")
     full = compute_job(job)
-    same = full.runs.keys() == session.result.runs.keys() and all(
+    # WalkSession.result has no annotation yet (model/session), so mypy takes it for None
+    edited: JobResult = session.result  # type: ignore[assignment]
+    same = full.runs.keys() == edited.runs.keys() and all(
         (full.runs[k].size, round(full.runs[k].total_drop_pct, 9))
-        == (session.result.runs[k].size, round(session.result.runs[k].total_drop_pct, 9))
+        == (edited.runs[k].size, round(edited.runs[k].total_drop_pct, 9))
         for k in full.runs
     )
 
@@ -101,8 +103,9 @@ def child_core(path: Path, repeat: int) -> dict:
             if not disk_session.state.saved:
                 raise RuntimeError(f"put_run did not save: {disk_session.state.message}")
         sheet = best(lambda: all_rows(disk_session), repeat)
-        footage = best(lambda: build_takeoff(disk_session.job, disk_session.result).footage_by_size(),
-                       min(repeat, 3))
+        footage = best(
+            lambda: build_takeoff(disk_session.job, disk_session.result).footage_by_size(),
+            min(repeat, 3))
         save_times = []
         for i in range(repeat):  # a changed file each time, so it writes
             copy.write_text(text if i % 2 else text + "\n", encoding="utf-8")

@@ -33,7 +33,8 @@ DETAIL = {
                                f"{_ms(r['worst_filter_ms'])}, open card {_ms(r['worst_card_ms'])}, "
                                f"type {_ms(r['worst_typing_ms'])}"),
     "peak_mb": lambda r: (f"app {r['app_rss_mb']:.0f} MB, " if "app_rss_mb" in r else "")
-                         + f"model only {r['model_rss_mb']:.0f} MB (traced {r['traced_peak_mb']:.0f} MB)",
+                         + f"model only {r['model_rss_mb']:.0f} MB "
+                         + f"(traced {r['traced_peak_mb']:.0f} MB)",
 }
 
 
@@ -66,9 +67,10 @@ def table(r: dict, targets) -> str:
                      _limit(t.key, t.limit), "PASS" if value <= t.limit else "MISS",
                      DETAIL[t.key](r)))
     widths = [max(len(row[i]) for row in rows + [head]) for i in range(5)]
-    lines = ["  ".join(c.ljust(w) for c, w in zip(head, widths)).rstrip(),
+    lines = ["  ".join(c.ljust(w) for c, w in zip(head, widths, strict=True)).rstrip(),
              "  ".join("-" * w for w in widths)]
-    lines += ["  ".join(c.ljust(w) for c, w in zip(row, widths)).rstrip() for row in rows]
+    lines += ["  ".join(c.ljust(w) for c, w in zip(row, widths, strict=True)).rstrip()
+              for row in rows]
     missed = [t.key for t in targets if t.key in r and r[t.key] > t.limit]
     lines.append(f"{len(rows) - len(missed)} of {len(rows)} targets met"
                  + (f"; MISS: {', '.join(missed)}" if missed else ""))
@@ -81,7 +83,8 @@ def table(r: dict, targets) -> str:
     ]
     if "app_edit_ms" in r:
         info.append(
-            f"app store step median {_ms(r['app_edit_median_ms'])}, worst {_ms(r['app_edit_worst_ms'])}; "
+            f"app store step median {_ms(r['app_edit_median_ms'])}, "
+            f"worst {_ms(r['app_edit_worst_ms'])}; "
             f"longest stall in the worst cycle {_ms(r['edit_stall_worst_ms'])}; "
             f"stalls over a frame (1/60 s) in all: {r['frames_dropped']}")
     return "\n".join(lines) + "\nfor information (this machine): " + "\n  ".join(info)
@@ -104,7 +107,7 @@ def scaling_table(results: list[dict], slack: float) -> tuple[str, dict]:
             continue
         vals = [r[key] for r in results]
         unit = "s" if key.endswith("_s") else ("MB" if key.endswith("_mb") else "ms")
-        per = [v / n * (1e6 if unit == "s" else 1e3) for v, n in zip(vals, sizes)]
+        per = [v / n * (1e6 if unit == "s" else 1e3) for v, n in zip(vals, sizes, strict=True)]
         per_unit = "kB" if unit == "MB" else "us"
         growth = per[-1] / per[ref]
         if key in BASELINES:  # measured for the ratios; their growth is the machine's and Python's
@@ -112,7 +115,8 @@ def scaling_table(results: list[dict], slack: float) -> tuple[str, dict]:
         else:
             verdicts[key] = growth <= slack
             verdict = f"{growth:.2f}x <= {slack:g}x {'PASS' if verdicts[key] else 'MISS'}"
-        shown = [_s(v) if unit == "s" else _s(v / 1000) if unit == "ms" else f"{v:.0f} MB" for v in vals]
+        shown = [_s(v) if unit == "s" else _s(v / 1000) if unit == "ms" else f"{v:.0f} MB"
+                 for v in vals]
         lines.append(f"{key:<21}" + "".join(f"{v:>12}" for v in shown)
                      + "   " + (" / ".join(f"{p:.3g}" for p in per) + f" {per_unit}").ljust(35)
                      + verdict)

@@ -1,4 +1,5 @@
-"""Compiled TOML parsers measured against ``tomllib`` on walk files; run by hand, never by the suite.
+"""Compiled TOML parsers measured against ``tomllib`` on walk files; run by hand, never by the
+suite.
 
     python -m bench.toml_parsers --runs 5000 [--repeat 9] [--json]
 
@@ -85,7 +86,8 @@ def _import_times(modules: list[str], starts: int) -> dict[str, float]:
 
 
 def main(argv: list[str] | None = None) -> int:
-    parser = argparse.ArgumentParser(prog="python -m bench.toml_parsers", description=__doc__.split("\n")[0])
+    parser = argparse.ArgumentParser(prog="python -m bench.toml_parsers",
+                                     description=__doc__.split("\n")[0])
     parser.add_argument("--runs", type=int, default=5000, help="runs in the synthetic walk")
     parser.add_argument("--repeat", type=int, default=9, help="timed repeats of each parse")
     parser.add_argument("--starts", type=int, default=7, help="processes for each import time")
@@ -165,23 +167,24 @@ def main(argv: list[str] | None = None) -> int:
         try:
             f("a = \n")
         except Exception as exc:
-            attrs = [a for a in ("lineno", "colno") if hasattr(exc, a)]
+            names = [a for a in ("lineno", "colno") if hasattr(exc, a)]
             bases = [c.__name__ for c in type(exc).__mro__[1:3]]
             print(f"  {label:<24} {type(exc).__name__} ({', '.join(bases)}); attributes: "
-                  f"{', '.join(attrs) or 'none'}")
-            out["parsers"][label]["error_attributes"] = attrs
+                  f"{', '.join(names) or 'none'}")
+            out["parsers"][label]["error_attributes"] = names
     print("TOML 1.1 syntax that tomllib (TOML 1.0) refuses:")
     for what, text in NEWER_SYNTAX.items():
-        said = []
+        answers = []
         for label, f in loaded.items():
             try:
                 f(text)
             except Exception:  # each parser has its own error class
-                said.append(f"{label}: refuses")
+                answers.append(f"{label}: refuses")
             else:
-                said.append(f"{label}: READS IT")
-            out["parsers"][label].setdefault("toml_1_1", {})[what] = said[-1].endswith("READS IT")
-        print(f"  {what}: " + "; ".join(said))
+                answers.append(f"{label}: READS IT")
+            reads = answers[-1].endswith("READS IT")
+            out["parsers"][label].setdefault("toml_1_1", {})[what] = reads
+        print(f"  {what}: " + "; ".join(answers))
     if args.json:
         print(json.dumps(out))
     return 0

@@ -8,7 +8,8 @@ from pathlib import Path
 from bench.timing import ROOT
 
 SAMPLE = ROOT / "sample_walks" / "warehouse_dc2.toml"
-"""The largest sample walk (384 runs): the headless commands and the app start are measured on it."""
+"""The largest sample walk (384 runs): the headless commands and the app start are measured on
+it."""
 
 
 def synthetic_file(folder: Path, n_runs: int) -> Path:
