@@ -4,18 +4,14 @@ from __future__ import annotations
 
 import pytest
 
-from tests.support.app_helpers import new_app, opened, type_text
-from tests.support.walks import write_walk
 from gaugewalk.tui.app.screens.card import RunCard
 from gaugewalk.tui.app.screens.job import JobSettingsScreen
+from tests.support.app_helpers import new_app, opened, type_text
+from tests.support.walks import write_walk
 
 
-@pytest.fixture(autouse=True)
-def _config_elsewhere(tmp_path, monkeypatch):
-    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "xdg"))
-
-
-@pytest.mark.parametrize("moves, left", [([], "f-to"), (["tab"], "f-length"), (["tab", "tab"], "f-load")])
+@pytest.mark.parametrize("moves, left",
+                         [([], "f-to"), (["tab"], "f-length"), (["tab", "tab"], "f-load")])
 async def test_ctrl_o_comes_back_to_the_main_field_it_left(tmp_path, moves, left):
     app = new_app(write_walk(tmp_path), tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
@@ -29,7 +25,8 @@ async def test_ctrl_o_comes_back_to_the_main_field_it_left(tmp_path, moves, left
         assert card.focused.id == left
 
 
-async def test_a_card_brought_back_starts_on_its_first_field_still_needed_as_a_new_card_does(tmp_path):
+async def test_a_card_brought_back_starts_on_its_first_field_still_needed_as_a_new_card_does(
+        tmp_path):
     app = new_app(write_walk(tmp_path), tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)

@@ -82,7 +82,8 @@ async def test_hostile_entries_in_the_card_are_refused_at_the_field_and_nothing_
         assert isinstance(card, RunCard)
         for key in ("length", "load", "sets", "size", "circuit"):
             for text in HOSTILE_IN_THE_APP:
-                card.form.values.update({"to": "Dough mixer", "length": "40", "load": "16A", key: text})
+                card.form.values.update({"to": "Dough mixer", "length": "40", "load": "16A",
+                                         key: text})
                 card._show_values()
                 card.recheck(store_tried=True)
                 assert key in card.errors, (key, text[:20])

@@ -16,7 +16,8 @@ from tests.support.walks import write_walk
 # starting the next card, and characters typed over a field the card filled in.
 SCRIPT = (
     ["n", *"Sheeter", "tab", *"45", "down", *"8A", "ctrl+o", "down", *"LL", "ctrl+o", "enter"]
-    + [*"Ovem", "backspace", "n", "tab", *"600", "backspace", "tab", *"30A", "up", "up", "shift+tab",
+    + [*"Ovem", "backspace", "n", "tab", *"600", "backspace", "tab", *"30A", "up", "up",
+       "shift+tab",
        "down", "down", "down", "enter"]
     + [*"pro", "tab", *"12+3", "tab", *"2kW pf0.9", "enter"]
 )
@@ -35,12 +36,14 @@ async def _record(tmp_path, name: str, burst: bool) -> list[dict]:
     app = new_app(path, folder / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
+        driver = app._driver
+        assert driver is not None  # run_test gives the app its headless driver
         if burst:
             for key in SCRIPT:  # all in the app's queue before the first is handled
-                app._driver.send_message(_event(key))
+                driver.send_message(_event(key))
         else:
             for key in SCRIPT:  # each key handled, and the screen redrawn, before the next
-                app._driver.send_message(_event(key))
+                driver.send_message(_event(key))
                 await pilot.pause()
         await pilot.pause(0.3)
         await app.workers.wait_for_complete()

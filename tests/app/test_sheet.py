@@ -3,26 +3,16 @@ columns say each run's circuit (voltage, poles) and device."""
 
 from __future__ import annotations
 
-import pytest
-
-from tests.support.app_helpers import new_app, opened, sheet_cells, shown, type_text
-from tests.support.walks import SMALL_WALK, write_walk
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
-
-
-@pytest.fixture(autouse=True)
-def _config_elsewhere(tmp_path, monkeypatch):
-    monkeypatch.setenv("XDG_CONFIG_HOME", str(tmp_path / "xdg"))
+from tests.support.app_helpers import new_app, opened, sheet_cells, shown, type_text
+from tests.support.walks import SMALL_WALK, run_table, tables_text, write_walk
 
 
 def _many_runs(n: int) -> str:
     """The invented bakery walk with ``n`` more lighting runs from LP1, each longer."""
-    runs = "".join(
-        f'\n[[run]]\nid = "L{i}"\nfrom = "LP1"\nto = "Light row {i}"\nlength = "{20 + 5 * i}"\n'
-        f'load = {{ value = 6, unit = "A" }}\nconnection = "LN"\n'
-        for i in range(1, n + 1)
-    )
-    return SMALL_WALK + runs
+    return SMALL_WALK + tables_text("run", [
+        run_table(f"L{i}", "LP1", f"Light row {i}", f"{20 + 5 * i}", load=(6, "A"), connection="LN")
+        for i in range(1, n + 1)])
 
 
 async def test_sorting_puts_the_cursor_and_the_view_on_the_first_row_of_the_new_order(tmp_path):

@@ -22,11 +22,14 @@ import pytest
 
 from tests.support.walks import write_walk
 
-pytestmark = pytest.mark.skipif(
-    shutil.which("tmux") is None,
-    reason="tmux is not installed: this test types into the app in a real terminal "
-    "(apt-get install -y tmux)",
-)
+pytestmark = [
+    pytest.mark.skipif(
+        shutil.which("tmux") is None,
+        reason="tmux is not installed: this test types into the app in a real terminal "
+        "(apt-get install -y tmux)",
+    ),
+    pytest.mark.slow,  # the app started and typed into under load, three times
+]
 
 # The keys of a foreman recording three runs, as tmux names them: Tab, Down, Up, shift+Tab
 # (BTab), ctrl+o there and back, Backspace, a completion taken with Tab, Enter storing and
@@ -71,7 +74,8 @@ class Pane:
             if text in shown and (absent is None or absent not in shown):
                 return
             time.sleep(0.1)
-        raise AssertionError(f"{text!r} did not appear within {LIMIT_S} s; the pane shows:\n{shown}")
+        raise AssertionError(f"{text!r} did not appear within {LIMIT_S} s; "
+                             f"the pane shows:\n{shown}")
 
     def close(self) -> None:
         subprocess.run(["tmux", "-L", self.socket, "kill-server"], capture_output=True)
@@ -84,11 +88,13 @@ def _busy_processes() -> list[subprocess.Popen]:
 
 
 @pytest.mark.parametrize("gap_ms", [0, 20, 50])
-def test_keys_typed_in_a_real_terminal_under_load_reach_the_file_as_typed(tmp_path: Path, gap_ms: int):
+def test_keys_typed_in_a_real_terminal_under_load_reach_the_file_as_typed(tmp_path: Path,
+                                                                           gap_ms: int):
     path = write_walk(tmp_path)
     env = f"XDG_CONFIG_HOME={shlex.quote(str(tmp_path / 'xdg'))} TERM=xterm-256color"
     app = f"{shlex.quote(sys.executable)} -m gaugewalk.tui.cli.main {shlex.quote(str(path))}"
-    pane = Pane(f"cd {shlex.quote(str(tmp_path))} && env {env} {app}; echo \"[ended $?]\"; sleep 60")
+    shell = f"cd {shlex.quote(str(tmp_path))} && env {env} {app}; echo \"[ended $?]\"; sleep 60"
+    pane = Pane(shell)
     busy = _busy_processes()
     try:
         pane.wait_for("CAUTION")  # the first start shows the caution

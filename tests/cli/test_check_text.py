@@ -26,7 +26,8 @@ connection = "LN"
 """
 
 
-def test_the_check_table_keeps_its_columns_in_line_for_long_ids_and_counts_in_words(tmp_path, capsys):
+def test_the_check_table_keeps_its_columns_in_line_for_long_ids_and_counts_in_words(tmp_path,
+                                                                                     capsys):
     path = tmp_path / "kiosk.toml"
     path.write_text(WALK, encoding="utf-8")
     assert main(["check", str(path)]) == 0

@@ -26,7 +26,8 @@ def test_a_new_card_starts_on_to_from_the_last_runs_source_with_its_circuit(sess
     assert form.start() == "to"
     v = form.values
     # the invented walk's last run R1 is from LP1, LN
-    assert (v["from"], v["circuit"], v["id"], v["sets"], v["continuous"]) == ("LP1", "LN", "R2", "1", "no")
+    assert (v["from"], v["circuit"], v["id"], v["sets"], v["continuous"]) == (
+        "LP1", "LN", "R2", "1", "no")
     assert set(v) == set(FIELD_KEYS)
 
 

@@ -114,7 +114,8 @@ def _table(path: str, job: Job, result: JobResult) -> str:
                 f"{vd:>6} {tot:>6}  {status}")
 
     head = line(("run", "from", "to", "ft", "load", "size", "drop%", "total%", "status"))
-    title = f"{job.job.name or path}: {_plural(len(job.runs), 'run')}, {_plural(len(job.sources), 'source')}"
+    counts = f"{_plural(len(job.runs), 'run')}, {_plural(len(job.sources), 'source')}"
+    title = f"{job.job.name or path}: {counts}"
     lines = [title, "", head, "-" * len(head)] + [line(row) for row in rows]
     lines.append("")
     if result.problems:
