@@ -34,7 +34,8 @@ def child_core(path: Path, repeat: int) -> dict:
     from gaugewalk.model.walk.compute import JobResult, compute_job
     from gaugewalk.model.walk.job import Run
     from gaugewalk.model.walk.takeoff import build_takeoff
-    from gaugewalk.model.walkfile.store import dumps_walk, load_walk, save_walk
+    from gaugewalk.model.walkfile.read import load_walk
+    from gaugewalk.model.walkfile.write import dumps_walk, save_walk
     from gaugewalk.tui.app.sheet.rows import all_rows, sheet_row
 
     def open_walk():
@@ -130,7 +131,7 @@ def child_core(path: Path, repeat: int) -> dict:
 def child_memory(path: Path) -> dict:
     """Resident set after opening and computing the walk (model only)."""
     from gaugewalk.model.walk.compute import compute_job
-    from gaugewalk.model.walkfile.store import load_walk
+    from gaugewalk.model.walkfile.read import load_walk
 
     before = maxrss_mb()
     job = load_walk(path)
@@ -144,7 +145,7 @@ def child_tracemalloc(path: Path) -> dict:
     import tracemalloc
 
     from gaugewalk.model.walk.compute import compute_job
-    from gaugewalk.model.walkfile.store import load_walk
+    from gaugewalk.model.walkfile.read import load_walk
 
     tracemalloc.start()
     job = load_walk(path)

@@ -18,7 +18,7 @@ import time
 from pathlib import Path
 
 import gaugewalk.tui.cli.main  # noqa: F401  (imported before forking)
-from gaugewalk.model.walkfile.store import dumps_walk, save_walk
+from gaugewalk.model.walkfile.write import dumps_walk, save_walk
 from tests.support.kill_harness import CommandKillTrials, SaveKillTrials, walk_versions
 
 

@@ -13,7 +13,7 @@ such. For each parser, on the synthetic walk of ``--runs`` runs and on every wal
 - its import time in a fresh process (best of several, less a bare ``python -c pass``);
 - what its error says for a few malformed files made from the sample walk (an unterminated
   string, a duplicate key, a bad value, a bad date, a table defined twice, each on a known line),
-  and whether the line and column our messages name (``model/walkfile/store._syntax_problem``)
+  and whether the line and column our messages name (``model/walkfile/read._syntax_problem``)
   can be read from it.
 """
 

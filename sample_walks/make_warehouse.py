@@ -22,7 +22,7 @@ if __package__ in (None, ""):
     sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
 from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Run, Source  # noqa: E402
-from gaugewalk.model.walkfile.store import dumps_walk  # noqa: E402
+from gaugewalk.model.walkfile.write import dumps_walk  # noqa: E402
 
 OUT = Path(__file__).with_name("warehouse_dc2.toml")
 WALKED = date(2024, 9, 10)

@@ -688,9 +688,9 @@ class CardForm:
             preview = self.session.preview(run, replaces=self.run_id, new_source=out.new_source)
             out.result = preview.result
             out.cannot = preview.cannot_size
-            for field_key, message in preview.problems:
-                key = _CARD_FIELD.get(field_key or "", "to" if field_key is None else "from")
-                r.errors.setdefault(key, message)
+            for p in preview.problems:
+                key = _CARD_FIELD.get(p.field or "", "to" if p.field is None else "from")
+                r.errors.setdefault(key, p.message)
         out.errors, out.hints = r.errors, r.hints
         out.run = run if not r.errors else None
         # an empty field nobody has reached yet is "needed", not wrong

@@ -1,19 +1,24 @@
-"""One open walk in the app: the job, its computed results, saving and undo.
+"""One open walk in the app: the job, its computed results, trial changes, undo and saving.
 
 No Textual here, so it can be tested and timed on its own. Runs, sources and defaults are never
 changed in place: every change puts new objects into the job's lists, so an undo step is just the
-previous lists (copies of references, cheap even with thousands of runs).
+previous lists (copies of references, cheap even with thousands of runs). Every stored change
+reaches the disk through ``gaugewalk.model.session.hold.WalkHold``, the same path the writing
+commands take.
 """
 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import TYPE_CHECKING
 
-from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Run, Source
 from gaugewalk.model.engine.contract import RunResult
+from gaugewalk.model.session.hold import WalkHold
+from gaugewalk.model.walk.graph import SupplyGraph
+from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Run, Source
+from gaugewalk.model.walk.problems import Problem
 
 if TYPE_CHECKING:
     from gaugewalk.model.walk.compute import JobResult
@@ -53,7 +58,7 @@ class Preview:
     (field name or None, sentence) that stop it."""
 
     result: RunResult | None
-    problems: list[tuple[str | None, str]] = field(default_factory=list)
+    problems: list[Problem] = field(default_factory=list)
     cannot_size: str | None = None   # why it cannot be sized yet (does not stop storing)
 
 
@@ -63,7 +68,7 @@ class TrialOutcome:
     the changed run: (run id, total drop before, after [%], flagged before, after)."""
 
     result: object | None
-    problems: list[str] = field(default_factory=list)
+    problems: list[Problem] = field(default_factory=list)
     downstream: list[tuple[str, float, float, bool, bool]] = field(default_factory=list)
 
 
@@ -81,30 +86,27 @@ class WalkSession:
         self.path = Path(path)
         self.job = job
         self.result = None
-        self.job_problems: list[str] = []
+        self.job_problems: list[Problem] = []   # the walk's problems about no one run
         self.state = SaveState()
         self.history: list[Snapshot] = []
         self.future: list[Snapshot] = []
         self.draft: dict[str, str] | None = None
         self.busy = False   # True while the whole walk is being sized in the background
         self.read_only: str | None = None   # why the walk cannot be changed here, if it cannot
-        self.lock = None
-        from gaugewalk.model.walkfile.store import fingerprint
-
-        self.fingerprint = fingerprint(self.path)  # what was read: a save checks it is still there
+        self.hold = WalkHold(self.path, "gaugewalk app")
+        self.hold.note()  # what was read: a save checks it is still there
         if compute:
             self.recompute()
 
     # ----- opening ----------------------------------------------------------------------
     @classmethod
     def open(cls, path: str | Path, *, compute: bool = True) -> "WalkSession":
-        """Read a walk; raises ``gaugewalk.model.walkfile.store.WalkFileError`` for a bad file. With
+        """Read a walk; raises ``gaugewalk.model.walkfile.read.WalkFileError`` for a bad file. With
         ``compute=False`` the runs are not sized yet (call ``recompute``)."""
-        from gaugewalk.model.walkfile.store import fingerprint, load_walk
-
-        before = fingerprint(path)  # taken before reading: a save in between is then caught
-        session = cls(Path(path), load_walk(path), compute=compute)
-        session.fingerprint = before
+        hold = WalkHold(path, "gaugewalk app")
+        job = hold.read()  # noted before reading: a save in between is then caught
+        session = cls(Path(path), job, compute=compute)
+        session.hold = hold
         return session
 
     @classmethod
@@ -115,7 +117,7 @@ class WalkSession:
         """Start a new walk at ``path`` (with its service) and write it at once."""
         from datetime import date
 
-        from gaugewalk.model.walkfile.store import new_walk
+        from gaugewalk.model.walk.job import new_walk
 
         job = new_walk(
             name=name or Path(path).stem, service_system=service_system, service_id=service_id,
@@ -129,13 +131,14 @@ class WalkSession:
     def recompute(self, edited: str | None = None) -> None:
         """Compute the walk again; after one run was edited in place (same from and to), only
         what that run touches."""
-        from gaugewalk.model.walk.compute import compute_job, recompute_run
+        from gaugewalk.model.walk.compute import compute_job
+        from gaugewalk.model.walk.recompute import recompute_run
 
         if edited is not None and self.result is not None:
             self.result = recompute_run(self.job, self.result, edited)
         else:
             self.result = compute_job(self.job)
-        self.job_problems = [str(p) for p in self.result.problems if not p.where.startswith("run ")]
+        self.job_problems = [p for p in self.result.problems if p.about != "run"]
 
     def result_for(self, run_id: str) -> RunResult | None:
         if self.result is None:
@@ -207,14 +210,18 @@ class WalkSession:
         trial._index_cache = None
         return trial
 
-    def _reference_problems(self, trial: Job, run: Run) -> list[tuple[str | None, str]]:
-        from gaugewalk.model.walk.checks import Locator, check_references
+    def _reference_problems(self, trial: Job, run: Run) -> list[Problem]:
+        """The cross-check problems of ``trial`` about ``run`` or the sources at its ends (those
+        said against its ``to`` field)."""
+        from gaugewalk.model.walk.checks import check_references
+        from gaugewalk.model.walk.problems import Locator
 
-        mine = f"run {run.id}"
         out = []
         for p in check_references(trial, Locator(""), self.path.name):
-            if p.where == mine or (p.where.startswith("source ") and p.where[7:] in (run.to, run.from_)):
-                out.append((p.field if p.where == mine else "to", p.message))
+            if p.is_about("run", (run.id,)):
+                out.append(p)
+            elif p.is_about("source", (run.to, run.from_)):
+                out.append(replace(p, field="to"))
         return out
 
     def preview(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> Preview:
@@ -239,7 +246,7 @@ class WalkSession:
         try:
             res = evaluate(run_spec_for(trial, run, upstream))
         except CircuitError as exc:
-            return Preview(None, [("connection", str(exc))])
+            return Preview(None, [Problem("", None, "run", run.id, "connection", str(exc))])
         except (LoadError, ValueError) as exc:
             return Preview(None, [], cannot_size=str(exc))
         return Preview(res)
@@ -248,31 +255,24 @@ class WalkSession:
         """Compute the walk with ``run`` in place of the stored run of the same id (and
         ``sources`` in place of those of the same ids: a transformer secondary at another
         voltage, with the panels it feeds)."""
-        from gaugewalk.model.walk.checks import Locator, check_references
-
         trial = self._with(run, run.id, None, tuple(sources))
-        known = self._reference_texts()
-        problems = sorted(
-            f"{p.where}: {p.message}" for p in check_references(trial, Locator(""), self.path.name)
-            if f"{p.where}: {p.message}" not in known
-        )
+        problems = self.hold.added_problems(trial, self.hold.problem_keys(self.job))
         if problems:
-            return TrialOutcome(None, problems)
+            return TrialOutcome(None, sorted(problems, key=Problem.brief))
         from gaugewalk.model.walk.compute import compute_job
 
         result = compute_job(trial)
         if run.id not in result.runs:
-            return TrialOutcome(result, ["this change leaves the run impossible to size"])
+            return TrialOutcome(result, [Problem("", None, "run", run.id, None,
+                                                 "this change leaves the run impossible to size")])
         down: list[tuple[str, float, float, bool, bool]] = []
         if self.job.is_feeder(run):
-            before_ids = self._downstream_ids(run.to)
-            for rid in before_ids:
-                r = self.job.run(rid)
-                b = self.result_for(rid)
-                a = result.runs.get(rid)
-                if r is None or b is None or a is None:
+            for r in SupplyGraph(self.job).runs_below(run.to):
+                b = self.result_for(r.id)
+                a = result.runs.get(r.id)
+                if b is None or a is None:
                     continue
-                down.append((rid, b.total_drop_pct, a.total_drop_pct,
+                down.append((r.id, b.total_drop_pct, a.total_drop_pct,
                              self.status(r, b).flag, self.status(r, a, result).flag))
         return TrialOutcome(result, [], down)
 
@@ -280,33 +280,8 @@ class WalkSession:
         """The source and every source below it on the same system, down to the next
         transformer: what moves together when a transformer secondary is tried at another
         voltage."""
-        out: list[Source] = []
-        stack = [source_id]
-        while stack:
-            src = self.job.source(stack.pop())
-            if src is None or src in out:
-                continue
-            out.append(src)
-            for r in self.job.runs_from(src.id):
-                dest = self.job.source(r.to)
-                if dest is not None and dest.kind != "transformer" and dest.system == system:
-                    stack.append(dest.id)
-        return out
-
-    def _downstream_ids(self, source_id: str) -> list[str]:
-        out: list[str] = []
-        stack = [source_id]
-        seen = set()
-        while stack:
-            sid = stack.pop()
-            if sid in seen:
-                continue
-            seen.add(sid)
-            for r in self.job.runs_from(sid):
-                out.append(r.id)
-                if self.job.source(r.to) is not None:
-                    stack.append(r.to)
-        return out
+        return SupplyGraph(self.job).sources_below(
+            source_id, lambda dest: dest.kind != "transformer" and dest.system == system)
 
     # ----- changing ---------------------------------------------------------------------
     def _snapshot(self, label: str, focus: str | None) -> Snapshot:
@@ -326,23 +301,18 @@ class WalkSession:
         # The job caches its id lookups by list identity and length; lists changed in place.
         self.job._index_cache = None
 
-    def _reference_texts(self) -> set[str]:
-        from gaugewalk.model.walk.checks import Locator, check_references
-
-        return {f"{p.where}: {p.message}" for p in check_references(self.job, Locator(""), self.path.name)}
-
     def _commit(self, label: str, focus: str | None, change, edited: str | None = None) -> str | None:
         """Make a change, recompute and save. A change that would leave the walk unreadable
         (a panel nothing feeds, a run from a missing source...) is taken back and the reason
         returned; nothing is saved then."""
         before = self._snapshot(label, focus)
-        known = self._reference_texts()
+        known = self.hold.problem_keys(self.job)
         change()
         self._touch()
-        new = self._reference_texts() - known
+        new = self.hold.added_problems(self.job, known)
         if new:
             self._restore(before)
-            return "; ".join(sorted(new))
+            return "; ".join(sorted({p.brief() for p in new}))
         self.history.append(before)
         self.future.clear()
         self.recompute(edited)
@@ -437,14 +407,14 @@ class WalkSession:
     def save(self) -> bool:
         """Write the walk now (atomic, with a backup). On failure the walk stays in memory,
         marked unsaved, with the reason in ``state.message``."""
-        from gaugewalk.model.walkfile.store import ChangedOnDisk, WalkFileError, fingerprint, save_walk
+        from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
+        from gaugewalk.model.walkfile.read import WalkFileError
 
         if self.read_only:
             self.state = SaveState(False, f"read-only: {self.read_only}")
             return False
         try:
-            notice = save_walk(self.job, self.path, expected=self.fingerprint)
-            self.fingerprint = fingerprint(self.path)
+            notice = self.hold.save(self.job)
         except ChangedOnDisk as exc:
             self.state = SaveState(False, str(exc))
             return False
@@ -472,7 +442,7 @@ class WalkSession:
     def comment_warning(self) -> str | None:
         """Said before the first save: the file's comments will not survive a save (the backup
         beside it keeps them)."""
-        from gaugewalk.model.walkfile.store import pending_notice
+        from gaugewalk.model.walkfile.write import pending_notice
 
         if self.read_only:
             return None
@@ -487,10 +457,10 @@ class WalkSession:
     def take_lock(self) -> str | None:
         """Hold the walk for writing. When someone else holds it the walk opens read-only;
         returns a sentence to show (who holds it, or a stale lock that was cleared), else None."""
-        from gaugewalk.model.walkfile.lock import LockError, WalkLocked, acquire_lock
+        from gaugewalk.model.walkfile.lock import LockError, WalkLocked
 
         try:
-            self.lock = acquire_lock(self.path, "gaugewalk app")
+            lock = self.hold.take_lock()
         except WalkLocked as exc:
             self.read_only = exc.message
             return f"Read-only: {exc.message}"
@@ -499,7 +469,7 @@ class WalkSession:
             return f"Read-only: {exc}"
         from gaugewalk.model.walkfile.drafts import load_draft
 
-        said = [self.lock.message] if self.lock.message else []
+        said = [lock.message] if lock.message else []
         kept = load_draft(self.path)  # a card typed when the app last stopped (crash recovery)
         if kept is not None and kept.run_id is None and self._typed(kept.fields):
             self.draft = kept.fields
@@ -508,9 +478,7 @@ class WalkSession:
         return " ".join(said) or None
 
     def release_lock(self) -> None:
-        if self.lock is not None:
-            self.lock.release()
-            self.lock = None
+        self.hold.release()
 
     @staticmethod
     def _typed(fields: dict[str, str]) -> bool:

@@ -10,44 +10,39 @@ Public API:
   ``ok``, ``run_problems(run_id)``.
 - ``run_spec_for(job, run, upstream_drop_pct, *, feeder_load=None) -> RunSpec``: the engine input
   with the job defaults applied and the branch or feeder drop target.
-- ``recompute_run(job, result, run_id) -> JobResult``: after one run was edited in place (same
-  ``from`` and ``to``), redo that run, the feeders above it and what their drop changes below;
-  falls back to ``compute_job`` when the walk's shape changed.
+- ``WalkState``: one computation over a walk writing into a ``JobResult`` (shared with the
+  incremental path, ``gaugewalk.model.walk.recompute``).
 
-Rules: a feeder's load is what its panel serves, the sum of the apparent power of the runs below
-it (loads in A turned into VA on their own circuit), turned back into amps on the feeder's
-circuit; its continuous share likewise (NEC 215.2(A)(1)). A feeder with its own ``load`` uses
-that instead. Percent drops add along a chain and restart at a transformer secondary
-(``gaugewalk.model.walk.chain``). Summing VA arithmetically ignores the phase angle between loads, which can
-only overstate the current (common practice).
+Rules: the supply graph (``gaugewalk.model.walk.graph``) is walked from the top; a feeder's load
+is what its panel serves (``gaugewalk.model.walk.feeder_loads``, NEC 215.2(A)(1)); each run is
+sized by the engine (``gaugewalk.model.engine.sizing``); percent drops add along a chain and
+restart at a transformer secondary (``gaugewalk.model.walk.chain``).
 """
 
 from __future__ import annotations
 
 import gc
 import math
-from dataclasses import MISSING, dataclass, field, fields, replace
+from dataclasses import MISSING, dataclass, field, fields
 
-from gaugewalk.model.walk.chain import upstream_drop
-from gaugewalk.model.walk.job import Job, Run
-from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
-from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec
-from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
-from gaugewalk.model.walk.checks import Problem, connection_of, default_connection
+from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec
+from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
+from gaugewalk.model.engine.sizing import evaluate
+from gaugewalk.model.walk.chain import upstream_drop
+from gaugewalk.model.walk.checks import connection_of, default_connection
+from gaugewalk.model.walk.feeder_loads import (
+    SQRT3,
+    FeederLoad,
+    amps_of_va,
+    load_of,
+    sum_loads,
+)
+from gaugewalk.model.walk.graph import SupplyGraph
+from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.walk.problems import Problem
 
-SQRT3 = math.sqrt(3.0)
 _EPS = 1e-9
-
-
-@dataclass(frozen=True)
-class FeederLoad:
-    """What a feeder carries, from the loads below it: apparent power [VA], its continuous part
-    [VA] and real power [W]."""
-
-    va: float
-    continuous_va: float
-    watts: float
 
 
 @dataclass
@@ -69,7 +64,7 @@ class JobResult:
     _run_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _chain_problems: list[Problem] = field(default_factory=list, repr=False)
     _shape: tuple = field(default=(), repr=False)
-    _walk: object = field(default=None, repr=False, compare=False)
+    _walk: SupplyGraph | None = field(default=None, repr=False, compare=False)
 
     @property
     def ok(self) -> bool:
@@ -79,91 +74,6 @@ class JobResult:
     def run_problems(self, run_id: str) -> list[Problem]:
         """Problems of one run (its own and the engine's)."""
         return list(self._run_problems.get(run_id, ()))
-
-
-def _va_of(value: float, unit: str, circuit: Circuit, pf: float) -> float:
-    """Apparent power of a load [VA]: A times the circuit's volts (times sqrt 3 on three
-    phases), VA as given, W divided by the power factor."""
-    if unit == "A":
-        return value * circuit.line_volts * (SQRT3 if circuit.phases == 3 else 1.0)
-    va = value * UNITS[unit]
-    return va / pf if unit in ("W", "kW") else va
-
-
-def _amps_of_va(va: float, circuit: Circuit) -> float:
-    """Line current of an apparent power on a circuit [A] (S/V, S/(sqrt 3 V_LL))."""
-    return va / (circuit.line_volts * (SQRT3 if circuit.phases == 3 else 1.0))
-
-
-class _Walk:
-    """The walk's shape, built once: sources, feeders, runs per source, order from the top."""
-
-    def __init__(self, job: Job) -> None:
-        self.job = job
-        self.sources = {}
-        for s in job.sources:
-            self.sources.setdefault(s.id, s)
-        self.feeder: dict[str, Run] = {}
-        self.children: dict[str, list[Run]] = {sid: [] for sid in self.sources}
-        self.orphans: list[Run] = []
-        for r in job.runs:
-            if r.from_ not in self.sources:
-                self.orphans.append(r)
-                continue
-            self.children[r.from_].append(r)
-            if r.to in self.sources and r.to not in self.feeder and r.to != r.from_:
-                self.feeder[r.to] = r
-        # sources from the top: roots are those nothing feeds
-        self.order: list[str] = []
-        seen: set[str] = set()
-        stack = [sid for sid in self.sources if sid not in self.feeder]
-        stack.reverse()
-        while stack:
-            sid = stack.pop()
-            if sid in seen:
-                continue
-            seen.add(sid)
-            self.order.append(sid)
-            below = [r.to for r in self.children[sid] if self.feeder.get(r.to) is r]
-            stack.extend(reversed(below))
-        self.unreached = [sid for sid in self.sources if sid not in seen]
-        # for recompute_run: the objects this walk was built from, to tell whether it still fits
-        self.runs = list(job.runs)
-        self.run_ids = list(map(id, self.runs))
-        self.source_ids = list(map(id, job.sources))
-        self.position: dict[str, int] = {}
-        for i, r in enumerate(self.runs):
-            self.position.setdefault(r.id, i)
-
-    def fits(self, job: Job, run: Run, shape: tuple) -> bool:
-        """True when ``job`` is the walk this was built from, with at most ``run`` put in place
-        of the run of the same id (same ``from`` and ``to``; it is then patched in), every other
-        run and source the same object, and no source re-pointed or re-kinded. Costs a pass in C
-        over the lists instead of rebuilding the walk."""
-        i = self.position.get(run.id)
-        if (job is not self.job or i is None or len(job.runs) != len(self.runs)
-                or job.runs[i] is not run or shape[i] != (run.id, run.from_, run.to)):
-            return False
-        old = self.runs[i]
-        self.run_ids[i] = id(run)
-        if list(map(id, job.runs)) != self.run_ids or list(map(id, job.sources)) != self.source_ids:
-            self.run_ids[i] = id(old)
-            return False
-        if shape[len(self.runs):] != tuple((s.id, s.kind, s.system) for s in job.sources):
-            return False
-        if old is not run:
-            self.runs[i] = run
-            siblings = self.children.get(run.from_, [])
-            for k, r in enumerate(siblings):
-                if r is old:
-                    siblings[k] = run
-            if self.feeder.get(run.to) is old:
-                self.feeder[run.to] = run
-        return True
-
-    def shape(self) -> tuple:
-        return tuple((r.id, r.from_, r.to) for r in self.job.runs) + tuple(
-            (s.id, s.kind, s.system) for s in self.job.sources)
 
 
 def run_spec_for(
@@ -233,8 +143,8 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         if feeder_load.va <= 0:
             raise LoadError(f"{run.to} serves no load yet, so its feeder cannot be sized; "
                             "add its runs or give the feeder a load")
-        amps = _amps_of_va(feeder_load.va, circuit)
-        continuous_amps = _amps_of_va(feeder_load.continuous_va, circuit)
+        amps = amps_of_va(feeder_load.va, circuit)
+        continuous_amps = amps_of_va(feeder_load.continuous_va, circuit)
         pf = min(1.0, max(0.05, feeder_load.watts / feeder_load.va))
     else:
         raise LoadError("the run has no load; give it in A, VA, kVA, W or kW")
@@ -276,39 +186,23 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
 def _sum_below(job: Job, source_id: str) -> FeederLoad:
     """What a source serves, summed through every level below it (single use; ``compute_job``
     sums all sources in one pass)."""
-    state = _State(_Walk(job), JobResult())
+    state = WalkState(SupplyGraph(job), JobResult())
     state.resolve_circuits()
     state.sum_loads()
     return state.result._loads.get(source_id, FeederLoad(0.0, 0.0, 0.0))
 
 
-def _feeder_load(va: float, continuous_va: float, watts: float) -> FeederLoad:
-    """``FeederLoad(va, continuous_va, watts)`` without the per-field ``object.__setattr__`` of
-    a frozen dataclass's ``__init__`` (two are made per run)."""
-    load = _new_object(FeederLoad)
-    _set_attr(load, "__dict__", {"va": va, "continuous_va": continuous_va, "watts": watts})
-    return load
-
-
-def _add(a: FeederLoad, b: FeederLoad, sign: float = 1.0) -> FeederLoad:
-    return _feeder_load(a.va + sign * b.va, a.continuous_va + sign * b.continuous_va,
-                        a.watts + sign * b.watts)
-
-
-_ZERO = FeederLoad(0.0, 0.0, 0.0)
-
-
-class _State:
+class WalkState:
     """One computation over a walk, writing into a JobResult."""
 
-    def __init__(self, walk: _Walk, result: JobResult) -> None:
+    def __init__(self, walk: SupplyGraph, result: JobResult) -> None:
         self.walk = walk
         self.job = walk.job
         self.result = result
         self._circuit_cache: dict[tuple[str, str], Circuit] = {}
 
     def fail(self, run: Run, message: str, field_name: str | None = None) -> None:
-        self.result._run_problems[run.id] = [Problem("", None, f"run {run.id}", field_name, message)]
+        self.result._run_problems[run.id] = [Problem("", None, "run", run.id, field_name, message)]
 
     def resolve_circuit(self, run: Run) -> Circuit | None:
         sources = self.walk.sources
@@ -342,9 +236,7 @@ class _State:
         circuit = self.result._circuits.get(run.id)
         if circuit is None:
             return None
-        pf = run.load.pf if run.load.pf is not None else self.job.defaults.pf
-        va = _va_of(run.load.value, run.load.unit, circuit, pf)
-        return _feeder_load(va, va if run.continuous else 0.0, va * pf)
+        return load_of(run, circuit, self.job.defaults.pf)
 
     def set_run_load(self, run: Run, load: FeederLoad | None) -> None:
         res = self.result
@@ -357,18 +249,8 @@ class _State:
 
     def sum_loads(self) -> None:
         """Bottom-up: what each source serves [VA]."""
-        walk, res = self.walk, self.result
-        for sid in reversed(walk.order):
-            total = _ZERO
-            for r in walk.children[sid]:
-                load = self.own_load(r)
-                if load is None and walk.feeder.get(r.to) is r:
-                    load = res._loads.get(r.to)
-                self.set_run_load(r, load)
-                if load is not None:
-                    total = _add(total, load)
-            res._loads[sid] = total
-            res.connected_va[sid] = total.va
+        res = self.result
+        sum_loads(self.walk, self.own_load, self.set_run_load, res._loads, res.connected_va)
 
     def evaluate_run(self, r: Run, upstream: float) -> None:
         res = self.result
@@ -401,7 +283,7 @@ class _State:
         res.runs[r.id] = result
         res.run_total_drop_pct[r.id] = result.total_drop_pct
         if result.problems:
-            res._run_problems[r.id] = [Problem("", None, f"run {r.id}", None, m)
+            res._run_problems[r.id] = [Problem("", None, "run", r.id, None, m)
                                        for m in result.problems]
         else:
             res._run_problems.pop(r.id, None)
@@ -415,17 +297,17 @@ class _State:
         walk = self.walk
         found: list[Problem] = []
         for r in walk.orphans:
-            found.append(Problem("", None, f"run {r.id}", "from", f"the run starts at "
+            found.append(Problem("", None, "run", r.id, "from", f"the run starts at "
                                  f"'{r.from_}', which is not a source of this job"))
         for sid in walk.unreached:
-            found.append(Problem("", None, f"source {sid}", None, "this source is in a loop of "
+            found.append(Problem("", None, "source", sid, None, "this source is in a loop of "
                                  "feeders, so it cannot be followed up to the service"))
         for sid in walk.order:
             s = walk.sources[sid]
             if s.kind == "transformer" and s.kva is not None:
                 va = self.result._loads[sid].va
                 if va > s.kva * 1000.0 + _EPS:
-                    found.append(Problem("", None, f"source {sid}", "kva", f"the loads below add "
+                    found.append(Problem("", None, "source", sid, "kva", f"the loads below add "
                                          f"up to {va / 1000:.1f} kVA, more than the transformer's "
                                          f"{s.kva:g} kVA"))
         self.result._chain_problems = found
@@ -457,9 +339,9 @@ def compute_job(job: Job) -> JobResult:
 
 
 def _compute_job(job: Job) -> JobResult:
-    walk = _Walk(job)
+    walk = SupplyGraph(job)
     result = JobResult()
-    state = _State(walk, result)
+    state = WalkState(walk, result)
     state.resolve_circuits()
     state.sum_loads()
     for sid in walk.order:
@@ -471,96 +353,3 @@ def _compute_job(job: Job) -> JobResult:
     result._shape = walk.shape()
     result._walk = walk
     return result
-
-
-def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
-    """Update ``result`` after run ``run_id`` was edited in place; returns the updated result.
-
-    Redoes the run and, when its load changed, every feeder above it that sums its panel; then,
-    below every source whose drop changed, re-evaluates only the runs whose size could change
-    (upsized for drop, with problems, or pushed over the total target) and shifts the total drop
-    of the rest. Falls back to ``compute_job`` when runs or sources were added, removed or
-    re-pointed. Only ``run_id`` may have changed since ``result`` was computed (edited in place
-    or put in place of the run of the same id, as the app does).
-    """
-    run = job.run(run_id)
-    if run is None:
-        return compute_job(job)
-    walk = result._walk
-    if not isinstance(walk, _Walk) or not walk.fits(job, run, result._shape):
-        walk = _Walk(job)
-        if walk.shape() != result._shape:
-            return compute_job(job)
-        result._walk = walk
-    if run.from_ not in walk.sources:
-        return compute_job(job)
-    state = _State(walk, result)
-    if state.resolve_circuit(run) is None:
-        state.forget(run)
-    # the run's load and the sums above it
-    is_feeder = walk.feeder.get(run.to) is run
-    new = state.own_load(run)
-    if new is None and is_feeder:
-        new = result._loads.get(run.to)
-    old = result._run_loads.get(run_id)
-    state.set_run_load(run, new)
-    delta = _add(new or _ZERO, old or _ZERO, -1.0)
-    chain: list[Run] = []
-    sid = run.from_
-    if delta != _ZERO:
-        while True:
-            total = _add(result._loads[sid], delta)
-            result._loads[sid] = total
-            result.connected_va[sid] = total.va
-            f = walk.feeder.get(sid)
-            if f is None or f.load is not None:
-                break
-            state.set_run_load(f, total)
-            chain.append(f)
-            sid = f.from_
-    # re-evaluate top-down: the feeders whose load changed, then the run itself
-    dirty: list[str] = []
-    for f in reversed(chain):
-        state.evaluate_run(f, result.source_drop_pct.get(f.from_, 0.0))
-        dirty.append(f.to)
-    state.evaluate_run(run, result.source_drop_pct.get(run.from_, 0.0))
-    if is_feeder:
-        dirty.append(run.to)
-    _refresh_below(state, dirty, skip={f.id for f in chain} | {run.id})
-    state.chain_problems()
-    state.assemble_problems()
-    return result
-
-
-def _refresh_below(state: _State, dirty: list[str], skip: set[str]) -> None:
-    """Carry new bus drops down: shift the total where the size cannot change, else
-    re-evaluate the run."""
-    walk, result = state.walk, state.result
-    stack = list(reversed(dirty))
-    while stack:
-        sid = stack.pop()
-        upstream = result.source_drop_pct.get(sid, 0.0)
-        for r in walk.children[sid]:
-            is_feeder = walk.feeder.get(r.to) is r
-            if r.id in skip:
-                continue
-            old = result.runs.get(r.id)
-            spec = result._specs.get(r.id)
-            if old is None or spec is None:
-                state.evaluate_run(r, upstream)
-            elif spec.upstream_drop_pct == upstream:
-                continue
-            elif (old.ok and old.governed_by != "voltage drop"
-                        and upstream + old.voltage_drop_pct <= spec.max_total_drop_pct + _EPS):
-                total = upstream + old.voltage_drop_pct
-                margins = dict(old.margins)
-                if "total_drop_pct" in margins:
-                    margins["total_drop_pct"] = spec.max_total_drop_pct - total
-                spec = replace(spec, upstream_drop_pct=upstream)
-                result._specs[r.id] = spec
-                state.store(r, replace(old, total_drop_pct=total, margins=margins),
-                            is_feeder, spec)
-            else:
-                state.evaluate_run(r, upstream)
-            if is_feeder and r.to not in dirty:
-                stack.append(r.to)

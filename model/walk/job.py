@@ -18,6 +18,7 @@ Public API (other modules code against these names):
   load (``Load``: value, unit, pf), continuous, distributed, connection, sets, size, ocpd_a,
   per-run overrides of the defaults (None: inherit), bends, measured_on, notes.
 - ``SCHEMA_VERSION``, ``SOURCE_KINDS``, ``OVERRIDABLE`` (run fields that fall back to defaults).
+- ``new_walk(name=..., site=..., walked_by=..., walked_on=..., service_system=...) -> Job``.
 
 Edit a run by assignment (``run.length = "90+12"``): runs validate on assignment, so ``length_ft``
 follows. The structure is checked here field by field; references, cycles and what a system can
@@ -508,3 +509,22 @@ with warnings.catch_warnings():
             while f"{prefix}{n}" in used:
                 n += 1
             return f"{prefix}{n}"
+
+
+def new_walk(
+    *,
+    name: str = "",
+    site: str = "",
+    walked_by: str = "",
+    walked_on: date | None = None,
+    service_system: str | None = None,
+    service_id: str = "SVC",
+) -> Job:
+    """A fresh walk; with ``service_system`` it starts with the service as its first source."""
+    sources = []
+    if service_system:
+        sources.append(Source(id=service_id, kind="service", system=service_system, name="Service"))
+    return Job(
+        job=JobHeader(name=name, site=site, walked_by=walked_by, walked_on=walked_on),
+        sources=sources,
+    )

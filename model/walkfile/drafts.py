@@ -23,7 +23,7 @@ from dataclasses import dataclass
 from datetime import datetime, timezone
 from pathlib import Path
 
-from gaugewalk.model.walkfile.store import atomic_write
+from gaugewalk.model.walkfile.atomic import atomic_write
 
 DRAFT_SUFFIX = ".draft.json"
 MAX_DRAFT_BYTES = 256 * 1024

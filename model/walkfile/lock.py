@@ -1,10 +1,10 @@
 """Who has a walk open for writing: a lock file beside the walk.
 
 ``walk.toml`` is held through ``.walk.toml.lock`` in the same folder, a small JSON file naming the
-holder (user, host, process id, since when, which tool). It is created atomically: the JSON is
-written to a temporary file first and hard-linked to the lock name, which fails if a lock is
-already there (``O_CREAT | O_EXCL`` is the fallback where links are not allowed), so a lock on
-disk is always whole. A second opener is told who holds it; the app then opens read-only and the
+holder (user, host, process id, since when, which tool). It is created by the one atomic writer
+(``gaugewalk.model.walkfile.atomic``, ``create_only``): the JSON is written to a temporary file
+first and hard-linked to the lock name, which fails if a lock is already there (``O_CREAT |
+O_EXCL`` is the fallback where links are not allowed), so a lock on disk is always whole. A second opener is told who holds it; the app then opens read-only and the
 writing commands refuse.
 
 A lock whose process is gone (same host, that process id no longer runs) is stale: it is removed
@@ -29,11 +29,12 @@ import getpass
 import json
 import os
 import socket
-import tempfile
 import time
 from dataclasses import asdict, dataclass
 from datetime import datetime, timezone
 from pathlib import Path
+
+from gaugewalk.model.walkfile.atomic import atomic_write
 
 LOCK_PREFIX = "."
 LOCK_SUFFIX = ".lock"
@@ -206,35 +207,13 @@ def _read_holder(lock: Path) -> tuple[LockHolder | None, bool]:
 
 
 def _create(lock: Path, holder: LockHolder) -> bool:
-    """Create the lock with ``holder`` in it; False if a lock is already there."""
-    data = holder.to_json().encode("utf-8")
-    fd, tmp = tempfile.mkstemp(prefix=f".{lock.name}.", suffix=".tmp", dir=lock.parent)
+    """Create the lock with ``holder`` in it, whole or not at all; False if a lock is already
+    there."""
     try:
-        with os.fdopen(fd, "wb") as handle:
-            handle.write(data)
-            handle.flush()
-            os.fsync(handle.fileno())
-        try:
-            os.link(tmp, lock)
-            return True
-        except FileExistsError:
-            return False
-        except OSError:
-            pass  # no hard links on this file system: O_EXCL instead
-        try:
-            fd2 = os.open(lock, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o644)
-        except FileExistsError:
-            return False
-        with os.fdopen(fd2, "wb") as handle:
-            handle.write(data)
-            handle.flush()
-            os.fsync(handle.fileno())
-        return True
-    finally:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
+        atomic_write(lock, holder.to_json().encode("utf-8"), keep_backup=False, create_only=True)
+    except FileExistsError:
+        return False
+    return True
 
 
 def _age_s(path: Path) -> float | None:

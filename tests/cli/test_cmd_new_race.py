@@ -1,6 +1,6 @@
 """'gaugewalk new' never writes over a walk, even one created while it was starting."""
 
-from gaugewalk.model.walkfile import store as walkfile
+from gaugewalk.model.walkfile import atomic as walkfile
 from gaugewalk.tui.cli.main import main
 
 

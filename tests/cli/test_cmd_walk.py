@@ -5,7 +5,9 @@ from __future__ import annotations
 import json
 import math
 
-from gaugewalk.model.walkfile.store import backup_path, json_schema_text, load_walk
+from gaugewalk.model.walkfile.atomic import backup_path
+from gaugewalk.model.walkfile.read import load_walk
+from gaugewalk.model.walkfile.schema import json_schema_text
 from gaugewalk.tui.cli.main import main
 from tests.support.paths import SAMPLES, SCHEMA
 
@@ -93,7 +95,7 @@ def test_check_exits_0_on_a_passing_sample_and_1_on_the_one_with_a_known_problem
 def test_the_committed_json_schema_is_up_to_date():
     committed = SCHEMA.read_text()
     assert committed == json_schema_text(), (
-        "regenerate: python -c 'from gaugewalk.model.walkfile.store import SCHEMA_FILE, "
+        "regenerate: python -c 'from gaugewalk.model.walkfile.schema import SCHEMA_FILE, "
         "json_schema_text; SCHEMA_FILE.write_text(json_schema_text())'")
 
 

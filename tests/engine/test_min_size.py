@@ -60,7 +60,7 @@ def test_a_walk_default_min_size_reaches_every_run(tmp_path):
         runs=[run_table("R1", "P1", "Lights", "40", load=(9, "A"), connection="LN")],
     ))
     from gaugewalk.model.walk.compute import compute_job
-    from gaugewalk.model.walkfile.store import load_walk
+    from gaugewalk.model.walkfile.read import load_walk
 
     result = compute_job(load_walk(walk)).runs["R1"]
     assert (result.size, result.egc_size) == ("12 AWG", "12 AWG")

@@ -84,4 +84,5 @@ def test_the_preview_sizes_a_run_without_storing_it(session):
     assert session.job.run("R2") is None and session.path.read_bytes() == before
     # a source that is not in the walk is named as the problem with the field it is in
     bad = session.preview(_run(**{"from": "LP9"}))
-    assert bad.result is None and bad.problems[0][0] == "from" and "LP9" in bad.problems[0][1]
+    assert bad.result is None
+    assert bad.problems[0].field == "from" and "LP9" in bad.problems[0].message

@@ -31,7 +31,9 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from gaugewalk.model.walk.job import Job
-from gaugewalk.model.walkfile.store import backup_path, dumps_walk, loads_walk, save_walk
+from gaugewalk.model.walkfile.atomic import backup_path
+from gaugewalk.model.walkfile.read import loads_walk
+from gaugewalk.model.walkfile.write import dumps_walk, save_walk
 from tests.support.paths import REPO
 from tests.support.walks import make_job, run_table, source_table
 

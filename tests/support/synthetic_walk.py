@@ -258,6 +258,6 @@ def synthetic_walk(n_runs: int, seed: int = 7) -> Job:
 
 def synthetic_walk_text(n_runs: int, seed: int = 7) -> str:
     """The synthetic walk's file text, exactly as gaugewalk saves it."""
-    from gaugewalk.model.walkfile.store import dumps_walk
+    from gaugewalk.model.walkfile.write import dumps_walk
 
     return dumps_walk(synthetic_walk(n_runs, seed))

@@ -8,8 +8,9 @@ import random
 import pytest
 
 from gaugewalk.model.engine.sizing import evaluate
-from gaugewalk.model.walk.compute import compute_job, recompute_run, run_spec_for
+from gaugewalk.model.walk.compute import compute_job, run_spec_for
 from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Load, Source
+from gaugewalk.model.walk.recompute import recompute_run
 from tests.support.walks import make_run
 
 SQRT3 = math.sqrt(3.0)

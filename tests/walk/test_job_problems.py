@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import pytest
 
-from gaugewalk.model.walkfile.store import WalkFileError, check_walk_text, loads_walk
+from gaugewalk.model.walkfile.read import WalkFileError, check_walk_text, loads_walk
 from gaugewalk.tui.cli.main import main
 from tests.support.walks import panel_walk, run_table
 

@@ -7,7 +7,8 @@ import importlib.util
 import pytest
 
 from gaugewalk.model.walk.compute import compute_job
-from gaugewalk.model.walkfile.store import dumps_walk, load_walk
+from gaugewalk.model.walkfile.read import load_walk
+from gaugewalk.model.walkfile.write import dumps_walk
 from tests.support.paths import SAMPLES
 
 

@@ -3,7 +3,8 @@
 from __future__ import annotations
 
 from gaugewalk.model.walk.merge import merge_jobs
-from gaugewalk.model.walkfile.store import dumps_walk, load_walk, loads_walk
+from gaugewalk.model.walkfile.read import load_walk, loads_walk
+from gaugewalk.model.walkfile.write import dumps_walk
 from gaugewalk.tui.cli.main import main
 from tests.support.paths import SAMPLES
 from tests.support.walks import panel_walk, run_table, source_table, tables_text

@@ -7,7 +7,8 @@ from collections import Counter
 import pytest
 
 from gaugewalk.model.walk.compute import compute_job
-from gaugewalk.model.walkfile.store import check_walk_text, dumps_walk
+from gaugewalk.model.walkfile.read import check_walk_text
+from gaugewalk.model.walkfile.write import dumps_walk
 from tests.support.synthetic_walk import TRANSFORMER_KVA, synthetic_walk, synthetic_walk_text
 
 

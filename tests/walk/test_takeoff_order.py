@@ -20,7 +20,7 @@ from gaugewalk.model.walk.takeoff import (
 )
 from gaugewalk.model.walk.takeoff.lines import PutUpCount, WireLine
 from gaugewalk.model.walk.takeoff.order import order_lines, putup_unit, size_code
-from gaugewalk.model.walkfile.store import loads_walk
+from gaugewalk.model.walkfile.read import loads_walk
 from gaugewalk.tables.order.putups import CUT_SIZES
 from gaugewalk.tui.cli import takeoff as cmd_takeoff
 from tests.walk.test_takeoff_walk import WALK, gaugewalk

@@ -10,7 +10,7 @@ import pytest
 
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.takeoff import ROW_FIELDS, build_takeoff
-from gaugewalk.model.walkfile.store import load_walk
+from gaugewalk.model.walkfile.read import load_walk
 from gaugewalk.tui.cli import takeoff as cmd_takeoff
 from gaugewalk.tui.cli.main import CAUTION
 from tests.support.golden import TAKEOFF_WALK as WALK
@@ -154,7 +154,8 @@ def test_an_unknown_colour_scheme_exits_2(tmp_path, capsys):
 
 
 def test_put_ups_the_job_lists_are_the_ones_ordered(tmp_path):
-    from gaugewalk.model.walkfile.store import dumps_walk, loads_walk
+    from gaugewalk.model.walkfile.read import loads_walk
+    from gaugewalk.model.walkfile.write import dumps_walk
 
     text = WALK.read_text(encoding="utf-8").replace("waste_pct = 10.0", (
         "waste_pct = 10.0\n"
@@ -187,7 +188,7 @@ def test_a_put_up_with_an_unknown_size_is_refused_with_its_field(tmp_path, capsy
 
 
 def test_the_pull_point_spacing_is_a_job_setting(tmp_path, capsys):
-    from gaugewalk.model.walkfile.store import loads_walk
+    from gaugewalk.model.walkfile.read import loads_walk
 
     def conduit_bodies(setting: str) -> int:
         text = WALK.read_text(encoding="utf-8").replace("waste_pct = 10.0",

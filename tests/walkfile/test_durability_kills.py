@@ -11,7 +11,8 @@ import random
 import pytest
 
 import gaugewalk.tui.cli.main  # noqa: F401  (imported before forking, so each child starts at once)
-from gaugewalk.model.walkfile.store import backup_path, dumps_walk, save_walk
+from gaugewalk.model.walkfile.atomic import backup_path
+from gaugewalk.model.walkfile.write import dumps_walk, save_walk
 from tests.support.kill_harness import CommandKillTrials, SaveKillTrials, walk_versions
 
 pytestmark = pytest.mark.slow

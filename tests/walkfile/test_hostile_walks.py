@@ -15,15 +15,9 @@ import tomli_w
 from hypothesis import HealthCheck, assume, example, given, settings
 from hypothesis import strategies as st
 
-from gaugewalk.model.walkfile.store import (
-    MAX_RUNS,
-    MAX_WALK_BYTES,
-    WalkFileError,
-    backup_path,
-    check_walk_text,
-    dumps_walk,
-    save_walk,
-)
+from gaugewalk.model.walkfile.atomic import backup_path
+from gaugewalk.model.walkfile.read import MAX_RUNS, MAX_WALK_BYTES, WalkFileError, check_walk_text
+from gaugewalk.model.walkfile.write import dumps_walk, save_walk
 from gaugewalk.tui.cli.main import main
 from tests.support.kill_harness import walk_versions
 

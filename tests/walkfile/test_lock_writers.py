@@ -13,15 +13,10 @@ import time
 import pytest
 
 import gaugewalk.tui.cli.main  # noqa: F401  (imported before forking)
+from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk, Fingerprint, fingerprint
 from gaugewalk.model.walkfile.lock import lock_path
-from gaugewalk.model.walkfile.store import (
-    ChangedOnDisk,
-    Fingerprint,
-    dumps_walk,
-    fingerprint,
-    load_walk,
-    save_walk,
-)
+from gaugewalk.model.walkfile.read import load_walk
+from gaugewalk.model.walkfile.write import dumps_walk, save_walk
 from gaugewalk.tui.cli.main import main
 from tests.support.kill_harness import walk_versions
 from tests.support.locks import dead_pid, live_process, write_lock
@@ -226,7 +221,7 @@ def test_twelve_adds_at_once_each_either_lands_or_is_refused_none_is_lost(walk):
 def test_the_app_session_does_not_overwrite_a_save_made_while_it_was_reading(walk, monkeypatch):
     """A command saves between the app reading the walk and the app noting what it read: the
     app's next save must be refused, not overwrite that command's run."""
-    import gaugewalk.model.walkfile.store as walkfile
+    import gaugewalk.model.session.hold as walkfile  # where the session reads the walk
     from gaugewalk.model.session.session import WalkSession
 
     theirs = walk_versions(2, runs=6)[1]

@@ -11,18 +11,14 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from gaugewalk.model.walk.job import Job, Load, Run, Source
-from gaugewalk.model.walkfile.store import (
-    MIGRATIONS,
+from gaugewalk.model.walk.job import Job, Load, Run, Source, new_walk
+from gaugewalk.model.walkfile.atomic import backup_path
+from gaugewalk.model.walkfile.migrate import MIGRATIONS, migrate
+from gaugewalk.model.walkfile.read import WalkFileError, load_walk, loads_walk
+from gaugewalk.model.walkfile.write import (
     CommentsWouldBeLost,
-    WalkFileError,
-    backup_path,
     comment_lines,
     dumps_walk,
-    load_walk,
-    loads_walk,
-    migrate,
-    new_walk,
     pending_notice,
     save_walk,
 )

@@ -3,7 +3,9 @@
 import os
 import time
 
-from gaugewalk.model.walkfile.store import LEFTOVER_AGE_S, load_walk, save_walk
+from gaugewalk.model.walkfile.atomic import LEFTOVER_AGE_S
+from gaugewalk.model.walkfile.read import load_walk
+from gaugewalk.model.walkfile.write import save_walk
 from tests.support.walks import source_table, walk_text
 
 WALK = walk_text("Sweep check (test walk)",

@@ -106,7 +106,7 @@ class WalkApp(App[int]):
 
     @work(thread=True, exclusive=True, group="open")
     def _load(self, path: str) -> None:
-        from gaugewalk.model.walkfile.store import WalkFileError
+        from gaugewalk.model.walkfile.read import WalkFileError
         from gaugewalk.model.session.session import WalkSession
 
         try:

@@ -8,9 +8,10 @@ from __future__ import annotations
 
 import json
 import os
-import tempfile
 from dataclasses import dataclass, field
 from pathlib import Path
+
+from gaugewalk.model.walkfile.atomic import atomic_write
 
 MAX_RECENT = 12
 
@@ -65,10 +66,8 @@ class RecentWalks:
         """Write the file atomically; False (and nothing raised) if the folder is not writable."""
         try:
             self.folder.mkdir(parents=True, exist_ok=True)
-            fd, tmp = tempfile.mkstemp(dir=self.folder, prefix=".recent-", suffix=".tmp")
-            with os.fdopen(fd, "w", encoding="utf-8") as fh:
-                json.dump({"recent": self.paths, "caution_seen": self.caution_seen}, fh, indent=1)
-            os.replace(tmp, self.file)
+            data = json.dumps({"recent": self.paths, "caution_seen": self.caution_seen}, indent=1)
+            atomic_write(self.file, data.encode("utf-8"), keep_backup=False)
             return True
         except OSError:
             return False

@@ -12,15 +12,15 @@ import sys
 
 from pydantic import ValidationError
 
-from gaugewalk.model.walk.checks import Locator, problems_from_errors
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.job import Run
+from gaugewalk.model.walk.problems import Locator, problems_from_errors
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,
+    commit,
     print_problems,
     read_job,
-    save_checked,
     writes_walk,
 )
 
@@ -108,10 +108,10 @@ def run(args: argparse.Namespace) -> int:
         new = Run.model_validate(_run_data(args, run_id))
     except ValidationError as exc:
         print_problems(problems_from_errors(exc.errors(), "run", None, Locator(), args.file,
-                                            f"run {run_id}"))
+                                            run_id))
         return EXIT_INVALID
     job.runs.append(new)
-    if not save_checked(job, args.file, args.expected):
+    if not commit(args.hold, job):
         return EXIT_INVALID
     result = compute_job(job)
     rr = result.runs.get(run_id)

@@ -14,7 +14,7 @@ from typing import Any
 
 from gaugewalk.model.walk.compute import JobResult, compute_job
 from gaugewalk.model.walk.job import Job
-from gaugewalk.model.walkfile.store import WalkFileError, check_walk_text, read_walk_text
+from gaugewalk.model.walkfile.read import WalkFileError, check_walk_text, read_walk_text
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
 from gaugewalk.tui.cli.main import CAUTION
 
@@ -120,7 +120,7 @@ def _table(path: str, job: Job, result: JobResult) -> str:
     lines.append("")
     if result.problems:
         lines.append(f"{len(result.problems)} problem(s):")
-        lines += [f"  {p.where}: {p.message}" for p in result.problems]
+        lines += [f"  {p.brief()}" for p in result.problems]
     else:
         lines.append("Every run is within its ampacity and drop targets.")
     lines += ["", CAUTION]

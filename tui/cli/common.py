@@ -1,14 +1,15 @@
 """Helpers shared by the walk subcommands (``new``, ``add``, ``check``, ``merge``, ``schema``):
-reading a walk for a command, and printing problems one line each on stderr."""
+reading a walk for a command, holding and committing a walk it writes, and printing problems one
+line each on stderr."""
 
 from __future__ import annotations
 
 import functools
 import sys
 
-from gaugewalk.model.walk.checks import Problem
 from gaugewalk.model.walk.job import Job
-from gaugewalk.model.walkfile.store import WalkFileError, load_walk
+from gaugewalk.model.walk.problems import Problem
+from gaugewalk.model.walkfile.read import WalkFileError, load_walk
 
 EXIT_OK = 0
 EXIT_LIMITS = 1      # computed, but some run misses its limits (or a merge has conflicts)
@@ -16,36 +17,41 @@ EXIT_INVALID = 2     # the file cannot be read or is invalid; nothing was writte
 
 
 def writes_walk(path_arg: str, tool: str):
-    """Decorate a command's ``run(args)`` that writes the walk named by ``args.<path_arg>``: take
-    the walk's lock first (refused with exit 2 and who holds it when the app or another command
-    has it; a stale lock of a dead process is cleared with a note), give the command
-    ``args.expected`` (the file's fingerprint before reading, for ``save_walk(expected=...)``), and
-    turn a refused or failed save into one line on stderr and exit 2."""
-    from gaugewalk.model.walkfile.lock import LockError, WalkLocked, acquire_lock
-    from gaugewalk.model.walkfile.store import ChangedOnDisk, WalkFileError, fingerprint
+    """Decorate a command's ``run(args)`` that writes the walk named by ``args.<path_arg>``: hold
+    the walk for writing first (``gaugewalk.model.session.hold.WalkHold``, the path the app's
+    saves take too: refused with exit 2 and who holds it when the app or another command has it;
+    a stale lock of a dead process is cleared with a note), note what the file holds before the
+    command reads it, give the command ``args.hold`` for ``commit``, and turn a refused or failed
+    save into one line on stderr and exit 2."""
+    from gaugewalk.model.session.hold import WalkHold
+    from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
+    from gaugewalk.model.walkfile.lock import LockError, WalkLocked
+    from gaugewalk.model.walkfile.read import WalkFileError
 
     def wrap(run):
         @functools.wraps(run)
         def locked_run(args) -> int:
             path = getattr(args, path_arg)
+            hold = WalkHold(path, tool)
             try:
-                lock = acquire_lock(path, tool=tool)
+                lock = hold.take_lock()
             except WalkLocked as exc:
                 print(f"{exc.message}; not changed", file=sys.stderr)
                 return EXIT_INVALID
             except LockError as exc:
                 print(str(exc), file=sys.stderr)
                 return EXIT_INVALID
-            with lock:
+            with hold:
                 if lock.message:
                     print(f"note: {lock.message}", file=sys.stderr)
                 try:
-                    args.expected = fingerprint(path)
+                    hold.note()
                 except IsADirectoryError:
-                    args.expected = None  # the command itself says it is a folder
+                    pass  # the command itself says it is a folder
                 except OSError as exc:
                     print(f"{path}: cannot be read: {exc.strerror or exc}", file=sys.stderr)
                     return EXIT_INVALID
+                args.hold = hold
                 try:
                     return run(args)
                 except ChangedOnDisk as exc:
@@ -62,19 +68,21 @@ def writes_walk(path_arg: str, tool: str):
     return wrap
 
 
-def save_checked(job: Job, path: str, expected, refusal: str | None = None) -> bool:
-    """Check the walk as it would be written and save it; False, with the problems printed (and
+def commit(hold, job: Job, refusal: str | None = None) -> bool:
+    """Save the walk through ``hold`` (``writes_walk``'s); False, with the problems printed (and
     ``refusal`` after them), if it would not be a valid walk. Nothing is written then, and the
     problems carry no line numbers: they would point into text that is not on disk."""
-    from gaugewalk.model.walkfile.store import check_walk_text, dumps_walk, save_walk
-
-    _, problems = check_walk_text(dumps_walk(job), path)
+    problems = hold.refusals(job)
+    if not problems:
+        try:
+            notice = hold.save(job)
+        except WalkFileError as exc:  # past the limits
+            problems = exc.problems
     if problems:
-        print_problems([p.__class__(p.file, None, p.where, p.field, p.message) for p in problems])
+        print_problems(problems)
         if refusal:
             print(refusal, file=sys.stderr)
         return False
-    notice = save_walk(job, path, expected=expected)
     if notice is not None:
         print(f"warning: {notice.message}", file=sys.stderr)
     return True

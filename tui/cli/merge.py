@@ -16,8 +16,8 @@ from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_LIMITS,
     EXIT_OK,
+    commit,
     read_job,
-    save_checked,
     writes_walk,
 )
 
@@ -46,8 +46,8 @@ def run(args: argparse.Namespace) -> int:
         print(f"{len(merged.conflicts)} conflict(s); nothing written. Fix one side, or choose "
               "with --prefer a or --prefer b", file=sys.stderr)
         return EXIT_LIMITS
-    if not save_checked(merged.job, args.output, args.expected,
-                        "the merged walk would not be valid; nothing written"):
+    if not commit(args.hold, merged.job,
+                  "the merged walk would not be valid; nothing written"):
         return EXIT_INVALID
     t = merged.taken
     print(f"wrote {args.output}: {len(t['both'])} in both, {len(t['a only'])} from A only, "

@@ -9,8 +9,10 @@ from pathlib import Path
 
 from pydantic import ValidationError
 
-from gaugewalk.model.walk.checks import Locator, problems_from_errors
-from gaugewalk.model.walkfile.store import atomic_write, dumps_walk, new_walk
+from gaugewalk.model.walk.job import new_walk
+from gaugewalk.model.walk.problems import Locator, problems_from_errors
+from gaugewalk.model.walkfile.atomic import atomic_write
+from gaugewalk.model.walkfile.write import dumps_walk
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_OK, print_problems
 
 NAME = "new"
@@ -49,7 +51,7 @@ def run(args: argparse.Namespace) -> int:
                        walked_on=args.walked_on, service_system=args.service)
     except ValidationError as exc:
         print_problems(problems_from_errors(exc.errors(), "source", 0, Locator(), str(path),
-                                            "--service"))
+                                            "--service", about="option"))
         return EXIT_INVALID
     try:
         atomic_write(path, dumps_walk(job).encode("utf-8"), keep_backup=False, create_only=True)

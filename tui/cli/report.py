@@ -8,10 +8,10 @@ from __future__ import annotations
 
 import argparse
 import os
-import tempfile
 from pathlib import Path
 
 from gaugewalk.model.report.content import build_report
+from gaugewalk.model.walkfile.atomic import atomic_write
 from gaugewalk.tui.cli.main import UsageError
 from gaugewalk.tui.cli.takeoff import load_computed
 
@@ -38,7 +38,7 @@ def _same_file(a: Path, b: Path) -> bool:
 
 def check_output(walk: str, out: str, replace: bool) -> str:
     """The report format for ``out``, or a ``UsageError`` if writing there would lose anything."""
-    from gaugewalk.model.walkfile.store import backup_path
+    from gaugewalk.model.walkfile.atomic import backup_path
 
     out_path, walk_path = Path(out), Path(walk)
     for protected in (walk_path, backup_path(walk_path)):
@@ -58,28 +58,6 @@ def check_output(walk: str, out: str, replace: bool) -> str:
     return fmt
 
 
-def write_atomically(path: Path, text: str) -> None:
-    """Write ``text`` beside ``path`` in a temporary file, flush, fsync, then rename over it."""
-    if path.exists():
-        mode = path.stat().st_mode & 0o777          # a replaced report keeps its permissions
-    else:
-        umask = os.umask(0)
-        os.umask(umask)
-        mode = 0o666 & ~umask                       # what an ordinary new file would get
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=path.parent)
-    try:
-        os.chmod(tmp, mode)
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as handle:
-            handle.write(text)
-            handle.flush()
-            os.fsync(handle.fileno())
-        os.replace(tmp, path)
-    except BaseException:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
-        raise
-
-
 def render(fmt: str, report) -> str:
     if fmt == "html":
         from gaugewalk.tui.report.html import render_html
@@ -92,9 +70,8 @@ def run_errors_of(job_result) -> dict[str, str]:
     """Why each run that could not be sized failed: {run id: message}."""
     errors: dict[str, str] = {}
     for problem in job_result.problems:
-        where = problem.where or ""
-        if where.startswith("run "):
-            rid = where[4:]
+        if problem.about == "run":
+            rid = problem.id
             if rid not in job_result.runs:
                 errors[rid] = (f"{errors[rid]}; {problem.message}" if rid in errors
                                else problem.message)
@@ -107,7 +84,7 @@ def run(args: argparse.Namespace) -> int:
     report = build_report(job, result.runs, takeoff, file_name=Path(args.file).name,
                           run_errors=run_errors_of(result))
     try:
-        write_atomically(Path(args.output), render(fmt, report))
+        atomic_write(Path(args.output), render(fmt, report).encode("utf-8"), keep_backup=False)
     except OSError as exc:
         raise UsageError(f"{args.output}: cannot be written: {exc.strerror or exc}") from None
     return 0

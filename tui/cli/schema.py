@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import argparse
 
-from gaugewalk.model.walkfile.store import json_schema_text
+from gaugewalk.model.walkfile.schema import json_schema_text
 
 NAME = "schema"
 HELP = "Print the JSON Schema of walk files (for editor completion and checks)."

@@ -12,14 +12,14 @@ import sys
 
 from pydantic import ValidationError
 
-from gaugewalk.model.walk.checks import Locator, problems_from_errors
 from gaugewalk.model.walk.job import Run, Source
+from gaugewalk.model.walk.problems import Locator, problems_from_errors
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,
+    commit,
     print_problems,
     read_job,
-    save_checked,
     writes_walk,
 )
 
@@ -60,7 +60,7 @@ def run(args: argparse.Namespace) -> int:
         source = Source.model_validate(data)
     except ValidationError as exc:
         print_problems(problems_from_errors(exc.errors(), "source", None, Locator(), args.file,
-                                            f"source {args.id}"))
+                                            args.id))
         return EXIT_INVALID
     job.sources.append(source)
     if source.kind != "service":
@@ -82,9 +82,9 @@ def run(args: argparse.Namespace) -> int:
             job.runs.append(Run.model_validate(feeder))
         except ValidationError as exc:
             print_problems(problems_from_errors(exc.errors(), "run", None, Locator(), args.file,
-                                                f"run {feeder_id}"))
+                                                feeder_id))
             return EXIT_INVALID
-    if not save_checked(job, args.file, args.expected):
+    if not commit(args.hold, job):
         return EXIT_INVALID
     fed = f", fed by run {job.runs[-1].id}" if source.kind != "service" else ""
     print(f"added {source.kind} {source.id} ({source.system}){fed}")

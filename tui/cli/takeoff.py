@@ -47,7 +47,7 @@ def load_computed(path: str):
     """Read, check and compute a walk: ``(job, job_result, takeoff)``. Any user mistake becomes
     a one-line ``UsageError`` naming the file (exit status 2)."""
     from gaugewalk.model.walk.compute import compute_job
-    from gaugewalk.model.walkfile.store import WalkFileError, load_walk
+    from gaugewalk.model.walkfile.read import WalkFileError, load_walk
 
     try:
         job = load_walk(path)

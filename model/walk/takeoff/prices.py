@@ -25,7 +25,7 @@ from decimal import ROUND_HALF_UP, Decimal, InvalidOperation
 from pathlib import Path
 from typing import Sequence
 
-from gaugewalk.model.walk.checks import _clip  # the one way problems echo user text
+from gaugewalk.model.walk.problems import _clip  # the one way problems echo user text
 from gaugewalk.model.walk.takeoff.lines import OrderLine
 from gaugewalk.model.walk.takeoff.order import PUTUP_KINDS
 

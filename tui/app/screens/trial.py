@@ -146,7 +146,7 @@ class TrialScreen(TypedInOrder, Screen):
             return
         outcome = s.trial(trial, self.trial_sources)
         if outcome.problems:
-            msg.update("✗ " + escape("; ".join(outcome.problems[:2])))
+            msg.update("✗ " + escape("; ".join(p.brief() for p in outcome.problems[:2])))
             compare.update("This change cannot be sized; see the message below.")
             return
         self.trial_run = trial

@@ -2,7 +2,7 @@
 while the walk is checked and sized in the background (which needs the model and takes longer).
 
 Nothing here decides anything: a file that turns out to be invalid is still refused by
-``gaugewalk.model.walkfile.store`` a moment later, with its message.
+``gaugewalk.model.walkfile.read`` a moment later, with its message.
 """
 
 from __future__ import annotations

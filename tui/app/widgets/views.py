@@ -13,6 +13,7 @@ from rich.markup import escape
 from rich.text import Text
 from textual.widgets import Tree
 
+from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.tui.app.sheet.rows import size_text
 from gaugewalk.model.session.session import WalkSession, fmt_ft, fmt_pct
@@ -41,13 +42,13 @@ class SupplyTree(Tree):
         self.show_root = False
         self.guide_depth = 3
         self.session: WalkSession | None = None
+        self.graph: SupplyGraph | None = None
 
     def build(self, session: WalkSession) -> None:
         self.session = session
+        self.graph = SupplyGraph(session.job)
         self.clear()
-        job = session.job
-        fed: set[str] = {r.to for r in job.runs if job.source(r.to) is not None}
-        tops = [s for s in job.sources if s.id not in fed]
+        tops = self.graph.roots()
         for src in tops:
             node = self.root.add(self._source_label(src, None), data=("source", src.id), expand=False)
             self._fill(node, src.id, depth=0)
@@ -55,14 +56,13 @@ class SupplyTree(Tree):
             self.root.add_leaf("No sources yet: the service is declared in the job settings or the walk file.")
 
     def _fill(self, node, source_id: str, depth: int) -> None:
-        session = self.session
-        assert session is not None
-        job = session.job
-        runs = job.runs_from(source_id)
-        feeders = [r for r in runs if job.source(r.to) is not None]
-        branches = [r for r in runs if job.source(r.to) is None]
+        graph = self.graph
+        assert graph is not None
+        runs = graph.children[source_id]
+        feeders = [r for r in runs if r.to in graph.sources]
+        branches = [r for r in runs if r.to not in graph.sources]
         for r in feeders:
-            dest = job.source(r.to)
+            dest = graph.sources[r.to]
             child = node.add(self._source_label(dest, r), data=("run", r.id), expand=False)
             if depth < 12:
                 self._fill(child, dest.id, depth + 1)
@@ -88,7 +88,7 @@ class SupplyTree(Tree):
             t.append(f" · via {feeder.id} {fmt_ft(feeder.length_ft)} ft {size_text(res)}")
             if res is not None:
                 t.append(f" · run {fmt_pct(res.voltage_drop_pct)}%")
-        n = len(session.job.runs_from(src.id))
+        n = len(self.graph.children[src.id])
         t.append(f" · {n} runs")
         return t
 

@@ -1,0 +1,109 @@
+"""One walk file held for writing: the one path by which a changed walk reaches the disk, for
+the app's editing session and for the commands that write (``add``, ``source``, ``merge``).
+
+In order: take the walk's lock (``gaugewalk.model.walkfile.lock``: a second writer is told who
+holds it), note what the file holds before reading it (``gaugewalk.model.walkfile.fingerprint``),
+read it; then for each change, refuse what would leave the walk unreadable (the cross-checks of
+``gaugewalk.model.walk.checks`` that the change adds) and save atomically with a backup
+(``gaugewalk.model.walkfile.write.save_walk``), refused when the file changed on disk since it was
+read or the walk grew past the limits; then note what the file holds now. Nothing here prints or
+shows anything: each face says the outcome in its own words.
+
+Public API:
+
+- ``WalkHold(path, tool)``: ``take_lock()`` (raises ``WalkLocked`` or ``LockError``),
+  ``release()``, ``note()``, ``read() -> Job``, ``problem_keys(job)``,
+  ``added_problems(job, known)`` and ``refusals(job, known)`` (lists of ``Problem``), ``save(job) -> SaveNotice | None`` (raises
+  ``ChangedOnDisk``, ``WalkFileError`` or ``OSError``; nothing is written then).
+"""
+
+from __future__ import annotations
+
+import os
+from dataclasses import replace
+from pathlib import Path
+
+from gaugewalk.model.walk.checks import check_references
+from gaugewalk.model.walk.job import Job
+from gaugewalk.model.walk.problems import Locator, Problem
+from gaugewalk.model.walkfile.fingerprint import Fingerprint, fingerprint
+from gaugewalk.model.walkfile.lock import WalkLock, acquire_lock
+from gaugewalk.model.walkfile.read import load_walk
+from gaugewalk.model.walkfile.write import SaveNotice, dumps_walk, save_walk
+
+
+def _key(problem: Problem) -> tuple:
+    return problem.about, problem.id, problem.number, problem.message
+
+
+class WalkHold:
+    """A walk file held for writing by ``tool`` (named in its lock)."""
+
+    def __init__(self, path: str | os.PathLike, tool: str = "gaugewalk") -> None:
+        self.file = os.fspath(path)   # as given, for messages
+        self.path = Path(path)
+        self.tool = tool
+        self.lock: WalkLock | None = None
+        self.fingerprint: Fingerprint | None = None   # what the file held when it was read
+
+    # -- who holds it -------------------------------------------------------------------------
+    def take_lock(self) -> WalkLock:
+        """Hold the walk; raises ``WalkLocked`` (another live process holds it) or
+        ``LockError`` (the lock file cannot be made). ``lock.message`` says when a stale lock
+        was cleared."""
+        self.lock = acquire_lock(self.path, self.tool)
+        return self.lock
+
+    def release(self) -> None:
+        if self.lock is not None:
+            self.lock.release()
+            self.lock = None
+
+    def __enter__(self) -> "WalkHold":
+        return self
+
+    def __exit__(self, *exc) -> None:
+        self.release()
+
+    # -- reading --------------------------------------------------------------------------------
+    def note(self) -> None:
+        """Note what the file holds now, before it is read: a save in between is then caught.
+        Raises ``OSError`` when it cannot be read (no file: nothing to protect)."""
+        self.fingerprint = fingerprint(self.path)
+
+    def read(self) -> Job:
+        """Note the file, then read and check it; raises ``WalkFileError``."""
+        self.note()
+        return load_walk(self.path)
+
+    # -- changing -------------------------------------------------------------------------------
+    def problem_keys(self, job: Job) -> set[tuple]:
+        """The walk's own cross-check problems now, to tell the ones a change adds."""
+        return {_key(p) for p in check_references(job, Locator(""), self.file)}
+
+    def added_problems(self, job: Job, known: set[tuple] = frozenset()) -> list[Problem]:
+        """The cross-check problems the walk has that are not in ``known`` (``problem_keys`` of
+        the walk before the change), in the order the checks find them, without lines."""
+        return [p for p in check_references(job, Locator(""), self.file) if _key(p) not in known]
+
+    def refusals(self, job: Job, known: set[tuple] = frozenset()) -> list[Problem]:
+        """Why the walk cannot be written as it is: ``added_problems``, in the order they would
+        stand in the written file, with no line numbers: that text is not on disk."""
+        found = check_references(job, Locator(""), self.file)
+        new = [_key(p) not in known for p in found]
+        if not any(new):
+            return []
+        # the same checks against the text as it would be written, for its order (rare path)
+        placed = check_references(job, Locator(dumps_walk(job)), self.file)
+        out = [p for p, is_new in zip(placed, new) if is_new]
+        out.sort(key=lambda p: (p.line is None, p.line or 0))
+        return [replace(p, line=None) for p in out]
+
+    def save(self, job: Job, *, allow_comment_loss: bool = True) -> SaveNotice | None:
+        """Write the walk (atomic, with a backup), refused with ``ChangedOnDisk`` when the file
+        no longer holds what was read, ``WalkFileError`` past the limits; then note the file
+        again. Returns the notice that comments were dropped, if they were."""
+        notice = save_walk(job, self.path, allow_comment_loss=allow_comment_loss,
+                           expected=self.fingerprint)
+        self.fingerprint = fingerprint(self.path)
+        return notice

@@ -1,0 +1,180 @@
+"""The supply graph of a walk: which source feeds which, and the runs leaving each source.
+
+A run whose ``to`` names a source of the job is that source's feeder; a service is fed by the
+utility. The graph is built once per walk (one pass over the runs) and walked by everything that
+follows the supply: the whole-walk computation (top-down for drops, bottom-up for feeder loads),
+the cross-checks (two feeders, loops), the session (what lies downstream of a run) and the app's
+supply tree.
+
+Public API:
+
+- ``SupplyGraph(job)``: ``sources`` {id: Source} (the first of a repeated id), ``children``
+  {source id: runs leaving it, in file order}, ``feeds`` {source id: every run from a source of
+  the job into it, in file order}, ``feeder`` {source id: the run that carries its supply (the
+  first of ``feeds`` that does not end where it starts)}, ``orphans`` (runs from no source of the
+  job), ``order`` (source ids from the top, each before the sources it feeds), ``unreached``
+  (sources no chain of feeders reaches from a top: they are in a loop), ``position``
+  {run id: index of its first run in the file}.
+- ``roots()``, ``is_feeder(run)``, ``runs_below(source_id)``, ``sources_below(source_id,
+  follow)``, ``feeder_loops()``; ``shape()`` and ``fits(job, run, shape)`` for the incremental
+  recomputation.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+
+from gaugewalk.model.walk.job import Job, Run, Source
+
+
+class SupplyGraph:
+    """Sources, feeders and runs per source of one walk, with the order from the top."""
+
+    def __init__(self, job: Job) -> None:
+        self.job = job
+        sources: dict[str, Source] = {}
+        for s in job.sources:
+            sources.setdefault(s.id, s)
+        self.sources = sources
+        feeder: dict[str, Run] = {}
+        feeds: dict[str, list[Run]] = {}
+        children: dict[str, list[Run]] = {sid: [] for sid in sources}
+        orphans: list[Run] = []
+        for r in job.runs:
+            f = r.from_
+            below = children.get(f)
+            if below is None:
+                orphans.append(r)
+                continue
+            below.append(r)
+            t = r.to
+            if t in sources:
+                claims = feeds.get(t)
+                if claims is None:
+                    feeds[t] = [r]
+                else:
+                    claims.append(r)
+                if t not in feeder and t != f:
+                    feeder[t] = r
+        self.feeder = feeder
+        self.feeds = feeds
+        self.children = children
+        self.orphans = orphans
+        # sources from the top: roots are those nothing feeds
+        self.order: list[str] = []
+        seen: set[str] = set()
+        stack = [sid for sid in sources if sid not in feeder]
+        stack.reverse()
+        while stack:
+            sid = stack.pop()
+            if sid in seen:
+                continue
+            seen.add(sid)
+            self.order.append(sid)
+            fed = [r.to for r in children[sid] if feeder.get(r.to) is r]
+            stack.extend(reversed(fed))
+        self.unreached = [sid for sid in sources if sid not in seen]
+        # for the incremental path: the objects this graph was built from, to tell whether it
+        # still fits the walk after an edit
+        self.runs = list(job.runs)
+        self.run_ids = list(map(id, self.runs))
+        self.source_ids = list(map(id, job.sources))
+        self.position: dict[str, int] = {}
+        for i, r in enumerate(self.runs):
+            self.position.setdefault(r.id, i)
+
+    # -- reading the graph ---------------------------------------------------------------------
+    def roots(self) -> list[Source]:
+        """Sources nothing feeds (the services, and any source whose feeder is missing), in file
+        order."""
+        return [s for sid, s in self.sources.items() if sid not in self.feeder]
+
+    def is_feeder(self, run: Run) -> bool:
+        """True when ``run`` carries the supply of the source it ends at."""
+        return self.feeder.get(run.to) is run
+
+    def runs_below(self, source_id: str) -> list[Run]:
+        """Every run fed through ``source_id``: its own runs, then depth first through the sources
+        they feed (the last feeder's source first)."""
+        out: list[Run] = []
+        stack = [source_id]
+        seen: set[str] = set()
+        sources, children = self.sources, self.children
+        while stack:
+            sid = stack.pop()
+            if sid in seen:
+                continue
+            seen.add(sid)
+            for r in children.get(sid, ()):
+                out.append(r)
+                if r.to in sources:
+                    stack.append(r.to)
+        return out
+
+    def sources_below(self, source_id: str, follow: Callable[[Source], bool]) -> list[Source]:
+        """``source_id`` and every source below it that ``follow`` lets the walk go on into."""
+        out: list[Source] = []
+        seen: set[str] = set()
+        stack = [source_id]
+        sources, children = self.sources, self.children
+        while stack:
+            src = sources.get(stack.pop())
+            if src is None or src.id in seen:
+                continue
+            seen.add(src.id)
+            out.append(src)
+            for r in children[src.id]:
+                dest = sources.get(r.to)
+                if dest is not None and follow(dest):
+                    stack.append(dest.id)
+        return out
+
+    def feeder_loops(self) -> list[tuple[list[str], Run]]:
+        """Each loop of feeders once: (source ids round the loop, its first id again at the end;
+        the run closing it), following each source up its first claimed feeder."""
+        first = {sid: claims[0] for sid, claims in self.feeds.items()}
+        reported: set[str] = set()
+        out: list[tuple[list[str], Run]] = []
+        for s in self.job.sources:
+            chain: list[str] = []
+            current = s.id
+            while current in first and current not in chain:
+                chain.append(current)
+                current = first[current].from_
+            if current in chain and not reported.intersection(chain):
+                loop = chain[chain.index(current):] + [current]
+                reported.update(loop)
+                out.append((loop, first[current]))
+        return out
+
+    # -- the incremental path ------------------------------------------------------------------
+    def shape(self) -> tuple:
+        """What the graph depends on: every run's (id, from, to) and source's (id, kind, system)."""
+        return tuple((r.id, r.from_, r.to) for r in self.job.runs) + tuple(
+            (s.id, s.kind, s.system) for s in self.job.sources)
+
+    def fits(self, job: Job, run: Run, shape: tuple) -> bool:
+        """True when ``job`` is the walk this was built from, with at most ``run`` put in place
+        of the run of the same id (same ``from`` and ``to``; it is then patched in), every other
+        run and source the same object, and no source re-pointed or re-kinded. Costs a pass in C
+        over the lists instead of rebuilding the graph."""
+        i = self.position.get(run.id)
+        if (job is not self.job or i is None or len(job.runs) != len(self.runs)
+                or job.runs[i] is not run or shape[i] != (run.id, run.from_, run.to)):
+            return False
+        old = self.runs[i]
+        self.run_ids[i] = id(run)
+        if list(map(id, job.runs)) != self.run_ids or list(map(id, job.sources)) != self.source_ids:
+            self.run_ids[i] = id(old)
+            return False
+        if shape[len(self.runs):] != tuple((s.id, s.kind, s.system) for s in job.sources):
+            return False
+        if old is not run:
+            self.runs[i] = run
+            for table in (self.children.get(run.from_, []), self.feeds.get(run.to, [])):
+                for k, r in enumerate(table):
+                    if r is old:
+                        table[k] = run
+            if self.feeder.get(run.to) is old:
+                self.feeder[run.to] = run
+        return True

@@ -1,0 +1,109 @@
+"""The incremental path: after one run was edited in place, redo only what it touches.
+
+The run itself; when its load changed, every feeder above it that sums its panel (the change of
+load carried up by ``gaugewalk.model.walk.feeder_loads.carry_up``, NEC 215.2(A)(1)); then below
+every source whose bus drop changed, only the runs whose size could change (upsized for drop,
+with problems, or pushed over the total target); the rest have their total drop shifted. The
+result equals ``compute_job`` of the edited walk (a test compares them run by run).
+
+Public API:
+
+- ``recompute_run(job, result, run_id) -> JobResult``: falls back to
+  ``gaugewalk.model.walk.compute.compute_job`` when runs or sources were added, removed or
+  re-pointed.
+"""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+from gaugewalk.model.walk.compute import JobResult, WalkState, compute_job
+from gaugewalk.model.walk.feeder_loads import ZERO, add, carry_up
+from gaugewalk.model.walk.graph import SupplyGraph
+from gaugewalk.model.walk.job import Job, Run
+
+_EPS = 1e-9
+
+
+def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
+    """Update ``result`` after run ``run_id`` was edited in place; returns the updated result.
+
+    Redoes the run and, when its load changed, every feeder above it that sums its panel; then,
+    below every source whose drop changed, re-evaluates only the runs whose size could change
+    (upsized for drop, with problems, or pushed over the total target) and shifts the total drop
+    of the rest. Falls back to ``compute_job`` when runs or sources were added, removed or
+    re-pointed. Only ``run_id`` may have changed since ``result`` was computed (edited in place
+    or put in place of the run of the same id, as the app does).
+    """
+    run = job.run(run_id)
+    if run is None:
+        return compute_job(job)
+    walk = result._walk
+    if not isinstance(walk, SupplyGraph) or not walk.fits(job, run, result._shape):
+        walk = SupplyGraph(job)
+        if walk.shape() != result._shape:
+            return compute_job(job)
+        result._walk = walk
+    if run.from_ not in walk.sources:
+        return compute_job(job)
+    state = WalkState(walk, result)
+    if state.resolve_circuit(run) is None:
+        state.forget(run)
+    # the run's load and the sums above it
+    is_feeder = walk.feeder.get(run.to) is run
+    new = state.own_load(run)
+    if new is None and is_feeder:
+        new = result._loads.get(run.to)
+    old = result._run_loads.get(run_id)
+    state.set_run_load(run, new)
+    delta = add(new or ZERO, old or ZERO, -1.0)
+    chain: list[Run] = []
+    if delta != ZERO:
+        chain = carry_up(walk, run.from_, delta, result._loads, result.connected_va,
+                         state.set_run_load)
+    # re-evaluate top-down: the feeders whose load changed, then the run itself
+    dirty: list[str] = []
+    for f in reversed(chain):
+        state.evaluate_run(f, result.source_drop_pct.get(f.from_, 0.0))
+        dirty.append(f.to)
+    state.evaluate_run(run, result.source_drop_pct.get(run.from_, 0.0))
+    if is_feeder:
+        dirty.append(run.to)
+    _refresh_below(state, dirty, skip={f.id for f in chain} | {run.id})
+    state.chain_problems()
+    state.assemble_problems()
+    return result
+
+
+def _refresh_below(state: WalkState, dirty: list[str], skip: set[str]) -> None:
+    """Carry new bus drops down: shift the total where the size cannot change, else
+    re-evaluate the run."""
+    walk, result = state.walk, state.result
+    stack = list(reversed(dirty))
+    while stack:
+        sid = stack.pop()
+        upstream = result.source_drop_pct.get(sid, 0.0)
+        for r in walk.children[sid]:
+            is_feeder = walk.feeder.get(r.to) is r
+            if r.id in skip:
+                continue
+            old = result.runs.get(r.id)
+            spec = result._specs.get(r.id)
+            if old is None or spec is None:
+                state.evaluate_run(r, upstream)
+            elif spec.upstream_drop_pct == upstream:
+                continue
+            elif (old.ok and old.governed_by != "voltage drop"
+                        and upstream + old.voltage_drop_pct <= spec.max_total_drop_pct + _EPS):
+                total = upstream + old.voltage_drop_pct
+                margins = dict(old.margins)
+                if "total_drop_pct" in margins:
+                    margins["total_drop_pct"] = spec.max_total_drop_pct - total
+                spec = replace(spec, upstream_drop_pct=upstream)
+                result._specs[r.id] = spec
+                state.store(r, replace(old, total_drop_pct=total, margins=margins),
+                            is_feeder, spec)
+            else:
+                state.evaluate_run(r, upstream)
+            if is_feeder and r.to not in dirty:
+                stack.append(r.to)

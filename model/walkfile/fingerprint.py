@@ -1,0 +1,56 @@
+"""What a walk file held when it was read, to tell whether someone changed it on disk since.
+
+Public API:
+
+- ``Fingerprint(size, mtime_ns, sha256)``; ``Fingerprint.of(data)``; ``matches(other)``.
+- ``fingerprint(path) -> Fingerprint | None``: the file's now (None: no file).
+- ``ChangedOnDisk``: raised by a save whose file no longer holds what was read; nothing is
+  written then.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import os
+from dataclasses import dataclass
+from pathlib import Path
+
+
+@dataclass(frozen=True)
+class Fingerprint:
+    """What a walk file held when it was read: ``size`` [bytes], ``mtime_ns`` and ``sha256``.
+    Two fingerprints match when size and hash do (a touch that changes only the time is not a
+    change of content)."""
+
+    size: int
+    mtime_ns: int
+    sha256: str
+
+    @classmethod
+    def of(cls, data: bytes, mtime_ns: int = 0) -> "Fingerprint":
+        return cls(len(data), mtime_ns, hashlib.sha256(data).hexdigest())
+
+    def matches(self, other: "Fingerprint | None") -> bool:
+        return other is not None and (self.size, self.sha256) == (other.size, other.sha256)
+
+
+def fingerprint(path: str | os.PathLike) -> Fingerprint | None:
+    """The file's fingerprint now; None when there is no file."""
+    try:
+        with open(path, "rb") as handle:
+            mtime = os.fstat(handle.fileno()).st_mtime_ns
+            return Fingerprint.of(handle.read(), mtime)
+    except FileNotFoundError:
+        return None
+
+
+class ChangedOnDisk(Exception):
+    """Raised by ``save_walk(..., expected=...)`` when someone else changed the file since it was
+    read; nothing is written."""
+
+    def __init__(self, path: Path) -> None:
+        self.path = Path(path)
+        super().__init__(
+            f"{self.path}: changed on disk since you opened it (another program or person saved "
+            "it); not saved, so their changes are not overwritten. Open it again to see them"
+        )
