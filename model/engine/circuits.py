@@ -14,6 +14,7 @@ import re
 from dataclasses import dataclass
 
 from gaugewalk.model.engine.contract import Circuit
+from gaugewalk.model.engine.vocabulary import CONNECTIONS
 
 SQRT3 = math.sqrt(3.0)
 
@@ -53,14 +54,6 @@ SYSTEMS: dict[str, System] = {
     )
 }
 
-CONNECTIONS: dict[str, str] = {
-    "LN": "single-phase line-to-neutral (one hot and the neutral)",
-    "LL": "single-phase line-to-line (two hots)",
-    "LLN": "line-to-line with a neutral (two hots and the neutral; drop taken as line-to-line)",
-    "MW": "balanced multiwire (hots sharing one neutral that carries no current)",
-    "3P": "three-phase 3-wire",
-    "3PN": "three-phase 4-wire (three hots and the neutral)",
-}
 
 LINE_TO_NEUTRAL_VOLTS = frozenset({120.0, 127.0, 277.0, 347.0})
 """Voltages that ``circuit_from_volts`` treats as hot-and-neutral circuits [V] (common practice)."""

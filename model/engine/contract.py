@@ -10,8 +10,7 @@ from __future__ import annotations
 from dataclasses import asdict, dataclass, field
 from typing import Literal
 
-Material = Literal["cu", "al"]
-Method = Literal["dc", "kfactor", "ac"]
+from gaugewalk.model.engine.vocabulary import Material, Method
 
 
 @dataclass(frozen=True)

@@ -23,6 +23,7 @@ import math
 from dataclasses import dataclass
 
 from gaugewalk.model.engine.contract import Circuit
+from gaugewalk.model.engine.vocabulary import METHODS
 from gaugewalk.tables.conductor import properties as conductors
 from gaugewalk.tables.conductor import impedance
 
@@ -30,11 +31,6 @@ K_FACTOR: dict[str, float] = {"cu": 12.9, "al": 21.2}
 """Resistivity constants K [ohm-cmil/ft] at 75 C for the K-factor method (common practice:
 uncoated copper and aluminum near 75 C operating temperature)."""
 
-METHODS: dict[str, str] = {
-    "dc": "DC resistance, NEC Ch. 9 Table 8",
-    "kfactor": "K-factor, VD = k K I L / cmil (K 12.9 Cu, 21.2 Al)",
-    "ac": "AC effective impedance, NEC Ch. 9 Table 9 note 2",
-}
 
 
 @dataclass(frozen=True)
@@ -74,8 +70,16 @@ def temperature_corrected(r75_ohm_per_kft: float, alpha_per_c: float, temp_c: fl
 
 def drop_volts(drop_factor: float, amps: float, z_ohm_per_kft: float, length_ft: float,
                sets: int = 1) -> float:
-    """VD = k I z L / 1000 / sets [V]. Parallel sets share the current, dividing the drop."""
+    """VD = k I z L / 1000 / sets [V]. Parallel sets share the current, dividing the drop. The
+    drop is linear in z: the sizing engine takes it once per run at z = 1 ohm/kft and scales it
+    by each size's impedance."""
     return drop_factor * amps * z_ohm_per_kft * length_ft / 1000.0 / sets
+
+
+def drop_length_ft(length_ft: float, distributed: bool = False) -> float:
+    """The length the drop formula uses [ft]: the run's, or half of it for a load spread evenly
+    along the run (the whole load at half the length; common practice)."""
+    return length_ft / 2.0 if distributed else length_ft
 
 
 def voltage_drop(circuit: Circuit, amps: float, length_ft: float, z_ohm_per_kft: float, *,
@@ -97,7 +101,7 @@ def voltage_drop(circuit: Circuit, amps: float, length_ft: float, z_ohm_per_kft:
     distributed : bool
         Load spread evenly along the run: the whole load at half the length (common practice).
     """
-    length = length_ft / 2.0 if distributed else length_ft
+    length = drop_length_ft(length_ft, distributed)
     volts = drop_volts(circuit.drop_factor, amps, z_ohm_per_kft, length, sets)
     return Drop(volts, 100.0 * volts / circuit.volts, z_ohm_per_kft, length)
 

@@ -11,8 +11,9 @@ import math
 import re
 
 from gaugewalk.model.engine.contract import Circuit
+from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 
-UNITS: dict[str, float] = {"A": 1.0, "VA": 1.0, "kVA": 1000.0, "W": 1.0, "kW": 1000.0}
+UNITS = LOAD_UNITS
 """Load units and their multiplier to the base unit (A, VA or W)."""
 
 _UNIT_ALIASES = {
@@ -32,7 +33,7 @@ def normalize_unit(unit: str) -> str:
     """``"kva"`` -> ``"kVA"``, ``"amps"`` -> ``"A"``; raises ``LoadError`` for anything else."""
     key = str(unit).strip().lower()
     if key not in _UNIT_ALIASES:
-        raise LoadError(f"unknown load unit '{unit}'; use A, VA, kVA, W or kW")
+        raise LoadError(f"unknown load unit '{unit}'; use {or_words(UNITS)}")
     return _UNIT_ALIASES[key]
 
 

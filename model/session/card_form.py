@@ -27,7 +27,8 @@ from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError, parse_load
 from gaugewalk.model.session.session import WalkSession, fmt_ft
-from gaugewalk.model.walk.job import CONNECTION_NAMES, Load, Run, Source
+from gaugewalk.model.engine import vocabulary as vocab
+from gaugewalk.model.walk.job import Load, Run, Source
 
 
 @dataclass(frozen=True)
@@ -65,8 +66,6 @@ FOLLOWING = (*COPIED_FROM_PREVIOUS, "id")
 """Fields the form fills in for the person, and keeps filling while they are not typed in."""
 YES = {"y", "yes", "true", "1", "on"}
 NO = {"", "n", "no", "false", "0", "off"}
-MAX_SETS = 20
-"""Most conductors in parallel per phase the card takes (the walk model's limit)."""
 
 
 def label(key: str) -> str:
@@ -78,8 +77,8 @@ def choices(session: WalkSession) -> dict[str, list[str]]:
     return {
         "from": session.source_ids(),
         "to": session.known_names(),
-        "circuit": list(CONNECTION_NAMES),
-        "material": ["cu", "al"],
+        "circuit": list(vocab.CONNECTIONS),
+        "material": list(vocab.MATERIALS),
     }
 
 
@@ -383,8 +382,8 @@ def _check_circuit(r: _Reading) -> None:
     circuit = r.v["circuit"].strip().upper()
     r.got["connection"] = circuit or None
     r.got["circuit"] = None
-    if circuit and circuit not in CONNECTION_NAMES:
-        r.errors["circuit"] = f"one of {', '.join(CONNECTION_NAMES)} (blank: all the source offers)"
+    if circuit and circuit not in vocab.CONNECTIONS:
+        r.errors["circuit"] = f"one of {', '.join(vocab.CONNECTIONS)} (blank: all the source offers)"
         return
     if "from" in r.errors:
         return
@@ -424,11 +423,11 @@ def _check_sets(r: _Reading) -> None:
     if r.v["sets"].strip():
         try:
             sets = int(r.v["sets"])
-            if not 1 <= sets <= MAX_SETS:
+            if not vocab.MIN_SETS <= sets <= vocab.MAX_SETS:
                 raise ValueError
             r.got["sets"] = sets
         except ValueError:
-            r.errors["sets"] = f"a whole number from 1 to {MAX_SETS}"
+            r.errors["sets"] = vocab.SETS_WORDS
 
 
 def _check_size(r: _Reading) -> None:
@@ -446,8 +445,8 @@ def _check_size(r: _Reading) -> None:
 def _check_material(r: _Reading) -> None:
     material = r.v["material"].strip().lower() or None
     r.got["material"] = material
-    if material not in (None, "cu", "al"):
-        r.errors["material"] = "cu or al (blank: the job default)"
+    if material is not None and material not in vocab.MATERIALS:
+        r.errors["material"] = f"{vocab.or_words(vocab.MATERIALS)} (blank: the job default)"
     if material is None:
         r.hints["material"] = f"job: {r.job.defaults.material}"
 

@@ -12,6 +12,7 @@ Public API:
 from __future__ import annotations
 
 from gaugewalk.model.engine.circuits import SYSTEMS, CircuitError, resolve_circuit
+from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run
 from gaugewalk.model.walk.problems import Locator, Problem
@@ -155,7 +156,7 @@ that failed, so one mistake is reported once."""
             if r.to in skip_sources:
                 continue
             if r.load is None:
-                at_run(r, "load", "the run has no load; give it in A, VA, kVA, W or kW")
+                at_run(r, "load", f"the run has no load; give it in {or_words(LOAD_UNITS)}")
         elif target.kind != "transformer" and not _delivers(circuit, target.system):
             at_run(r, "connection" if r.connection else "to",
                    f"this feeder from {source.id} ({source.system}, {connection}) cannot bring "

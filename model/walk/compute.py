@@ -29,6 +29,7 @@ from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate
+from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import upstream_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection
 from gaugewalk.model.walk.feeder_loads import (
@@ -147,7 +148,7 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         continuous_amps = amps_of_va(feeder_load.continuous_va, circuit)
         pf = min(1.0, max(0.05, feeder_load.watts / feeder_load.va))
     else:
-        raise LoadError("the run has no load; give it in A, VA, kVA, W or kW")
+        raise LoadError(f"the run has no load; give it in {or_words(LOAD_UNITS)}")
     max_drop = run.max_drop_pct
     if max_drop is None:
         max_drop = d.feeder_drop_pct if feeder else d.branch_drop_pct

@@ -17,7 +17,8 @@ Public API (other modules code against these names):
 - ``Run``: id, ``from_`` (``from`` in the file), to, length (as typed) and ``length_ft``, segments,
   load (``Load``: value, unit, pf), continuous, distributed, connection, sets, size, ocpd_a,
   per-run overrides of the defaults (None: inherit), bends, measured_on, notes.
-- ``SCHEMA_VERSION``, ``SOURCE_KINDS``, ``OVERRIDABLE`` (run fields that fall back to defaults).
+- ``SCHEMA_VERSION``, ``OVERRIDABLE`` (run fields that fall back to defaults). The words the
+  fields accept are in ``gaugewalk.model.engine.vocabulary`` and ``gaugewalk.model.walk.vocabulary``.
 - ``new_walk(name=..., site=..., walked_by=..., walked_on=..., service_system=...) -> Job``.
 
 Edit a run by assignment (``run.length = "90+12"``): runs validate on assignment, so ``length_ft``
@@ -31,7 +32,7 @@ import re
 import warnings
 from datetime import date
 from functools import lru_cache
-from typing import Annotated, Literal
+from typing import Annotated
 
 from pydantic import (
     AfterValidator,
@@ -47,6 +48,16 @@ from pydantic import (
 from gaugewalk.model.engine.lengths import LengthError
 from gaugewalk.model.engine.lengths import parse_length as _parse_length
 from gaugewalk.model.engine.circuits import CircuitError, parse_system
+from gaugewalk.model.engine.vocabulary import (
+    MAX_SETS,
+    MIN_SETS,
+    Connection,
+    LoadUnit,
+    Material,
+    Method,
+    TerminalTemp,
+)
+from gaugewalk.model.walk.vocabulary import SourceKind
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.ampacity import parse_insulation
 from gaugewalk.tables.raceway.fill import parse_raceway
@@ -56,9 +67,6 @@ from gaugewalk.tables.conductor.sizes import parse_size
 SCHEMA_VERSION = 1
 """Version of the walk file format written by this code (the ``schema`` key)."""
 
-SOURCE_KINDS = ("service", "switchboard", "panel", "transformer")
-LOAD_UNITS = ("A", "VA", "kVA", "W", "kW")
-CONNECTION_NAMES = ("LN", "LL", "LLN", "MW", "3P", "3PN")
 
 _ID_RE = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/#()+-]{0,39}$")
 _ID_HELP = (
@@ -69,9 +77,6 @@ _ID_HELP = (
 _TEXT_OR_NUMBER = {"type": ["string", "number"]}
 """A length may be written as a bare number of feet in the file (``length = 85``)."""
 
-Material = Literal["cu", "al"]
-Method = Literal["dc", "kfactor", "ac"]
-TerminalTemp = Literal[60, 75, 90]
 
 
 @lru_cache(maxsize=8192)
@@ -211,7 +216,7 @@ class Load(_Strict):
 
     value: float = Field(gt=0.0, le=1e7)
     """The load in ``unit``."""
-    unit: Literal["A", "VA", "kVA", "W", "kW"]
+    unit: LoadUnit
     """``A``, ``VA``, ``kVA``, ``W`` or ``kW``."""
     pf: float | None = Field(None, gt=0.0, le=1.0)
     """Power factor; None: the job default. Used for W/kW and the AC drop method."""
@@ -263,7 +268,7 @@ class Source(_Strict):
 
     id: str
     """Short id the runs refer to, e.g. ``MDP``, ``LP-2``, ``T1``."""
-    kind: Literal["service", "switchboard", "panel", "transformer"]
+    kind: SourceKind
     """``service``, ``switchboard``, ``panel`` or ``transformer``."""
     system: str
     """Supply system at this source's bus, e.g. ``208Y/120V 3ph 4w`` (transformer: secondary)."""
@@ -309,10 +314,10 @@ class Run(_Strict):
     """Load runs 3 h or more: sized at 125 % (NEC 210.19(A)(1), 215.2(A)(1))."""
     distributed: bool = False
     """Load spread evenly along the run rather than at its end (drop taken at half length)."""
-    connection: Literal["LN", "LL", "LLN", "MW", "3P", "3PN"] | None = None
+    connection: Connection | None = None
     """How the load is wired to the source's system; None: every hot and the neutral it offers
     (a feeder to a transformer: the hots only)."""
-    sets: int = Field(1, ge=1, le=20)
+    sets: int = Field(1, ge=MIN_SETS, le=MAX_SETS)
     """Conductors in parallel per phase (NEC 310.10(G))."""
     size: str | None = None
     """Conductor size fixed by the user, e.g. ``3/0 AWG``; None: picked."""

@@ -12,6 +12,7 @@ import sys
 
 from pydantic import ValidationError
 
+from gaugewalk.model.engine.vocabulary import CONNECTIONS, MATERIALS, TERMINAL_TEMPS
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.job import Run
 from gaugewalk.model.walk.problems import Locator, problems_from_errors
@@ -46,7 +47,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     loads.add_argument("--kw", type=float, metavar="KW", help="load [kW]")
     parser.add_argument("--pf", type=float, help="power factor of the load (0 to 1]")
     parser.add_argument("--id", dest="run_id", help="run id (default: the next free R-number)")
-    parser.add_argument("--connection", choices=("LN", "LL", "LLN", "MW", "3P", "3PN"),
+    parser.add_argument("--connection", choices=tuple(CONNECTIONS),
                         help="how the load is wired (default: every hot and the neutral)")
     parser.add_argument("--continuous", action="store_true", help="load runs 3 h or more")
     parser.add_argument("--spread", action="store_true",
@@ -54,10 +55,10 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--sets", type=int, help="conductors in parallel per phase")
     parser.add_argument("--size", help="fix the conductor size, e.g. '3/0 AWG'")
     parser.add_argument("--ocpd", type=int, metavar="A", help="fix the breaker or fuse [A]")
-    parser.add_argument("--material", choices=("cu", "al"))
+    parser.add_argument("--material", choices=MATERIALS)
     parser.add_argument("--insulation", help="e.g. THHN/THWN-2, XHHW-2")
     parser.add_argument("--raceway", help="e.g. EMT, PVC-40, RMC")
-    parser.add_argument("--terminal-temp", type=int, choices=(60, 75, 90))
+    parser.add_argument("--terminal-temp", type=int, choices=TERMINAL_TEMPS)
     parser.add_argument("--ambient", type=float, metavar="C", help="ambient temperature [C]")
     parser.add_argument("--max-drop", type=float, metavar="PCT",
                         help="drop target for this run [%%]")

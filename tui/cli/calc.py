@@ -13,10 +13,16 @@ import sys
 
 from gaugewalk.model.engine.circuits import CircuitError, circuit_from_volts
 from gaugewalk.model.engine.contract import RunSpec
-from gaugewalk.model.engine.drop import METHODS
 from gaugewalk.model.engine.lengths import LengthError, format_length_ft, parse_length
 from gaugewalk.model.engine.loads import LoadError, load_amps
 from gaugewalk.model.engine.sizing import SizingError, evaluate, resolve_raceway
+from gaugewalk.model.engine.vocabulary import (
+    MATERIALS,
+    MAX_SETS,
+    METHODS,
+    MIN_SETS,
+    TERMINAL_TEMPS,
+)
 from gaugewalk.tables.conductor.ampacity import ambient_factor, insulation_rating, parse_insulation
 from gaugewalk.tables.conductor.sizes import parse_size
 from gaugewalk.tables.errors import TableLookupError
@@ -106,11 +112,11 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="circuit voltage [V] (line-to-line for three-phase)")
     parser.add_argument("--phase", type=int, choices=(1, 3), default=1,
                         help="1: single-phase two-wire; 3: three-phase three-wire (default 1)")
-    parser.add_argument("--material", choices=("cu", "al"), default="cu",
+    parser.add_argument("--material", choices=MATERIALS, default="cu",
                         help="conductor material (default cu)")
     parser.add_argument("--size", type=_size, metavar="SIZE",
                         help="check this size instead of picking one (e.g. 10, 3/0, 350kcmil)")
-    parser.add_argument("--sets", type=_whole(1, 20), default=1, metavar="N",
+    parser.add_argument("--sets", type=_whole(MIN_SETS, MAX_SETS), default=1, metavar="N",
                         help="conductors in parallel per phase (default 1)")
     parser.add_argument("--max-drop", type=_number(), default=3.0, metavar="PCT",
                         help="drop target for this run [%%] (default 3)")
@@ -131,7 +137,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="the load runs 3 hours or more (125%% for sizing)")
     parser.add_argument("--distributed", action="store_true",
                         help="the load is spread evenly along the run (drop at half length)")
-    parser.add_argument("--terminal-temp", type=int, choices=(60, 75, 90),
+    parser.add_argument("--terminal-temp", type=int, choices=TERMINAL_TEMPS,
                         help="terminal rating [C]; default by NEC 110.14(C)(1)")
     parser.add_argument("--ambient", type=_number(-40.0, allow_equal=True, high=90.0),
                         default=30.0, metavar="C", help="ambient temperature [C] (default 30)")

@@ -14,6 +14,7 @@ from pydantic import ValidationError
 
 from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.model.walk.problems import Locator, problems_from_errors
+from gaugewalk.model.walk.vocabulary import SOURCE_KINDS
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,
@@ -30,8 +31,7 @@ HELP = "Add a service, switchboard, panel or transformer to a walk file."
 def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("file", metavar="FILE", help="walk file (.toml)")
     parser.add_argument("id", metavar="ID", help="the source's id, e.g. LP2")
-    parser.add_argument("--kind", required=True,
-                        choices=("service", "switchboard", "panel", "transformer"))
+    parser.add_argument("--kind", required=True, choices=SOURCE_KINDS)
     parser.add_argument("--system", required=True,
                         help="supply system at its bus (transformer: secondary), e.g. 208Y/120")
     parser.add_argument("--name", default="", help="name on the equipment")

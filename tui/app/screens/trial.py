@@ -9,6 +9,14 @@ from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
+from gaugewalk.model.engine.vocabulary import (
+    CONNECTIONS,
+    MATERIALS,
+    MAX_SETS,
+    MIN_SETS,
+    SETS_WORDS,
+    or_words,
+)
 from gaugewalk.model.walk.job import Run
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.sheet.rows import size_text
@@ -93,8 +101,8 @@ class TrialScreen(TypedInOrder, Screen):
         update: dict = {}
         problem = None
         mat = values["material"].lower()
-        if mat and mat not in ("cu", "al"):
-            problem = "Material: cu or al (blank: the job default)"
+        if mat and mat not in MATERIALS:
+            problem = f"Material: {or_words(MATERIALS)} (blank: the job default)"
         update["material"] = mat or None
         if values["size"]:
             from gaugewalk.tables.conductor.sizes import parse_size
@@ -107,14 +115,14 @@ class TrialScreen(TypedInOrder, Screen):
             update["size"] = None
         try:
             sets = int(values["sets"] or "1")
-            if not 1 <= sets <= 20:
+            if not MIN_SETS <= sets <= MAX_SETS:
                 raise ValueError
             update["sets"] = sets
         except ValueError:
-            problem = "Sets: a whole number from 1 to 20"
+            problem = f"Sets: {SETS_WORDS}"
         circ = values["circuit"].upper()
-        if circ and circ not in ("LN", "LL", "LLN", "MW", "3P", "3PN"):
-            problem = "Circuit: one of LN, LL, LLN, MW, 3P, 3PN (blank: all the source offers)"
+        if circ and circ not in CONNECTIONS:
+            problem = f"Circuit: one of {', '.join(CONNECTIONS)} (blank: all the source offers)"
         update["connection"] = circ or None
         self.trial_sources = ()
         if self.panel is not None:
