@@ -1,0 +1,95 @@
+"""The design current and the overcurrent device of a run: the seam where the kind of load
+decides both.
+
+A ``LoadRule`` turns the load [A] and its continuous share [A] (and a device the user fixed, if
+any) into ``Currents``: the design current the conductors must carry at their terminals, the
+device rating, and the notes and problems that say why. ``GENERAL`` is the rule for loads no
+article of their own covers:
+
+- design current: the noncontinuous load plus 125 % of the continuous load (NEC 210.19(A)(1)(a)
+  for branch circuits, 215.2(A)(1)(a) for feeders);
+- device: the next standard rating at or above it (240.6(A)); a device the user fixed below it
+  is a problem (210.20(A), 215.3). The conductor picked must then be protected by that device
+  (240.4(B)-(D), in ``gaugewalk.model.engine.sizing.pick``).
+
+A kind of load with an article of its own (motors, Art. 430; air-conditioning and refrigerating
+equipment, Art. 440; electric vehicle supply equipment, Art. 625) is another ``LoadRule`` with
+its own design current and device; where its article lets the device exceed the conductor's
+ampacity (240.4(G)), the rule also says how the device limits the pick. ``evaluate`` asks the
+rule and picks the conductor from what it answers.
+
+Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``next_rating(amps)``.
+"""
+
+from __future__ import annotations
+
+from bisect import bisect_left
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import Protocol
+
+from gaugewalk.model.engine.sizing.text import amps_text
+from gaugewalk.tables.protection import ocpd as t_ocpd
+
+_EPS = 1e-9
+_RATINGS = t_ocpd.STANDARD_RATINGS
+
+
+def next_rating(amps: float) -> int:
+    """NEC 240.6(A) next standard rating at or above ``amps`` (bisect over the table) [A]."""
+    i = bisect_left(_RATINGS, amps)
+    if i == len(_RATINGS):
+        return t_ocpd.next_standard_rating(amps)  # raises with the table's message
+    return _RATINGS[i]
+
+
+@dataclass(frozen=True)
+class Currents:
+    """What a load asks of its circuit: ``design_a`` the conductors must carry at their
+    terminals [A], ``ocpd_a`` the device [A], with the notes and problems that say why."""
+
+    design_a: float
+    ocpd_a: int
+    notes: tuple[str, ...]
+    problems: tuple[str, ...]
+
+
+class LoadRule(Protocol):
+    """How a kind of load sets the design current and the device."""
+
+    def currents(self, amps: float, continuous_a: float, ocpd_a: int | None) -> Currents:
+        """``amps`` the load [A], ``continuous_a`` its continuous share [A], ``ocpd_a`` a device
+        the user fixed [A] (None: the rule picks it)."""
+        ...
+
+
+@lru_cache(maxsize=4096)
+def _general(amps: float, cont: float, ocpd_a: int | None) -> Currents:
+    """``GENERAL.currents``, cached per load, continuous share and given device."""
+    notes: list[str] = []
+    problems: list[str] = []
+    design = amps - cont + 1.25 * cont
+    if cont > 0:
+        rest = f"{amps_text(amps - cont)} + " if amps - cont > _EPS else ""
+        notes.append(f"NEC 210.19(A)(1), 215.2(A)(1): {rest}125% of {amps_text(cont)} continuous "
+                     f"= {amps_text(design)}")
+    if ocpd_a is not None:
+        ocpd = ocpd_a
+        if ocpd + _EPS < design:
+            problems.append(f"the {ocpd} A device is below the {amps_text(design)} the circuit "
+                            f"needs (NEC 210.20(A), 215.3)")
+    else:
+        ocpd = next_rating(design)
+        notes.append(f"NEC 240.6(A): {ocpd} A device, the next standard rating at or above "
+                     f"{amps_text(design)}")
+    return Currents(design, ocpd, tuple(notes), tuple(problems))
+
+
+class _GeneralRule:
+    """Loads no article of their own covers: NEC 210.19(A)(1), 215.2(A)(1), 210.20(A), 215.3,
+    240.6(A)."""
+
+    currents = staticmethod(_general)
+
+
+GENERAL: LoadRule = _GeneralRule()

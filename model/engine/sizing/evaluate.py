@@ -1,0 +1,225 @@
+"""``evaluate(RunSpec) -> RunResult``: one run sized, rule by rule, in the order the rules
+apply: the spec checked (``spec``), the design current and device (``currents``), the
+installation's columns (``columns``), the conductor picked (``pick``), its drop
+(``gaugewalk.model.engine.drop``), then the EGC (``egc``) and the raceway (``raceway``).
+
+Pure: no I/O. The work runs share (the device, the columns, the EGC and the raceway of a size)
+is cached, so thousands of runs evaluate quickly.
+"""
+
+from __future__ import annotations
+
+from dataclasses import MISSING, fields, replace
+from functools import lru_cache
+
+from gaugewalk.model.engine.circuits import current_carrying_conductors
+from gaugewalk.model.engine.contract import RunResult, RunSpec
+from gaugewalk.model.engine.drop import drop_length_ft, drop_volts
+from gaugewalk.model.engine.sizing.columns import MAT, material_table, setting, z_table
+from gaugewalk.model.engine.sizing.currents import GENERAL
+from gaugewalk.model.engine.sizing.egc import egc_for
+from gaugewalk.model.engine.sizing.pick import (
+    choose_size,
+    floor_index,
+    pick_sizes,
+    size_notes,
+    size_problems,
+)
+from gaugewalk.model.engine.sizing.raceway import raceway_fill
+from gaugewalk.model.engine.sizing.spec import SizingError, check_spec
+from gaugewalk.model.engine.sizing.text import pct_text
+from gaugewalk.tables.conductor import properties as t_cond
+from gaugewalk.tables.errors import TableLookupError
+
+
+def evaluate(spec: RunSpec) -> RunResult:
+    """Size the conductors, device, EGC and raceway of one run.
+
+    Parameters
+    ----------
+    spec : RunSpec
+        The run; see ``gaugewalk.model.engine.contract``.
+
+    Returns
+    -------
+    RunResult
+        The size picked (or the size fixed by the user), with ``problems`` naming every
+        constraint it fails and ``notes`` naming the rules applied.
+
+    Raises
+    ------
+    SizingError
+        A spec that cannot be evaluated (zero or negative load or length, an insulation or
+        raceway no table knows, an ambient the insulation is not permitted at...).
+    """
+    check_spec(spec)
+    try:
+        return _evaluate(spec)
+    except TableLookupError as exc:
+        raise SizingError(str(exc)) from None
+
+
+@lru_cache(maxsize=8192)
+def _egc_and_raceway(i: int, ocpd: int, base_i: int | None, sets: int, material: str,
+                     egc_mat: str, egc: bool, egc_bare: bool, insulation: str, rtype: str,
+                     hots: int, neutral: int) -> tuple:
+    """EGC (``egc.egc_for``) and raceway (``raceway.raceway_fill``) for the picked size index
+    ``i``: ``(egc_size, n_egc, raceway_size, fill_pct, notes, problems)``. Depends on neither
+    length nor load, so it is cached."""
+    egc_size, notes = egc_for(i, ocpd, base_i, sets, material, egc_mat) if egc else (None, ())
+    raceway_size, fill_pct, race_notes, problems = raceway_fill(
+        material_table(material).sizes[i], egc_size, egc_bare, insulation, rtype, hots, neutral,
+        sets)
+    return (egc_size, 1 if egc_size else 0, raceway_size, fill_pct, notes + race_notes,
+            problems)
+
+
+_new_object = object.__new__
+_set_attr = object.__setattr__
+_RESULT_TEMPLATE = {f.name: None if f.default is MISSING else f.default for f in fields(RunResult)}
+
+
+def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
+    """``hint``: when nothing fits, look for a number of parallel sets that would (off while
+    looking, so the search is one pass over 2..12 sets, not a tree of searches)."""
+    circuit = spec.circuit
+    material = spec.material
+    tab = material_table(material)
+    sets = spec.sets
+    amps = float(spec.amps)
+
+    # --- currents and device (the load's rule) ---------------------------------------------
+    if spec.continuous_amps is not None:
+        cont = float(spec.continuous_amps)
+    else:
+        cont = amps if spec.continuous else 0.0
+    cur = GENERAL.currents(amps, cont, spec.ocpd_a)
+    design, ocpd = cur.design_a, cur.ocpd_a
+    notes: list[str] = list(cur.notes)
+    problems: list[str] = list(cur.problems)
+
+    # --- columns, corrections, raceway, impedance ----------------------------------------------
+    n_ccc = spec.ccc if spec.ccc is not None else current_carrying_conductors(circuit)
+    st = setting(material, spec.insulation, spec.terminal_temp, ocpd, spec.ambient_c, n_ccc,
+                 spec.raceway, spec.method, float(spec.pf), float(spec.conductor_temp_c),
+                 bool(spec.stranded), sets, bool(spec.distributed))
+    notes.extend(st.notes)
+    ins_col, term_col = st.ins_col, st.term_col
+    cols = st.cols
+    z = st.z
+
+    # --- the conductor -------------------------------------------------------------------------
+    # VD = k I z L / 1000 / sets is linear in z: the drop per ohm/kft, once for the run
+    volts_per_z = drop_volts(circuit.drop_factor, amps, 1.0,
+                             drop_length_ft(spec.length_ft, spec.distributed), sets)
+    pct_per_volt = 100.0 / circuit.volts
+    limit_pct = min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct)
+    floor_i = floor_index(spec.min_size, tab.sizes)
+    picks = pick_sizes(cols, z, design, amps, ocpd, floor_i, volts_per_z, pct_per_volt,
+                       limit_pct)
+    min_amp_i, ocpd_i, pick_i = picks
+    nothing_fits = spec.size is None and pick_i is None
+    i, governed_by = choose_size(
+        spec.size, tab, material, sets, floor_i, picks, z, tab.amp[term_col],
+        _parallel_hint(spec) if nothing_fits and hint else "", notes, problems)
+    size = tab.sizes[i]
+    mat = MAT[material]
+    if tab.amp[ins_col][i] is None or tab.amp[term_col][i] is None:
+        raise SizingError(f"Table 310.16 has no {mat} {size} in the {ins_col} or {term_col} C "
+                          f"column")
+    corrected_total = cols.corrected_total[i]
+    term_total = cols.term_total[i]
+    allowable_total = cols.allowable_total[i]
+    protect_limit = cols.device_limit[i]
+    sm = size_notes(tab, i, material, sets, ocpd, allowable_total,
+                    governed_by == "overcurrent device" or spec.size is not None, notes, problems)
+    if sm is not None:
+        protect_limit = min(protect_limit, sm)
+
+    # drop with the method's table, or Table 8 DC resistance where Table 9 lacks the size
+    zi = z[i]
+    method_used = spec.method
+    if zi is None:
+        zi = z_table(material, "dc", st.family, 1.0, float(spec.conductor_temp_c),
+                     bool(spec.stranded))[i]
+        if zi is None:
+            raise SizingError(f"NEC Ch. 9 Table 8 lists no solid {mat} {size}; solid conductors "
+                              f"are listed up to {t_cond.SOLID_SIZES[-1]}")
+        method_used = "dc"
+        notes.append(f"NEC Ch. 9 Table 9 lists no {mat} {size}: drop from Table 8 DC resistance, "
+                     f"reactance left out")
+    vd_v = volts_per_z * zi
+    vd_pct = vd_v * pct_per_volt
+    total_pct = spec.upstream_drop_pct + vd_pct
+
+    if spec.size is not None or pick_i is None:
+        size_problems(size, material, term_col, design, amps, ocpd, term_total, corrected_total,
+                      allowable_total, protect_limit, sm, vd_pct, total_pct, spec.max_drop_pct,
+                      spec.max_total_drop_pct, problems)
+    if governed_by == "voltage drop":
+        base = tab.sizes[ocpd_i] if ocpd_i is not None else tab.sizes[min_amp_i or 0]
+        notes.append(f"upsized from {base} for voltage drop ({pct_text(vd_pct)} of "
+                     f"{circuit.volts:g} V)")
+
+    # --- EGC and raceway ------------------------------------------------------------------------
+    hots = circuit.hots
+    neutral = 1 if circuit.neutral else 0
+    egc_size, n_egc, raceway_size, fill_pct, er_notes, er_problems = _egc_and_raceway(
+        i, ocpd, ocpd_i if ocpd_i is not None else min_amp_i, sets, material,
+        spec.egc_material or material, bool(spec.egc), bool(spec.egc_bare), st.insulation,
+        st.rtype, hots, neutral)
+    notes.extend(er_notes)
+    problems.extend(er_problems)
+
+    margins = {
+        "ampacity_a": allowable_total - amps,
+        "terminal_a": term_total - design,
+        "corrected_a": corrected_total - amps,
+        "ocpd_a": protect_limit - ocpd,
+        "drop_pct": spec.max_drop_pct - vd_pct,
+        "total_drop_pct": spec.max_total_drop_pct - total_pct,
+    }
+    # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (a third
+    # of the engine's time per run): every field of RunResult is set, in field order, into a copy
+    # of a dict that holds them all (a copy and item sets cost half a dict display of 23 keys).
+    result = _new_object(RunResult)
+    values = _RESULT_TEMPLATE.copy()
+    values["size"] = size
+    values["sets"] = sets
+    values["material"] = material
+    values["method"] = method_used
+    values["amps"] = amps
+    values["design_amps"] = design
+    values["required_ampacity_a"] = amps
+    values["ampacity_a"] = allowable_total
+    values["min_ampacity_size"] = tab.sizes[min_amp_i] if min_amp_i is not None else tab.sizes[-1]
+    values["ocpd_a"] = ocpd
+    values["voltage_drop_v"] = vd_v
+    values["voltage_drop_pct"] = vd_pct
+    values["total_drop_pct"] = total_pct
+    values["egc_size"] = egc_size
+    values["neutral_size"] = size if neutral else None
+    values["raceway"] = st.rtype
+    values["raceway_size"] = raceway_size
+    values["raceway_fill_pct"] = fill_pct
+    values["governed_by"] = governed_by
+    values["margins"] = margins
+    values["conductors"] = {"hot": hots, "neutral": neutral, "egc": n_egc}
+    values["problems"] = tuple(problems)
+    values["notes"] = tuple(notes)
+    _set_attr(result, "__dict__", values)
+    return result
+
+
+def _parallel_hint(spec: RunSpec) -> str:
+    """'; 3 sets in parallel would' when more sets make the run work."""
+    if spec.size is not None:
+        return ""
+    for sets in range(spec.sets + 1, 13):
+        try:
+            r = _evaluate(replace(spec, sets=sets), hint=False)
+        except (TableLookupError, SizingError):
+            return ""
+        if r.ok:
+            return f"; {sets} sets of {r.size} in parallel would (NEC 310.10(G))"
+    return ""

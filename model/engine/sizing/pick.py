@@ -1,0 +1,150 @@
+"""The phase conductor: the smallest size that carries the load, is protected by the device and
+meets the drop targets, no smaller than the job's minimum; or the size the user fixed, with
+every rule it fails named.
+
+1. ampacity: the terminal-column ampacity, unadjusted, is at least the design current (NEC
+   210.19(A)(1)(a), 215.2(A)(1)(a), 110.14(C)(1)); the insulation-column ampacity after the
+   corrections is at least the load (210.19(A)(1)(b), 215.2(A)(1)(b));
+2. the device protects it: at most the conductor's ampacity, or the next standard rating up to
+   800 A (240.4(B), (C)), and within the small-conductor limits of 240.4(D);
+3. the drop targets: this run's drop and the drop from the service (informational notes to
+   210.19(A) and 215.2(A); recommendations, made binding here as the job's targets);
+4. the job's minimum size (a job specification; common practice);
+5. conductors in parallel are 1/0 AWG and larger (310.10(G)).
+
+Public API: ``floor_index``, ``pick_sizes``, ``choose_size``, ``size_notes``, ``size_problems``.
+"""
+
+from __future__ import annotations
+
+from gaugewalk.model.engine.sizing.columns import (
+    MAT,
+    PARALLEL_MIN_SIZE,
+    START_SIZE,
+    AmpacityColumns,
+    MaterialTable,
+)
+from gaugewalk.model.engine.sizing.spec import SizingError
+from gaugewalk.model.engine.sizing.text import amps_text, pct_text
+from gaugewalk.tables.conductor.sizes import canonical, parse_size, size_index
+
+_EPS = 1e-9
+
+
+def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
+    """Index in ``sizes`` of the job's minimum size (0 without one, or below the table)."""
+    if min_size is None:
+        return 0
+    size = parse_size(min_size)
+    if size in sizes:
+        return sizes.index(size)
+    return 0 if size_index(size) < size_index(sizes[0]) else len(sizes)
+
+
+def pick_sizes(cols: AmpacityColumns, z: tuple[float | None, ...], design: float, amps: float,
+               ocpd: int, floor_i: int, volts_per_ohm_kft: float, pct_per_volt: float,
+               limit_pct: float) -> tuple[int | None, int | None, int | None]:
+    """``(min_amp_i, ocpd_i, pick_i)``: the smallest size index with ampacity for the load (1),
+    the smallest the device also protects (2), and the smallest that also meets the drop limit
+    ``limit_pct`` [%] (3) and the floor (4); None where there is none. ``volts_per_ohm_kft``
+    is the run's drop per ohm/kft of conductor impedance [V] and ``pct_per_volt`` [%/V]."""
+    min_amp_i = ocpd_i = None
+    term_tot, corr_tot, protect = cols.term_total, cols.corrected_total, cols.protect_limit
+    limit = limit_pct + _EPS
+    for i in range(cols.first, len(z)):
+        if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
+            continue
+        if min_amp_i is None:
+            min_amp_i = i
+        if protect[i] < ocpd:
+            continue
+        if ocpd_i is None:
+            ocpd_i = i
+        zi = z[i]
+        if i >= floor_i and zi is not None and volts_per_ohm_kft * zi * pct_per_volt <= limit:
+            return min_amp_i, ocpd_i, i
+    return min_amp_i, ocpd_i, None
+
+
+def choose_size(fixed: str | None, tab: MaterialTable, material: str, sets: int, floor_i: int,
+                picks: tuple[int | None, int | None, int | None], z: tuple[float | None, ...],
+                term_amps: tuple[float | None, ...], hint: str,
+                notes: list[str], problems: list[str]) -> tuple[int, str]:
+    """The size index and what governed it: the size the user ``fixed``, else the one picked,
+    else (nothing meets every rule) the largest the drop method covers, with a problem saying so
+    and ``hint`` (how many sets in parallel would)."""
+    min_amp_i, ocpd_i, pick_i = picks
+    mat = MAT[material]
+    if fixed is not None:
+        size = canonical(fixed)
+        if size not in tab.sizes:
+            raise SizingError(f"size {size} is not used for {mat} power conductors; the smallest "
+                              f"is {START_SIZE[material]}")
+        i = tab.sizes.index(size)
+        if i < floor_i:
+            problems.append(f"{size} {mat} is below the job's minimum size, {tab.sizes[floor_i]}")
+        return i, "fixed size"
+    if pick_i is not None:
+        if pick_i == floor_i and ocpd_i is not None and floor_i > ocpd_i:
+            notes.append(f"job minimum size {tab.sizes[floor_i]} {mat} (job specification)")
+            return pick_i, "minimum size"
+        if pick_i == min_amp_i:
+            return pick_i, "ampacity"
+        if pick_i == ocpd_i:
+            return pick_i, "overcurrent device"
+        return pick_i, "voltage drop"
+    # Nothing works: show the largest size the method covers, with its failures.
+    i = max(j for j in range(len(z)) if z[j] is not None and term_amps[j] is not None)
+    problems.append(
+        f"no single {mat} size up to {tab.sizes[i]} meets the ampacity, device and voltage-drop "
+        f"limits with {sets} set{'s' if sets > 1 else ''}{hint}")
+    return i, "voltage drop" if ocpd_i is not None else "ampacity"
+
+
+def size_notes(tab: MaterialTable, i: int, material: str, sets: int, ocpd: int,
+               allowable_total: float, governs_device: bool,
+               notes: list[str], problems: list[str]) -> float | None:
+    """The 240.4(D) limit of the size (returned [A], None above 10 AWG) and its note, and the
+    310.10(G) rule for parallel sets."""
+    size, mat = tab.sizes[i], MAT[material]
+    sm = tab.small_max[i]
+    if sm is not None and ocpd <= sm and governs_device:
+        notes.append(f"NEC 240.4(D): {size} {mat} limited to {sm} A")
+    if sets > 1:
+        if not tab.parallel_ok[i]:
+            problems.append(f"NEC 310.10(G): conductors in parallel must be {PARALLEL_MIN_SIZE} "
+                            f"or larger; {size} is smaller")
+        else:
+            notes.append(f"NEC 310.10(G): {sets} sets in parallel, "
+                         f"{amps_text(allowable_total / sets)} each")
+    return sm
+
+
+def size_problems(size: str, material: str, term_col: int, design: float, amps: float,
+                  ocpd: int, term_total: float, corrected_total: float, allowable_total: float,
+                  protect_limit: float, small_max: float | None, vd_pct: float,
+                  total_pct: float, max_drop_pct: float, max_total_drop_pct: float,
+                  problems: list[str]) -> None:
+    """Every rule a size not picked by them (fixed by the user, or the largest when nothing
+    fits) fails: ampacity (1), the device (2), the drop targets (3)."""
+    mat = MAT[material]
+    if term_total + _EPS < design:
+        problems.append(
+            f"{size} {mat} is good for {amps_text(term_total)} at the {term_col} C terminals; the "
+            f"circuit needs {amps_text(design)} (NEC 110.14(C)(1), 210.19(A)(1))")
+    if corrected_total + _EPS < amps:
+        problems.append(f"{size} {mat} carries {amps_text(corrected_total)} after corrections; "
+                        f"the load needs {amps_text(amps)}")
+    if ocpd > protect_limit:
+        if small_max is not None and ocpd > small_max:
+            problems.append(f"NEC 240.4(D) limits {size} {mat} to a {small_max} A device; the "
+                            f"device is {ocpd} A")
+        else:
+            problems.append(f"a {ocpd} A device does not protect {size} {mat} "
+                            f"({amps_text(allowable_total)}) (NEC 240.4)")
+    if vd_pct > max_drop_pct + _EPS:
+        problems.append(f"voltage drop {pct_text(vd_pct)} is over this run's "
+                        f"{max_drop_pct:g}% target")
+    if total_pct > max_total_drop_pct + _EPS:
+        problems.append(f"drop from the service {pct_text(total_pct)} is over the "
+                        f"{max_total_drop_pct:g}% target")
