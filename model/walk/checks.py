@@ -103,11 +103,10 @@ that failed, so one mistake is reported once."""
     graph = SupplyGraph(job)
     sources = graph.sources
     feeders = {sid: claims[0] for sid, claims in graph.feeds.items()}  # the first claim counts
-    for r in job.runs:
-        first = feeders.get(r.to)
-        if first is not None and first is not r and r.from_ in sources:
-            at_run(r, "to", f"source {r.to} is already fed by run {first.id}; "
-                   "a source has one feeder (use 'sets' for conductors in parallel)")
+    second = [r for claims in graph.feeds.values() if len(claims) > 1 for r in claims[1:]]
+    for r in sorted(second, key=lambda r: run_index[id(r)]):
+        at_run(r, "to", f"source {r.to} is already fed by run {feeders[r.to].id}; "
+               "a source has one feeder (use 'sets' for conductors in parallel)")
 
     for s in job.sources:
         if s.id in skip_sources:

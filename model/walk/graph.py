@@ -14,7 +14,7 @@ Public API:
   first of ``feeds`` that does not end where it starts)}, ``orphans`` (runs from no source of the
   job), ``order`` (source ids from the top, each before the sources it feeds), ``unreached``
   (sources no chain of feeders reaches from a top: they are in a loop), ``position``
-  {run id: index of its first run in the file}.
+  {run id: index of its first run in the file}; these three are worked out when first read.
 - ``roots()``, ``is_feeder(run)``, ``runs_below(source_id)``, ``sources_below(source_id,
   follow)``, ``feeder_loops()``; ``shape()`` and ``fits(job, run, shape)`` for the incremental
   recomputation.
@@ -23,6 +23,7 @@ Public API:
 from __future__ import annotations
 
 from collections.abc import Callable
+from functools import cached_property
 
 from gaugewalk.model.walk.job import Job, Run, Source
 
@@ -60,28 +61,44 @@ class SupplyGraph:
         self.feeds = feeds
         self.children = children
         self.orphans = orphans
-        # sources from the top: roots are those nothing feeds
-        self.order: list[str] = []
+        # for the incremental path: the objects this graph was built from, to tell whether it
+        # still fits the walk after an edit
+        self.runs = list(job.runs)
+        self.run_ids = list(map(id, self.runs))
+        self.source_ids = list(map(id, job.sources))
+
+    @cached_property
+    def order(self) -> list[str]:
+        """Source ids from the top, each before the sources it feeds (depth first, in file
+        order); a source in a loop of feeders is not reached (``unreached``)."""
+        order: list[str] = []
         seen: set[str] = set()
-        stack = [sid for sid in sources if sid not in feeder]
+        feeder, children = self.feeder, self.children
+        stack = [sid for sid in self.sources if sid not in feeder]
         stack.reverse()
         while stack:
             sid = stack.pop()
             if sid in seen:
                 continue
             seen.add(sid)
-            self.order.append(sid)
-            fed = [r.to for r in children[sid] if feeder.get(r.to) is r]
-            stack.extend(reversed(fed))
-        self.unreached = [sid for sid in sources if sid not in seen]
-        # for the incremental path: the objects this graph was built from, to tell whether it
-        # still fits the walk after an edit
-        self.runs = list(job.runs)
-        self.run_ids = list(map(id, self.runs))
-        self.source_ids = list(map(id, job.sources))
-        self.position: dict[str, int] = {}
+            order.append(sid)
+            below = [r.to for r in children[sid] if feeder.get(r.to) is r]
+            stack.extend(reversed(below))
+        return order
+
+    @cached_property
+    def unreached(self) -> list[str]:
+        """Sources no chain of feeders reaches from a top: they are in a loop."""
+        reached = set(self.order)
+        return [sid for sid in self.sources if sid not in reached]
+
+    @cached_property
+    def position(self) -> dict[str, int]:
+        """{run id: index of its first run in the file}."""
+        position: dict[str, int] = {}
         for i, r in enumerate(self.runs):
-            self.position.setdefault(r.id, i)
+            position.setdefault(r.id, i)
+        return position
 
     # -- reading the graph ---------------------------------------------------------------------
     def roots(self) -> list[Source]:

@@ -18,13 +18,7 @@ from gaugewalk.model.engine.drop import drop_length_ft, drop_volts
 from gaugewalk.model.engine.sizing.columns import MAT, material_table, setting, z_table
 from gaugewalk.model.engine.sizing.currents import GENERAL
 from gaugewalk.model.engine.sizing.egc import egc_for
-from gaugewalk.model.engine.sizing.pick import (
-    choose_size,
-    floor_index,
-    pick_sizes,
-    size_notes,
-    size_problems,
-)
+from gaugewalk.model.engine.sizing.pick import pick_conductor, size_problems
 from gaugewalk.model.engine.sizing.raceway import raceway_fill
 from gaugewalk.model.engine.sizing.spec import SizingError, check_spec
 from gaugewalk.model.engine.sizing.text import pct_text
@@ -113,15 +107,9 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     volts_per_z = drop_volts(circuit.drop_factor, amps, 1.0,
                              drop_length_ft(spec.length_ft, spec.distributed), sets)
     pct_per_volt = 100.0 / circuit.volts
-    limit_pct = min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct)
-    floor_i = floor_index(spec.min_size, tab.sizes)
-    picks = pick_sizes(cols, z, design, amps, ocpd, floor_i, volts_per_z, pct_per_volt,
-                       limit_pct)
-    min_amp_i, ocpd_i, pick_i = picks
-    nothing_fits = spec.size is None and pick_i is None
-    i, governed_by = choose_size(
-        spec.size, tab, material, sets, floor_i, picks, z, tab.amp[term_col],
-        _parallel_hint(spec) if nothing_fits and hint else "", notes, problems)
+    i, governed_by, min_amp_i, ocpd_i, pick_i, sm = pick_conductor(
+        spec, tab, cols, z, tab.amp[term_col], design, amps, ocpd, volts_per_z, pct_per_volt,
+        _parallel_hint if hint else None, notes, problems)
     size = tab.sizes[i]
     mat = MAT[material]
     if tab.amp[ins_col][i] is None or tab.amp[term_col][i] is None:
@@ -131,8 +119,6 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     term_total = cols.term_total[i]
     allowable_total = cols.allowable_total[i]
     protect_limit = cols.device_limit[i]
-    sm = size_notes(tab, i, material, sets, ocpd, allowable_total,
-                    governed_by == "overcurrent device" or spec.size is not None, notes, problems)
     if sm is not None:
         protect_limit = min(protect_limit, sm)
 

@@ -12,11 +12,16 @@ every rule it fails named.
 4. the job's minimum size (a job specification; common practice);
 5. conductors in parallel are 1/0 AWG and larger (310.10(G)).
 
-Public API: ``floor_index``, ``pick_sizes``, ``choose_size``, ``size_notes``, ``size_problems``.
+Public API: ``pick_conductor`` (returns ``Pick``: the size index, what governed it, the
+smallest size index meeting rule 1, rules 1-2, rules 1-4, and the 240.4(D) limit of the size
+[A]); ``size_problems``; ``floor_index``.
 """
 
 from __future__ import annotations
 
+from collections.abc import Callable
+
+from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.sizing.columns import (
     MAT,
     PARALLEL_MIN_SIZE,
@@ -30,6 +35,9 @@ from gaugewalk.tables.conductor.sizes import canonical, parse_size, size_index
 
 _EPS = 1e-9
 
+Pick = tuple[int, str, "int | None", "int | None", "int | None", "int | None"]
+"""(size index, governed by, min_amp_i, ocpd_i, pick_i, 240.4(D) limit [A] or None)."""
+
 
 def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
     """Index in ``sizes`` of the job's minimum size (0 without one, or below the table)."""
@@ -41,16 +49,26 @@ def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
     return 0 if size_index(size) < size_index(sizes[0]) else len(sizes)
 
 
-def pick_sizes(cols: AmpacityColumns, z: tuple[float | None, ...], design: float, amps: float,
-               ocpd: int, floor_i: int, volts_per_ohm_kft: float, pct_per_volt: float,
-               limit_pct: float) -> tuple[int | None, int | None, int | None]:
-    """``(min_amp_i, ocpd_i, pick_i)``: the smallest size index with ampacity for the load (1),
-    the smallest the device also protects (2), and the smallest that also meets the drop limit
-    ``limit_pct`` [%] (3) and the floor (4); None where there is none. ``volts_per_ohm_kft``
-    is the run's drop per ohm/kft of conductor impedance [V] and ``pct_per_volt`` [%/V]."""
-    min_amp_i = ocpd_i = None
+def pick_conductor(spec: RunSpec, tab: MaterialTable, cols: AmpacityColumns,
+                   z: tuple[float | None, ...], term_amps: tuple[float | None, ...],
+                   design: float, amps: float, ocpd: int, volts_per_ohm_kft: float,
+                   pct_per_volt: float, hint: Callable[[RunSpec], str] | None,
+                   notes: list[str], problems: list[str]) -> Pick:
+    """The phase conductor of the run: the size the user fixed (``spec.size``), else the
+    smallest meeting rules 1 to 4, else (nothing meets them all) the largest the drop method
+    covers, with a problem saying so and ``hint(spec)`` (how many sets in parallel would).
+    ``volts_per_ohm_kft`` is the run's drop per ohm/kft of conductor impedance [V] and
+    ``pct_per_volt`` [%/V]. Notes and problems of the choice, of 240.4(D) and of 310.10(G) are
+    added to ``notes`` and ``problems``."""
+    material, sets = spec.material, spec.sets
+    mat = MAT[material]
+    sizes = tab.sizes
+    floor_i = floor_index(spec.min_size, sizes)
+    limit = min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct) + _EPS
+    # rules 1-4: the smallest size with ampacity, then protected by the device, then within
+    # the drop limit and the floor
+    min_amp_i = ocpd_i = pick_i = None
     term_tot, corr_tot, protect = cols.term_total, cols.corrected_total, cols.protect_limit
-    limit = limit_pct + _EPS
     for i in range(cols.first, len(z)):
         if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
             continue
@@ -62,62 +80,51 @@ def pick_sizes(cols: AmpacityColumns, z: tuple[float | None, ...], design: float
             ocpd_i = i
         zi = z[i]
         if i >= floor_i and zi is not None and volts_per_ohm_kft * zi * pct_per_volt <= limit:
-            return min_amp_i, ocpd_i, i
-    return min_amp_i, ocpd_i, None
+            pick_i = i
+            break
 
-
-def choose_size(fixed: str | None, tab: MaterialTable, material: str, sets: int, floor_i: int,
-                picks: tuple[int | None, int | None, int | None], z: tuple[float | None, ...],
-                term_amps: tuple[float | None, ...], hint: str,
-                notes: list[str], problems: list[str]) -> tuple[int, str]:
-    """The size index and what governed it: the size the user ``fixed``, else the one picked,
-    else (nothing meets every rule) the largest the drop method covers, with a problem saying so
-    and ``hint`` (how many sets in parallel would)."""
-    min_amp_i, ocpd_i, pick_i = picks
-    mat = MAT[material]
-    if fixed is not None:
-        size = canonical(fixed)
-        if size not in tab.sizes:
+    # the size and what governed it
+    if spec.size is not None:
+        size = canonical(spec.size)
+        if size not in sizes:
             raise SizingError(f"size {size} is not used for {mat} power conductors; the smallest "
                               f"is {START_SIZE[material]}")
-        i = tab.sizes.index(size)
+        i = sizes.index(size)
+        governed_by = "fixed size"
         if i < floor_i:
-            problems.append(f"{size} {mat} is below the job's minimum size, {tab.sizes[floor_i]}")
-        return i, "fixed size"
-    if pick_i is not None:
+            problems.append(f"{size} {mat} is below the job's minimum size, {sizes[floor_i]}")
+    elif pick_i is not None:
+        i = pick_i
         if pick_i == floor_i and ocpd_i is not None and floor_i > ocpd_i:
-            notes.append(f"job minimum size {tab.sizes[floor_i]} {mat} (job specification)")
-            return pick_i, "minimum size"
-        if pick_i == min_amp_i:
-            return pick_i, "ampacity"
-        if pick_i == ocpd_i:
-            return pick_i, "overcurrent device"
-        return pick_i, "voltage drop"
-    # Nothing works: show the largest size the method covers, with its failures.
-    i = max(j for j in range(len(z)) if z[j] is not None and term_amps[j] is not None)
-    problems.append(
-        f"no single {mat} size up to {tab.sizes[i]} meets the ampacity, device and voltage-drop "
-        f"limits with {sets} set{'s' if sets > 1 else ''}{hint}")
-    return i, "voltage drop" if ocpd_i is not None else "ampacity"
+            governed_by = "minimum size"
+            notes.append(f"job minimum size {sizes[floor_i]} {mat} (job specification)")
+        elif pick_i == min_amp_i:
+            governed_by = "ampacity"
+        elif pick_i == ocpd_i:
+            governed_by = "overcurrent device"
+        else:
+            governed_by = "voltage drop"
+    else:
+        # Nothing works: show the largest size the method covers, with its failures.
+        i = max(j for j in range(len(z)) if z[j] is not None and term_amps[j] is not None)
+        governed_by = "voltage drop" if ocpd_i is not None else "ampacity"
+        problems.append(
+            f"no single {mat} size up to {sizes[i]} meets the ampacity, device and voltage-drop "
+            f"limits with {sets} set{'s' if sets > 1 else ''}{hint(spec) if hint else ''}")
 
-
-def size_notes(tab: MaterialTable, i: int, material: str, sets: int, ocpd: int,
-               allowable_total: float, governs_device: bool,
-               notes: list[str], problems: list[str]) -> float | None:
-    """The 240.4(D) limit of the size (returned [A], None above 10 AWG) and its note, and the
-    310.10(G) rule for parallel sets."""
-    size, mat = tab.sizes[i], MAT[material]
+    # 240.4(D) and 310.10(G) for the size
     sm = tab.small_max[i]
-    if sm is not None and ocpd <= sm and governs_device:
-        notes.append(f"NEC 240.4(D): {size} {mat} limited to {sm} A")
+    if sm is not None and ocpd <= sm and (governed_by == "overcurrent device"
+                                          or spec.size is not None):
+        notes.append(f"NEC 240.4(D): {sizes[i]} {mat} limited to {sm} A")
     if sets > 1:
         if not tab.parallel_ok[i]:
             problems.append(f"NEC 310.10(G): conductors in parallel must be {PARALLEL_MIN_SIZE} "
-                            f"or larger; {size} is smaller")
+                            f"or larger; {sizes[i]} is smaller")
         else:
             notes.append(f"NEC 310.10(G): {sets} sets in parallel, "
-                         f"{amps_text(allowable_total / sets)} each")
-    return sm
+                         f"{amps_text(cols.allowable_total[i] / sets)} each")
+    return i, governed_by, min_amp_i, ocpd_i, pick_i, sm
 
 
 def size_problems(size: str, material: str, term_col: int, design: float, amps: float,
