@@ -194,18 +194,9 @@ class WalkSession:
               more_sources: tuple[Source, ...] = ()) -> Job:
         """A copy of the job (sharing unchanged runs) with ``run`` stored."""
         runs = list(self.job.runs)
-        if replaces is not None:
-            for i, r in enumerate(runs):
-                if r.id == replaces:
-                    runs[i] = run
-                    break
-            else:
-                runs.append(run)
-        else:
-            runs.append(run)
         sources = list(self.job.sources)
-        for src in ((new_source,) if new_source is not None else ()) + tuple(more_sources):
-            _put_source(sources, src)
+        extra = ((new_source,) if new_source is not None else ()) + more_sources
+        _put(runs, sources, run, replaces, extra)
         trial = self.job.model_copy(update={"runs": runs, "sources": sources})
         trial._index_cache = None
         return trial
@@ -326,18 +317,8 @@ class WalkSession:
         or None."""
 
         def change() -> None:
-            runs = self.job.runs
-            if replaces is not None:
-                for i, r in enumerate(runs):
-                    if r.id == replaces:
-                        runs[i] = run
-                        break
-                else:
-                    runs.append(run)
-            else:
-                runs.append(run)
-            for src in ((new_source,) if new_source is not None else ()) + tuple(sources):
-                _put_source(self.job.sources, src)
+            _put(self.job.runs, self.job.sources, run, replaces,
+                 ((new_source,) if new_source is not None else ()) + tuple(sources))
 
         label = f"edit {run.id}" if replaces else f"add {run.id}"
         old = self.job.run(replaces) if replaces else None
@@ -523,13 +504,23 @@ class WalkSession:
         return runs[-1] if runs else None
 
 
-def _put_source(sources: list[Source], source: Source) -> None:
-    """Replace the source with the same id, or add it."""
-    for i, s in enumerate(sources):
-        if s.id == source.id:
-            sources[i] = source
-            return
-    sources.append(source)
+def _put(runs: list[Run], sources: list[Source], run: Run, replaces: str | None,
+         new_sources: tuple[Source, ...]) -> None:
+    """Put ``run`` in place of the run ``replaces`` (or add it), and each of ``new_sources`` in
+    place of the source of its id (or add it), in the lists given."""
+    _put_in(runs, run, replaces)
+    for source in new_sources:
+        _put_in(sources, source, source.id)
+
+
+def _put_in(items: list, item, replaces: str | None) -> None:
+    """Replace the item whose id is ``replaces``, or add ``item`` at the end."""
+    if replaces is not None:
+        for i, old in enumerate(items):
+            if old.id == replaces:
+                items[i] = item
+                return
+    items.append(item)
 
 
 def _short(text: str, width: int = 12) -> str:

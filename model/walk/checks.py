@@ -85,20 +85,13 @@ that failed, so one mistake is reported once."""
         line = locator.key_line("source", i, field) if field else locator.table_line("source", i)
         problems.append(Problem(file, line, "source", source.id, field, message))
 
-    seen: dict[str, int] = {}
-    for i, s in enumerate(job.sources):
-        if s.id in seen:
-            at_source(s, "id", f"the id '{s.id}' is used by another source too "
-                      f"(line {locator.table_line('source', seen[s.id])}); ids must differ")
-        else:
-            seen[s.id] = i
-    seen_runs: dict[str, int] = {}
-    for i, r in enumerate(job.runs):
-        if r.id in seen_runs:
-            at_run(r, "id", f"the id '{r.id}' is used by another run too "
-                   f"(line {locator.table_line('run', seen_runs[r.id])}); ids must differ")
-        else:
-            seen_runs[r.id] = i
+    for table, items, at in (("source", job.sources, at_source), ("run", job.runs, at_run)):
+        seen: dict[str, int] = {}
+        for i, item in enumerate(items):
+            first = seen.setdefault(item.id, i)
+            if first != i:
+                at(item, "id", f"the id '{item.id}' is used by another {table} too "
+                   f"(line {locator.table_line(table, first)}); ids must differ")
 
     graph = SupplyGraph(job)
     sources = graph.sources

@@ -114,6 +114,19 @@ def _canonical(parse, value):
         raise ValueError(str(exc)) from None
 
 
+def _known(parse):
+    """A validator giving the table's own name for what was typed (``#12`` -> ``12 AWG``)."""
+    return AfterValidator(lambda value: _canonical(parse, value))
+
+
+SizeName = Annotated[str, _known(parse_size)]
+"""A conductor size as Table 310.16 names it (``12 AWG``, ``250 kcmil``)."""
+InsulationName = Annotated[str, _known(parse_insulation)]
+"""An insulation type as NEC Table 310.4(1) names it (``THHN/THWN-2``)."""
+RacewayName = Annotated[str, _known(parse_raceway)]
+"""A raceway type as NEC Ch. 9 Table 4 names it (``EMT``, ``PVC-40``)."""
+
+
 class JobHeader(_Strict):
     """Who walked what, where and when."""
 
@@ -155,9 +168,9 @@ class Defaults(_Strict):
 
     material: Material = "cu"
     """Conductor material: ``cu`` or ``al``."""
-    insulation: str = "THHN/THWN-2"
+    insulation: InsulationName = "THHN/THWN-2"
     """Insulation type (NEC Table 310.4(1) names)."""
-    raceway: str = "EMT"
+    raceway: RacewayName = "EMT"
     """Raceway type (NEC Ch. 9 Table 4 names)."""
     terminal_temp: TerminalTemp | None = None
     """Terminal rating [C]; None: NEC 110.14(C)(1) by circuit rating and size."""
@@ -175,7 +188,7 @@ class Defaults(_Strict):
     """Power factor for loads that do not give one."""
     conductor_temp_c: float = Field(75.0, ge=20.0, le=150.0)
     """Conductor temperature for resistance [C] (Ch. 9 Table 8 note 2)."""
-    min_size: str | None = None
+    min_size: SizeName | None = None
     """Smallest conductor the job allows for power, e.g. ``12 AWG`` (a job specification; common
     practice on commercial work); None: the smallest the rules allow. Upsizing to it enlarges the
     EGC in proportion (NEC 250.122(B))."""
@@ -195,20 +208,6 @@ class Defaults(_Strict):
     """Boxes and reels the takeoff orders in; None: 500 ft boxes for 14-10 AWG and 1,000 and
     2,500 ft reels (common practice, ``gaugewalk.tables.order.putups``)."""
 
-    @field_validator("insulation")
-    @classmethod
-    def _known_insulation(cls, value: str) -> str:
-        return _canonical(parse_insulation, value)
-
-    @field_validator("min_size")
-    @classmethod
-    def _known_min_size(cls, value: str | None) -> str | None:
-        return _canonical(parse_size, value)
-
-    @field_validator("raceway")
-    @classmethod
-    def _known_raceway(cls, value: str) -> str:
-        return _canonical(parse_raceway, value)
 
 
 class Load(_Strict):
@@ -319,15 +318,15 @@ class Run(_Strict):
     (a feeder to a transformer: the hots only)."""
     sets: int = Field(1, ge=MIN_SETS, le=MAX_SETS)
     """Conductors in parallel per phase (NEC 310.10(G))."""
-    size: str | None = None
+    size: SizeName | None = None
     """Conductor size fixed by the user, e.g. ``3/0 AWG``; None: picked."""
     ocpd_a: int | None = Field(None, gt=0, le=6000)
     """Breaker or fuse rating fixed by the user [A]; None: next standard rating (NEC 240.6(A))."""
     material: Material | None = None
     """Conductor material; None: the job default."""
-    insulation: str | None = None
+    insulation: InsulationName | None = None
     """Insulation type; None: the job default."""
-    raceway: str | None = None
+    raceway: RacewayName | None = None
     """Raceway type; None: the job default."""
     terminal_temp: TerminalTemp | None = None
     """Terminal rating [C]; None: the job default."""
@@ -352,21 +351,6 @@ class Run(_Strict):
     @classmethod
     def _from_is_id(cls, value: str) -> str:
         return _check_id(value)
-
-    @field_validator("size")
-    @classmethod
-    def _known_size(cls, value: str | None) -> str | None:
-        return _canonical(parse_size, value)
-
-    @field_validator("insulation")
-    @classmethod
-    def _known_insulation(cls, value: str | None) -> str | None:
-        return _canonical(parse_insulation, value)
-
-    @field_validator("raceway")
-    @classmethod
-    def _known_raceway(cls, value: str | None) -> str | None:
-        return _canonical(parse_raceway, value)
 
     @model_validator(mode="after")
     def _feet(self) -> Run:
