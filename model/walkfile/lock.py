@@ -4,8 +4,9 @@
 holder (user, host, process id, since when, which tool). It is created by the one atomic writer
 (``gaugewalk.model.walkfile.atomic``, ``create_only``): the JSON is written to a temporary file
 first and hard-linked to the lock name, which fails if a lock is already there (``O_CREAT |
-O_EXCL`` is the fallback where links are not allowed), so a lock on disk is always whole. A second opener is told who holds it; the app then opens read-only and the
-writing commands refuse.
+O_EXCL`` is the fallback where links are not allowed), so a lock on disk is always whole. A
+second opener is told who holds it; the app then opens read-only and the writing commands
+refuse.
 
 A lock whose process is gone (same host, that process id no longer runs) is stale: it is removed
 with a message. A lock from another host cannot be checked from here and is honoured; the message
