@@ -82,7 +82,8 @@ class SaveState:
 class WalkSession:
     """A walk file opened for editing."""
 
-    def __init__(self, path: Path, job: Job, *, compute: bool = True) -> None:
+    def __init__(self, path: Path, job: Job, *, compute: bool = True,
+                 hold: WalkHold | None = None) -> None:
         self.path = Path(path)
         self.job = job
         self.result = None
@@ -93,8 +94,10 @@ class WalkSession:
         self.draft: dict[str, str] | None = None
         self.busy = False   # True while the whole walk is being sized in the background
         self.read_only: str | None = None   # why the walk cannot be changed here, if it cannot
-        self.hold = WalkHold(self.path, "gaugewalk app")
-        self.hold.note()  # what was read: a save checks it is still there
+        if hold is None:
+            hold = WalkHold(self.path, "gaugewalk app")
+            hold.note()  # what was read: a save checks it is still there
+        self.hold = hold
         if compute:
             self.recompute()
 
@@ -105,9 +108,7 @@ class WalkSession:
         ``compute=False`` the runs are not sized yet (call ``recompute``)."""
         hold = WalkHold(path, "gaugewalk app")
         job = hold.read()  # noted before reading: a save in between is then caught
-        session = cls(Path(path), job, compute=compute)
-        session.hold = hold
-        return session
+        return cls(Path(path), job, compute=compute, hold=hold)
 
     @classmethod
     def create(
