@@ -9,14 +9,7 @@ from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
-from gaugewalk.model.engine.vocabulary import (
-    CONNECTIONS,
-    MATERIALS,
-    MAX_SETS,
-    MIN_SETS,
-    SETS_WORDS,
-    or_words,
-)
+from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Run
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.sheet.rows import size_text
@@ -101,8 +94,8 @@ class TrialScreen(TypedInOrder, Screen):
         update: dict = {}
         problem = None
         mat = values["material"].lower()
-        if mat and mat not in MATERIALS:
-            problem = f"Material: {or_words(MATERIALS)} (blank: the job default)"
+        if mat and mat not in vocab.MATERIALS:
+            problem = f"Material: {vocab.or_words(vocab.MATERIALS)} (blank: the job default)"
         update["material"] = mat or None
         if values["size"]:
             from gaugewalk.tables.conductor.sizes import parse_size
@@ -115,14 +108,14 @@ class TrialScreen(TypedInOrder, Screen):
             update["size"] = None
         try:
             sets = int(values["sets"] or "1")
-            if not MIN_SETS <= sets <= MAX_SETS:
+            if not vocab.MIN_SETS <= sets <= vocab.MAX_SETS:
                 raise ValueError
             update["sets"] = sets
         except ValueError:
-            problem = f"Sets: {SETS_WORDS}"
+            problem = f"Sets: {vocab.SETS_WORDS}"
         circ = values["circuit"].upper()
-        if circ and circ not in CONNECTIONS:
-            problem = f"Circuit: one of {', '.join(CONNECTIONS)} (blank: all the source offers)"
+        if circ and circ not in vocab.CONNECTIONS:
+            problem = f"Circuit: one of {', '.join(vocab.CONNECTIONS)} (blank: all the source offers)"
         update["connection"] = circ or None
         self.trial_sources = ()
         if self.panel is not None:
