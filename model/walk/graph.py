@@ -22,7 +22,7 @@ Public API:
 
 from __future__ import annotations
 
-from collections.abc import Callable
+from collections.abc import Callable, Iterator
 from functools import cached_property
 
 from gaugewalk.model.walk.job import Job, Run, Source
@@ -113,38 +113,30 @@ class SupplyGraph:
     def runs_below(self, source_id: str) -> list[Run]:
         """Every run fed through ``source_id``: its own runs, then depth first through the sources
         they feed (the last feeder's source first)."""
-        out: list[Run] = []
-        stack = [source_id]
-        seen: set[str] = set()
-        sources, children = self.sources, self.children
-        while stack:
-            sid = stack.pop()
-            if sid in seen:
-                continue
-            seen.add(sid)
-            for r in children.get(sid, ()):
-                out.append(r)
-                if r.to in sources:
-                    stack.append(r.to)
-        return out
+        children = self.children
+        return [r for sid in self._down(source_id, _every) for r in children[sid]]
 
     def sources_below(self, source_id: str, follow: Callable[[Source], bool]) -> list[Source]:
         """``source_id`` and every source below it that ``follow`` lets the walk go on into."""
-        out: list[Source] = []
-        seen: set[str] = set()
-        stack = [source_id]
+        sources = self.sources
+        return [sources[sid] for sid in self._down(source_id, follow)]
+
+    def _down(self, source_id: str, follow: Callable[[Source], bool]) -> Iterator[str]:
+        """Source ids from ``source_id`` down, depth first, each once, going on into a source
+        below only where ``follow(source)``."""
         sources, children = self.sources, self.children
+        stack = [source_id]
+        seen: set[str] = set()
         while stack:
-            src = sources.get(stack.pop())
-            if src is None or src.id in seen:
+            sid = stack.pop()
+            if sid in seen or sid not in sources:
                 continue
-            seen.add(src.id)
-            out.append(src)
-            for r in children[src.id]:
+            seen.add(sid)
+            yield sid
+            for r in children[sid]:
                 dest = sources.get(r.to)
                 if dest is not None and follow(dest):
-                    stack.append(dest.id)
-        return out
+                    stack.append(r.to)
 
     def feeder_loops(self) -> list[tuple[list[str], Run]]:
         """Each loop of feeders once: (source ids round the loop, its first id again at the end;
@@ -195,3 +187,7 @@ class SupplyGraph:
             if self.feeder.get(run.to) is old:
                 self.feeder[run.to] = run
         return True
+
+
+def _every(source: Source) -> bool:
+    return True

@@ -60,20 +60,15 @@ def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = Tr
     fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
     staged = None
     try:
-        with os.fdopen(fd, "wb") as handle:
-            handle.write(data)
-            handle.flush()
-            os.fsync(handle.fileno())
+        _write_synced(fd, data)
         os.chmod(tmp, mode)
         if existed and keep_backup and not create_only:
             staged = _temp_beside(path, "bak")
             try:
                 os.link(path, staged)
             except OSError:  # no hard links here: copy the bytes
-                with open(path, "rb") as src, open(staged, "wb") as dst:
-                    dst.write(src.read())
-                    dst.flush()
-                    os.fsync(dst.fileno())
+                with open(path, "rb") as src:
+                    _write_synced(os.open(staged, os.O_WRONLY | os.O_CREAT, 0o666), src.read())
             os.replace(staged, backup_path(path))
         if create_only:
             _create(tmp, path, data, mode)
@@ -102,7 +97,11 @@ def _create(tmp: str, path: Path, data: bytes, mode: int) -> None:
         raise
     except OSError:
         pass  # no hard links on this file system
-    fd = os.open(path, os.O_WRONLY | os.O_CREAT | os.O_EXCL, mode)
+    _write_synced(os.open(path, os.O_WRONLY | os.O_CREAT | os.O_EXCL, mode), data)
+
+
+def _write_synced(fd: int, data: bytes) -> None:
+    """Write ``data`` to the open file ``fd``, flush it to the disk (fsync) and close it."""
     with os.fdopen(fd, "wb") as handle:
         handle.write(data)
         handle.flush()
