@@ -12,6 +12,8 @@ Public API:
   in it, in the TOML text as written.
 - ``problems_from_errors(errors, table, index, locator, file, id=None, ...)``: pydantic errors
   of one table as Problems with their lines.
+- ``clip(text)``: text from a file made safe for one line (control characters escaped, long
+  words and runs of spaces shortened): the one way problems echo user text.
 """
 
 from __future__ import annotations
@@ -64,10 +66,10 @@ class Problem:
         parts.append(head)
         where = self.where
         if where:
-            parts.append(_clip(where))
+            parts.append(clip(where))
         if self.field:
-            parts.append(_clip(self.field))
-        return ", ".join(parts) + ": " + _clip(self.message)
+            parts.append(clip(self.field))
+        return ", ".join(parts) + ": " + clip(self.message)
 
     def to_dict(self) -> dict:
         return {
@@ -82,7 +84,7 @@ _LONG_WORD = re.compile(r"\S{61,}|\s{61,}")
 _CONTROL = {c: repr(chr(c))[1:-1] for c in (*range(32), 127, 0x85, 0x2028, 0x2029)}
 
 
-def _clip(text: str) -> str:
+def clip(text: str) -> str:
     """Keep a problem on one readable line: control characters and line breaks in an echoed
     value are shown escaped (``\\n``), and any word or gap over 60 characters (a pasted id or
     value, a run of spaces) is shortened."""

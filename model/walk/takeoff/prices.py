@@ -25,7 +25,7 @@ from decimal import ROUND_HALF_UP, Decimal, InvalidOperation
 from pathlib import Path
 from typing import Sequence
 
-from gaugewalk.model.walk.problems import _clip  # the one way problems echo user text
+from gaugewalk.model.walk.problems import clip  # the one way problems echo user text
 from gaugewalk.model.walk.takeoff.lines import OrderLine
 from gaugewalk.model.walk.takeoff.order import PUTUP_KINDS
 
@@ -58,7 +58,7 @@ class PriceFileError(ValueError):
 def shown(text: str) -> str:
     """Text from the file as a message echoes it: one line, control characters escaped, very
     long words shortened (the rule problems with walk files follow)."""
-    return _clip(text)
+    return clip(text)
 
 
 @dataclass(frozen=True)
