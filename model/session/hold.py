@@ -12,8 +12,8 @@ shows anything: each face says the outcome in its own words.
 Public API:
 
 - ``WalkHold(path, tool)``: ``take_lock()`` (raises ``WalkLocked`` or ``LockError``),
-  ``release()``, ``note()``, ``read() -> Job``, ``problem_keys(job)``,
-  ``added_problems(job, known)`` and ``refusals(job, known)`` (lists of ``Problem``), ``save(job) -> SaveNotice | None`` (raises
+  ``release()``, ``note()``, ``read() -> Job``, ``added_problems(job, before)`` and
+  ``refusals(job, before)`` (lists of ``Problem``), ``save(job) -> SaveNotice | None`` (raises
   ``ChangedOnDisk``, ``WalkFileError`` or ``OSError``; nothing is written then).
 """
 
@@ -77,25 +77,27 @@ class WalkHold:
         return load_walk(self.path)
 
     # -- changing -------------------------------------------------------------------------------
-    def problem_keys(self, job: Job) -> set[tuple]:
-        """The walk's own cross-check problems now, to tell the ones a change adds."""
-        return {_key(p) for p in check_references(job, Locator(""), self.file)}
+    def added_problems(self, job: Job, before: Job | None = None) -> list[Problem]:
+        """The cross-check problems of ``job`` that ``before`` (the walk before the change; None:
+        nothing to compare with) did not have, in the order the checks find them, without
+        lines. ``before`` is checked only when ``job`` has a problem: a walk that opened has
+        none, so the usual change costs one check."""
+        found = check_references(job, Locator(""), self.file)
+        if not found or before is None:
+            return found
+        known = {_key(p) for p in check_references(before, Locator(""), self.file)}
+        return [p for p in found if _key(p) not in known]
 
-    def added_problems(self, job: Job, known: set[tuple] = frozenset()) -> list[Problem]:
-        """The cross-check problems the walk has that are not in ``known`` (``problem_keys`` of
-        the walk before the change), in the order the checks find them, without lines."""
-        return [p for p in check_references(job, Locator(""), self.file) if _key(p) not in known]
-
-    def refusals(self, job: Job, known: set[tuple] = frozenset()) -> list[Problem]:
+    def refusals(self, job: Job, before: Job | None = None) -> list[Problem]:
         """Why the walk cannot be written as it is: ``added_problems``, in the order they would
         stand in the written file, with no line numbers: that text is not on disk."""
-        found = check_references(job, Locator(""), self.file)
-        new = [_key(p) not in known for p in found]
-        if not any(new):
+        new = {_key(p) for p in self.added_problems(job, before)}
+        if not new:
             return []
         # the same checks against the text as it would be written, for its order (rare path)
+        found = check_references(job, Locator(""), self.file)
         placed = check_references(job, Locator(dumps_walk(job)), self.file)
-        out = [p for p, is_new in zip(placed, new) if is_new]
+        out = [p for p, q in zip(placed, found) if _key(q) in new]
         out.sort(key=lambda p: (p.line is None, p.line or 0))
         return [replace(p, line=None) for p in out]
 

@@ -248,7 +248,7 @@ class WalkSession:
         ``sources`` in place of those of the same ids: a transformer secondary at another
         voltage, with the panels it feeds)."""
         trial = self._with(run, run.id, None, tuple(sources))
-        problems = self.hold.added_problems(trial, self.hold.problem_keys(self.job))
+        problems = self.hold.added_problems(trial, self.job)
         if problems:
             return TrialOutcome(None, sorted(problems, key=Problem.brief))
         from gaugewalk.model.walk.compute import compute_job
@@ -289,6 +289,13 @@ class WalkSession:
             self.job.job = snap.header
         self._touch()
 
+    def _job_at(self, snap: Snapshot) -> Job:
+        """A copy of the job as ``snap`` holds it (sharing its runs and sources)."""
+        job = self.job.model_copy(update={"runs": list(snap.runs), "sources": list(snap.sources),
+                                          "defaults": snap.defaults, "job": snap.header})
+        job._index_cache = None
+        return job
+
     def _touch(self) -> None:
         # The job caches its id lookups by list identity and length; lists changed in place.
         self.job._index_cache = None
@@ -298,10 +305,11 @@ class WalkSession:
         (a panel nothing feeds, a run from a missing source...) is taken back and the reason
         returned; nothing is saved then."""
         before = self._snapshot(label, focus)
-        known = self.hold.problem_keys(self.job)
         change()
         self._touch()
-        new = self.hold.added_problems(self.job, known)
+        new = self.hold.added_problems(self.job)
+        if new:  # only what the change adds refuses it: compare with the walk before it
+            new = self.hold.added_problems(self.job, self._job_at(before))
         if new:
             self._restore(before)
             return "; ".join(sorted({p.brief() for p in new}))

@@ -64,8 +64,7 @@ class SupplyGraph:
         # for the incremental path: the objects this graph was built from, to tell whether it
         # still fits the walk after an edit
         self.runs = list(job.runs)
-        self.run_ids = list(map(id, self.runs))
-        self.source_ids = list(map(id, job.sources))
+        self._sources_built = list(job.sources)
 
     @cached_property
     def order(self) -> list[str]:
@@ -91,6 +90,15 @@ class SupplyGraph:
         """Sources no chain of feeders reaches from a top: they are in a loop."""
         reached = set(self.order)
         return [sid for sid in self.sources if sid not in reached]
+
+    @cached_property
+    def run_ids(self) -> list[int]:
+        """``id()`` of each run the graph was built from (kept alive by ``runs``)."""
+        return list(map(id, self.runs))
+
+    @cached_property
+    def source_ids(self) -> list[int]:
+        return list(map(id, self._sources_built))
 
     @cached_property
     def position(self) -> dict[str, int]:

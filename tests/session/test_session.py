@@ -59,6 +59,17 @@ def test_a_change_that_would_leave_the_walk_unreadable_is_refused_and_nothing_is
     assert session.history == []
 
 
+def test_only_the_problems_a_change_adds_refuse_it(session):
+    """A walk that already has a cross-check problem (built in memory: a file with one does not
+    open) still takes changes that add none, and refuses one that adds another."""
+    session.job.sources.append(Source(id="LP9", kind="panel", system="208Y/120"))  # unfed
+    session.job.reindex()
+    assert session.put_run(_run()) is None and session.job.run("R2") is not None
+    refusal = session.put_run(_run(id="R3", **{"from": "LP8"}))
+    assert refusal is not None and "LP8" in refusal and "LP9" not in refusal
+    assert session.job.run("R3") is None
+
+
 def test_a_feeder_goes_only_with_its_empty_panel(session):
     assert "feeds 1 run" in session.delete_refusal("F1")
     session.delete_run("R1")
