@@ -251,7 +251,8 @@ class WalkState:
     def sum_loads(self) -> None:
         """Bottom-up: what each source serves [VA]."""
         res = self.result
-        sum_loads(self.walk, self.own_load, self.set_run_load, res._loads, res.connected_va)
+        sum_loads(self.walk, res._circuits, self.job.defaults.pf, self.set_run_load, res._loads,
+                  res.connected_va)
 
     def evaluate_run(self, r: Run, upstream: float) -> None:
         res = self.result

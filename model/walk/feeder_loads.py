@@ -11,7 +11,8 @@ Public API:
 - ``FeederLoad(va, continuous_va, watts)`` [VA, VA, W]; ``ZERO``; ``add(a, b, sign=1.0)``.
 - ``va_of(value, unit, circuit, pf)`` [VA]; ``amps_of_va(va, circuit)`` [A].
 - ``load_of(run, circuit, default_pf)``: a run's own load, or None (a feeder summing its panel).
-- ``sum_loads(graph, own_load, set_run_load, loads, connected_va)``: bottom-up over the graph.
+- ``sum_loads(graph, circuits, default_pf, set_run_load, loads, connected_va)``: bottom-up over
+  the graph.
 - ``carry_up(graph, source_id, delta, loads, connected_va, set_run_load)``: a change of load at
   one source added to it and to every source above it whose feeder sums its panel.
 """
@@ -85,16 +86,18 @@ def load_of(run: Run, circuit: Circuit, default_pf: float) -> FeederLoad | None:
     return feeder_load(va, va if run.continuous else 0.0, va * pf)
 
 
-def sum_loads(graph: SupplyGraph, own_load: Callable[[Run], FeederLoad | None],
+def sum_loads(graph: SupplyGraph, circuits: dict[str, Circuit], default_pf: float,
               set_run_load: Callable[[Run, FeederLoad | None], None],
               loads: dict[str, FeederLoad], connected_va: dict[str, float]) -> None:
     """Bottom-up: what each source serves [VA], into ``loads`` and ``connected_va``; each run's
-    load (its own, or for a feeder without one what its panel serves) to ``set_run_load``."""
+    load (its own on its circuit from ``circuits``, or for a feeder without one what its panel
+    serves) to ``set_run_load``."""
     feeder, children = graph.feeder, graph.children
     for sid in reversed(graph.order):
         total = ZERO
         for r in children[sid]:
-            load = own_load(r)
+            circuit = circuits.get(r.id) if r.load is not None else None
+            load = None if circuit is None else load_of(r, circuit, default_pf)
             if load is None and feeder.get(r.to) is r:
                 load = loads.get(r.to)
             set_run_load(r, load)

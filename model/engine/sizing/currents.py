@@ -24,9 +24,8 @@ Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``next_rating(amps)``.
 from __future__ import annotations
 
 from bisect import bisect_left
-from dataclasses import dataclass
 from functools import lru_cache
-from typing import Protocol
+from typing import NamedTuple, Protocol
 
 from gaugewalk.model.engine.sizing.text import amps_text
 from gaugewalk.tables.protection import ocpd as t_ocpd
@@ -43,8 +42,7 @@ def next_rating(amps: float) -> int:
     return _RATINGS[i]
 
 
-@dataclass(frozen=True)
-class Currents:
+class Currents(NamedTuple):
     """What a load asks of its circuit: ``design_a`` the conductors must carry at their
     terminals [A], ``ocpd_a`` the device [A], with the notes and problems that say why."""
 

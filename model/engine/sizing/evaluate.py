@@ -87,10 +87,9 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         cont = float(spec.continuous_amps)
     else:
         cont = amps if spec.continuous else 0.0
-    cur = GENERAL.currents(amps, cont, spec.ocpd_a)
-    design, ocpd = cur.design_a, cur.ocpd_a
-    notes: list[str] = list(cur.notes)
-    problems: list[str] = list(cur.problems)
+    design, ocpd, cur_notes, cur_problems = GENERAL.currents(amps, cont, spec.ocpd_a)
+    notes: list[str] = list(cur_notes)
+    problems: list[str] = list(cur_problems)
 
     # --- columns, corrections, raceway, impedance ----------------------------------------------
     n_ccc = spec.ccc if spec.ccc is not None else current_carrying_conductors(circuit)
@@ -108,7 +107,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
                              drop_length_ft(spec.length_ft, spec.distributed), sets)
     pct_per_volt = 100.0 / circuit.volts
     i, governed_by, min_amp_i, ocpd_i, pick_i, sm = pick_conductor(
-        spec, tab, cols, z, tab.amp[term_col], design, amps, ocpd, volts_per_z, pct_per_volt,
+        spec, tab, st, design, amps, ocpd, volts_per_z, pct_per_volt,
         _parallel_hint if hint else None, notes, problems)
     size = tab.sizes[i]
     mat = MAT[material]

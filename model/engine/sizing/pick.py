@@ -26,8 +26,8 @@ from gaugewalk.model.engine.sizing.columns import (
     MAT,
     PARALLEL_MIN_SIZE,
     START_SIZE,
-    AmpacityColumns,
     MaterialTable,
+    Setting,
 )
 from gaugewalk.model.engine.sizing.spec import SizingError
 from gaugewalk.model.engine.sizing.text import amps_text, pct_text
@@ -49,18 +49,19 @@ def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
     return 0 if size_index(size) < size_index(sizes[0]) else len(sizes)
 
 
-def pick_conductor(spec: RunSpec, tab: MaterialTable, cols: AmpacityColumns,
-                   z: tuple[float | None, ...], term_amps: tuple[float | None, ...],
-                   design: float, amps: float, ocpd: int, volts_per_ohm_kft: float,
-                   pct_per_volt: float, hint: Callable[[RunSpec], str] | None,
-                   notes: list[str], problems: list[str]) -> Pick:
+def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float, amps: float,
+                   ocpd: int, volts_per_ohm_kft: float, pct_per_volt: float,
+                   hint: Callable[[RunSpec], str] | None, notes: list[str],
+                   problems: list[str]) -> Pick:
     """The phase conductor of the run: the size the user fixed (``spec.size``), else the
     smallest meeting rules 1 to 4, else (nothing meets them all) the largest the drop method
     covers, with a problem saying so and ``hint(spec)`` (how many sets in parallel would).
+    ``st`` is the installation's columns (``columns.setting``).
     ``volts_per_ohm_kft`` is the run's drop per ohm/kft of conductor impedance [V] and
     ``pct_per_volt`` [%/V]. Notes and problems of the choice, of 240.4(D) and of 310.10(G) are
     added to ``notes`` and ``problems``."""
     material, sets = spec.material, spec.sets
+    cols, z = st.cols, st.z
     mat = MAT[material]
     sizes = tab.sizes
     floor_i = floor_index(spec.min_size, sizes)
@@ -106,6 +107,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, cols: AmpacityColumns,
             governed_by = "voltage drop"
     else:
         # Nothing works: show the largest size the method covers, with its failures.
+        term_amps = tab.amp[st.term_col]
         i = max(j for j in range(len(z)) if z[j] is not None and term_amps[j] is not None)
         governed_by = "voltage drop" if ocpd_i is not None else "ampacity"
         problems.append(
