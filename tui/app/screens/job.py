@@ -9,6 +9,7 @@ from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
+from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Defaults, JobHeader
 from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
@@ -19,7 +20,7 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
     ("job.name", "Job name", ""),
     ("job.site", "Site", ""),
     ("job.walked_by", "Walked by", ""),
-    ("material", "Material", "cu or al"),
+    ("material", "Material", vocab.or_words(vocab.MATERIALS)),
     ("insulation", "Insulation", "e.g. THHN/THWN-2, XHHW-2"),
     ("raceway", "Raceway", "e.g. EMT, PVC-40, RMC"),
     ("terminal_temp", "Terminals °C", "60, 75, 90; blank: NEC 110.14(C)(1)"),

@@ -17,7 +17,7 @@ from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.model.session.session import WalkSession, fmt_pct
 
 TRIAL_FIELDS = (
-    ("material", "Material", "cu or al"),
+    ("material", "Material", vocab.or_words(vocab.MATERIALS)),
     ("size", "Size", "e.g. 4/0 or 350; blank: picked"),
     ("sets", "Sets", "conductors in parallel per phase"),
     ("circuit", "Circuit", "LN LL LLN MW 3P 3PN: the voltage; blank: all offered"),
