@@ -11,10 +11,12 @@ Public API:
 
 from __future__ import annotations
 
+from collections.abc import Callable, Sequence
+
 from gaugewalk.model.engine.circuits import SYSTEMS, CircuitError, resolve_circuit
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.graph import SupplyGraph
-from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.walk.job import Job, Run, Source
 from gaugewalk.model.walk.problems import Locator, Problem
 
 
@@ -85,7 +87,9 @@ that failed, so one mistake is reported once."""
         line = locator.key_line("source", i, field) if field else locator.table_line("source", i)
         problems.append(Problem(file, line, "source", source.id, field, message))
 
-    for table, items, at in (("source", job.sources, at_source), ("run", job.runs, at_run)):
+    tables: tuple[tuple[str, Sequence[Source | Run], Callable], ...] = (
+        ("source", job.sources, at_source), ("run", job.runs, at_run))
+    for table, items, at in tables:
         seen: dict[str, int] = {}
         for i, item in enumerate(items):
             first = seen.setdefault(item.id, i)
