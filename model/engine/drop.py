@@ -24,8 +24,8 @@ from dataclasses import dataclass
 
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.vocabulary import METHODS
-from gaugewalk.tables.conductor import properties as conductors
 from gaugewalk.tables.conductor import impedance
+from gaugewalk.tables.conductor import properties as conductors
 
 K_FACTOR: dict[str, float] = {"cu": 12.9, "al": 21.2}
 """Resistivity constants K [ohm-cmil/ft] at 75 C for the K-factor method (common practice:

@@ -97,7 +97,7 @@ class WalkHold:
         # the same checks against the text as it would be written, for its order (rare path)
         found = check_references(job, Locator(""), self.file)
         placed = check_references(job, Locator(dumps_walk(job)), self.file)
-        out = [p for p, q in zip(placed, found) if _key(q) in new]
+        out = [p for p, q in zip(placed, found, strict=True) if _key(q) in new]
         out.sort(key=lambda p: (p.line is None, p.line or 0))
         return [replace(p, line=None) for p in out]
 

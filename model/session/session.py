@@ -216,16 +216,17 @@ class WalkSession:
                 out.append(replace(p, field="to"))
         return out
 
-    def preview(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None) -> Preview:
+    def preview(self, run: Run, *, replaces: str | None = None,
+                new_source: Source | None = None) -> Preview:
         """Size ``run`` as if stored (nothing is changed or saved).
 
         Problems that would make the walk file invalid (a source that does not exist, a branch
         without a load...) stop it. The run is sized alone against the drop at its source now;
         the small change its load makes to the feeders above shows once it is stored."""
-        from gaugewalk.model.walk.compute import run_spec_for
+        from gaugewalk.model.engine.circuits import CircuitError
         from gaugewalk.model.engine.loads import LoadError
         from gaugewalk.model.engine.sizing import evaluate
-        from gaugewalk.model.engine.circuits import CircuitError
+        from gaugewalk.model.walk.compute import run_spec_for
 
         trial = self._with(run, replaces, new_source)
         problems = self._reference_problems(trial, run)
@@ -300,7 +301,8 @@ class WalkSession:
         # The job caches its id lookups by list identity and length; lists changed in place.
         self.job._index_cache = None
 
-    def _commit(self, label: str, focus: str | None, change, edited: str | None = None) -> str | None:
+    def _commit(self, label: str, focus: str | None, change,
+                edited: str | None = None) -> str | None:
         """Make a change, recompute and save. A change that would leave the walk unreadable
         (a panel nothing feeds, a run from a missing source...) is taken back and the reason
         returned; nothing is saved then."""

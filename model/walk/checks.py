@@ -19,7 +19,6 @@ from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run, Source
 from gaugewalk.model.walk.problems import Locator, Problem
 
-
 # -- references, cycles, systems ---------------------------------------------------------------
 
 _FULL_CONNECTION = {(3, True): "3PN", (3, False): "3P", (1, True): "LLN", (1, False): "LL"}
@@ -71,8 +70,8 @@ def check_references(
     """Everything that needs more than one table: duplicate ids, a run from a source that does not
     exist, sources without a feeder or with two, a chain that loops, a connection the source's
     system cannot supply, a feeder that does not deliver its panel's system, a branch without a
-    load. ``skip_*`` are ids of tables that already failed, and ``failed_targets`` the ``to`` of runs
-that failed, so one mistake is reported once."""
+    load. ``skip_*`` are ids of tables that already failed, and ``failed_targets`` the ``to`` of
+    runs that failed, so one mistake is reported once."""
     problems: list[Problem] = []
     source_index = {id(s): i for i, s in enumerate(job.sources)}
     run_index = {id(r): i for i, r in enumerate(job.runs)}

@@ -45,9 +45,9 @@ from pydantic import (
     model_validator,
 )
 
+from gaugewalk.model.engine.circuits import CircuitError, parse_system
 from gaugewalk.model.engine.lengths import LengthError
 from gaugewalk.model.engine.lengths import parse_length as _parse_length
-from gaugewalk.model.engine.circuits import CircuitError, parse_system
 from gaugewalk.model.engine.vocabulary import (
     MAX_SETS,
     MIN_SETS,
@@ -58,11 +58,11 @@ from gaugewalk.model.engine.vocabulary import (
     TerminalTemp,
 )
 from gaugewalk.model.walk.vocabulary import SourceKind
-from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.conductor.ampacity import parse_insulation
+from gaugewalk.tables.conductor.sizes import parse_size
+from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.raceway.fill import parse_raceway
 from gaugewalk.tables.raceway.install import PULL_EVERY_FT
-from gaugewalk.tables.conductor.sizes import parse_size
 
 SCHEMA_VERSION = 1
 """Version of the walk file format written by this code (the ``schema`` key)."""

@@ -43,9 +43,10 @@ def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = Tr
     fsynced. A replaced file keeps its permissions; a new one gets what the umask allows.
 
     With ``keep_backup`` the old file becomes ``backup_path(path)`` first. With ``create_only``
-    (no backup: there is nothing to keep) the file must not exist yet (``FileExistsError`` otherwise, even when another process creates
-    it in the meantime: the temporary is hard-linked into place, never renamed over; where the
-    file system has no hard links, the file is created with ``O_EXCL`` and written in place).
+    (no backup: there is nothing to keep) the file must not exist yet (``FileExistsError``
+    otherwise, even when another process creates it in the meantime: the temporary is
+    hard-linked into place, never renamed over; where the file system has no hard links, the
+    file is created with ``O_EXCL`` and written in place).
     """
     path = Path(path)
     folder = path.parent if str(path.parent) else Path(".")

@@ -82,7 +82,8 @@ def _syntax_problem(exc: tomllib.TOMLDecodeError, file: str) -> Problem:
     return Problem(file, line, "file", None, None, f"this is not valid TOML{column}: {sentence}")
 
 
-def check_walk_text(text: str, path: str | os.PathLike = "walk.toml") -> tuple[Job | None, list[Problem]]:
+def check_walk_text(text: str, path: str | os.PathLike = "walk.toml"
+                    ) -> tuple[Job | None, list[Problem]]:
     """Read and check a walk's text; return the Job (None when it cannot be built) and every
     problem found. Tables that fail on their own are left out of the cross-checks so one mistake
     is reported once."""
@@ -253,19 +254,23 @@ def read_walk_text(path: str | os.PathLike) -> str:
             raw = handle.read(MAX_WALK_BYTES + 1)
             if len(raw) > MAX_WALK_BYTES:
                 size = os.fstat(handle.fileno()).st_size
-                raise WalkFileError([Problem(str(p), None, "file", None, None, too_big(size))])
+                raise WalkFileError([_about_file(p, too_big(size))])
     except FileNotFoundError:
-        raise WalkFileError([Problem(str(p), None, "file", None, None, "there is no such file")]) from None
+        raise WalkFileError([_about_file(p, "there is no such file")]) from None
     except IsADirectoryError:
-        raise WalkFileError([Problem(str(p), None, "file", None, None, "this is a folder, not a walk file")]) from None
+        raise WalkFileError([_about_file(p, "this is a folder, not a walk file")]) from None
     except OSError as exc:
-        raise WalkFileError([Problem(str(p), None, "file", None, None, f"cannot be read: {exc.strerror}")]) from None
+        raise WalkFileError([_about_file(p, f"cannot be read: {exc.strerror}")]) from None
     try:
         return raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         line = raw[: exc.start].count(b"\n") + 1
         raise WalkFileError([Problem(str(p), line, "file", None, None,
                                      "is not UTF-8 text; save it as UTF-8")]) from None
+
+
+def _about_file(path: Path, message: str) -> Problem:
+    return Problem(str(path), None, "file", None, None, message)
 
 
 def load_walk(path: str | os.PathLike) -> Job:

@@ -244,7 +244,8 @@ def save_walk(
     """
     path = Path(path)
     if len(job.runs) > MAX_RUNS:
-        raise WalkFileError([Problem(str(path), None, "file", None, "run", too_many(len(job.runs)))])
+        raise WalkFileError([Problem(str(path), None, "file", None, "run",
+                                     too_many(len(job.runs)))])
     text = dumps_walk(job)
     data = text.encode("utf-8")
     if len(data) > MAX_WALK_BYTES:

@@ -18,7 +18,7 @@ _egc_table = lru_cache(maxsize=1024)(t_egc.egc_size)
 def _smallest_at_least(cmil_needed: float, material: str) -> str:
     """The smallest size of ``material`` with at least ``cmil_needed`` circular mils."""
     tab = material_table(material)
-    for s, c in zip(tab.sizes, tab.cmil):
+    for s, c in zip(tab.sizes, tab.cmil, strict=True):
         if c >= cmil_needed * (1 - 1e-9):
             return s
     return tab.sizes[-1]
