@@ -19,7 +19,9 @@ Public API:
 from __future__ import annotations
 
 import re
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
+from typing import Any
 
 ABOUT = ("file", "job", "defaults", "source", "run", "option")
 """What a problem can be about: the file as a whole, the ``[job]`` or ``[defaults]`` table, one
@@ -152,7 +154,7 @@ class Locator:
 _FIELD_NAMES = {"from_": "from"}
 
 
-def _friendly(error: dict) -> str:
+def _friendly(error: Mapping[str, Any]) -> str:
     kind = error.get("type", "")
     ctx = error.get("ctx") or {}
     value = error.get("input")
@@ -192,7 +194,7 @@ def _friendly(error: dict) -> str:
 
 
 def problems_from_errors(
-    errors: list[dict],
+    errors: Sequence[Mapping[str, Any]],
     table: str,
     index: int | None,
     locator: Locator,
