@@ -10,6 +10,20 @@ balanced multiwire circuit), ``I`` the load current [A], ``L`` the one-way lengt
 ``sets`` the conductors in parallel per phase. A load spread evenly along the run drops as the
 whole load at half the length.
 
+Table 9 skips 700, 800 and 900 kcmil. For those ``table9_rx`` interpolates between the
+neighbouring rows (600 and 750 kcmil, 750 and 1000 kcmil), linearly in circular mils: the
+resistance as the size's own Table 8 DC resistance times the AC/DC ratio of the neighbours (the
+ratio carries the skin and proximity effects and the raceway's, which grow smoothly with the
+conductor's area), the reactance directly (it changes little and smoothly with size). The
+result lies between the neighbours' printed values, as the physics requires.
+
+A leg of a two-circuit multiwire on a wye (``Circuit.drop_angle_deg`` 30): the neutral carries
+the other leg's current too, so the drop of a leg is Z (2 Ia + Ib); with Ib = Ia at 120 degrees
+that is sqrt(3) Ia Z at 30 degrees from Ia, either way according to the phase order. The drop
+is then sqrt(3) I (R cos(theta -+ 30) + X sin(theta -+ 30)), the worse leg of the two
+(``shifted_z``); with no reactance (the DC and K-factor methods, the load taken at unity power
+factor) it is sqrt(3) cos 30 = 1.5 times I R.
+
 References
 ----------
 NFPA 70 (NEC) 2023, Chapter 9 Table 8 (DC resistance at 75 C, with its note 2 temperature
@@ -26,6 +40,7 @@ from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.vocabulary import METHODS
 from gaugewalk.tables.conductor import impedance
 from gaugewalk.tables.conductor import properties as conductors
+from gaugewalk.tables.conductor.sizes import canonical
 
 K_FACTOR: dict[str, float] = {"cu": 12.9, "al": 21.2}
 """Resistivity constants K [ohm-cmil/ft] at 75 C for the K-factor method (common practice:
@@ -55,6 +70,46 @@ def effective_z(r_ohm_per_kft: float, x_ohm_per_kft: float, pf: float) -> float:
     if not (0.0 < pf <= 1.0):
         raise ValueError(f"power factor must be above 0 and at most 1, not {pf}")
     return r_ohm_per_kft * pf + x_ohm_per_kft * math.sqrt(max(0.0, 1.0 - pf * pf))
+
+
+def shifted_z(r_ohm_per_kft: float, x_ohm_per_kft: float, pf: float, shift_deg: float) -> float:
+    """Effective impedance [ohm/kft] for a drop phasor shifted ``shift_deg`` from the load
+    current, the worse of the two directions: max over +-shift of R cos(theta -+ s) +
+    XL sin(theta -+ s), theta = arccos(pf). ``shift_deg`` 0 is ``effective_z``."""
+    if not (0.0 < pf <= 1.0):
+        raise ValueError(f"power factor must be above 0 and at most 1, not {pf}")
+    theta = math.acos(pf)
+    s = math.radians(shift_deg)
+    return max(r_ohm_per_kft * math.cos(theta - a) + x_ohm_per_kft * math.sin(theta - a)
+               for a in (s, -s))
+
+
+INTERPOLATED_SIZES: dict[str, tuple[str, str]] = {
+    "700 kcmil": ("600 kcmil", "750 kcmil"),
+    "800 kcmil": ("750 kcmil", "1000 kcmil"),
+    "900 kcmil": ("750 kcmil", "1000 kcmil"),
+}
+"""Sizes NEC Ch. 9 Table 9 skips, and the printed rows ``table9_rx`` interpolates between."""
+
+
+def table9_rx(size: str, material: str, family: str) -> tuple[float, float]:
+    """AC resistance at 75 C and reactance [ohm/kft] of one conductor in a raceway ``family``,
+    NEC Ch. 9 Table 9; for 700, 800 and 900 kcmil (not in the table) interpolated as the module
+    docstring says. Raises ``TableLookupError`` for a size outside the table otherwise."""
+    size = canonical(size)
+    pair = INTERPOLATED_SIZES.get(size)
+    if pair is None:
+        return impedance.ac_resistance(size, material, family), impedance.reactance(size, family)
+    lo, hi = pair
+    frac = ((conductors.circular_mils(size) - conductors.circular_mils(lo))
+            / (conductors.circular_mils(hi) - conductors.circular_mils(lo)))
+
+    def ratio(s: str) -> float:
+        return impedance.ac_resistance(s, material, family) / conductors.dc_resistance(s, material)
+
+    r = conductors.dc_resistance(size, material) * (ratio(lo) + frac * (ratio(hi) - ratio(lo)))
+    x_lo, x_hi = impedance.reactance(lo, family), impedance.reactance(hi, family)
+    return r, x_lo + frac * (x_hi - x_lo)
 
 
 def kfactor_z(k_ohm_cmil_per_ft: float, cmil: float) -> float:
@@ -126,7 +181,7 @@ def conductor_z(size: str, material: str, method: str, *, pf: float = 0.85,
     ------
     gaugewalk.tables.errors.TableLookupError
         A size outside the table the method needs (Table 9 covers 14 AWG Cu / 12 AWG Al to
-        1000 kcmil and skips 700, 800 and 900 kcmil).
+        1000 kcmil; 700, 800 and 900 kcmil are interpolated, ``table9_rx``).
     """
     if method == "dc":
         return conductors.dc_resistance(size, material, stranded=stranded, temp_c=temp_c)
@@ -135,8 +190,8 @@ def conductor_z(size: str, material: str, method: str, *, pf: float = 0.85,
     if method == "ac":
         if family is None:
             raise ValueError("the AC method needs the raceway family (steel, pvc or aluminum)")
-        r = temperature_corrected(impedance.ac_resistance(size, material, family),
-                                  conductors.ALPHA[material], temp_c)
-        return effective_z(r, impedance.reactance(size, family), pf)
+        r75, x = table9_rx(size, material, family)
+        r = temperature_corrected(r75, conductors.ALPHA[material], temp_c)
+        return effective_z(r, x, pf)
     raise ValueError(f"unknown drop method '{method}'; use {', '.join(METHODS)}")
 

@@ -188,12 +188,36 @@ def test_specs_that_cannot_be_evaluated_raise_a_sizing_error(field, value):
         evaluate(replace(spec(amps=20), **{field: value}))
 
 
-def test_sizes_table_9_lacks_are_skipped_by_the_ac_method_or_fall_back_to_table_8():
-    # NEC Ch. 9 Table 9 lists no 700, 800 or 900 kcmil: a fixed 700 kcmil gets the Table 8 DC
-    # resistance (0.0184 ohm/kft Cu at 75 C) and says so
-    r = evaluate(spec(circuit=C480_3, amps=400, length_ft=100, size="700 kcmil", method="ac"))
+def test_700_kcmil_by_the_ac_method_lands_between_the_600_and_750_kcmil_table_9_drops():
+    # NEC Ch. 9 Table 9 lists no 700, 800 or 900 kcmil. 450 A, 400 ft, 480 V 3-phase, Cu in steel
+    # conduit (RMC), pf 0.85 (the job default):
+    #   600 kcmil: R 0.025, XL 0.048 ohm/kft -> Ze = 0.025 x 0.85 + 0.048 x 0.5268 = 0.04654
+    #   750 kcmil: R 0.021, XL 0.048         -> Ze = 0.021 x 0.85 + 0.048 x 0.5268 = 0.04314
+    #   VD = sqrt(3) x 450 x Ze x 400 / 1000: 14.51 V and 13.45 V.
+    # 700 kcmil by the interpolation of gaugewalk.model.engine.drop: Table 8 DC R 0.0184
+    # (NEC Ch. 9 Table 8, Cu stranded 75 C) x the AC/DC ratio interpolated in circular mils
+    # between 0.025/0.0214 and 0.021/0.0171 (2/3 of the way is 100 of 150 kcmil):
+    #   ratio = 1.1682 + (100/150)(1.2281 - 1.1682) = 1.2082 -> R = 0.02223; XL 0.048
+    #   Ze = 0.02223 x 0.85 + 0.048 x 0.5268 = 0.04418 -> VD = 13.77 V
+    r = evaluate(spec(circuit=C480_3, amps=450, length_ft=400, raceway="RMC"))
+    assert r.size == "700 kcmil" and r.method == "ac"
+    assert any("Table 9 lists no Cu 700 kcmil" in n for n in r.notes)
+    sin = math.sqrt(1 - 0.85 ** 2)
+    at_600 = math.sqrt(3) * 450 * (0.025 * 0.85 + 0.048 * sin) * 400 / 1000
+    at_750 = math.sqrt(3) * 450 * (0.021 * 0.85 + 0.048 * sin) * 400 / 1000
+    assert at_750 < r.voltage_drop_v < at_600
+    ratio = 0.025 / 0.0214 + 100 / 150 * (0.021 / 0.0171 - 0.025 / 0.0214)
+    by_hand = math.sqrt(3) * 450 * (0.0184 * ratio * 0.85 + 0.048 * sin) * 400 / 1000
+    assert r.voltage_drop_v == pytest.approx(by_hand, rel=1e-9)
+    assert r.voltage_drop_v == pytest.approx(13.77, abs=0.01)
+
+
+def test_sizes_past_table_9_fall_back_to_table_8_resistance_and_say_so():
+    # NEC Ch. 9 Table 9 ends at 1000 kcmil: a fixed 1250 kcmil gets the Table 8 DC resistance
+    # (0.0103 ohm/kft Cu at 75 C) and says so
+    r = evaluate(spec(circuit=C480_3, amps=400, length_ft=100, size="1250 kcmil", method="ac"))
     assert r.method == "dc" and any("Table 9 lists no" in n for n in r.notes)
-    assert r.voltage_drop_v == pytest.approx(math.sqrt(3) * 400 * 100 * 0.0184 / 1000, rel=1e-9)
+    assert r.voltage_drop_v == pytest.approx(math.sqrt(3) * 400 * 100 * 0.0103 / 1000, rel=1e-9)
 
 
 def test_the_engine_uses_table_9_impedance_at_the_runs_power_factor():

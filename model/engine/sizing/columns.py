@@ -8,8 +8,9 @@ runs alike share the work.
   ampacity (110.14(C)(1)), the insulation-column ampacity after corrections (310.15(B)(1),
   (C)(1)), the allowable ampacity (the smaller), and the largest device that protects it
   (240.4(B), (C), and (D)).
-- ``z_table(material, method, family, pf, temp_c, stranded)``: impedance per conductor for the
-  drop method [ohm/kft] (``gaugewalk.model.engine.drop``; Ch. 9 Tables 8 and 9).
+- ``z_table(material, method, family, pf, temp_c, stranded, shift_deg)``: impedance per
+  conductor for the drop method [ohm/kft] (``gaugewalk.model.engine.drop``; Ch. 9 Tables 8 and
+  9, 700-900 kcmil interpolated); ``rx_of(...)``: R and XL of one size.
 - ``setting(...) -> Setting``: what follows from the device, the insulation and the
   installation: the terminal column (110.14(C)(1)), the correction factor (310.15(B)(1),
   (C)(1)), the raceway and the impedance column.
@@ -17,14 +18,20 @@ runs alike share the work.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 from functools import lru_cache
 
-from gaugewalk.model.engine.drop import conductor_z, effective_z, temperature_corrected
+from gaugewalk.model.engine.drop import (
+    conductor_z,
+    effective_z,
+    shifted_z,
+    table9_rx,
+    temperature_corrected,
+)
 from gaugewalk.model.engine.sizing.currents import next_rating
 from gaugewalk.model.engine.sizing.raceway import resolve_raceway
 from gaugewalk.tables.conductor import ampacity as t_amp
-from gaugewalk.tables.conductor import impedance as t_imp
 from gaugewalk.tables.conductor import properties as t_cond
 from gaugewalk.tables.conductor.sizes import SIZES
 from gaugewalk.tables.errors import TableLookupError
@@ -115,9 +122,8 @@ def _rx_table(material: str, method: str, family: str, temp_c: float,
     for s in material_table(material).sizes:
         try:
             if method == "ac":
-                r = temperature_corrected(t_imp.ac_resistance(s, material, family),
-                                          t_cond.ALPHA[material], temp_c)
-                out.append((r, t_imp.reactance(s, family)))
+                r75, x = table9_rx(s, material, family)
+                out.append((temperature_corrected(r75, t_cond.ALPHA[material], temp_c), x))
             else:
                 out.append((conductor_z(s, material, method, temp_c=temp_c, stranded=stranded),
                             0.0))
@@ -128,13 +134,25 @@ def _rx_table(material: str, method: str, family: str, temp_c: float,
 
 @lru_cache(maxsize=4096)
 def z_table(material: str, method: str, family: str, pf: float, temp_c: float,
-            stranded: bool) -> tuple[float | None, ...]:
+            stranded: bool, shift_deg: float = 0.0) -> tuple[float | None, ...]:
     """Impedance per conductor [ohm/kft] for each size (``gaugewalk.model.engine.drop.conductor_z``,
-    from cached R and XL columns); None where the method's table lacks the size."""
+    from cached R and XL columns); None where the method's table lacks the size. ``shift_deg``:
+    the drop phasor's shift from the load current (``Circuit.drop_angle_deg``; ``drop.shifted_z``,
+    R cos(shift) for the methods without reactance)."""
     rx = _rx_table(material, method, family, temp_c, stranded)
     if method != "ac":
-        return tuple(None if v is None else v[0] for v in rx)
+        k = math.cos(math.radians(shift_deg))
+        return tuple(None if v is None else v[0] * k for v in rx)
+    if shift_deg:
+        return tuple(None if v is None else shifted_z(v[0], v[1], pf, shift_deg) for v in rx)
     return tuple(None if v is None else effective_z(v[0], v[1], pf) for v in rx)
+
+
+def rx_of(material: str, method: str, family: str, temp_c: float, stranded: bool,
+          i: int) -> tuple[float, float] | None:
+    """(R at ``temp_c``, XL) [ohm/kft] of the size at index ``i`` for the drop method (XL 0 for
+    the DC and K-factor methods); None where the method's table lacks the size."""
+    return _rx_table(material, method, family, temp_c, stranded)[i]
 
 
 @lru_cache(maxsize=256)
@@ -171,14 +189,17 @@ class Setting:
 @lru_cache(maxsize=4096)
 def setting(material: str, insulation_text: str, terminal_temp: int | None, ocpd: int,
             ambient_c: float, n_ccc: int, raceway: str, method: str, pf: float,
-            conductor_temp_c: float, stranded: bool, sets: int, distributed: bool) -> Setting:
+            conductor_temp_c: float, stranded: bool, sets: int, distributed: bool,
+            shift_deg: float = 0.0, terminal_why: str | None = None) -> Setting:
     """Terminal column (NEC 110.14(C)(1)), corrections (310.15(B)(1), (C)(1)), the raceway and
-    the impedance column of one installation; cached so that runs alike share the work."""
+    the impedance column of one installation; cached so that runs alike share the work.
+    ``terminal_why``: the reason for a ``terminal_temp`` the load's rule set (default: "terminals
+    as given")."""
     notes: list[str] = []
     insulation, ins_col = _insulation(insulation_text)
     if terminal_temp is not None:
         term_col = terminal_temp
-        term_why = "terminals as given"
+        term_why = terminal_why or "terminals as given"
     elif ocpd <= 100:
         term_col, term_why = 60, f"circuit rated {ocpd} A, 100 A or less"
     else:
@@ -197,7 +218,7 @@ def setting(material: str, insulation_text: str, terminal_temp: int | None, ocpd
     rtype, family, race_note = resolve_raceway(raceway)
     if race_note:
         notes.append(race_note)
-    z = z_table(material, method, family, pf, conductor_temp_c, stranded)
+    z = z_table(material, method, family, pf, conductor_temp_c, stranded, shift_deg)
     if distributed:
         notes.append("load spread along the run: whole load at half the length (common practice)")
     cols = ampacity_columns(material, ins_col, term_col, factor, sets)
