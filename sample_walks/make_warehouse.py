@@ -153,7 +153,7 @@ def build() -> Job:
         ("Instant water heater", (9, "kW", 1.0), "LL", False),
     ):
         rid = f"L1B-{len([r for r in runs if r.from_ == 'L1B']) + 1:02d}"
-        add(rid, "L1B", what, route(15, 30), load=load, connection=conn, continuous=cont,
+        add(rid, "L1B", what, route(15, 30), load=load, connection=conn, continuous=cont or None,
             bends=rng.randint(1, 4))
     # L2 dock panel
     for door in range(1, 25):

@@ -5,6 +5,12 @@ is wired to it (``"LN"`` line-to-neutral, ``"3P"`` three-phase...). ``resolve_ci
 system can supply the connection and gives the voltage the drop is measured against, the drop
 multiplier, the conductors run and whether the neutral counts as current-carrying
 (NEC 310.15(E)).
+
+Besides wyes and the 120/240 V single-phase service: the 240/120 V three-phase 4-wire
+high-leg delta (phase B, about 208 V to neutral, is marked orange, NEC 110.15, and never serves a
+120 V load: line-to-neutral loads and two-leg multiwire circuits go on A and C), and the
+120/208 V single-phase 3-wire system (two phases of a wye and the neutral, as apartment panels
+are fed: the neutral of a multiwire circuit on it carries about the phase current).
 """
 
 from __future__ import annotations
@@ -30,6 +36,9 @@ class System:
     line_to_neutral_v: float | None
     phases: int
     wires: int
+    wye: bool = False        # its hots are phases of a wye: two of them share a neutral that
+                             # carries about the phase current (NEC 310.15(E)(2))
+    high_leg: bool = False   # a 4-wire delta: phase B is the high leg (NEC 110.15)
 
     @property
     def has_neutral(self) -> bool:
@@ -47,8 +56,10 @@ SYSTEMS: dict[str, System] = {
         System("120V 1ph 2w", 120.0, 120.0, 1, 2),
         System("277V 1ph 2w", 277.0, 277.0, 1, 2),
         System("120/240V 1ph 3w", 240.0, 120.0, 1, 3),
-        System("208Y/120V 3ph 4w", 208.0, 120.0, 3, 4),
-        System("480Y/277V 3ph 4w", 480.0, 277.0, 3, 4),
+        System("120/208V 1ph 3w", 208.0, 120.0, 1, 3, wye=True),
+        System("208Y/120V 3ph 4w", 208.0, 120.0, 3, 4, wye=True),
+        System("480Y/277V 3ph 4w", 480.0, 277.0, 3, 4, wye=True),
+        System("240/120V 3ph 4w delta", 240.0, 120.0, 3, 4, high_leg=True),
         System("240V 3ph 3w", 240.0, None, 3, 3),
         System("480V 3ph 3w", 480.0, None, 3, 3),
     )
@@ -57,6 +68,9 @@ SYSTEMS: dict[str, System] = {
 
 LINE_TO_NEUTRAL_VOLTS = frozenset({120.0, 127.0, 277.0, 347.0})
 """Voltages that ``circuit_from_volts`` treats as hot-and-neutral circuits [V] (common practice)."""
+
+
+_DELTA_WORDS = re.compile(r"\b(?:high\s+leg|delta)\b")
 
 
 class CircuitError(ValueError):
@@ -74,8 +88,10 @@ def parse_system(text: str) -> str:
     """Read a supply system as people write it and return its id in ``SYSTEMS``.
 
     Accepts ``208Y/120``, ``480y/277v``, ``120/240``, ``208/120 3ph``, ``480V 3ph 3w``,
-    ``120v``, ``277 V 1ph``. A bare ``240`` or ``480`` is ambiguous (single-phase or 3-wire
-    three-phase?) unless the phase count is given.
+    ``120v``, ``277 V 1ph``, ``240/120 delta`` or ``240/120 3ph`` (the high-leg delta),
+    ``120/208 1ph`` (two phases of a wye). A bare ``240`` or ``480`` is ambiguous (single-phase or
+    3-wire three-phase?) unless the phase count is given; ``120/240`` alone is the single-phase
+    service and ``120/208`` alone the three-phase wye.
 
     Raises
     ------
@@ -85,6 +101,8 @@ def parse_system(text: str) -> str:
     raw = " ".join(str(text).strip().lower().replace("-", " ").split())
     if raw in (s.lower() for s in SYSTEMS):
         return next(s for s in SYSTEMS if s.lower() == raw)
+    delta = bool(_DELTA_WORDS.search(raw))
+    raw = " ".join(_DELTA_WORDS.sub(" ", raw).split())
     m = _SYSTEM_RE.match(raw)
     known = ", ".join(SYSTEMS)
     if not m:
@@ -104,7 +122,7 @@ def parse_system(text: str) -> str:
             continue
         if v2 is None and sys_.hots >= 2 and sys_.has_neutral:
             continue  # "208" alone is not "208Y/120": the neutral must be written
-        if v2 is None and sys_.phases == 3 and ph is None and wires is None:
+        if v2 is None and sys_.phases == 3 and ph is None and wires is None and not delta:
             continue  # a bare "240" or "480" does not say three-phase
         if m["y"] and sys_.phases != 3:
             continue
@@ -112,6 +130,12 @@ def parse_system(text: str) -> str:
             continue
         if wires is not None and sys_.wires != wires:
             continue
+        if delta and (sys_.wye or sys_.phases != 3):
+            continue
+        if sys_.high_leg and not (delta or ph == 3):
+            continue  # "120/240" alone is the single-phase service
+        if sys_.wye and sys_.phases == 1 and ph != 1 and wires != 3:
+            continue  # "120/208" alone is the three-phase wye
         candidates.append(sys_.id)
     if len(candidates) == 1:
         return candidates[0]
@@ -166,7 +190,8 @@ def resolve_circuit(system_id: str, connection: str, *, nonlinear: bool = False)
             f"'{connection}' is not a load connection; use one of: {', '.join(CONNECTIONS)}"
         )
     ll, ln = sys_.line_to_line_v, sys_.line_to_neutral_v
-    wye = sys_.phases == 3 and sys_.has_neutral
+    wye = sys_.wye
+    high_leg = _HIGH_LEG_NOTE if sys_.high_leg else ()
 
     def need_neutral(what: str) -> None:
         if not sys_.has_neutral:
@@ -184,7 +209,8 @@ def resolve_circuit(system_id: str, connection: str, *, nonlinear: bool = False)
 
     if conn == "LN":
         need_neutral("line-to-neutral")
-        return Circuit(f"{ln:g} V line-to-neutral", ln, 1, ln, 2.0, 1, True, True)
+        return Circuit(f"{ln:g} V line-to-neutral", ln, 1, ln, 2.0, 1, True, True,
+                       notes=high_leg)
     if conn == "LL":
         need_two_hots("line-to-line")
         return Circuit(f"{ll:g} V line-to-line", ll, 1, ll, 2.0, 2, False, False)
@@ -192,21 +218,45 @@ def resolve_circuit(system_id: str, connection: str, *, nonlinear: bool = False)
         need_two_hots("line-to-line-and-neutral")
         need_neutral("line-to-line-and-neutral")
         # 310.15(E)(2): two phases and the neutral of a wye: the neutral carries about the same
-        # current as the phases. On 120/240 V 1ph 3w it carries only the unbalance: 310.15(E)(1).
-        return Circuit(f"{ll:g} V line-to-line with neutral", ll, 1, ll, 2.0, 2, True, wye)
-    if conn == "MW":
+        # current as the phases. On 120/240 V 1ph 3w (and A-C of a high-leg delta) it carries
+        # only the unbalance: 310.15(E)(1).
+        return Circuit(f"{ll:g} V line-to-line with neutral", ll, 1, ll, 2.0, 2, True, wye,
+                       notes=high_leg)
+    if conn in ("MW", "MW2"):
         need_neutral("multiwire")
         need_two_hots("multiwire")
-        if sys_.phases == 1:
-            return Circuit(f"{ln:g} V multiwire, 2 legs", ln, 1, ll, 1.0, 2, True, False)
-        return Circuit(f"{ln:g} V multiwire, 3 legs", ln, 3, ll, 1.0, 3, True, nonlinear)
+        assert ln is not None  # need_neutral
+        if wye and (conn == "MW2" or sys_.phases == 1):
+            return Circuit(f"{ln:g} V multiwire, 2 circuits on a wye", ln, 1, 2 * ln, SQRT3, 2,
+                           True, True, 30.0, _TWO_LEGS_OF_A_WYE)
+        if sys_.phases == 1 or sys_.high_leg or conn == "MW2":
+            return Circuit(f"{ln:g} V multiwire, 2 legs", ln, 1, ll, 1.0, 2, True, False,
+                           notes=(_SIMULTANEOUS,) + high_leg)
+        return Circuit(f"{ln:g} V multiwire, 3 legs", ln, 3, ll, 1.0, 3, True, nonlinear,
+                       notes=(_SIMULTANEOUS,))
     if conn == "3P":
         need_three_phase("three-phase")
-        return Circuit(f"{ll:g} V 3-phase", ll, 3, ll, SQRT3, 3, False, False)
+        return Circuit(f"{ll:g} V 3-phase", ll, 3, ll, SQRT3, 3, False, False, notes=high_leg)
     # 3PN
     need_three_phase("three-phase 4-wire")
     need_neutral("three-phase 4-wire")
+    if sys_.high_leg:
+        # the neutral carries only the unbalance of the 120 V loads on A and C: 310.15(E)(1)
+        return Circuit(f"{ll:g}/{ln:g} V 3-phase 4-wire delta", ll, 3, ll, SQRT3, 3, True,
+                       False, notes=high_leg)
     return Circuit(f"{ll:g}Y/{ln:g} V 3-phase 4-wire", ll, 3, ll, SQRT3, 3, True, nonlinear)
+
+
+_SIMULTANEOUS = ("NEC 210.4(B): the hots of a multiwire branch circuit are opened together "
+                 "(a multipole breaker or identified handle ties)")
+_TWO_LEGS_OF_A_WYE = (
+    "two circuits on two phases of a wye share the neutral, which carries about the phase "
+    "current and counts as current-carrying (NEC 310.15(E)(2)); the drop of a leg is "
+    "sqrt(3) I Z, 30 degrees off its current (the worse leg taken)",
+    _SIMULTANEOUS,
+)
+_HIGH_LEG_NOTE = ("NEC 110.15: phase B of the 4-wire delta is the high leg (about 208 V to "
+                  "neutral), marked orange; 120 V loads go on phases A and C",)
 
 
 def circuit_from_volts(volts: float, phase: int = 1) -> Circuit:

@@ -10,7 +10,14 @@ from __future__ import annotations
 from dataclasses import asdict, dataclass, field
 from typing import Literal
 
-from gaugewalk.model.engine.vocabulary import Material, Method
+from gaugewalk.model.engine.vocabulary import (
+    LoadKind,
+    Material,
+    Method,
+    MotorDesign,
+    MotorDevice,
+    WelderType,
+)
 
 
 @dataclass(frozen=True)
@@ -21,6 +28,10 @@ class Circuit:
     ``drop_factor`` multiplies I*R*L: 2 for a two-wire single-phase circuit, sqrt(3) for a
     three-phase circuit, 1 for each leg of a balanced multiwire circuit whose neutral carries no
     current (its percent is then against the line-to-neutral voltage).
+    ``drop_angle_deg``: where the current the drop follows is not in phase with the load current
+    (a leg of a two-circuit multiwire on a wye, whose neutral carries the other leg's current
+    too: the drop phasor is sqrt(3) I at 30 degrees either side), the drop is taken at the load's
+    angle plus and minus this, the worse of the two (``gaugewalk.model.engine.drop``).
     """
 
     label: str                 # e.g. "208 V 3-phase", "120 V line-to-neutral"
@@ -31,6 +42,31 @@ class Circuit:
     hots: int                  # ungrounded conductors
     neutral: bool              # a grounded (neutral) conductor is run
     neutral_is_ccc: bool       # the neutral counts as current-carrying (NEC 310.15(E))
+    drop_angle_deg: float = 0.0  # [deg] shift of the drop phasor from the load current
+    notes: tuple[str, ...] = ()  # what the connection implies (NEC 210.4(B), 110.15)
+
+
+@dataclass(frozen=True)
+class Equipment:
+    """What a load is, with the nameplate values its kind's rules read (NEC Articles 422, 424,
+    430, 440, 625, 630); see ``gaugewalk.model.engine.sizing.kinds``. None of a field: not given.
+    Units in brackets."""
+
+    kind: LoadKind = "general"
+    hp: float | None = None                 # [hp] motor rating (Tables 430.248, 430.250)
+    motor_device: MotorDevice = "inverse-time"  # Table 430.52(C)(1) column
+    code_letter: str | None = None          # Table 430.7(B) locked-rotor code letter
+    design: MotorDesign = "B"               # NEMA design letter (Table 430.251(B))
+    mca_a: float | None = None              # [A] nameplate minimum circuit ampacity (440.4(B))
+    mocp_a: float | None = None             # [A] nameplate maximum overcurrent protection
+    i1eff_a: float | None = None            # [A] welder effective primary current (630.11(A))
+    i1max_a: float | None = None            # [A] welder maximum primary current (630.12(A))
+    rated_a: float | None = None            # [A] welder rated primary current
+    duty_cycle_pct: float | None = None     # [%] welder duty cycle (Table 630.11(A))
+    welder_type: WelderType = "nonmotor"    # Table 630.11(A) column
+    tank_gal: float | None = None           # [gal] water heater storage (422.13)
+    yokes: int | None = None                # receptacle yokes at 180 VA each (220.14(I))
+    continuous: bool | None = None          # the run's own say; None: the kind's default
 
 
 @dataclass(frozen=True)
@@ -64,6 +100,8 @@ class RunSpec:
     stranded: bool = True                  # stranded conductors (Ch. 9 Table 8 DC resistance)
     min_size: str | None = None            # smallest size the job allows (a job specification,
                                            # e.g. 12 AWG for power; common practice), None: no floor
+    equipment: Equipment | None = None     # the load's kind and nameplate; None: general
+    starting_drop_pct: float = 15.0        # [%] motor starting-drop target (common practice)
 
 
 @dataclass(frozen=True)
@@ -76,11 +114,12 @@ class RunResult:
     material: Material
     method: Method
     amps: float                    # [A] load current
-    design_amps: float             # [A] noncontinuous + 125% of continuous
+    design_amps: float             # [A] what the terminals must carry: noncontinuous + 125% of
+                                   # continuous, or the load kind's rule (430.22, 440.4(B)...)
     required_ampacity_a: float     # [A] what the conductors must carry after corrections
     ampacity_a: float              # [A] corrected, terminal-limited ampacity of all sets together
     min_ampacity_size: str         # smallest size meeting ampacity alone
-    ocpd_a: int                    # [A] overcurrent device rating (NEC 240.6(A))
+    ocpd_a: int                    # [A] the device the load's rule asked for (or the one fixed)
     voltage_drop_v: float          # [V]
     voltage_drop_pct: float        # [%] of circuit.volts
     total_drop_pct: float          # [%] upstream_drop_pct + voltage_drop_pct
@@ -94,6 +133,11 @@ class RunResult:
     conductors: dict[str, int] = field(default_factory=dict)  # per set: {"hot": 3, "neutral": 1, "egc": 1}
     problems: tuple[str, ...] = ()
     notes: tuple[str, ...] = ()    # rules applied, e.g. "NEC 240.4(D): 12 AWG Cu limited to 20 A"
+    load_kind: str = "general"     # the load's kind (``gaugewalk.model.engine.vocabulary``)
+    kind_rule: str = ""            # the sections that sized it, e.g. "NEC 430.22, 430.52(C)(1)"
+    flc_a: float | None = None     # [A] motor full-load current used (Table 430.248 or 430.250)
+    locked_rotor_a: float | None = None     # [A] motor locked-rotor current used for starting
+    starting_drop_pct: float | None = None  # [%] drop while the motor starts (this run)
 
     @property
     def ok(self) -> bool:

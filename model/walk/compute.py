@@ -32,6 +32,7 @@ from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import upstream_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection
+from gaugewalk.model.walk.equipment import load_facts
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
     FeederLoad,
@@ -134,10 +135,15 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
     pf = d.pf
     continuous_amps = None
     load = run.load
-    if load is not None:
+    equipment = None
+    continuous = bool(run.continuous)
+    if load is not None and load.kind == "general":
         if load.pf is not None:
             pf = load.pf
         amps = _load_amps(load.value, load.unit, circuit, pf)
+    elif load is not None:
+        facts = load_facts(run, circuit, pf)
+        amps, pf, continuous, equipment = facts.amps, facts.pf, facts.continuous, facts.equipment
     elif feeder:
         if feeder_load is None:
             feeder_load = _sum_below(job, run.to)
@@ -160,7 +166,7 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
     values["circuit"] = circuit
     values["amps"] = amps
     values["length_ft"] = run.length_ft
-    values["continuous"] = run.continuous if continuous_amps is None else False
+    values["continuous"] = continuous if continuous_amps is None else False
     values["continuous_amps"] = continuous_amps
     values["distributed"] = run.distributed
     values["material"] = run.material or d.material
@@ -180,6 +186,8 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
     values["upstream_drop_pct"] = upstream_drop_pct
     values["max_total_drop_pct"] = d.total_drop_pct
     values["min_size"] = d.min_size
+    values["equipment"] = equipment
+    values["starting_drop_pct"] = d.starting_drop_pct
     _set_attr(spec, "__dict__", values)
     return spec
 

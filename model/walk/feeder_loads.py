@@ -10,7 +10,8 @@ Public API:
 
 - ``FeederLoad(va, continuous_va, watts)`` [VA, VA, W]; ``ZERO``; ``add(a, b, sign=1.0)``.
 - ``va_of(value, unit, circuit, pf)`` [VA]; ``amps_of_va(va, circuit)`` [A].
-- ``load_of(run, circuit, default_pf)``: a run's own load, or None (a feeder summing its panel).
+- ``load_of(run, circuit, default_pf)``: a run's own load, or None (a feeder summing its panel);
+  a load of a kind (motor, HVAC...) as ``gaugewalk.model.walk.equipment.feeder_share`` reads it.
 - ``sum_loads(graph, circuits, default_pf, set_run_load, loads, connected_va)``: bottom-up over
   the graph.
 - ``carry_up(graph, source_id, delta, loads, connected_va, set_run_load)``: a change of load at
@@ -24,7 +25,8 @@ from collections.abc import Callable
 from dataclasses import dataclass
 
 from gaugewalk.model.engine.contract import Circuit
-from gaugewalk.model.engine.loads import UNITS
+from gaugewalk.model.engine.loads import UNITS, LoadError
+from gaugewalk.model.walk.equipment import feeder_share
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Run
 
@@ -77,10 +79,17 @@ def amps_of_va(va: float, circuit: Circuit) -> float:
 
 
 def load_of(run: Run, circuit: Circuit, default_pf: float) -> FeederLoad | None:
-    """A run's own load as VA, continuous VA and W on its circuit; None when it gives none."""
+    """A run's own load as VA, continuous VA and W on its circuit; None when it gives none (or
+    its kind cannot be read on the circuit: the run itself says why). A load of a kind other
+    than general is read by ``gaugewalk.model.walk.equipment.feeder_share``."""
     load = run.load
     if load is None:
         return None
+    if load.kind != "general":
+        try:
+            return feeder_load(*feeder_share(run, circuit, default_pf))
+        except LoadError:
+            return None
     pf = load.pf if load.pf is not None else default_pf
     va = va_of(load.value, load.unit, circuit, pf)
     return feeder_load(va, va if run.continuous else 0.0, va * pf)

@@ -9,13 +9,15 @@ Public API (other modules code against these names):
   ``job.effective(run, name)`` (a per-run override or the job default).
 - ``JobHeader``: name, site, walked_on, walked_by, notes.
 - ``Defaults``: conductor material, insulation, raceway, terminal temperature, ambient, drop
-  targets (branch, feeder, total), drop method, power factor, conductor temperature, slack per end,
+  targets (branch, feeder, total, motor starting), drop method, power factor, conductor
+  temperature, slack per end,
   waste allowance, colour scheme.
 - ``Source``: id, kind (``service`` | ``switchboard`` | ``panel`` | ``transformer``), system (for a
   transformer: its secondary), name, kva, rating_a, notes. What feeds a source is the run whose
   ``to`` is the source's id (a service is fed by the utility).
 - ``Run``: id, ``from_`` (``from`` in the file), to, length (as typed) and ``length_ft``, segments,
-  load (``Load``: value, unit, pf), continuous, distributed, connection, sets, size, ocpd_a,
+  load (``Load``: value, unit, pf, kind and the nameplate values of its kind), continuous (None:
+  as the kind says), distributed, connection, sets, size, ocpd_a,
   per-run overrides of the defaults (None: inherit), bends, measured_on, notes.
 - ``SCHEMA_VERSION``, ``OVERRIDABLE`` (run fields that fall back to defaults). The words the
   fields accept are in ``gaugewalk.model.engine.vocabulary`` and ``gaugewalk.model.walk.vocabulary``.
@@ -41,6 +43,7 @@ from pydantic import (
     ConfigDict,
     Field,
     PrivateAttr,
+    ValidationInfo,
     field_validator,
     model_validator,
 )
@@ -48,18 +51,26 @@ from pydantic import (
 from gaugewalk.model.engine.circuits import CircuitError, parse_system
 from gaugewalk.model.engine.lengths import LengthError
 from gaugewalk.model.engine.lengths import parse_length as _parse_length
+from gaugewalk.model.engine.sizing.kinds import continuous_refusal, kind_continuous
 from gaugewalk.model.engine.vocabulary import (
+    CODE_LETTERS,
     MAX_SETS,
     MIN_SETS,
     Connection,
+    LoadKind,
     LoadUnit,
     Material,
     Method,
+    MotorDesign,
+    MotorDevice,
     TerminalTemp,
+    WelderType,
 )
 from gaugewalk.model.walk.vocabulary import SourceKind
 from gaugewalk.tables.conductor.ampacity import parse_insulation
 from gaugewalk.tables.conductor.sizes import parse_size
+from gaugewalk.tables.equipment.horsepower import hp_text, parse_hp
+from gaugewalk.tables.equipment.motors import horsepowers
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.raceway.fill import parse_raceway
 from gaugewalk.tables.raceway.install import PULL_EVERY_FT
@@ -188,6 +199,9 @@ class Defaults(_Strict):
     """Power factor for loads that do not give one."""
     conductor_temp_c: float = Field(75.0, ge=20.0, le=150.0)
     """Conductor temperature for resistance [C] (Ch. 9 Table 8 note 2)."""
+    starting_drop_pct: float = Field(15.0, gt=0.0, le=50.0)
+    """Drop target while a motor starts [%], at its locked-rotor current (common practice:
+    about 10 to 15 %; no code rule sets one)."""
     min_size: SizeName | None = None
     """Smallest conductor the job allows for power, e.g. ``12 AWG`` (a job specification; common
     practice on commercial work); None: the smallest the rules allow. Upsizing to it enlarges the
@@ -210,15 +224,122 @@ class Defaults(_Strict):
 
 
 
-class Load(_Strict):
-    """A load as the walker wrote it: a value and a unit, with a power factor for watts."""
+_KIND_KEYS: dict[str, tuple[str, ...]] = {
+    "motor_device": ("motor",), "code_letter": ("motor",), "design": ("motor",),
+    "mca": ("hvac",), "mocp": ("hvac",),
+    "i1eff": ("welder",), "i1max": ("welder",), "rated_a": ("welder",),
+    "duty_cycle_pct": ("welder",), "welder_type": ("welder",),
+    "tank_gal": ("water-heater",), "yokes": ("receptacle",),
+}
+"""Each nameplate key of ``[run.load]`` and the kinds that read it."""
 
-    value: float = Field(gt=0.0, le=1e7)
-    """The load in ``unit``."""
-    unit: LoadUnit
-    """``A``, ``VA``, ``kVA``, ``W`` or ``kW``."""
+
+class Load(_Strict):
+    """A load as the walker wrote it: a value and a unit (a power factor for watts), what kind of
+    load it is, and the nameplate values its kind reads (``gaugewalk.model.engine.sizing.kinds``).
+
+    A load in ``hp`` is a motor (``kind`` may be left out). HVAC equipment given its ``mca``, a
+    welder its ``i1eff`` or ``rated_a``, receptacles their ``yokes`` may leave ``value`` and
+    ``unit`` out; every other load gives both."""
+
+    value: float | None = Field(None, gt=0.0, le=1e7)
+    """The load in ``unit`` (a motor's horsepower in ``hp``)."""
+    unit: LoadUnit | None = None
+    """``A``, ``VA``, ``kVA``, ``W``, ``kW`` or ``hp``."""
     pf: float | None = Field(None, gt=0.0, le=1.0)
-    """Power factor; None: the job default. Used for W/kW and the AC drop method."""
+    """Power factor; None: the job default (1 for a water heater or space heater). Used for
+    W/kW and the AC drop method."""
+    kind: LoadKind = "general"
+    """What the load is: ``general``, ``motor``, ``hvac``, ``ev-charger``, ``water-heater``,
+    ``heater``, ``welder``, ``lighting`` or ``receptacle``; each brings its article's rules."""
+    motor_device: MotorDevice | None = None
+    """Motor branch short-circuit and ground-fault device (NEC Table 430.52(C)(1)):
+    ``inverse-time`` (None), ``dual-element``, ``nontime-delay`` or ``instantaneous``."""
+    code_letter: str | None = Field(None, min_length=1, max_length=1)
+    """Motor nameplate locked-rotor code letter, A to V (NEC Table 430.7(B)), for the starting
+    drop; None: Table 430.251(A)/(B) by horsepower."""
+    design: MotorDesign | None = None
+    """Motor NEMA design letter ``B`` (None), ``C`` or ``D``."""
+    mca: float | None = Field(None, gt=0.0, le=6000.0)
+    """HVAC nameplate minimum circuit ampacity [A] (NEC 440.4(B))."""
+    mocp: float | None = Field(None, gt=0.0, le=6000.0)
+    """HVAC nameplate maximum overcurrent protection [A] (NEC 440.4(B), 440.22)."""
+    i1eff: float | None = Field(None, gt=0.0, le=6000.0)
+    """Welder effective primary current from its rating plate [A] (NEC 630.11(A))."""
+    i1max: float | None = Field(None, gt=0.0, le=6000.0)
+    """Welder maximum primary current from its rating plate [A] (NEC 630.12(A))."""
+    rated_a: float | None = Field(None, gt=0.0, le=6000.0)
+    """Welder rated primary current [A], where I1eff is not given (NEC 630.11(A))."""
+    duty_cycle_pct: float | None = Field(None, gt=0.0, le=100.0)
+    """Welder duty cycle [%] (NEC Table 630.11(A)); None with ``rated_a``: 100 % taken."""
+    welder_type: WelderType | None = None
+    """``nonmotor`` (None: transformer or rectifier) or ``motor-generator`` (Table 630.11(A))."""
+    tank_gal: float | None = Field(None, gt=0.0, le=10_000.0)
+    """Water heater storage [gal]: 120 or less is continuous (NEC 422.13); None: taken so."""
+    yokes: int | None = Field(None, ge=1, le=1000)
+    """Receptacle yokes on the circuit, 180 VA each (NEC 220.14(I))."""
+
+    @model_validator(mode="before")
+    @classmethod
+    def _hp_is_a_motor(cls, data):
+        if isinstance(data, dict) and data.get("unit") == "hp" and "kind" not in data:
+            data = {**data, "kind": "motor"}
+        return data
+
+    @field_validator("kind")
+    @classmethod
+    def _kind_fits_unit(cls, value: str, info: ValidationInfo) -> str:
+        if info.data.get("unit") == "hp" and value != "motor":
+            raise ValueError(f"a load in hp is a motor, not {value}: set kind = \"motor\" or give "
+                             f"the load in A, VA or W")
+        return value
+
+    @field_validator(*_KIND_KEYS)
+    @classmethod
+    def _key_of_kind(cls, value, info: ValidationInfo):
+        kinds = _KIND_KEYS[str(info.field_name)]
+        kind = info.data.get("kind")
+        if value is not None and kind is not None and kind not in kinds:
+            raise ValueError(f"{info.field_name} is for a load of kind {' or '.join(kinds)}; this "
+                             f"load is {kind}")
+        if info.field_name == "code_letter" and value is not None:
+            letter = value.strip().upper()
+            if letter not in CODE_LETTERS:
+                raise ValueError(f"'{value}' is not a code letter of NEC Table 430.7(B); the "
+                                 f"letters are {', '.join(CODE_LETTERS)}")
+            return letter
+        return value
+
+    @model_validator(mode="after")
+    def _value_and_unit(self) -> Load:
+        if (self.value is None) != (self.unit is None):
+            raise ValueError("give the load's value and its unit together, e.g. 16A or 10hp")
+        if self.value is None and not self._nameplate_stands_in():
+            raise ValueError(_LOAD_NEEDED.get(self.kind, "the load needs a value and a unit "
+                                              "(16A, 1.8kVA, 5kW)"))
+        if self.unit == "hp":
+            try:
+                hp = parse_hp(self.value)
+            except TableLookupError as exc:
+                raise ValueError(str(exc)) from None
+            if hp not in _MOTOR_RATINGS:
+                raise ValueError(f"{hp_text(hp)} hp is not a rating of NEC Tables 430.248 and "
+                                 f"430.250; they list {', '.join(hp_text(h) for h in sorted(_MOTOR_RATINGS))} hp")
+        return self
+
+    def _nameplate_stands_in(self) -> bool:
+        return ((self.kind == "hvac" and self.mca is not None)
+                or (self.kind == "welder" and (self.i1eff is not None or self.rated_a is not None))
+                or (self.kind == "receptacle" and self.yokes is not None))
+
+
+_LOAD_NEEDED = {
+    "hvac": "give the load, or the nameplate's mca (and mocp)",
+    "welder": "give the load, or the rating plate's i1eff (and i1max), or rated_a",
+    "receptacle": "give the load, or the number of yokes (180 VA each, NEC 220.14(I))",
+}
+_MOTOR_RATINGS = frozenset(horsepowers(1)) | frozenset(horsepowers(3))
+"""[hp] the ratings of NEC Tables 430.248 and 430.250."""
 
 
 class Segment(_Strict):
@@ -309,8 +430,10 @@ class Run(_Strict):
     """Optional stretches of the route with notes; they must add up to ``length``."""
     load: Load | None = None
     """The load; required on a branch, optional on a feeder (default: what its panel serves)."""
-    continuous: bool = False
-    """Load runs 3 h or more: sized at 125 % (NEC 210.19(A)(1), 215.2(A)(1))."""
+    continuous: bool | None = None
+    """Load runs 3 h or more: sized at 125 % (NEC 210.19(A)(1), 215.2(A)(1)); None: as the
+    load's kind says (EV chargers, water heaters and space heating continuous by their article,
+    lighting by common practice, other loads not)."""
     distributed: bool = False
     """Load spread evenly along the run rather than at its end (drop taken at half length)."""
     connection: Connection | None = None
@@ -351,6 +474,21 @@ class Run(_Strict):
     @classmethod
     def _from_is_id(cls, value: str) -> str:
         return _check_id(value)
+
+    @field_validator("continuous")
+    @classmethod
+    def _continuous_fits_kind(cls, value: bool | None, info: ValidationInfo) -> bool | None:
+        """Refused where the load's article says otherwise; kept as None where it is what the
+        kind says anyway (a default, left out of the file)."""
+        if value is None:
+            return None
+        load = info.data.get("load")
+        kind, tank = ("general", None) if not isinstance(load, Load) else (load.kind,
+                                                                            load.tank_gal)
+        refusal = continuous_refusal(kind, tank, value)
+        if refusal is not None:
+            raise ValueError(refusal)
+        return None if value == kind_continuous(kind, tank) else value
 
     @model_validator(mode="after")
     def _feet(self) -> Run:

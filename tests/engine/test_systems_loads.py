@@ -35,8 +35,9 @@ def test_systems_are_read_from_the_ways_people_write_them(text, system_id):
     assert parse_system(text) == system_id
 
 
-@pytest.mark.parametrize(("text", "words"), [("240", "120/240V 1ph 3w or 240V 3ph 3w"),
-                                              ("600/347", "use one of"), ("hello", "use one of")])
+@pytest.mark.parametrize(("text", "words"), [
+    ("240", "120/240V 1ph 3w or 240/120V 3ph 4w delta or 240V 3ph 3w"),
+    ("600/347", "use one of"), ("hello", "use one of")])
 def test_unknown_or_incomplete_systems_are_refused_with_the_choices(text, words):
     with pytest.raises(CircuitError, match=words):
         parse_system(text)

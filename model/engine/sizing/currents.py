@@ -13,12 +13,14 @@ article of their own covers:
   (240.4(B)-(D), in ``gaugewalk.model.engine.sizing.pick``).
 
 A kind of load with an article of its own (motors, Art. 430; air-conditioning and refrigerating
-equipment, Art. 440; electric vehicle supply equipment, Art. 625) is another ``LoadRule`` with
-its own design current and device; where its article lets the device exceed the conductor's
-ampacity (240.4(G)), the rule also says how the device limits the pick. ``evaluate`` asks the
-rule and picks the conductor from what it answers.
+equipment, Art. 440; electric vehicle supply equipment, Art. 625; welders, Art. 630...) is
+another ``LoadRule`` (``gaugewalk.model.engine.sizing.kinds``) with its own design current and
+device; where its article lets the device exceed the conductor's ampacity (240.4(G)), the rule
+also says how the device limits the pick (``Currents.protection``). ``evaluate`` asks the rule
+and picks the conductor from what it answers.
 
-Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``next_rating(amps)``.
+Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``next_rating(amps)``, the protection
+modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
 """
 
 from __future__ import annotations
@@ -42,14 +44,39 @@ def next_rating(amps: float) -> int:
     return _RATINGS[i]
 
 
+PROTECTED = "240.4"
+"""The device protects the conductors: NEC 240.4(B)-(D) limit it by their ampacity."""
+BY_ARTICLE = "article"
+"""The device is the short-circuit and ground-fault device of an article that protects the
+conductors from overload otherwise (NEC 240.4(G): Articles 430 and 440): no 240.4 limit."""
+WELDER_CONDUCTORS = "630.12(B)"
+"""Welder supply conductors: the device at most 200 % of their ampacity (NEC 630.12(B))."""
+
+
 class Currents(NamedTuple):
     """What a load asks of its circuit: ``design_a`` the conductors must carry at their
-    terminals [A], ``ocpd_a`` the device [A], with the notes and problems that say why."""
+    terminals [A], ``ocpd_a`` the device [A], with the notes and problems that say why.
+
+    A load kind's rule may say more (None or the default: the general rule's answer):
+    ``corrected_a`` what the conductors must carry after the corrections [A] (general: the load,
+    210.19(A)(1)(b)); ``protection`` how the device limits the conductors (``PROTECTED``,
+    ``BY_ARTICLE``, ``WELDER_CONDUCTORS``); ``terminal_col`` a terminal column [C] the article
+    permits, with ``terminal_why``; ``egc_basis_a`` the rating Table 250.122 is read at [A]
+    (default the device); ``device_max_a`` the most the rule permits for the device [A], for its
+    margin; ``flc_a`` the motor full-load current [A]; ``rule`` the sections that sized it."""
 
     design_a: float
     ocpd_a: int
     notes: tuple[str, ...]
     problems: tuple[str, ...]
+    corrected_a: float | None = None
+    protection: str = PROTECTED
+    terminal_col: int | None = None
+    terminal_why: str | None = None
+    egc_basis_a: int | None = None
+    device_max_a: float | None = None
+    flc_a: float | None = None
+    rule: str = ""
 
 
 class LoadRule(Protocol):
@@ -78,9 +105,10 @@ def _general(amps: float, cont: float, ocpd_a: int | None) -> Currents:
                             f"needs (NEC 210.20(A), 215.3)")
     else:
         ocpd = next_rating(design)
-        notes.append(f"NEC 240.6(A): {ocpd} A device, the next standard rating at or above "
-                     f"{amps_text(design)}")
-    return Currents(design, ocpd, tuple(notes), tuple(problems))
+        notes.append(f"NEC 210.20(A), 215.3: {ocpd} A device, not below the {amps_text(design)} "
+                     f"the circuit needs (the next standard rating, 240.6(A))")
+    return Currents(design, ocpd, tuple(notes), tuple(problems),
+                    rule="NEC 210.19(A)(1), 210.20(A) (feeders 215.2(A)(1), 215.3)")
 
 
 class _GeneralRule:

@@ -1,7 +1,8 @@
 """``evaluate(RunSpec) -> RunResult``: one run sized, rule by rule, in the order the rules
-apply: the spec checked (``spec``), the design current and device (``currents``), the
-installation's columns (``columns``), the conductor picked (``pick``), its drop
-(``gaugewalk.model.engine.drop``), then the EGC (``egc``) and the raceway (``raceway``).
+apply: the spec checked (``spec``), the design current and device (``currents``, or the load
+kind's rule, ``kinds``), the installation's columns (``columns``), the conductor picked
+(``pick``), its drop (``gaugewalk.model.engine.drop``; a motor's starting drop too), then the
+EGC (``egc``) and the raceway (``raceway``).
 
 Pure: no I/O. The work runs share (the device, the columns, the EGC and the raceway of a size)
 is cached, so thousands of runs evaluate quickly.
@@ -9,19 +10,31 @@ is cached, so thousands of runs evaluate quickly.
 
 from __future__ import annotations
 
+import math
 from dataclasses import MISSING, fields, replace
 from functools import lru_cache
 
 from gaugewalk.model.engine.circuits import current_carrying_conductors
-from gaugewalk.model.engine.contract import RunResult, RunSpec
-from gaugewalk.model.engine.drop import drop_length_ft, drop_volts
-from gaugewalk.model.engine.sizing.columns import MAT, material_table, setting, z_table
-from gaugewalk.model.engine.sizing.currents import GENERAL
+from gaugewalk.model.engine.contract import Equipment, RunResult, RunSpec
+from gaugewalk.model.engine.drop import (
+    INTERPOLATED_SIZES,
+    drop_length_ft,
+    drop_volts,
+    shifted_z,
+)
+from gaugewalk.model.engine.sizing.columns import MAT, material_table, rx_of, setting, z_table
+from gaugewalk.model.engine.sizing.currents import (
+    BY_ARTICLE,
+    GENERAL,
+    PROTECTED,
+    WELDER_CONDUCTORS,
+)
 from gaugewalk.model.engine.sizing.egc import egc_for
+from gaugewalk.model.engine.sizing.kinds import STARTING_PF, locked_rotor, rule_for
 from gaugewalk.model.engine.sizing.pick import pick_conductor, size_problems
 from gaugewalk.model.engine.sizing.raceway import raceway_fill
 from gaugewalk.model.engine.sizing.spec import SizingError, check_spec
-from gaugewalk.model.engine.sizing.text import pct_text
+from gaugewalk.model.engine.sizing.text import amps_text, pct_text
 from gaugewalk.tables.conductor import properties as t_cond
 from gaugewalk.tables.errors import TableLookupError
 
@@ -87,19 +100,36 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         cont = float(spec.continuous_amps)
     else:
         cont = amps if spec.continuous else 0.0
-    design, ocpd, cur_notes, cur_problems = GENERAL.currents(amps, cont, spec.ocpd_a)
-    notes: list[str] = list(cur_notes)
-    problems: list[str] = list(cur_problems)
+    eq = spec.equipment
+    if eq is None:
+        cur = GENERAL.currents(amps, cont, spec.ocpd_a)
+    else:
+        cur = rule_for(eq, circuit.volts, circuit.phases).currents(amps, cont, spec.ocpd_a)
+    design, ocpd = cur.design_a, cur.ocpd_a
+    need = amps if cur.corrected_a is None else cur.corrected_a
+    notes: list[str] = list(circuit.notes) + list(cur.notes)
+    problems: list[str] = list(cur.problems)
 
     # --- columns, corrections, raceway, impedance ----------------------------------------------
     n_ccc = spec.ccc if spec.ccc is not None else current_carrying_conductors(circuit)
-    st = setting(material, spec.insulation, spec.terminal_temp, ocpd, spec.ambient_c, n_ccc,
+    terminal_temp, terminal_why = spec.terminal_temp, None
+    if terminal_temp is None and cur.terminal_col is not None:
+        terminal_temp, terminal_why = cur.terminal_col, cur.terminal_why
+    st = setting(material, spec.insulation, terminal_temp, ocpd, spec.ambient_c, n_ccc,
                  spec.raceway, spec.method, float(spec.pf), float(spec.conductor_temp_c),
-                 bool(spec.stranded), sets, bool(spec.distributed))
+                 bool(spec.stranded), sets, bool(spec.distributed), circuit.drop_angle_deg,
+                 terminal_why)
     notes.extend(st.notes)
     ins_col, term_col = st.ins_col, st.term_col
     cols = st.cols
     z = st.z
+    protection = cur.protection
+    if protection == PROTECTED:
+        protect = None
+    elif protection == BY_ARTICLE:
+        protect = (math.inf,) * len(z)
+    else:  # WELDER_CONDUCTORS, NEC 630.12(B)
+        protect = tuple(2.0 * a for a in cols.allowable_total)
 
     # --- the conductor -------------------------------------------------------------------------
     # VD = k I z L / 1000 / sets is linear in z: the drop per ohm/kft, once for the run
@@ -107,8 +137,8 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
                              drop_length_ft(spec.length_ft, spec.distributed), sets)
     pct_per_volt = 100.0 / circuit.volts
     i, governed_by, min_amp_i, ocpd_i, pick_i, sm = pick_conductor(
-        spec, tab, st, design, amps, ocpd, volts_per_z, pct_per_volt,
-        _parallel_hint if hint else None, notes, problems)
+        spec, tab, st, design, need, ocpd, volts_per_z, pct_per_volt,
+        _parallel_hint if hint else None, notes, problems, protect, protection == PROTECTED)
     size = tab.sizes[i]
     mat = MAT[material]
     if tab.amp[ins_col][i] is None or tab.amp[term_col][i] is None:
@@ -117,30 +147,51 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     corrected_total = cols.corrected_total[i]
     term_total = cols.term_total[i]
     allowable_total = cols.allowable_total[i]
-    protect_limit = cols.device_limit[i]
-    if sm is not None:
-        protect_limit = min(protect_limit, sm)
+    if protect is None:
+        protect_limit = cols.device_limit[i]
+        if sm is not None:
+            protect_limit = min(protect_limit, sm)
+        device_margin = protect_limit - ocpd
+    else:
+        protect_limit = protect[i]
+        device_max = cur.device_max_a if cur.device_max_a is not None else protect_limit
+        if protection == WELDER_CONDUCTORS:
+            device_max = min(device_max, protect_limit)
+        device_margin = device_max - ocpd if math.isfinite(device_max) else 0.0
 
     # drop with the method's table, or Table 8 DC resistance where Table 9 lacks the size
     zi = z[i]
     method_used = spec.method
     if zi is None:
         zi = z_table(material, "dc", st.family, 1.0, float(spec.conductor_temp_c),
-                     bool(spec.stranded))[i]
+                     bool(spec.stranded), circuit.drop_angle_deg)[i]
         if zi is None:
             raise SizingError(f"NEC Ch. 9 Table 8 lists no solid {mat} {size}; solid conductors "
                               f"are listed up to {t_cond.SOLID_SIZES[-1]}")
         method_used = "dc"
         notes.append(f"NEC Ch. 9 Table 9 lists no {mat} {size}: drop from Table 8 DC resistance, "
                      f"reactance left out")
+    elif method_used == "ac" and size in INTERPOLATED_SIZES:
+        lo, hi = INTERPOLATED_SIZES[size]
+        notes.append(f"NEC Ch. 9 Table 9 lists no {mat} {size}: its AC resistance (Table 8 DC "
+                     f"resistance x the AC/DC ratio) and reactance interpolated in circular mils "
+                     f"between {lo} and {hi}")
     vd_v = volts_per_z * zi
     vd_pct = vd_v * pct_per_volt
     total_pct = spec.upstream_drop_pct + vd_pct
 
     if spec.size is not None or pick_i is None:
-        size_problems(size, material, term_col, design, amps, ocpd, term_total, corrected_total,
+        size_problems(size, material, term_col, design, need, ocpd, term_total, corrected_total,
                       allowable_total, protect_limit, sm, vd_pct, total_pct, spec.max_drop_pct,
-                      spec.max_total_drop_pct, problems)
+                      spec.max_total_drop_pct, problems,
+                      cur.rule if eq is not None and eq.kind != "general" and cur.rule
+                      else "NEC 110.14(C)(1), 210.19(A)(1)",
+                      "NEC 630.12(B)" if protection == WELDER_CONDUCTORS else "NEC 240.4")
+
+    # --- a motor starting --------------------------------------------------------------------
+    lra = start_pct = None
+    if eq is not None and eq.kind == "motor":
+        lra, start_pct = _starting(spec, eq, i, st.family, z, notes, problems)
     if governed_by == "voltage drop":
         base = tab.sizes[ocpd_i] if ocpd_i is not None else tab.sizes[min_amp_i or 0]
         notes.append(f"upsized from {base} for voltage drop ({pct_text(vd_pct)} of "
@@ -150,7 +201,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     hots = circuit.hots
     neutral = 1 if circuit.neutral else 0
     egc_size, n_egc, raceway_size, fill_pct, er_notes, er_problems = _egc_and_raceway(
-        i, ocpd, ocpd_i if ocpd_i is not None else min_amp_i, sets, material,
+        i, cur.egc_basis_a or ocpd, ocpd_i if ocpd_i is not None else min_amp_i, sets, material,
         spec.egc_material or material, bool(spec.egc), bool(spec.egc_bare), st.insulation,
         st.rtype, hots, neutral)
     notes.extend(er_notes)
@@ -160,7 +211,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         "ampacity_a": allowable_total - amps,
         "terminal_a": term_total - design,
         "corrected_a": corrected_total - amps,
-        "ocpd_a": protect_limit - ocpd,
+        "ocpd_a": device_margin,
         "drop_pct": spec.max_drop_pct - vd_pct,
         "total_drop_pct": spec.max_total_drop_pct - total_pct,
     }
@@ -175,7 +226,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     values["method"] = method_used
     values["amps"] = amps
     values["design_amps"] = design
-    values["required_ampacity_a"] = amps
+    values["required_ampacity_a"] = need
     values["ampacity_a"] = allowable_total
     values["min_ampacity_size"] = tab.sizes[min_amp_i] if min_amp_i is not None else tab.sizes[-1]
     values["ocpd_a"] = ocpd
@@ -192,8 +243,47 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     values["conductors"] = {"hot": hots, "neutral": neutral, "egc": n_egc}
     values["problems"] = tuple(problems)
     values["notes"] = tuple(notes)
+    if eq is not None:
+        values["load_kind"] = eq.kind
+        values["flc_a"] = cur.flc_a
+        values["locked_rotor_a"] = lra
+        values["starting_drop_pct"] = start_pct
+    values["kind_rule"] = cur.rule
     _set_attr(result, "__dict__", values)
     return result
+
+
+def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
+              notes: list[str], problems: list[str]) -> tuple[float | None, float | None]:
+    """The drop while a motor starts [%], at its locked-rotor current (``kinds.locked_rotor``)
+    and the same conductor impedance at the starting power factor (``kinds.STARTING_PF``; the
+    DC and K-factor methods have no reactance and take R), against the job's starting target:
+    ``(locked-rotor amps, drop %)``, None where no locked-rotor current can be read."""
+    circuit = spec.circuit
+    lra, why = locked_rotor(eq, circuit.volts, circuit.phases)
+    notes.append(why)
+    if lra is None:
+        return None, None
+    zs = z[i]
+    if spec.method == "ac":
+        rx = rx_of(spec.material, "ac", family, float(spec.conductor_temp_c),
+                   bool(spec.stranded), i)
+        if rx is not None:
+            zs = shifted_z(rx[0], rx[1], STARTING_PF, circuit.drop_angle_deg)
+    if zs is None:
+        return lra, None
+    vd = drop_volts(circuit.drop_factor, lra, zs, drop_length_ft(spec.length_ft, spec.distributed),
+                    spec.sets)
+    pct = 100.0 * vd / circuit.volts
+    how = (f"at power factor {STARTING_PF:g} (common practice)" if spec.method == "ac"
+           else "on resistance alone (the drop method has no reactance)")
+    notes.append(f"starting drop {pct_text(pct)} ({vd:.1f} V) at {amps_text(lra)} locked-rotor, "
+                 f"{how}; target {spec.starting_drop_pct:g}% (common practice: 10 to 15%)")
+    if pct > spec.starting_drop_pct + 1e-9:
+        problems.append(f"the motor starting drop {pct_text(pct)} is over the "
+                        f"{spec.starting_drop_pct:g}% starting target (a larger size, or a "
+                        f"reduced-voltage start, brings it down)")
+    return lra, pct
 
 
 def _parallel_hint(spec: RunSpec) -> str:

@@ -52,14 +52,18 @@ def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
 def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float, amps: float,
                    ocpd: int, volts_per_ohm_kft: float, pct_per_volt: float,
                    hint: Callable[[RunSpec], str] | None, notes: list[str],
-                   problems: list[str]) -> Pick:
+                   problems: list[str], protect: tuple[float, ...] | None = None,
+                   small_rule: bool = True) -> Pick:
     """The phase conductor of the run: the size the user fixed (``spec.size``), else the
     smallest meeting rules 1 to 4, else (nothing meets them all) the largest the drop method
     covers, with a problem saying so and ``hint(spec)`` (how many sets in parallel would).
-    ``st`` is the installation's columns (``columns.setting``).
+    ``st`` is the installation's columns (``columns.setting``); ``amps`` what the conductors
+    must carry after the corrections [A] (the load, or what the load's kind asks).
     ``volts_per_ohm_kft`` is the run's drop per ohm/kft of conductor impedance [V] and
-    ``pct_per_volt`` [%/V]. Notes and problems of the choice, of 240.4(D) and of 310.10(G) are
-    added to ``notes`` and ``problems``."""
+    ``pct_per_volt`` [%/V]. ``protect``: the largest device each size permits [A] (default the
+    240.4(B)-(D) limits; a load kind's article may set others, ``currents.Currents.protection``),
+    ``small_rule`` False where 240.4(D) does not apply (240.4(G)). Notes and problems of the
+    choice, of 240.4(D) and of 310.10(G) are added to ``notes`` and ``problems``."""
     material, sets = spec.material, spec.sets
     cols, z = st.cols, st.z
     mat = MAT[material]
@@ -69,7 +73,9 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
     # rules 1-4: the smallest size with ampacity, then protected by the device, then within
     # the drop limit and the floor
     min_amp_i = ocpd_i = pick_i = None
-    term_tot, corr_tot, protect = cols.term_total, cols.corrected_total, cols.protect_limit
+    term_tot, corr_tot = cols.term_total, cols.corrected_total
+    if protect is None:
+        protect = cols.protect_limit
     for i in range(cols.first, len(z)):
         if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
             continue
@@ -115,7 +121,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
             f"limits with {sets} set{'s' if sets > 1 else ''}{hint(spec) if hint else ''}")
 
     # 240.4(D) and 310.10(G) for the size
-    sm = tab.small_max[i]
+    sm = tab.small_max[i] if small_rule else None
     if sm is not None and ocpd <= sm and (governed_by == "overcurrent device"
                                           or spec.size is not None):
         notes.append(f"NEC 240.4(D): {sizes[i]} {mat} limited to {sm} A")
@@ -133,14 +139,16 @@ def size_problems(size: str, material: str, term_col: int, design: float, amps: 
                   ocpd: int, term_total: float, corrected_total: float, allowable_total: float,
                   protect_limit: float, small_max: float | None, vd_pct: float,
                   total_pct: float, max_drop_pct: float, max_total_drop_pct: float,
-                  problems: list[str]) -> None:
+                  problems: list[str], need_rule: str = "NEC 110.14(C)(1), 210.19(A)(1)",
+                  protect_rule: str = "NEC 240.4") -> None:
     """Every rule a size not picked by them (fixed by the user, or the largest when nothing
-    fits) fails: ampacity (1), the device (2), the drop targets (3)."""
+    fits) fails: ampacity (1), the device (2), the drop targets (3). ``need_rule`` and
+    ``protect_rule`` cite the rules of the load's kind."""
     mat = MAT[material]
     if term_total + _EPS < design:
         problems.append(
             f"{size} {mat} is good for {amps_text(term_total)} at the {term_col} C terminals; the "
-            f"circuit needs {amps_text(design)} (NEC 110.14(C)(1), 210.19(A)(1))")
+            f"circuit needs {amps_text(design)} ({need_rule})")
     if corrected_total + _EPS < amps:
         problems.append(f"{size} {mat} carries {amps_text(corrected_total)} after corrections; "
                         f"the load needs {amps_text(amps)}")
@@ -150,7 +158,7 @@ def size_problems(size: str, material: str, term_col: int, design: float, amps: 
                             f"device is {ocpd} A")
         else:
             problems.append(f"a {ocpd} A device does not protect {size} {mat} "
-                            f"({amps_text(allowable_total)}) (NEC 240.4)")
+                            f"({amps_text(allowable_total)}) ({protect_rule})")
     if vd_pct > max_drop_pct + _EPS:
         problems.append(f"voltage drop {pct_text(vd_pct)} is over this run's "
                         f"{max_drop_pct:g}% target")
