@@ -1,4 +1,6 @@
-"""Loads written in amps, volt-amperes or watts, turned into line current [A].
+"""Loads written in amps, volt-amperes or watts, turned into line current [A]; and motors written
+in horsepower (``10hp``, ``1-1/2 hp``), whose current is read from NEC Tables 430.248 and 430.250
+by ``gaugewalk.model.engine.sizing.kinds.running_amps``, not converted here.
 
 Single-phase: I = S / V; three-phase: I = S / (sqrt(3) V_LL), with S the apparent power [VA] and
 V the circuit's ``line_volts``. Real power converts to apparent power by the power factor:
@@ -12,6 +14,8 @@ import re
 
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
+from gaugewalk.tables.equipment.horsepower import parse_hp
+from gaugewalk.tables.errors import TableLookupError
 
 UNITS = LOAD_UNITS
 """Load units and their multiplier to the base unit (A, VA or W)."""
@@ -20,7 +24,9 @@ _UNIT_ALIASES = {
     "a": "A", "amp": "A", "amps": "A", "ampere": "A", "amperes": "A",
     "va": "VA", "kva": "kVA",
     "w": "W", "watt": "W", "watts": "W", "kw": "kW", "kilowatt": "kW", "kilowatts": "kW",
+    "hp": "hp", "horsepower": "hp",
 }
+_HP_RE = re.compile(r"^(.*?)\s*(?:hp|h\.p\.|horsepower)\s*$", re.IGNORECASE)
 _LOAD_RE = re.compile(r"^\s*(\d+(?:\.\d*)?|\.\d+)\s*([A-Za-z]+)\s*$")
 MAX_LOAD_CHARS = 40
 
@@ -38,8 +44,10 @@ def normalize_unit(unit: str) -> str:
 
 
 def parse_load(text: str) -> tuple[float, str]:
-    """Read ``"16A"``, ``"1.8 kVA"``, ``"5kW"``, ``"1500 w"`` into ``(value, unit)`` with the unit
-    one of ``UNITS``. A bare number is not accepted: the unit must be written.
+    """Read ``"16A"``, ``"1.8 kVA"``, ``"5kW"``, ``"1500 w"``, ``"10hp"``, ``"1-1/2 hp"`` into
+    ``(value, unit)`` with the unit one of ``UNITS``. A bare number is not accepted: the unit must
+    be written. Horsepower takes the trade's fractions (``1/2``, ``1-1/2``, ``7½``;
+    ``gaugewalk.tables.equipment.horsepower.parse_hp``).
 
     Raises
     ------
@@ -49,6 +57,12 @@ def parse_load(text: str) -> tuple[float, str]:
     raw = str(text)
     if len(raw) > MAX_LOAD_CHARS:
         raise LoadError(f"a load is at most {MAX_LOAD_CHARS} characters")
+    hp = _HP_RE.match(raw)
+    if hp is not None and hp.group(1).strip():
+        try:
+            return float(parse_hp(hp.group(1))), "hp"
+        except TableLookupError as exc:
+            raise LoadError(f"'{raw.strip()}': {exc}") from None
     m = _LOAD_RE.match(raw)
     if not m:
         if re.fullmatch(r"\s*[\d.]+\s*", raw):
@@ -81,6 +95,9 @@ def load_amps(value: float, unit: str, circuit: Circuit, pf: float = 1.0) -> flo
         Current in each ungrounded conductor [A]: S/V single-phase, S/(sqrt(3) V_LL) three-phase.
     """
     unit = normalize_unit(unit)
+    if unit == "hp":
+        raise LoadError("a load in hp is a motor: its current is read from NEC Tables 430.248 "
+                        "and 430.250, not converted")
     if not (isinstance(value, (int, float)) and math.isfinite(value) and value > 0):
         raise LoadError(f"a load must be a number above zero, not {value!r}")
     if unit == "A":

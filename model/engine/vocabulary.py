@@ -19,6 +19,7 @@ Public API (each a ``Literal`` type and its values, in the order they are offere
   types of NEC Table 430.52(C)(1); ``MotorDesign``, ``MOTOR_DESIGNS`` (NEMA design letters the
   locked-rotor table covers); ``CODE_LETTERS`` (Table 430.7(B)).
 - ``WelderType``, ``WELDER_TYPES``: the two columns of NEC Table 630.11(A).
+- ``NAMEPLATE_KEYS``: each nameplate key of a load and the kinds that read it.
 - ``MIN_SETS``, ``MAX_SETS``, ``SETS_WORDS``: conductors in parallel per phase (NEC 310.10(G));
   more than 20 sets is beyond any feeder a walk records (common practice).
 - ``or_words(values)``: ``"cu or al"``, ``"dc, kfactor or ac"``.
@@ -100,6 +101,16 @@ one of them may use the 75 C column (NEC 110.14(C)(1)(a)(4))."""
 
 CODE_LETTERS: tuple[str, ...] = tuple(_locked_rotor.CODE_LETTERS)
 """Locked-rotor indicating code letters, NEC Table 430.7(B) (I, O and Q are not used)."""
+
+NAMEPLATE_KEYS: dict[str, tuple[LoadKind, ...]] = {
+    "motor_device": ("motor",), "code_letter": ("motor",), "design": ("motor",),
+    "mca": ("hvac",), "mocp": ("hvac",),
+    "i1eff": ("welder",), "i1max": ("welder",), "rated_a": ("welder",),
+    "duty_cycle_pct": ("welder",), "welder_type": ("welder",),
+    "tank_gal": ("water-heater",), "yokes": ("receptacle",),
+}
+"""The nameplate keys of a run's load (the walk file's ``[run.load]`` names) and the kinds that
+read each."""
 
 WelderType = Literal["nonmotor", "motor-generator"]
 WELDER_TYPES: dict[WelderType, str] = {

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.job import Job, Run
 from gaugewalk.model.engine.contract import RunResult
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
@@ -78,10 +79,10 @@ def _num(value: float, places: int = 1) -> str:
 def load_text(run: Run, result: RunResult | None) -> str:
     """The load as the walker gave it, or for a feeder without one, the load it serves [A]."""
     if run.load is not None:
-        text = f"{run.load.value:g} {run.load.unit}"
-        if run.load.pf is not None:
-            text += f" at PF {run.load.pf:g}"
-        if run.continuous:
+        text = load_words(run.load)
+        if result is not None and result.flc_a is not None:
+            text += f" ({result.flc_a:g} A full-load)"
+        if run_continuous(run):
             text += ", continuous"
         return text
     if result is not None:

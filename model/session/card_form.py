@@ -29,6 +29,7 @@ from gaugewalk.model.engine.loads import LoadError, parse_load
 from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Load, Run, Source
+from gaugewalk.tables.equipment.horsepower import hp_text
 
 
 @dataclass(frozen=True)
@@ -46,9 +47,11 @@ FIELDS: tuple[CardField, ...] = (
     CardField("from", "From", "source id", True),
     CardField("to", "To", "load or panel", True),
     CardField("length", "Length", "e.g. 85+12+2*6", True),
-    CardField("load", "Load", "16A, 5kW 208V", True),
+    CardField("load", "Load", "16A, 5kW 208V, 10hp", True),
     CardField("panel", "New panel", "system; xfmr …"),
     CardField("circuit", "Circuit", "LN LL LLN MW 3P"),
+    CardField("kind", "Kind", "general, motor, hvac…"),
+    CardField("plate", "Nameplate", "as the kind needs"),
     CardField("continuous", "Continuous", "yes / no"),
     CardField("spread", "Spread", "no: load at the end"),
     CardField("sets", "Sets", "1"),
@@ -62,8 +65,15 @@ FIELD_KEYS = tuple(f.key for f in FIELDS)
 MAIN_KEYS = tuple(f.key for f in FIELDS if f.main)
 COPIED_FROM_PREVIOUS = ("circuit", "continuous", "material", "raceway")
 """Fields a new card copies from the last branch run from the same source."""
-FOLLOWING = (*COPIED_FROM_PREVIOUS, "id")
+FOLLOWING = (*COPIED_FROM_PREVIOUS, "id", "kind")
 """Fields the form fills in for the person, and keeps filling while they are not typed in."""
+LOAD_KEYS = ("load", "kind", "plate")
+"""The fields a run's load is read from (the load, its kind, its nameplate)."""
+PLATE_PLACEHOLDERS = {
+    "motor": "dual-element code G", "hvac": "mca 28 mocp 45", "welder": "i1eff 25 i1max 50",
+    "water-heater": "tank 50", "receptacle": "yokes 8",
+}
+"""The nameplate field's hint for each kind that reads one (other kinds hide the field)."""
 YES = {"y", "yes", "true", "1", "on"}
 NO = {"", "n", "no", "false", "0", "off"}
 
@@ -77,9 +87,112 @@ def choices(session: WalkSession) -> dict[str, list[str]]:
     return {
         "from": session.source_ids(),
         "to": session.known_names(),
+        "kind": list(vocab.LOAD_KINDS),
         "circuit": list(vocab.CONNECTIONS),
         "material": list(vocab.MATERIALS),
     }
+
+
+def kind_in(values: dict[str, str]) -> vocab.LoadKind:
+    """The load's kind as the texts say: the kind field, else motor for a load in hp, else
+    general (an unknown word: general, and the kind field says what is wrong)."""
+    kind = values.get("kind", "").strip().lower()
+    if kind in vocab.LOAD_KINDS:
+        return kind
+    if not kind:
+        try:
+            if values.get("load", "").strip() and read_load_text(values["load"]).unit == "hp":
+                return "motor"
+        except LoadError:
+            pass
+    return "general"
+
+
+def shown(key: str, values: dict[str, str]) -> bool:
+    """Whether the card shows field ``key`` for these texts: the nameplate only for a kind that
+    reads one (or while it holds text)."""
+    if key != "plate":
+        return True
+    return kind_in(values) in PLATE_PLACEHOLDERS or bool(values.get("plate", "").strip())
+
+
+def placeholder(key: str, values: dict[str, str]) -> str:
+    """The hint an empty field shows; the nameplate's follows the kind."""
+    if key == "plate":
+        return PLATE_PLACEHOLDERS.get(kind_in(values), "as the kind needs")
+    return next((f.placeholder for f in FIELDS if f.key == key), "")
+
+
+_PLATE_WORDS: dict[str, str] = {
+    "mca": "mca", "mocp": "mocp", "device": "motor_device", "code": "code_letter",
+    "letter": "code_letter", "design": "design", "i1eff": "i1eff", "i1max": "i1max",
+    "rated": "rated_a", "duty": "duty_cycle_pct", "type": "welder_type", "tank": "tank_gal",
+    "gal": "tank_gal", "yokes": "yokes",
+}
+"""Nameplate words the card reads -> the walk file's ``[run.load]`` keys."""
+_PLATE_FLAGS: dict[str, tuple[str, str]] = {
+    **{d: ("motor_device", d) for d in vocab.MOTOR_DEVICES},
+    **{t: ("welder_type", t) for t in vocab.WELDER_TYPES},
+}
+"""Words that stand alone: a motor device type or a welder type."""
+_PLATE_TEXT = {"mca": "mca", "mocp": "mocp", "code_letter": "code", "design": "design",
+               "i1eff": "i1eff", "i1max": "i1max", "rated_a": "rated", "duty_cycle_pct": "duty",
+               "tank_gal": "tank", "yokes": "yokes"}
+"""The walk file's key -> the word ``plate_text`` writes."""
+_PLATE_UNITS = re.compile(r"(?<=\d)\s*(?:a|%|gal)$", re.IGNORECASE)
+
+
+def read_nameplate(text: str) -> dict[str, object]:
+    """The nameplate field: ``mca 28 mocp 45``, ``dual-element code G design B``,
+    ``i1eff 25 i1max 50``, ``rated 40 duty 50%``, ``motor-generator``, ``tank 50gal``,
+    ``yokes 8`` (``=`` or ``:`` between a word and its value as the person likes) into the walk
+    file's ``[run.load]`` keys. Raises ValueError naming the word it cannot read."""
+    words = re.sub(r"\s*[=:]\s*", " ", text.strip()).split()
+    out: dict[str, object] = {}
+    i = 0
+    while i < len(words):
+        word = words[i].lower()
+        if word in _PLATE_FLAGS:
+            key, value = _PLATE_FLAGS[word]
+            out[key] = value
+            i += 1
+            continue
+        key = _PLATE_WORDS.get(word)
+        if key is None:
+            raise ValueError(f"'{words[i]}' is not a nameplate word; use "
+                             f"{', '.join(dict.fromkeys(_PLATE_WORDS))} or a device or welder "
+                             f"type")
+        if i + 1 >= len(words):
+            raise ValueError(f"'{words[i]}' needs its value (e.g. {words[i]} 28)")
+        raw = words[i + 1]
+        if key in ("code_letter", "design"):
+            out[key] = raw.upper()
+        elif key in ("motor_device", "welder_type"):
+            out[key] = raw.lower()
+        else:
+            number = _PLATE_UNITS.sub("", raw)
+            try:
+                out[key] = int(number) if key == "yokes" else float(number)
+            except ValueError:
+                raise ValueError(f"'{raw}' is not a number for {words[i]}") from None
+        i += 2
+    return out
+
+
+def plate_text(load: Load | None) -> str:
+    """The nameplate field's text for a load (``read_nameplate`` reads it back)."""
+    if load is None:
+        return ""
+    words = []
+    if load.motor_device is not None:
+        words.append(load.motor_device)
+    if load.welder_type is not None:
+        words.append(load.welder_type)
+    for key, word in _PLATE_TEXT.items():
+        value = getattr(load, key)
+        if value is not None:
+            words.append(f"{word} {value:g}" if isinstance(value, float) else f"{word} {value}")
+    return " ".join(words)
 
 
 def complete(text: str, options: Iterable[str]) -> str | None:
@@ -101,19 +214,24 @@ def yes_no(text: str) -> bool | None:
 
 def run_to_fields(run: Run) -> dict[str, str]:
     """The card's texts for an existing run."""
+    from gaugewalk.model.walk.equipment import run_continuous
+
     load = ""
-    if run.load is not None:
-        load = f"{run.load.value:g}{run.load.unit}"
-        if run.load.pf is not None:
-            load += f" pf{run.load.pf:g}"
+    if run.load is not None and run.load.value is not None:
+        load = (f"{hp_text(run.load.value)}hp" if run.load.unit == "hp"
+                else f"{run.load.value:g}{run.load.unit}")
+    if run.load is not None and run.load.pf is not None:
+        load += f" pf{run.load.pf:g}"
     return {
         "from": run.from_,
         "to": run.to,
         "length": run.length,
-        "load": load,
+        "load": load.strip(),
+        "kind": run.load.kind if run.load is not None and run.load.kind != "general" else "",
+        "plate": plate_text(run.load),
         "panel": "",
         "circuit": run.connection or "",
-        "continuous": "yes" if run.continuous else "no",
+        "continuous": "yes" if run_continuous(run) else "no",
         "spread": "yes" if run.distributed else "no",
         "sets": str(run.sets),
         "size": run.size or "",
@@ -337,22 +455,57 @@ def _check_length(r: _Reading) -> None:
 
 
 def _check_load(r: _Reading) -> None:
+    """The load field read (its voltage and poles too); the ``Load`` itself is made by
+    ``_check_kind`` with the kind and the nameplate."""
     text = r.v["load"]
     r.got["load"] = None
     r.got["load_text"] = None
     if text.strip():
         try:
-            read = read_load_text(text)
-            r.got["load_text"] = read
-            r.got["load"] = Load(value=read.value, unit=read.unit, pf=read.pf)
+            r.got["load_text"] = read_load_text(text)
         except LoadError as exc:
             r.errors["load"] = str(exc)
-        except Exception as exc:  # pydantic range check
-            r.errors["load"] = _first_error(exc)
-    elif r.got.get("dest") is None and not r.v["panel"].strip():
-        r.errors["load"] = "a branch run needs its load (16A, 1.8kVA, 5kW)"
+
+
+def _check_kind(r: _Reading) -> None:
+    """The kind and the nameplate, and the ``Load`` the three fields make (each mistake named
+    at its field)."""
+    kind_text = r.v["kind"].strip().lower()
+    kind = kind_in(r.v)
+    if kind_text and kind_text not in vocab.LOAD_KINDS:
+        r.errors["kind"] = f"one of {', '.join(vocab.LOAD_KINDS)} (blank: general)"
     else:
-        r.hints["load"] = "what the panel serves"
+        r.hints["kind"] = vocab.LOAD_KINDS[kind].split(" (")[0][:40]
+    try:
+        plate = read_nameplate(r.v["plate"])
+    except ValueError as exc:
+        r.errors["plate"] = str(exc)
+        plate = {}
+    read = r.got.get("load_text")
+    if "load" in r.errors or "kind" in r.errors or "plate" in r.errors:
+        return
+    data: dict[str, object] = dict(plate)
+    if read is not None:
+        data.update(value=read.value, unit=read.unit, pf=read.pf)
+    if kind != "general":
+        data["kind"] = kind
+    if read is None and not plate and kind == "general":
+        if r.got.get("dest") is None and not r.v["panel"].strip():
+            r.errors["load"] = "a branch run needs its load (16A, 1.8kVA, 5kW, 10hp)"
+        else:
+            r.hints["load"] = "what the panel serves"
+        return
+    try:
+        load = Load.model_validate(data)
+    except Exception as exc:  # pydantic: each message at its field
+        for key, message in _pydantic_fields(exc, prefix="load.").items():
+            r.errors.setdefault(key, message)
+        return
+    r.got["load"] = load
+    if plate:
+        from gaugewalk.model.walk.equipment import load_words
+
+        r.hints["plate"] = load_words(load)[:40]
 
 
 def _check_panel(r: _Reading) -> None:
@@ -418,6 +571,23 @@ def _check_yes_no(key: str, name: str) -> Callable[[_Reading], None]:
     return check
 
 
+def _check_continuous(r: _Reading) -> None:
+    """Yes or no; the hint says what the load's kind makes it (the walk refuses what its
+    article does not allow, at this field)."""
+    _check_yes_no("continuous", "continuous")(r)
+    if "continuous" in r.errors:
+        return
+    from gaugewalk.model.engine.sizing.kinds import kind_continuous
+
+    load = r.got.get("load")
+    kind = load.kind if load is not None else kind_in(r.v)
+    tank = load.tank_gal if load is not None else None
+    if kind in ("motor", "hvac", "welder"):
+        r.hints["continuous"] = f"no: the {kind} rules"
+    elif kind != "general" and kind_continuous(kind, tank):
+        r.hints["continuous"] = f"{kind}: continuous"
+
+
 def _check_sets(r: _Reading) -> None:
     r.got["sets"] = 1
     if r.v["sets"].strip():
@@ -481,8 +651,9 @@ CHECKS: tuple[tuple[str, Callable[[_Reading], None]], ...] = (
     ("length", _check_length),
     ("load", _check_load),
     ("panel", _check_panel),
+    ("kind", _check_kind),
     ("circuit", _check_circuit),
-    ("continuous", _check_yes_no("continuous", "continuous")),
+    ("continuous", _check_continuous),
     ("spread", _check_yes_no("spread", "distributed")),
     ("sets", _check_sets),
     ("size", _check_size),
@@ -618,7 +789,7 @@ class CardForm:
         behalf (fields nobody typed in follow the run)."""
         self.values[key] = text
         self.typed.add(key)
-        if key in ("from", "to", "panel", "load") and self.run_id is None:
+        if key in ("from", "to", "panel", "load", "kind") and self.run_id is None:
             return self._follow()
         return {}
 
@@ -662,6 +833,12 @@ class CardForm:
                 stated = None  # the load field says what is wrong
             copied["circuit"] = stated or copied["circuit"] or default_branch_circuit(source.system)
         copied["id"] = self.next_id(same if same is not None and same.from_ == source_id else None, feeder)
+        kind = kind_in(v)
+        copied["kind"] = kind if kind == "motor" and not v.get("kind", "").strip() else v.get("kind", "")
+        if kind in vocab.CONTINUOUS_KINDS or kind == "lighting":
+            copied["continuous"] = "yes"  # by its article (or common practice for lighting)
+        elif kind in ("motor", "hvac", "welder"):
+            copied["continuous"] = "no"   # their article's rules instead
         return copied
 
     def draft(self) -> dict[str, str] | None:
@@ -721,9 +898,10 @@ class CardForm:
 
 _CARD_FIELD = {
     "from": "from", "to": "to", "length": "length", "load": "load", "load.value": "load",
-    "load.unit": "load", "load.pf": "load", "connection": "circuit", "sets": "sets",
-    "size": "size", "material": "material", "raceway": "raceway", "id": "id",
+    "load.unit": "load", "load.pf": "load", "load.kind": "kind", "connection": "circuit",
+    "sets": "sets", "size": "size", "material": "material", "raceway": "raceway", "id": "id",
     "continuous": "continuous", "distributed": "spread", "notes": "notes",
+    **{f"load.{key}": "plate" for key in vocab.NAMEPLATE_KEYS},
 }
 """The card field each walk-model field of a run is typed in."""
 
@@ -745,13 +923,14 @@ def _first_error(exc: Exception) -> str:
     return str(exc)
 
 
-def _pydantic_fields(exc: Exception) -> dict[str, str]:
+def _pydantic_fields(exc: Exception, prefix: str = "") -> dict[str, str]:
     out: dict[str, str] = {}
     errors = getattr(exc, "errors", None)
     if not callable(errors):
         return {"to": str(exc)}
     for e in errors():
-        loc = ".".join(str(x) for x in e.get("loc", ()))
+        loc = prefix + ".".join(str(x) for x in e.get("loc", ()))
+        loc = loc.rstrip(".")
         key = _CARD_FIELD.get(loc.replace("from_", "from"), _CARD_FIELD.get(loc.split(".")[0], "notes"))
         out.setdefault(key, str(e.get("msg", "")).removeprefix("Value error, "))
     return out or {"to": str(exc)}

@@ -5,12 +5,14 @@ and what follows for the run and for the feeder above it. The rules themselves a
 Public API:
 
 - ``equipment_of(run) -> Equipment | None``: None for a general load with nothing more to say
-  (the engine's fast path).
+  (the engine's fast path); ``run_continuous(run)``: continuous by the run or its kind.
 - ``LoadFacts``; ``load_facts(run, circuit, default_pf) -> LoadFacts``: the running current
   [A], the power factor, whether it is continuous, and the equipment, as the run's sizing uses
   them. Raises ``LoadError``.
 - ``feeder_share(run, circuit, default_pf) -> FeederLoad``: what the run adds to the panel it
   is on, for its feeder (NEC 215.2(A)(1)).
+- ``load_short(load)`` (``16 A``, ``25 hp``, ``MCA 28 A``) and ``load_words(load)`` (the kind and
+  nameplate too: ``25 hp motor, dual-element fuse``): a load in words for every face.
 - ``run_kind_load(run, circuit, default_pf) -> KindLoad | None``: for a feeder's rules (NEC
   430.24, 430.62, 440.33, 630.11(B)): the kind, whether it is a motor, its running current,
   the current its branch is sized from (motor FLC, HVAC MCA, welder 630.11(A) current), and its
@@ -37,7 +39,9 @@ from gaugewalk.model.engine.sizing.kinds import (
     running_amps,
     welder_current,
 )
+from gaugewalk.model.engine.vocabulary import MOTOR_DEVICES
 from gaugewalk.model.walk.job import Load, Run
+from gaugewalk.tables.equipment.horsepower import hp_text
 
 def _equipment(load: Load, continuous: bool | None) -> Equipment:
     return Equipment(
@@ -61,6 +65,12 @@ def equipment_of(run: Run) -> Equipment | None:
     if load is None or load.kind == "general":
         return None
     return _equipment(load, run.continuous)
+
+
+def run_continuous(run: Run) -> bool:
+    """Whether the run's load is sized as continuous: the run's own say, else its kind's."""
+    eq = equipment_of(run)
+    return bool(run.continuous) if eq is None else continuous_of(eq)
 
 
 @dataclass(frozen=True)
@@ -119,3 +129,70 @@ def run_kind_load(run: Run, circuit: Circuit, default_pf: float) -> KindLoad | N
     facts = load_facts(run, circuit, default_pf)
     eq = facts.equipment or _equipment(run.load, run.continuous)
     return kind_load(eq, facts.amps, run.ocpd_a, circuit.volts, circuit.phases)
+
+
+_KIND_WORDS = {"general": "", "motor": "motor", "hvac": "HVAC", "ev-charger": "EV charger",
+               "water-heater": "water heater", "heater": "heater", "welder": "welder",
+               "lighting": "lighting", "receptacle": "receptacles"}
+
+
+def _n(x: float) -> str:
+    return f"{x:g}"
+
+
+def load_short(load: Load) -> str:
+    """The load as given, in a few characters: ``16 A``, ``4.5 kW pf 0.9``, ``25 hp``, ``1-1/2
+    hp``; a load given by its nameplate alone: ``MCA 28 A``, ``I1eff 25 A``, ``rated 40 A``,
+    ``8 yokes``."""
+    if load.value is not None and load.unit is not None:
+        text = (f"{hp_text(load.value)} hp" if load.unit == "hp"
+                else f"{_n(load.value)} {load.unit}")
+    elif load.mca is not None:
+        text = f"MCA {_n(load.mca)} A"
+    elif load.i1eff is not None:
+        text = f"I1eff {_n(load.i1eff)} A"
+    elif load.rated_a is not None:
+        text = f"rated {_n(load.rated_a)} A"
+    elif load.yokes is not None:
+        text = f"{load.yokes} yokes"
+    else:
+        text = ""
+    if load.pf is not None:
+        text += f" pf {load.pf:g}"
+    return text
+
+
+def load_words(load: Load) -> str:
+    """The load with its kind and nameplate in words: ``25 hp motor, dual-element fuse, code
+    G``, ``HVAC, MCA 28 A, MOCP 45 A``, ``48 A EV charger``."""
+    words = [load_short(load)]
+    kind = _KIND_WORDS[load.kind]
+    if kind:
+        words = [f"{words[0]} {kind}".strip()]
+    extra = []
+    if load.kind == "motor":
+        if load.motor_device is not None and load.motor_device != "inverse-time":
+            extra.append(MOTOR_DEVICES[load.motor_device].split(" (")[0])
+        if load.code_letter is not None:
+            extra.append(f"code {load.code_letter}")
+        if load.design is not None and load.design != "B":
+            extra.append(f"design {load.design}")
+    if load.mca is not None and load.value is not None:
+        extra.append(f"MCA {_n(load.mca)} A")
+    if load.mocp is not None:
+        extra.append(f"MOCP {_n(load.mocp)} A")
+    if load.i1max is not None:
+        extra.append(f"I1max {_n(load.i1max)} A")
+    if load.i1eff is not None and load.value is not None:
+        extra.append(f"I1eff {_n(load.i1eff)} A")
+    if load.rated_a is not None and (load.value is not None or load.i1eff is not None):
+        extra.append(f"rated {_n(load.rated_a)} A")
+    if load.duty_cycle_pct is not None:
+        extra.append(f"{_n(load.duty_cycle_pct)}% duty")
+    if load.welder_type == "motor-generator":
+        extra.append("motor-generator")
+    if load.tank_gal is not None:
+        extra.append(f"{_n(load.tank_gal)} gal")
+    if load.yokes is not None and load.value is not None:
+        extra.append(f"{load.yokes} yokes")
+    return ", ".join(words + extra)

@@ -56,6 +56,7 @@ from gaugewalk.model.engine.vocabulary import (
     CODE_LETTERS,
     MAX_SETS,
     MIN_SETS,
+    NAMEPLATE_KEYS,
     Connection,
     LoadKind,
     LoadUnit,
@@ -224,16 +225,6 @@ class Defaults(_Strict):
 
 
 
-_KIND_KEYS: dict[str, tuple[str, ...]] = {
-    "motor_device": ("motor",), "code_letter": ("motor",), "design": ("motor",),
-    "mca": ("hvac",), "mocp": ("hvac",),
-    "i1eff": ("welder",), "i1max": ("welder",), "rated_a": ("welder",),
-    "duty_cycle_pct": ("welder",), "welder_type": ("welder",),
-    "tank_gal": ("water-heater",), "yokes": ("receptacle",),
-}
-"""Each nameplate key of ``[run.load]`` and the kinds that read it."""
-
-
 class Load(_Strict):
     """A load as the walker wrote it: a value and a unit (a power factor for watts), what kind of
     load it is, and the nameplate values its kind reads (``gaugewalk.model.engine.sizing.kinds``).
@@ -294,10 +285,10 @@ class Load(_Strict):
                              f"the load in A, VA or W")
         return value
 
-    @field_validator(*_KIND_KEYS)
+    @field_validator(*NAMEPLATE_KEYS)
     @classmethod
     def _key_of_kind(cls, value, info: ValidationInfo):
-        kinds = _KIND_KEYS[str(info.field_name)]
+        kinds = NAMEPLATE_KEYS[str(info.field_name)]
         kind = info.data.get("kind")
         if value is not None and kind is not None and kind not in kinds:
             raise ValueError(f"{info.field_name} is for a load of kind {' or '.join(kinds)}; this "

@@ -130,14 +130,19 @@ def test_calc_circuits_from_a_voltage_and_phase_count():
 @pytest.mark.parametrize(
     ("text", "parsed"),
     [("16A", (16.0, "A")), ("1.8 kVA", (1.8, "kVA")), ("5kW", (5.0, "kW")),
-     ("1500 w", (1500.0, "W")), ("20 amps", (20.0, "A")), ("750va", (750.0, "VA"))],
+     ("1500 w", (1500.0, "W")), ("20 amps", (20.0, "A")), ("750va", (750.0, "VA")),
+     # horsepower as the trade writes it (NEC Table 430.250 rows 10, 1-1/2, 1/2, 7-1/2 hp)
+     ("10hp", (10.0, "hp")), ("1-1/2 hp", (1.5, "hp")), ("1/2HP", (0.5, "hp")),
+     ("7½ hp", (7.5, "hp"))],
 )
 def test_loads_are_read_with_their_unit(text, parsed):
     assert parse_load(text) == parsed
 
 
 @pytest.mark.parametrize(("text", "words"), [("16", "no unit"), ("0A", "above zero"),
-                                              ("-3A", "not a load"), ("5 hp", "unknown load unit"),
+                                              ("-3A", "not a load"),
+                                              ("5 furlongs", "unknown load unit"),
+                                              ("x hp", "cannot read horsepower"),
                                               ("", "not a load"), ("nan A", "not a load")])
 def test_bad_loads_are_refused_with_a_reason(text, words):
     with pytest.raises(LoadError, match=words):

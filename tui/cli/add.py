@@ -24,12 +24,10 @@ from gaugewalk.tui.cli.common import (
     read_job,
     writes_walk,
 )
+from gaugewalk.tui.cli.load_options import add_load_options, given_load, kind_refusal, load_table
 
 NAME = "add"
 HELP = "Add a run to a walk file (same length grammar as 'calc')."
-
-_LOADS = (("amps", "A"), ("va", "VA"), ("kva", "kVA"), ("watts", "W"), ("kw", "kW"))
-
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("file", metavar="FILE", help="walk file (.toml)")
@@ -39,17 +37,14 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="a source id (the run is then its feeder) or the load's name")
     parser.add_argument("--length", metavar="L", required=True,
                         help="route length, e.g. 85+12+2*6 or 36m+8ft [ft unless a unit is given]")
-    loads = parser.add_mutually_exclusive_group()
-    loads.add_argument("--amps", type=float, metavar="A", help="load [A]")
-    loads.add_argument("--va", type=float, metavar="VA", help="load [VA]")
-    loads.add_argument("--kva", type=float, metavar="KVA", help="load [kVA]")
-    loads.add_argument("--watts", type=float, metavar="W", help="load [W]")
-    loads.add_argument("--kw", type=float, metavar="KW", help="load [kW]")
+    add_load_options(parser, checked=False)
     parser.add_argument("--pf", type=float, help="power factor of the load (0 to 1]")
     parser.add_argument("--id", dest="run_id", help="run id (default: the next free R-number)")
     parser.add_argument("--connection", choices=tuple(CONNECTIONS),
                         help="how the load is wired (default: every hot and the neutral)")
-    parser.add_argument("--continuous", action="store_true", help="load runs 3 h or more")
+    parser.add_argument("--continuous", action="store_true",
+                        help="load runs 3 h or more (EV chargers, water heaters and heaters are "
+                        "by their article, lighting by default)")
     parser.add_argument("--spread", action="store_true",
                         help="load spread evenly along the run rather than at its end")
     parser.add_argument("--sets", type=int, help="conductors in parallel per phase")
@@ -69,12 +64,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 
 def _run_data(args: argparse.Namespace, run_id: str) -> dict:
     data: dict = {"id": run_id, "from": args.from_, "to": args.to, "length": args.length}
-    for key, unit in _LOADS:
-        value = getattr(args, key)
-        if value is not None:
-            data["load"] = {"value": value, "unit": unit}
-            if args.pf is not None:
-                data["load"]["pf"] = args.pf
+    load = load_table(args)
+    if load is not None:
+        data["load"] = load
     options = {
         "connection": args.connection, "sets": args.sets, "size": args.size,
         "ocpd_a": args.ocpd, "material": args.material, "insulation": args.insulation,
@@ -96,9 +88,13 @@ def run(args: argparse.Namespace) -> int:
     job = read_job(args.file)
     if job is None:
         return EXIT_INVALID
-    if args.pf is not None and all(getattr(args, k) is None for k, _ in _LOADS):
-        print(f"{args.file}: --pf needs a load (--amps, --va, --kva, --watts or --kw)",
+    if args.pf is not None and given_load(args) is None:
+        print(f"{args.file}: --pf needs a load (--amps, --va, --kva, --watts, --kw or --hp)",
               file=sys.stderr)
+        return EXIT_INVALID
+    refusal = kind_refusal(args)
+    if refusal is not None:
+        print(f"{args.file}: {refusal}", file=sys.stderr)
         return EXIT_INVALID
     run_id = args.run_id or job.next_run_id("R")
     if job.run(run_id) is not None:
@@ -119,8 +115,11 @@ def run(args: argparse.Namespace) -> int:
     kind = "feeder" if job.is_feeder(new) else "branch"
     summary = f"added {kind} run {run_id}: {new.from_} -> {new.to}, {new.length_ft:,.1f} ft"
     if rr is not None:
-        summary += (f"; {rr.sets}x {rr.size} {rr.material}, drop {rr.voltage_drop_pct:.2f}%, "
-                    f"from the service {rr.total_drop_pct:.2f}%")
+        kind = "" if rr.load_kind == "general" else f"{rr.load_kind}, "
+        summary += (f"; {kind}{rr.sets}x {rr.size} {rr.material} on {rr.ocpd_a} A, drop "
+                    f"{rr.voltage_drop_pct:.2f}%, from the service {rr.total_drop_pct:.2f}%")
+        if rr.starting_drop_pct is not None:
+            summary += f", starting {rr.starting_drop_pct:.2f}%"
         if rr.problems:
             summary += "; " + "; ".join(rr.problems)
     print(summary)

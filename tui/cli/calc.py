@@ -16,6 +16,12 @@ from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.lengths import LengthError, format_length_ft, parse_length
 from gaugewalk.model.engine.loads import LoadError, load_amps
 from gaugewalk.model.engine.sizing import SizingError, evaluate, resolve_raceway
+from gaugewalk.model.engine.sizing.kinds import (
+    continuous_of,
+    continuous_refusal,
+    load_pf,
+    running_amps,
+)
 from gaugewalk.model.engine.vocabulary import (
     MATERIALS,
     MAX_SETS,
@@ -25,7 +31,16 @@ from gaugewalk.model.engine.vocabulary import (
 )
 from gaugewalk.tables.conductor.ampacity import ambient_factor, insulation_rating, parse_insulation
 from gaugewalk.tables.conductor.sizes import parse_size
+from gaugewalk.tables.equipment.horsepower import hp_text
 from gaugewalk.tables.errors import TableLookupError
+from gaugewalk.tui.cli.load_options import (
+    NAMEPLATE_OPTIONS,
+    add_load_options,
+    equipment,
+    given_load,
+    kind_of,
+    kind_refusal,
+)
 from gaugewalk.tui.cli.main import CAUTION, UsageError
 
 NAME = "calc"
@@ -99,13 +114,7 @@ def _insulation(text: str) -> str:
 
 
 def add_arguments(parser: argparse.ArgumentParser) -> None:
-    load = parser.add_argument_group("load (one of)")
-    which = load.add_mutually_exclusive_group(required=True)
-    which.add_argument("--amps", type=_number(), metavar="A", help="load current [A]")
-    which.add_argument("--va", type=_number(), metavar="VA", help="load in volt-amperes")
-    which.add_argument("--kva", type=_number(), metavar="KVA", help="load in kilovolt-amperes")
-    which.add_argument("--kw", type=_number(), metavar="KW",
-                       help="load in kilowatts (turned into kVA by --pf)")
+    add_load_options(parser)
     parser.add_argument("--length", type=_length, required=True, metavar="L",
                         help="one-way route length: feet by default, e.g. 120+35+2*12 or 36m+8ft")
     parser.add_argument("--volts", type=_number(), required=True, metavar="V",
@@ -127,14 +136,19 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="drop target from the service to the load [%%] (default 5)")
     parser.add_argument("--method", choices=tuple(METHODS), default="ac",
                         help="drop method: ac (Table 9 impedance, default), dc (Table 8), kfactor")
-    parser.add_argument("--pf", type=_number(0.0, high=1.0), default=0.85, metavar="PF",
-                        help="power factor for the AC method and for --kw (default 0.85)")
+    parser.add_argument("--pf", type=_number(0.0, high=1.0), metavar="PF",
+                        help="power factor for the AC method and for --kw (default 0.85; 1 for "
+                        "a water-heater or heater)")
     parser.add_argument("--raceway", type=_raceway, default="EMT", metavar="TYPE",
                         help="raceway type (EMT, RMC, PVC-40...) or family (steel, pvc, aluminum)")
     parser.add_argument("--insulation", type=_insulation, default="THHN/THWN-2", metavar="TYPE",
                         help="conductor insulation (default THHN/THWN-2)")
-    parser.add_argument("--continuous", action="store_true",
-                        help="the load runs 3 hours or more (125%% for sizing)")
+    parser.add_argument("--continuous", action="store_true", default=None,
+                        help="the load runs 3 hours or more (125%% for sizing; EV chargers, "
+                        "water heaters and heaters are by their article, lighting by default)")
+    parser.add_argument("--starting-drop", type=_number(), default=15.0, metavar="PCT",
+                        help="motor starting-drop target [%%] (default 15; common practice 10 "
+                        "to 15)")
     parser.add_argument("--distributed", action="store_true",
                         help="the load is spread evenly along the run (drop at half length)")
     parser.add_argument("--terminal-temp", type=int, choices=TERMINAL_TEMPS,
@@ -160,21 +174,41 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 # ------------------------------------------------------------------ run
 
 
-def _load(args) -> tuple[float, str]:
-    for option, unit in (("amps", "A"), ("va", "VA"), ("kva", "kVA"), ("kw", "kW")):
-        value = getattr(args, option)
-        if value is not None:
-            return value, unit
-    raise UsageError("gaugewalk calc: give the load with --amps, --va, --kva or --kw")
+def _load(args) -> tuple[float | None, str | None]:
+    given = given_load(args)
+    if given is not None:
+        return given
+    nameplate = ((args.kind == "hvac" and args.mca is not None)
+                 or (args.kind == "welder" and (args.i1eff is not None or args.rated_a is not None))
+                 or (args.kind == "receptacle" and args.yokes is not None))
+    if not nameplate:
+        raise UsageError("gaugewalk calc: one of the arguments --amps --va --kva --watts --kw "
+                         "--hp is required (or, for --kind hvac, --mca and --mocp; welder, "
+                         "--i1eff or --rated-amps; receptacle, --yokes)")
+    return None, None
 
 
 def run(args) -> int:
+    refusal = kind_refusal(args)
+    if refusal is not None:
+        raise UsageError(f"gaugewalk calc: {refusal}")
     value, unit = _load(args)
+    kind = kind_of(args)
+    refusal = continuous_refusal(kind, args.tank_gal, args.continuous)
+    if refusal is not None:
+        raise UsageError(f"gaugewalk calc: argument --continuous: {refusal}")
+    pf = load_pf(kind, args.pf, 0.85)
+    eq = equipment(args, args.continuous)
     try:
         circuit = circuit_from_volts(args.volts, args.phase)
-        amps = load_amps(value, unit, circuit, pf=args.pf)
+        if eq is None:
+            assert value is not None and unit is not None  # a general load is given (_load)
+            amps = load_amps(value, unit, circuit, pf=pf)
+        else:
+            amps = running_amps(eq, value, unit, circuit, pf)
     except (CircuitError, LoadError) as exc:
         raise UsageError(f"gaugewalk calc: {exc}") from None
+    continuous = bool(args.continuous) if eq is None else continuous_of(eq)
     _rtype, family, _note = resolve_raceway(args.raceway)
     try:
         ambient_factor(args.ambient, insulation_rating(args.insulation))
@@ -184,14 +218,14 @@ def run(args) -> int:
         circuit=circuit,
         amps=amps,
         length_ft=args.length,
-        continuous=args.continuous,
+        continuous=continuous,
         distributed=args.distributed,
         material=args.material,
         insulation=args.insulation,
         terminal_temp=args.terminal_temp,
         conductor_temp_c=args.temp,
         method=args.method,
-        pf=args.pf,
+        pf=pf,
         raceway=args.raceway,
         ambient_c=args.ambient,
         ccc=args.ccc,
@@ -204,14 +238,18 @@ def run(args) -> int:
         max_total_drop_pct=args.max_total_drop,
         egc=not args.no_egc,
         egc_bare=args.bare_egc,
+        equipment=eq,
+        starting_drop_pct=args.starting_drop,
     )
     try:
         result = evaluate(spec)
-    except SizingError as exc:
+    except (SizingError, LoadError) as exc:
         raise UsageError(f"gaugewalk calc: {exc}") from None
 
+    load = {"value": value, "unit": unit, "kind": kind}
+    load.update({k: getattr(args, k) for k in NAMEPLATE_OPTIONS if getattr(args, k) is not None})
     inputs = {
-        "load": {"value": value, "unit": unit},
+        "load": load,
         "amps": amps,
         "length_ft": args.length,
         "volts": args.volts,
@@ -222,10 +260,10 @@ def run(args) -> int:
         "size": args.size,
         "sets": args.sets,
         "method": args.method,
-        "pf": args.pf,
+        "pf": pf,
         "raceway": result.raceway,
         "raceway_family": family,
-        "continuous": args.continuous,
+        "continuous": continuous,
         "distributed": args.distributed,
         "terminal_temp": args.terminal_temp,
         "ambient_c": args.ambient,
@@ -237,6 +275,7 @@ def run(args) -> int:
         "max_total_drop_pct": args.max_total_drop,
         "egc": not args.no_egc,
         "egc_bare": args.bare_egc,
+        "starting_drop_pct": args.starting_drop,
     }
     if args.json:
         data = result.to_dict()
@@ -261,10 +300,18 @@ def _text(r, spec: RunSpec, inputs: dict, family: str) -> str:
     mat = _MAT_WORD[r.material]
     sets = f"{r.sets} sets in parallel" if r.sets > 1 else "1 set"
     load = inputs["load"]
-    load_text = _a(r.amps) if load["unit"] == "A" else (
-        f"{load['value']:g} {load['unit']} = {_a(r.amps)}")
+    if load["unit"] is None:
+        load_text = _a(r.amps) + " (from the nameplate)"
+    elif load["unit"] == "A":
+        load_text = _a(r.amps)
+    elif load["unit"] == "hp":
+        load_text = f"{hp_text(load['value'])} hp = {_a(r.amps)} full-load current"
+    else:
+        load_text = f"{load['value']:g} {load['unit']} = {_a(r.amps)}"
     if r.design_amps != r.amps:
-        load_text += f" (sized at {_a(r.design_amps)}: 125% of the continuous part)"
+        load_text += (f" (sized at {_a(r.design_amps)}: 125% of the continuous part)"
+                      if r.load_kind == "general"
+                      else f" (conductors sized for {_a(r.design_amps)})")
     method = METHODS[r.method]
     if r.method == "ac":
         method += f", pf {spec.pf:g}, {family} raceway"
@@ -279,6 +326,7 @@ def _text(r, spec: RunSpec, inputs: dict, family: str) -> str:
     lines = [
         ("conductors", f"{r.size} {mat} {spec.insulation}, {sets}"),
         ("load", load_text),
+        ("kind", f"{r.load_kind}: {r.kind_rule}" if r.load_kind != "general" else "general"),
         ("route", f"{format_length_ft(spec.length_ft)} one way, {spec.circuit.label}"
                   + (", load spread along it" if spec.distributed else "")),
         ("ampacity", f"{_a(r.ampacity_a)} for a load of {_a(r.amps)}"),
@@ -286,6 +334,9 @@ def _text(r, spec: RunSpec, inputs: dict, family: str) -> str:
         ("voltage drop", f"{r.voltage_drop_v:.2f} V = {r.voltage_drop_pct:.2f}% "
                          f"(target {spec.max_drop_pct:g}%)"),
         ("from service", f"{r.total_drop_pct:.2f}% (target {spec.max_total_drop_pct:g}%)"),
+        *([("starting drop", f"{r.starting_drop_pct:.2f}% at {_a(r.locked_rotor_a or 0)} "
+                             f"locked-rotor (target {spec.starting_drop_pct:g}%)")]
+          if r.starting_drop_pct is not None else []),
         ("drop method", method),
         ("EGC", egc),
         ("raceway", race),

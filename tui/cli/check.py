@@ -13,6 +13,7 @@ import sys
 from typing import Any
 
 from gaugewalk.model.walk.compute import JobResult, compute_job
+from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walkfile.read import WalkFileError, check_walk_text, read_walk_text
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
@@ -30,8 +31,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
 def _load_text(run) -> str:
     if run.load is None:
         return "(panel)"
-    pf = f" pf {run.load.pf:g}" if run.load.pf is not None else ""
-    return f"{run.load.value:g} {run.load.unit}{pf}"
+    return load_short(run.load)
 
 
 def results_json(path: str, job: Job, result: JobResult) -> dict:
@@ -42,19 +42,26 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         entry = {
             "id": r.id, "from": r.from_, "to": r.to, "feeder": job.is_feeder(r),
             "length": r.length, "length_ft": round(r.length_ft, 3), "load": _load_text(r),
-            "amps": None, "size": None, "sets": r.sets, "material": None, "ocpd_a": None,
+            "load_kind": r.load.kind if r.load is not None else "general",
+            "amps": None, "required_ampacity_a": None, "design_amps": None, "size": None,
+            "sets": r.sets, "material": None, "ocpd_a": None,
             "egc_size": None, "raceway": None, "raceway_size": None,
             "voltage_drop_pct": None, "total_drop_pct": None, "governed_by": None,
+            "flc_a": None, "locked_rotor_a": None, "starting_drop_pct": None, "kind_rule": None,
             "ok": False, "problems": [p.message for p in result.run_problems(r.id)],
         }
         if rr is not None:
             entry.update({
-                "amps": round(rr.amps, 3), "size": rr.size, "sets": rr.sets,
+                "amps": round(rr.amps, 3), "required_ampacity_a": round(rr.required_ampacity_a, 3),
+                "design_amps": round(rr.design_amps, 3), "size": rr.size, "sets": rr.sets,
                 "material": rr.material, "ocpd_a": rr.ocpd_a, "egc_size": rr.egc_size,
                 "raceway": rr.raceway, "raceway_size": rr.raceway_size,
                 "voltage_drop_pct": round(rr.voltage_drop_pct, 4),
                 "total_drop_pct": round(rr.total_drop_pct, 4),
-                "governed_by": rr.governed_by, "ok": rr.ok,
+                "governed_by": rr.governed_by, "flc_a": rr.flc_a,
+                "locked_rotor_a": _round(rr.locked_rotor_a, 1),
+                "starting_drop_pct": _round(rr.starting_drop_pct),
+                "kind_rule": rr.kind_rule, "ok": rr.ok,
             })
         runs.append(entry)
     sources = [

@@ -18,7 +18,8 @@ from textual.widget import Widget
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from gaugewalk.model.session.card_form import (
-    FIELD_KEYS, FIELDS, MAIN_KEYS, CardCheck, CardForm, choices, complete, label,
+    FIELD_KEYS, FIELDS, LOAD_KEYS, MAIN_KEYS, CardCheck, CardForm, choices, complete, label,
+    placeholder, shown,
 )
 from gaugewalk.model.session.session import WalkSession
 from gaugewalk.tui.app.keyorder import TypedInOrder
@@ -87,7 +88,8 @@ class RunCard(TypedInOrder, Screen):
                 for f in FIELDS:
                     if f.key == "panel":
                         yield Static("─ more (ctrl+o) ─", classes="card-rule")
-                    with Horizontal(classes="card-row" + (" card-main" if f.main else "")):
+                    with Horizontal(classes="card-row" + (" card-main" if f.main else ""),
+                                    id=f"row-{f.key}"):
                         yield Label(f.label, classes="card-label")
                         options = self._choices.get(f.key)
                         suggester = SuggestFromList(options, case_sensitive=False) if options else None
@@ -170,8 +172,23 @@ class RunCard(TypedInOrder, Screen):
         self._sticky = None
         self.recheck()
 
+    def _show_fields(self) -> None:
+        """Show the fields the load's kind needs (the nameplate only for a kind that reads one),
+        with the hint the kind gives."""
+        values = self.form.values
+        for key in LOAD_KEYS:
+            row = self.query_one(f"#row-{key}")
+            want = shown(key, values)
+            if row.display != want:
+                row.display = want
+            field = self._input(key)
+            hint = placeholder(key, values)
+            if field.placeholder != hint:
+                field.placeholder = hint
+
     def recheck(self, store_tried: bool = False) -> None:
         """Check every field, build the run if possible, size it and show it all."""
+        self._show_fields()
         checked = self.checked = self.form.check(store_tried)
         for k in FIELD_KEYS:
             if k in checked.soft:
@@ -227,6 +244,10 @@ class RunCard(TypedInOrder, Screen):
                 f"Run drop  [b]{res.voltage_drop_pct:.2f}%[/b] (max {own:g})",
                 f"From svc  [b]{res.total_drop_pct:.2f}%[/b] (max {total:g})",
                 f"Amps      {res.amps:.1f} A, sized {res.design_amps:.1f}",
+                *([f"Kind      {escape(res.load_kind)}: {escape(res.kind_rule)}"]
+                  if res.load_kind != "general" else []),
+                *([f"Start     {res.starting_drop_pct:.2f}% at {res.locked_rotor_a or 0:.0f} A"]
+                  if res.starting_drop_pct is not None else []),
                 f"EGC       {escape(res.egc_size or 'none')}",
                 f"Raceway   {escape(race)}",
                 f"OCPD      {res.ocpd_a} A",

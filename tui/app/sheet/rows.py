@@ -12,8 +12,10 @@ from gaugewalk.model.session.session import (
     STATUS_AMPS, STATUS_DROP, STATUS_ERROR, STATUS_OK, STATUS_TOTAL, WalkSession, fmt_ft,
 )
 from gaugewalk.model.walk.checks import connection_of, default_connection
+from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Run
 from gaugewalk.tables.conductor.sizes import size_index
+from gaugewalk.tables.equipment.horsepower import hp_text
 from gaugewalk.tui.app.widgets.runsheet import SheetRow
 
 
@@ -21,8 +23,12 @@ from gaugewalk.tui.app.widgets.runsheet import SheetRow
 def load_text(run: Run) -> str:
     if run.load is None:
         return "panel"
-    v = run.load.value
-    return f"{v:g}{run.load.unit}"
+    load = run.load
+    if load.value is None:
+        return load_short(load)  # a nameplate alone: "MCA 28 A"
+    if load.unit == "hp":
+        return f"{hp_text(load.value)}hp"
+    return f"{load.value:g}{load.unit}"
 
 
 def size_text(res: RunResult | None) -> str:
