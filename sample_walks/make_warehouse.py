@@ -56,11 +56,15 @@ def build() -> Job:
     ]
     runs: list[Run] = []
 
-    def add(rid, frm, to, length, load=None, **kw):
+    def add(rid, frm, to, length, load=None, plate=None, **kw):
+        """A run; ``load`` is (value, unit[, pf]), ``plate`` the load's kind and nameplate
+        (``{"kind": "hvac", "mca": 28, "mocp": 45}``), either or both."""
         data = {"id": rid, "from": frm, "to": to, "length": length, **kw}
+        if load is not None or plate is not None:
+            data["load"] = dict(plate or {})
         if load is not None:
-            data["load"] = {"value": load[0], "unit": load[1],
-                            **({"pf": load[2]} if len(load) > 2 else {})}
+            data["load"].update({"value": load[0], "unit": load[1],
+                                 **({"pf": load[2]} if len(load) > 2 else {})})
         runs.append(Run.model_validate(data))
 
     def route(base: int, spread: int) -> str:
@@ -96,18 +100,20 @@ def build() -> Job:
     # H3: dock doors, levelers, chargers, unit heaters, exhaust
     for door in range(1, 25):
         add(f"H3-D{door:02d}", "H3", f"Dock door {door} operator",
-            route(20 + 12 * abs(door - 12), 20), load=(2.1, "A"), connection="3P", bends=3)
+            route(20 + 12 * abs(door - 12), 20), load=(1, "hp"), connection="3P", bends=3)
     for n in range(1, 13):
         add(f"H3-C{n:02d}", "H3", f"Forklift charger {n}", route(60 + 6 * n, 40),
             load=(rng.choice([12, 14, 16]), "A"), connection="3P", continuous=True, bends=4)
     for n in range(1, 11):
         add(f"H3-UH{n:02d}", "H3", f"Unit heater UH-{n}", route(80 + 25 * n, 40),
-            load=(rng.choice([5, 7.5, 10]), "kW", 1.0), connection="3P", continuous=True, bends=4)
+            load=(rng.choice([5, 7.5, 10]), "kW"), plate={"kind": "heater"}, connection="3P",
+            bends=4)
     for n in range(1, 7):
         add(f"H3-EF{n}", "H3", f"Roof exhaust fan EF-{n}", route(120 + 40 * n, 30),
-            load=(3.0, "A"), connection="3P", bends=5)
-    add("H3-CMP", "H3", "Air compressor", "45+12", load=(27, "A"), connection="3P", bends=3)
-    add("H3-BAL", "H3", "Cardboard baler", "150+12+2*6", load=(34, "A"), connection="3P", bends=4)
+            load=(2, "hp"), connection="3P", bends=5)
+    add("H3-CMP", "H3", "Air compressor", "45+12", load=(20, "hp"), connection="3P", bends=3)
+    add("H3-BAL", "H3", "Cardboard baler", "150+12+2*6", load=(25, "hp"),
+        plate={"motor_device": "dual-element"}, connection="3P", bends=4)
 
     # L1 office panel: lighting, receptacles, HVAC
     for n in range(1, 25):
@@ -119,10 +125,13 @@ def build() -> Job:
             load=(rng.choice([6, 8, 10]) * 180, "VA"), distributed=True, connection="LN",
             bends=rng.randint(2, 5))
     for n in range(1, 4):
-        add(f"L1-RTU{n}", "L1", f"Office rooftop unit RTU-{n}", route(90 + 20 * n, 20),
-            load=(rng.choice([28, 32, 38]), "A"), connection="3P", continuous=True, bends=6)
-    add("L1-WH", "L1", "Water heater", "60+10", load=(4.5, "kW", 1.0), connection="LL",
-        continuous=True, bends=3)
+        length = route(90 + 20 * n, 20)
+        mca = rng.choice([28, 32, 38])
+        add(f"L1-RTU{n}", "L1", f"Office rooftop unit RTU-{n}", length,
+            plate={"kind": "hvac", "mca": mca, "mocp": {28: 45, 32: 50, 38: 60}[mca]},
+            connection="3P", bends=6)
+    add("L1-WH", "L1", "Water heater", "60+10", load=(4.5, "kW"),
+        plate={"kind": "water-heater", "tank_gal": 50}, connection="LL", bends=3)
     add("L1-EXT", "L1", "Parking lot poles", "380+40+2*6", load=(2400, "W", 0.95), connection="LN",
         continuous=True, distributed=True, bends=4, raceway="PVC-40",
         notes="Underground to 6 poles along the lot")
@@ -172,8 +181,8 @@ def build() -> Job:
             load=(rng.choice([4, 6]) * 180, "VA"), connection="LN", distributed=True, bends=2)
     add("L2A-LT", "L2A", "Shipping office lights", "60+8", load=(1200, "VA"), connection="LN",
         continuous=True, distributed=True, bends=3)
-    add("L2A-HP", "L2A", "Shipping office heat pump", "25+8", load=(18, "A"), connection="LL",
-        continuous=True, bends=3)
+    add("L2A-HP", "L2A", "Shipping office heat pump", "25+8",
+        plate={"kind": "hvac", "mca": 18, "mocp": 30}, connection="LL", bends=3)
 
     return Job(
         job=JobHeader(

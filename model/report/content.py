@@ -27,6 +27,11 @@ RUN_COLUMNS: tuple[str, ...] = (
     "Raceway", "Governed by", "Problems",
 )
 
+#: Columns of the equipment table: each run whose load is of a kind its article sizes.
+EQUIPMENT_COLUMNS: tuple[str, ...] = (
+    "Run", "Kind", "Load", "Conductors sized for [A]", "Device [A]", "Starting drop [%]", "Rule",
+)
+
 
 @dataclass(frozen=True)
 class ReportRun:
@@ -67,6 +72,7 @@ class Report:
     wire_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
     pull_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
     raceway_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
+    equipment_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]  # no rows: none
     fitting_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
     assumptions: tuple[str, ...]
     warnings: tuple[str, ...]
@@ -88,6 +94,17 @@ def load_text(run: Run, result: RunResult | None) -> str:
     if result is not None:
         return f"{result.amps:.1f} A served"
     return ""
+
+
+def equipment_row(run: Run, result: RunResult) -> tuple[str, ...]:
+    """A run's row of the equipment table (``EQUIPMENT_COLUMNS``): its kind, its load with the
+    nameplate, what the kind's rule sized the conductors for and the device it asked for, a
+    motor's starting drop, and the sections applied."""
+    start = ("" if result.starting_drop_pct is None
+             else _num(result.starting_drop_pct, 2)
+             + (f" at {result.locked_rotor_a:.0f} A" if result.locked_rotor_a else ""))
+    return (run.id, result.load_kind, load_text(run, result), _num(result.design_amps),
+            str(result.ocpd_a), start, result.kind_rule)
 
 
 def size_text(result: RunResult) -> str:
@@ -146,6 +163,7 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         header.append(("Notes", h.notes))
 
     rows = []
+    equipment_rows = []
     failing = 0
     for run in job.runs:
         result = results.get(run.id)
@@ -159,6 +177,8 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
             continue
         if result.problems:
             failing += 1
+        if result.load_kind != "general":
+            equipment_rows.append(equipment_row(run, result))
         rows.append(ReportRun(
             run.id, run.from_, run.to, _num(run.length_ft), run.length, load_text(run, result),
             size_text(result), _num(result.voltage_drop_pct, 2), _num(result.total_drop_pct, 2),
@@ -187,6 +207,7 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         wire_table=wire_table_of(takeoff),
         pull_table=pull_table_of(takeoff),
         raceway_table=raceway_table_of(takeoff),
+        equipment_table=(EQUIPMENT_COLUMNS, tuple(equipment_rows)),
         fitting_table=fitting_table_of(takeoff),
         assumptions=takeoff.assumptions,
         warnings=takeoff.warnings,

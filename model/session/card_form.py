@@ -475,7 +475,9 @@ def _check_kind(r: _Reading) -> None:
     if kind_text and kind_text not in vocab.LOAD_KINDS:
         r.errors["kind"] = f"one of {', '.join(vocab.LOAD_KINDS)} (blank: general)"
     else:
-        r.hints["kind"] = vocab.LOAD_KINDS[kind].split(" (")[0][:40]
+        words = vocab.LOAD_KINDS[kind]
+        cite = max(words.rfind(" (NEC "), words.rfind(" (common"))
+        r.hints["kind"] = words[cite + 2:-1] if cite >= 0 else words  # its sections
     try:
         plate = read_nameplate(r.v["plate"])
     except ValueError as exc:

@@ -481,3 +481,40 @@ async def test_enter_on_a_branch_run_in_the_supply_tree_opens_it_for_editing(tmp
         tree.move_cursor(r1)
         await pilot.press("enter")
         assert isinstance(app.screen, RunCard) and app.screen.run_id == "R1"
+
+
+async def test_the_card_takes_a_motor_by_horsepower_and_an_hvac_nameplate(tmp_path):
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(100, 40)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")
+        await type_text(pilot, "Pump\t100\t10hp")
+        app.screen.query_one("#f-circuit").focus()
+        await pilot.press("ctrl+a", "ctrl+k")
+        await type_text(pilot, "3P")
+        await pilot.pause()
+        assert app.screen.query_one("#f-kind").value == "motor"  # a load in hp is a motor
+        assert app.screen.query_one("#row-plate").display  # its device and code letter
+        # NEC 2023 Table 430.250, 208 V: 10 hp -> 30.8 A; Table 430.52(C)(1): 250 % -> 80 A
+        answer = shown(app, "#answer")
+        assert "Kind      motor" in answer and "OCPD      80 A" in answer
+        await pilot.press("enter")
+        await settle(app, pilot)
+        assert "Stored R2" in shown(app, "#card-msg")  # the card starts the next run
+        await type_text(pilot, "RTU-1\t50\t")
+        app.screen.query_one("#f-kind").focus()
+        await type_text(pilot, "hvac")
+        app.screen.query_one("#f-plate").focus()
+        await type_text(pilot, "mca 28 mocp 45")
+        app.screen.query_one("#f-circuit").focus()
+        await pilot.press("ctrl+a", "ctrl+k")
+        await type_text(pilot, "3P")
+        await pilot.pause()
+        # NEC 440.4(B), 440.22(A): 10 AWG on 45 A
+        assert "OCPD      45 A" in shown(app, "#answer")
+        await pilot.press("enter")
+        await settle(app, pilot)
+    runs = {r["to"]: r for r in tomllib.loads(path.read_text())["run"]}
+    assert runs["Pump"]["load"] == {"value": 10, "unit": "hp", "kind": "motor"}
+    assert runs["RTU-1"]["load"] == {"kind": "hvac", "mca": 28, "mocp": 45}

@@ -292,3 +292,70 @@ def test_an_id_written_with_leading_zeros_keeps_its_width(tmp_path):
     assert form.values["id"] == "LPB-02"
     form.type("from", "LPA")
     assert form.values["id"] == "LPA-12"
+
+
+# -- loads of a kind: the Kind and Nameplate fields --------------------------------------------
+
+def test_a_load_in_hp_makes_a_motor_run_sized_by_article_430(session):
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Pump", length="100", load="10hp", circuit="3P").check()
+    assert checked.errors == {} and form.values["kind"] == "motor"
+    assert form.values["continuous"] == "no"  # the motor rules, not 125 % continuous
+    run = checked.run
+    assert run is not None and (run.load.unit, run.load.kind) == ("hp", "motor")
+    # NEC 2023 Table 430.250, 208 V column: 10 hp -> 30.8 A; 430.22: 38.5 A; 75 C Cu
+    # (110.14(C)(1)(a)(4)): 10 AWG 35 A < 38.5, 8 AWG 50 A; Table 430.52(C)(1): 250 % x 30.8 =
+    # 77 A -> 80 A (430.52(C)(1)(a))
+    r = checked.result
+    assert (r.flc_a, r.size, r.ocpd_a) == (30.8, "8 AWG", 80)
+
+
+def test_an_hvac_run_is_typed_by_its_nameplate_alone(session):
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="RTU-1", length="50", kind="hvac", plate="mca 28 mocp 45",
+                     circuit="3P").check()
+    assert checked.errors == {}
+    assert (checked.run.load.mca, checked.run.load.mocp, checked.run.load.value) == (28, 45, None)
+    # NEC 440.4(B), 440.22(A): 10 AWG (60 C, 30 A) on 45 A
+    assert (checked.result.size, checked.result.ocpd_a) == ("10 AWG", 45)
+    assert "440.22" in checked.hints["kind"]
+
+
+def test_the_nameplate_field_shows_only_for_a_kind_that_reads_one(session):
+    from gaugewalk.model.session.card_form import placeholder, shown
+
+    assert not shown("plate", {"kind": "", "load": "16A", "plate": ""})
+    assert shown("plate", {"kind": "hvac", "load": "", "plate": ""})
+    assert shown("plate", {"kind": "", "load": "10hp", "plate": ""})  # a motor by its hp
+    assert placeholder("plate", {"kind": "welder", "load": "", "plate": ""}) == "i1eff 25 i1max 50"
+
+
+@pytest.mark.parametrize("texts, key, reason", [
+    ({"kind": "blender", "load": "5A"}, "kind", "one of general, motor"),
+    ({"kind": "hvac", "plate": "mca 28 zz 3"}, "plate", "'zz' is not a nameplate word"),
+    ({"kind": "hvac", "plate": "mca"}, "plate", "needs its value"),
+    ({"kind": "ev-charger", "load": "48A", "circuit": "LL", "continuous": "no"}, "continuous",
+     "NEC 625.42"),
+    ({"load": "10hp", "circuit": "3P", "continuous": "yes"}, "continuous", "430.22"),
+    ({"kind": "motor", "load": "5A", "plate": "mca 20"}, "plate", "mca is for a load of kind hvac"),
+])
+def test_a_wrong_kind_or_nameplate_is_named_at_its_field(session, texts, key, reason):
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Unit", length="40", **texts).check()
+    assert reason in checked.errors[key] and checked.run is None
+
+
+def test_a_run_of_a_kind_reads_back_into_the_card(session):
+    from gaugewalk.model.session.card_form import read_nameplate, run_to_fields
+
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Baler", length="60", load="1-1/2 hp", circuit="3P",
+                     plate="dual-element code G").check()
+    fields = run_to_fields(checked.run)
+    assert (fields["load"], fields["kind"], fields["plate"]) == ("1-1/2hp", "motor",
+                                                                 "dual-element code G")
+    assert read_nameplate(fields["plate"]) == {"motor_device": "dual-element", "code_letter": "G"}

@@ -112,6 +112,9 @@ def render_html(report: Report) -> str:
     problem_rows = {i for i, r in enumerate(report.runs) if r.problems}
     out.append(_table(RUN_COLUMNS, [r.cells() for r in report.runs],
                       problem_rows=problem_rows, label="Runs"))
+    if report.equipment_table[1]:
+        out.append("<h2>Equipment by its article</h2>")
+        out.append(_table(*report.equipment_table, label="Equipment by its article"))
 
     out.append("<h2>Conductor footage by size</h2>")
     out.append(footage_chart_svg(report))

@@ -65,6 +65,8 @@ def render_md(report: Report) -> str:
     out += ["## Summary", ""] + _table(("Item", "Value"), report.summary) + [""]
     out += ["## Defaults used", ""] + _table(("Setting", "Value"), report.defaults) + [""]
     out += ["## Runs", ""] + _table(RUN_COLUMNS, [r.cells() for r in report.runs]) + [""]
+    if report.equipment_table[1]:
+        out += ["## Equipment by its article", ""] + _table(*report.equipment_table) + [""]
     out += ["## Conductor footage by size", "", "Feet to order per size, with waste allowance:", ""]
     out += footage_chart_text(report) + [""]
     out += _table(("Material", "Size", "Net [ft]", "With waste [ft]"),

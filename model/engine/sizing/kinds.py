@@ -147,7 +147,8 @@ def continuous_refusal(kind: LoadKind, tank_gal: float | None, given: bool | Non
         return (f"{_CONTINUOUS_WHY[kind]} makes {what} continuous; leave continuous out or set "
                 f"it true")
     if given is True and kind in _ARTICLE_OF:
-        return f"continuous does not apply to a {kind}: {_ARTICLE_OF[kind]}; leave it out"
+        what = {"motor": "a motor", "hvac": "HVAC equipment", "welder": "a welder"}[kind]
+        return f"continuous does not apply to {what}: {_ARTICLE_OF[kind]}; leave it out"
     return None
 
 
