@@ -181,3 +181,71 @@ def test_amps_pass_through_and_bad_power_factors_are_refused():
 def test_a_multiwire_load_splits_over_its_two_hots():
     # 2400 VA balanced on 120/240 V: 10 A in each hot (S / 240 V)
     assert load_amps(2400, "VA", resolve_circuit("120/240V 1ph 3w", "MW")) == pytest.approx(10.0)
+
+
+# -- the trade's other circuits: two circuits on a wye, the high-leg delta, 120/208 V 1ph 3w ------
+
+@pytest.mark.parametrize(("text", "system_id"), [
+    ("240/120 delta", "240/120V 3ph 4w delta"), ("240/120 3ph", "240/120V 3ph 4w delta"),
+    ("120/208 1ph", "120/208V 1ph 3w"), ("120/208", "208Y/120V 3ph 4w"),
+    ("120/240", "120/240V 1ph 3w"),
+])
+def test_the_high_leg_delta_and_120_208_single_phase_are_read(text, system_id):
+    assert parse_system(text) == system_id
+
+
+def test_two_circuits_on_a_wye_drop_root_three_i_z_thirty_degrees_off():
+    # Two legs A and B of a 208Y/120 wye share the neutral; with equal currents I at the load
+    # angle, the neutral carries I_A + I_B, of magnitude I (120 degrees apart). Leg A's drop is
+    # I_A Z + (I_A + I_B) Z = I Z (2 + 1 at -120 deg) = I Z (1.5 - j0.866) = sqrt(3) I Z at
+    # -30 deg (Kirchhoff's voltage law; phasors by hand). The neutral counts as current-carrying
+    # (NEC 310.15(E)(2)); the hots open together (NEC 210.4(B)).
+    c = resolve_circuit("208Y/120V 3ph 4w", "MW2")
+    assert (c.volts, c.hots, c.neutral, c.neutral_is_ccc) == (120.0, 2, True, True)
+    assert c.drop_factor == pytest.approx(math.sqrt(3)) and c.drop_angle_deg == 30.0
+    assert current_carrying_conductors(c) == 3
+    assert any("210.4(B)" in n for n in c.notes) and any("310.15(E)(2)" in n for n in c.notes)
+    phasor = 2 + complex(math.cos(math.radians(-120)), math.sin(math.radians(-120)))
+    assert abs(phasor) == pytest.approx(math.sqrt(3))
+    assert math.degrees(math.atan2(phasor.imag, phasor.real)) == pytest.approx(-30)
+
+
+def test_a_two_circuit_multiwire_on_a_wye_drops_half_again_a_balanced_one_by_dc():
+    # NEC 2023 Ch. 9 Table 8: 12 AWG stranded uncoated Cu 1.98 ohm/kft at 75 C. 16 A per leg,
+    # 100 ft, DC method (resistance only): the worse leg's in-phase drop is
+    # sqrt(3) cos 30 deg x I R L = 1.5 x 16 x 1.98 x 0.1 = 4.752 V = 3.96 % of 120 V; a
+    # balanced 120/240 V multiwire, whose neutral carries nothing, drops 1 x I R L = 3.168 V.
+    from gaugewalk.model.engine.contract import RunSpec
+    from gaugewalk.model.engine.sizing import evaluate
+
+    def drop(system: str) -> float:
+        c = resolve_circuit(system, "MW2")
+        spec = RunSpec(circuit=c, amps=16.0, length_ft=100.0, size="12 AWG", method="dc",
+                       max_drop_pct=10.0)
+        return evaluate(spec).voltage_drop_v
+
+    assert drop("208Y/120V 3ph 4w") == pytest.approx(4.752, rel=1e-3)
+    assert drop("120/240V 1ph 3w") == pytest.approx(3.168, rel=1e-3)
+
+
+def test_120_208_single_phase_three_wire_is_two_phases_of_a_wye():
+    # its multiwire is the two-circuit multiwire on a wye; no three-phase loads
+    mw = resolve_circuit("120/208V 1ph 3w", "MW")
+    assert mw.drop_angle_deg == 30.0 and mw.neutral_is_ccc
+    assert resolve_circuit("120/208V 1ph 3w", "LL").volts == 208.0
+    with pytest.raises(CircuitError, match="single-phase"):
+        resolve_circuit("120/208V 1ph 3w", "3P")
+
+
+def test_the_high_leg_delta_marks_its_high_leg_and_keeps_120_v_loads_off_it():
+    # NEC 110.15: on a 4-wire delta the phase with the higher voltage to ground (about 208 V,
+    # 240 x sqrt(3) / 2) is marked orange; 120 V loads go between A or C and the neutral.
+    assert 240 * math.sqrt(3) / 2 == pytest.approx(207.8, abs=0.05)
+    ln = resolve_circuit("240/120V 3ph 4w delta", "LN")
+    assert ln.volts == 120.0 and any("110.15" in n and "A and C" in n for n in ln.notes)
+    three = resolve_circuit("240/120V 3ph 4w delta", "3P")
+    assert three.volts == 240.0 and three.drop_factor == pytest.approx(math.sqrt(3))
+    # A and C with the neutral are the 120/240 V single-phase of the centre-tapped winding: the
+    # neutral carries only the unbalance (NEC 310.15(E)(1))
+    mw = resolve_circuit("240/120V 3ph 4w delta", "MW")
+    assert (mw.drop_factor, mw.neutral_is_ccc) == (1.0, False)
