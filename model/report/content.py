@@ -198,7 +198,10 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         title=f"Site walk report: {h.name}" if h.name else "Site walk report",
         header=tuple(header),
         caution=CAUTION,
-        defaults=_defaults(job),
+        defaults=_defaults(job) + (
+            (("Motor starting drop target [%]",
+              f"{job.defaults.starting_drop_pct:g} (common practice: 10 to 15)"),)
+            if any(r[1] == "motor" for r in equipment_rows) else ()),
         runs=tuple(rows),
         summary=summary,
         footage=takeoff.footage_by_size(),

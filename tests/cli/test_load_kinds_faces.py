@@ -67,6 +67,13 @@ def test_calc_sizes_hvac_ev_water_heater_and_welder_as_their_articles_say(capsys
     assert (d["size"], d["ocpd_a"], d["load_kind"]) == ("10 AWG", 50, "welder")
 
 
+def test_lighting_is_continuous_unless_told_not(capsys):
+    # common practice: lighting burns 3 h or more; 16 A x 1.25 = 20 A (NEC 210.19(A)(1))
+    argv = ("--kind", "lighting", "--amps", "16", "--volts", "277", "--length", "60")
+    assert calc_json(capsys, *argv)["design_amps"] == 20.0
+    assert calc_json(capsys, *argv, "--no-continuous")["design_amps"] == 16.0
+
+
 def test_calc_text_names_the_kind_and_the_starting_drop(capsys):
     assert main(["calc", "--hp", "25", "--volts", "460", "--phase", "3", "--length", "100"]) == 0
     out = capsys.readouterr().out
@@ -79,6 +86,8 @@ def test_calc_text_names_the_kind_and_the_starting_drop(capsys):
     (["--amps", "20", "--mca", "28"], "argument --mca: is for --kind hvac, not general"),
     (["--kind", "hvac", "--mca", "28", "--mocp", "45", "--continuous"],
      "argument --continuous: continuous does not apply to HVAC equipment"),
+    (["--kind", "ev-charger", "--amps", "48", "--no-continuous"],
+     "argument --continuous: NEC 625.42 makes an EV charger's load continuous"),
     (["--hp", "2-1/3"], "Table 430.250 lists no 2-1/3 hp motor"),
     (["--hp", "lots"], "argument --hp: 'lots' is not a horsepower"),
     (["--hp", "25", "--code-letter", "I"], "code letter of NEC Table 430.7(B)"),
@@ -164,6 +173,7 @@ def test_the_report_lists_each_equipment_run_with_its_rule(shop, tmp_path, capsy
     section = text.split("## Equipment by its article", 1)[1].split("\n## ", 1)[0]
     assert "| R1 | motor | 25 hp motor (34 A full-load) | 42.5 | 90 |" in section
     assert "Table 430.52(C)(1)" in section and "| R2 |" not in section
+    assert "| Motor starting drop target \\[%\\] | 15 (common practice: 10 to 15) |" in text
 
 
 def test_a_walk_without_equipment_has_no_equipment_section(shop, tmp_path, capsys):
@@ -171,4 +181,5 @@ def test_a_walk_without_equipment_has_no_equipment_section(shop, tmp_path, capsy
           "--connection", "LN"])
     out = tmp_path / "shop.md"
     assert main(["report", str(shop), "-o", str(out)]) == 0
-    assert "Equipment by its article" not in out.read_text()
+    text = out.read_text()
+    assert "Equipment by its article" not in text and "starting drop" not in text

@@ -42,9 +42,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--id", dest="run_id", help="run id (default: the next free R-number)")
     parser.add_argument("--connection", choices=tuple(CONNECTIONS),
                         help="how the load is wired (default: every hot and the neutral)")
-    parser.add_argument("--continuous", action="store_true",
-                        help="load runs 3 h or more (EV chargers, water heaters and heaters are "
-                        "by their article, lighting by default)")
+    parser.add_argument("--continuous", action=argparse.BooleanOptionalAction, default=None,
+                        help="load runs 3 h or more (default: by its kind; EV chargers, water "
+                        "heaters and heaters are by their article, lighting by default)")
     parser.add_argument("--spread", action="store_true",
                         help="load spread evenly along the run rather than at its end")
     parser.add_argument("--sets", type=int, help="conductors in parallel per phase")
@@ -74,8 +74,8 @@ def _run_data(args: argparse.Namespace, run_id: str) -> dict:
         "max_drop_pct": args.max_drop, "bends": args.bends, "measured_on": args.measured_on,
     }
     data.update({k: v for k, v in options.items() if v is not None})
-    if args.continuous:
-        data["continuous"] = True
+    if args.continuous is not None:
+        data["continuous"] = args.continuous
     if args.spread:
         data["distributed"] = True
     if args.notes:

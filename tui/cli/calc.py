@@ -143,7 +143,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="raceway type (EMT, RMC, PVC-40...) or family (steel, pvc, aluminum)")
     parser.add_argument("--insulation", type=_insulation, default="THHN/THWN-2", metavar="TYPE",
                         help="conductor insulation (default THHN/THWN-2)")
-    parser.add_argument("--continuous", action="store_true", default=None,
+    parser.add_argument("--continuous", action=argparse.BooleanOptionalAction, default=None,
                         help="the load runs 3 hours or more (125%% for sizing; EV chargers, "
                         "water heaters and heaters are by their article, lighting by default)")
     parser.add_argument("--starting-drop", type=_number(), default=15.0, metavar="PCT",
