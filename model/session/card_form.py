@@ -371,12 +371,21 @@ def circuit_for_load(system_id: str, load: LoadText) -> str:
     raise ValueError(f"{system_id} gives {gives}: not {said}")
 
 
-def default_branch_circuit(system_id: str) -> str:
-    """A branch run's circuit when nothing says otherwise: one pole and the neutral where the
-    system has a neutral (the usual branch circuit, common practice), else two poles."""
-    from gaugewalk.model.engine.circuits import SYSTEMS
+def default_branch_circuit(system_id: str, values: dict[str, str] | None = None) -> str:
+    """A branch run's circuit when nothing says otherwise, by the kind of load the card's
+    texts say (``branch_circuit_for_kind``: one pole and the neutral for general loads, two
+    poles for chargers and heaters, every hot for motors of 1 hp or more and HVAC)."""
+    from gaugewalk.model.walk.checks import branch_circuit_for_kind
 
-    return "LN" if SYSTEMS[system_id].has_neutral else "LL"
+    values = values or {}
+    hp = None
+    try:
+        if values.get("load", "").strip():
+            read = read_load_text(values["load"])
+            hp = read.value if read.unit == "hp" else None
+    except LoadError:
+        hp = None
+    return branch_circuit_for_kind(system_id, kind_in(values), hp)
 
 
 def circuit_words(circuit) -> str:
@@ -810,8 +819,9 @@ class CardForm:
         A feeder's circuit is blank: every hot and the neutral its panel needs (the walk checks
         it delivers the panel's system). A branch run's circuit is never left blank, which
         would mean every hot and the neutral of the source: it is what the load states (its
-        voltage, poles or phases), else the last branch run's from the same source, else one
-        pole and the neutral (``default_branch_circuit``); the card shows it in words. The
+        voltage, poles or phases), else the last branch run's from the same source when it is
+        the same kind of load, else the kind's usual circuit (``default_branch_circuit``); the
+        card shows it in words. The
         other fields copy the last branch run from the same source."""
         s = self.session
         source_id = v["from"].strip()
@@ -833,7 +843,10 @@ class CardForm:
                     stated = circuit_for_load(source.system, load)
             except (LoadError, ValueError):
                 stated = None  # the load field says what is wrong
-            copied["circuit"] = stated or copied["circuit"] or default_branch_circuit(source.system)
+            like_kind = like.load.kind if like is not None and like.load is not None else None
+            same_kind = like_kind is None or like_kind == kind_in(v)
+            copied["circuit"] = (stated or (copied["circuit"] if same_kind else "")
+                                 or default_branch_circuit(source.system, v))
         copied["id"] = self.next_id(same if same is not None and same.from_ == source_id else None, feeder)
         kind = kind_in(v)
         copied["kind"] = kind if kind == "motor" and not v.get("kind", "").strip() else v.get("kind", "")

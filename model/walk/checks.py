@@ -35,6 +35,50 @@ def default_connection(system_id: str, to_transformer: bool = False) -> str:
     return _FULL_CONNECTION[(system.phases, system.has_neutral)]
 
 
+_TWO_POLE_KINDS = ("ev-charger", "water-heater", "heater", "welder")
+"""Kinds wired line to line when nothing says otherwise (common practice: 208/240 V chargers,
+water heaters, heaters and welders)."""
+
+_SMALL_MOTOR_MAX_LN_V = 127.0
+"""A motor under 1 hp is taken as a 115 V single-phase motor only where the system gives about
+120 V to neutral (Table 430.248's 115 V column); elsewhere it takes every hot (common practice)."""
+
+
+def branch_circuit_for_kind(system_id: str, kind: str = "general",
+                            hp: float | None = None) -> str:
+    """A branch run's circuit when nothing says otherwise, by what the load is (common
+    practice; the run card and ``add`` write it into the walk and show it in words):
+    lighting, receptacles and general loads take one pole and the neutral; EV chargers, water
+    heaters, heaters and welders two poles; motors of 1 hp or more and HVAC equipment every
+    hot without the neutral (three poles on a three-phase system), smaller motors one pole and
+    the neutral where that gives about 120 V. A system with no neutral gives two poles where one was meant."""
+    system = SYSTEMS[system_id]
+    if system.hots == 1:
+        return "LN"
+    every_hot = "3P" if system.phases == 3 else "LL"
+    small_motor_ln = (hp is not None and hp < 1 and system.line_to_neutral_v is not None
+                      and system.line_to_neutral_v <= _SMALL_MOTOR_MAX_LN_V)
+    if kind == "hvac" or (kind == "motor" and not small_motor_ln):
+        return every_hot
+    if kind in _TWO_POLE_KINDS or not system.has_neutral:
+        return "LL"
+    return "LN"
+
+
+def unstated_circuit_note(job: Job, run: Run) -> str | None:
+    """A branch run with no connection in the walk is computed on every hot and the neutral
+    of its source (the file's default, ``default_connection``); where that source offers more
+    than one circuit, say so rather than pass it silently."""
+    if run.connection is not None or job.is_feeder(run):
+        return None
+    source = job.source(run.from_)
+    if source is None or source.system not in SYSTEMS or SYSTEMS[source.system].hots == 1:
+        return None
+    taken = default_connection(source.system)
+    return (f"circuit not stated in the walk: computed as {taken} (every hot and the neutral "
+            f"of {source.id}); state the run's connection if the load is wired otherwise")
+
+
 def connection_of(job: Job, run: Run) -> str | None:
     """The run's connection, or its default from the source's system; None if the source is
     unknown."""

@@ -23,7 +23,7 @@ from __future__ import annotations
 
 import gc
 import math
-from dataclasses import MISSING, dataclass, field, fields
+from dataclasses import MISSING, dataclass, field, fields, replace
 
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec
@@ -31,7 +31,7 @@ from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import upstream_drop
-from gaugewalk.model.walk.checks import connection_of, default_connection
+from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
 from gaugewalk.model.walk.equipment import load_facts
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
@@ -280,6 +280,10 @@ class WalkState:
             self.forget(r)
             self.fail(r, str(exc))
             return
+        if r.connection is None and not is_feeder:
+            note = unstated_circuit_note(self.job, r)
+            if note is not None:
+                result = replace(result, notes=(note, *result.notes))
         res._specs[r.id] = spec
         self.store(r, result, is_feeder, spec)
 

@@ -12,7 +12,10 @@ import sys
 
 from pydantic import ValidationError
 
+from gaugewalk.model.engine.circuits import resolve_circuit
 from gaugewalk.model.engine.vocabulary import CONNECTIONS, MATERIALS, TERMINAL_TEMPS
+from gaugewalk.model.session.card_form import circuit_words
+from gaugewalk.model.walk.checks import branch_circuit_for_kind
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.job import Run
 from gaugewalk.model.walk.problems import Locator, problems_from_errors
@@ -41,7 +44,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--pf", type=float, help="power factor of the load (0 to 1]")
     parser.add_argument("--id", dest="run_id", help="run id (default: the next free R-number)")
     parser.add_argument("--connection", choices=tuple(CONNECTIONS),
-                        help="how the load is wired (default: every hot and the neutral)")
+                        help="how the load is wired (default for a branch run: the usual circuit "
+                        "for its kind of load, said when added; for a feeder: every hot and "
+                        "the neutral)")
     parser.add_argument("--continuous", action=argparse.BooleanOptionalAction, default=None,
                         help="load runs 3 h or more (default: by its kind; EV chargers, water "
                         "heaters and heaters are by their article, lighting by default)")
@@ -96,6 +101,12 @@ def run(args: argparse.Namespace) -> int:
     if refusal is not None:
         print(f"{args.file}: {refusal}", file=sys.stderr)
         return EXIT_INVALID
+    stated_circuit = args.connection is not None
+    source = job.source(args.from_)
+    if not stated_circuit and source is not None and job.source(args.to) is None:
+        load = load_table(args) or {}
+        hp = load.get("value") if load.get("unit") == "hp" else None
+        args.connection = branch_circuit_for_kind(source.system, load.get("kind", "general"), hp)
     run_id = args.run_id or job.next_run_id("R")
     if job.run(run_id) is not None:
         print(f"{args.file}, run {run_id}: that id is already used; choose another with --id",
@@ -123,4 +134,8 @@ def run(args: argparse.Namespace) -> int:
         if rr.problems:
             summary += "; " + "; ".join(rr.problems)
     print(summary)
+    if not stated_circuit and new.connection is not None and source is not None:
+        words = circuit_words(resolve_circuit(source.system, new.connection))
+        print(f"  circuit {new.connection}: {words}, the usual for this kind of load; "
+              "give --connection if it is wired otherwise")
     return EXIT_OK
