@@ -10,14 +10,15 @@ Public API (other modules code against these names):
 - ``JobHeader``: name, site, walked_on, walked_by, notes.
 - ``Defaults``: conductor material, insulation, raceway, terminal temperature, ambient, drop
   targets (branch, feeder, total, motor starting), drop method, power factor, conductor
-  temperature, slack per end,
-  waste allowance, colour scheme.
+  temperature, slack per end, waste allowance, colour scheme, whether the drop carries through
+  transformers, the feeder basis.
 - ``Source``: id, kind (``service`` | ``switchboard`` | ``panel`` | ``transformer``), system (for a
-  transformer: its secondary), name, kva, rating_a, notes. What feeds a source is the run whose
+  transformer: its secondary), name, kva, rating_a (bus), main_a, spaces, the transformer's
+  impedance_pct, protection and secondary_ocpd_a, notes. What feeds a source is the run whose
   ``to`` is the source's id (a service is fed by the utility).
 - ``Run``: id, ``from_`` (``from`` in the file), to, length (as typed) and ``length_ft``, segments,
   load (``Load``: value, unit, pf, kind and the nameplate values of its kind), continuous (None:
-  as the kind says), distributed, connection, sets, size, ocpd_a,
+  as the kind says), distributed, connection, position, phase, sets, size, ocpd_a, basis,
   per-run overrides of the defaults (None: inherit), bends, measured_on, notes.
 - ``SCHEMA_VERSION``, ``OVERRIDABLE`` (run fields that fall back to defaults). The words the
   fields accept are in ``gaugewalk.model.engine.vocabulary`` and ``gaugewalk.model.walk.vocabulary``.
@@ -67,7 +68,13 @@ from gaugewalk.model.engine.vocabulary import (
     TerminalTemp,
     WelderType,
 )
-from gaugewalk.model.walk.vocabulary import SourceKind
+from gaugewalk.model.walk.vocabulary import (
+    MAX_POSITION,
+    FeederBasis,
+    Phase,
+    Protection,
+    SourceKind,
+)
 from gaugewalk.tables.conductor.ampacity import parse_insulation
 from gaugewalk.tables.conductor.sizes import parse_size
 from gaugewalk.tables.equipment.horsepower import hp_text, parse_hp
@@ -222,6 +229,14 @@ class Defaults(_Strict):
     putups: list[PutUp] | None = None
     """Boxes and reels the takeoff orders in; None: 500 ft boxes for 14-10 AWG and 1,000 and
     2,500 ft reels (common practice, ``gaugewalk.tables.order.putups``)."""
+    drop_through_transformers: bool = True
+    """The drop from the service carries through a transformer, its own drop at its load
+    included (IEEE Std 141 approximation); false: the drop restarts at 0 % on each secondary
+    (as when the taps make up the drop upstream)."""
+    feeder_basis: FeederBasis = "load"
+    """What a feeder is sized for: ``load`` (the heaviest line of what it serves, NEC
+    215.2(A)(1)) or ``equipment`` (the main device, else the bus rating, of the panel it feeds;
+    common practice); a feeder's ``basis`` overrides it."""
 
 
 
@@ -373,8 +388,8 @@ grammar of ``gaugewalk.model.engine.lengths`` must read."""
 class Source(_Strict):
     """Something that feeds runs: the service, a switchboard, a panel or a transformer.
 
-    A transformer starts a new system: ``system`` is its secondary, and cumulative drop restarts
-    on its secondary.
+    A transformer starts a new system: ``system`` is its secondary; the drop from the service
+    carries through it, or restarts on its secondary (``Defaults.drop_through_transformers``).
     """
 
     id: str
@@ -388,7 +403,21 @@ class Source(_Strict):
     kva: float | None = Field(None, gt=0.0, le=1e5)
     """Transformer rating [kVA]."""
     rating_a: int | None = Field(None, gt=0, le=10000)
-    """Bus or main rating [A]."""
+    """Bus rating [A] (NEC 408.30)."""
+    main_a: int | None = Field(None, gt=0, le=10000)
+    """Main device rating [A]; None: main lugs only (NEC 408.36: the panel is then protected by
+    its feeder's device)."""
+    spaces: int | None = Field(None, ge=1, le=MAX_POSITION)
+    """Breaker positions (spaces) it has; None: not given, so no position is checked against the
+    end."""
+    impedance_pct: float | None = Field(None, gt=0.0, le=25.0)
+    """Transformer nameplate impedance [%]; None: a typical value, stated as assumed."""
+    protection: Protection = "primary"
+    """Transformer protection by NEC Table 450.3(B): ``primary`` (primary only) or ``both``
+    (primary and secondary)."""
+    secondary_ocpd_a: int | None = Field(None, gt=0, le=10000)
+    """Transformer secondary device at the transformer [A]; None: the secondary conductors end in
+    the main of the panel they feed (NEC 240.21(C))."""
     notes: str = ""
     """Where it is, what it looks like."""
 
@@ -396,6 +425,19 @@ class Source(_Strict):
     @classmethod
     def _usable_id(cls, value: str) -> str:
         return _check_id(value)
+
+    @model_validator(mode="after")
+    def _transformer_keys(self) -> Source:
+        if self.kind != "transformer":
+            given = [k for k in ("impedance_pct", "secondary_ocpd_a") if getattr(self, k)
+                     is not None]
+            if self.protection != "primary":
+                given.append("protection")
+            if given:
+                verb = "belongs" if len(given) == 1 else "belong"
+                raise ValueError(f"{' and '.join(given)} {verb} to a transformer, not a "
+                                 f"{self.kind}")
+        return self
 
     @field_validator("system")
     @classmethod
@@ -430,12 +472,20 @@ class Run(_Strict):
     connection: Connection | None = None
     """How the load is wired to the source's system; None: every hot and the neutral it offers
     (a feeder to a transformer: the hots only)."""
+    position: int | None = Field(None, ge=1, le=MAX_POSITION)
+    """Breaker position (circuit number) in its source; a k-pole circuit at p takes p, p+2, ...
+    (same side). None: placed to balance the lines."""
+    phase: Phase | None = None
+    """The line or lines it lands on (``A``, ``B``, ``C``, ``AB``, ``BC``, ``CA``, ``ABC``), when
+    no position says so; None: from the position, else placed."""
     sets: int = Field(1, ge=MIN_SETS, le=MAX_SETS)
     """Conductors in parallel per phase (NEC 310.10(G))."""
     size: SizeName | None = None
     """Conductor size fixed by the user, e.g. ``3/0 AWG``; None: picked."""
     ocpd_a: int | None = Field(None, gt=0, le=6000)
     """Breaker or fuse rating fixed by the user [A]; None: next standard rating (NEC 240.6(A))."""
+    basis: FeederBasis | None = None
+    """A feeder's sizing basis (``load`` or ``equipment``); None: the job's ``feeder_basis``."""
     material: Material | None = None
     """Conductor material; None: the job default."""
     insulation: InsulationName | None = None

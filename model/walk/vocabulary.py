@@ -5,6 +5,15 @@ Public API:
 
 - ``SourceKind``, ``SOURCE_KINDS``: what feeds runs: the ``service`` (fed by the utility), a
   ``switchboard``, a ``panel`` or a ``transformer`` (which starts a new system).
+- ``Phase``, ``PHASES``: the line or lines a run lands on in its source, with the lines of each
+  (``A``, ``B``, ``C``, ``AB``, ``BC``, ``CA``, ``ABC``; lines counted from 0 for A).
+- ``LINE_NAMES``: the names of a source's lines, A to C.
+- ``MAX_POSITION``: the highest breaker position a walk takes (common practice: panelboards have
+  up to 84 spaces; a switchboard's distribution sections more).
+- ``FeederBasis``, ``FEEDER_BASES``: what a feeder is sized for: the ``load`` it serves, or the
+  ``equipment`` it feeds (its main device or bus rating; common practice).
+- ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
+  ``primary`` only, or on the primary and the secondary (``both``).
 """
 
 from __future__ import annotations
@@ -13,3 +22,30 @@ from typing import Literal, get_args
 
 SourceKind = Literal["service", "switchboard", "panel", "transformer"]
 SOURCE_KINDS: tuple[SourceKind, ...] = get_args(SourceKind)
+
+Phase = Literal["A", "B", "C", "AB", "BC", "CA", "ABC"]
+PHASES: dict[Phase, tuple[int, ...]] = {
+    "A": (0,), "B": (1,), "C": (2,), "AB": (0, 1), "BC": (1, 2), "CA": (2, 0), "ABC": (0, 1, 2),
+}
+"""Each phase word and its lines (0 for A, 1 for B, 2 for C), in pole order."""
+
+LINE_NAMES = ("A", "B", "C")
+
+MAX_POSITION = 200
+
+FeederBasis = Literal["load", "equipment"]
+FEEDER_BASES: dict[FeederBasis, str] = {
+    "load": "the load it serves, on its heaviest line (NEC 215.2(A)(1))",
+    "equipment": "the equipment it feeds: its main device, else its bus rating (common practice)",
+}
+
+Protection = Literal["primary", "both"]
+PROTECTIONS: dict[Protection, str] = {
+    "primary": "primary only (NEC Table 450.3(B), primary 125 %)",
+    "both": "primary and secondary (NEC Table 450.3(B), primary up to 250 %, secondary 125 %)",
+}
+
+for _literal, _values in ((Phase, PHASES), (FeederBasis, FEEDER_BASES),
+                          (Protection, PROTECTIONS)):
+    if get_args(_literal) != tuple(_values):  # keep each Literal and its table in step
+        raise TypeError(f"{_literal} and its table differ: {tuple(_values)}")
