@@ -102,6 +102,13 @@ class RunSpec:
                                            # e.g. 12 AWG for power; common practice), None: no floor
     equipment: Equipment | None = None     # the load's kind and nameplate; None: general
     starting_drop_pct: float = 15.0        # [%] motor starting-drop target (common practice)
+    neutral_amps: float | None = None      # [A] the current the neutral carries, a feeder's
+                                           # maximum unbalance (NEC 220.61): the neutral is then
+                                           # sized for it; None: the neutral is the phase size
+    min_ampacity_a: float | None = None    # [A] the conductors' ampacity must be at least this,
+                                           # with no next size up (e.g. NEC 240.21(C): transformer
+                                           # secondary conductors not below the device they end
+                                           # in); None: no such rule
 
 
 @dataclass(frozen=True)

@@ -31,6 +31,7 @@ from gaugewalk.model.engine.sizing.currents import (
 )
 from gaugewalk.model.engine.sizing.egc import egc_for
 from gaugewalk.model.engine.sizing.kinds import STARTING_PF, locked_rotor, rule_for
+from gaugewalk.model.engine.sizing.neutral import neutral_for
 from gaugewalk.model.engine.sizing.pick import pick_conductor, size_problems
 from gaugewalk.model.engine.sizing.raceway import raceway_fill
 from gaugewalk.model.engine.sizing.spec import SizingError, check_spec
@@ -206,6 +207,11 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         st.rtype, hots, neutral)
     notes.extend(er_notes)
     problems.extend(er_problems)
+    neutral_size = size if neutral else None
+    if neutral and spec.neutral_amps is not None:
+        neutral_size, n_notes = neutral_for(i, float(spec.neutral_amps), egc_size, material,
+                                            cols, tab)
+        notes.extend(n_notes)
 
     margins = {
         "ampacity_a": allowable_total - amps,
@@ -234,7 +240,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     values["voltage_drop_pct"] = vd_pct
     values["total_drop_pct"] = total_pct
     values["egc_size"] = egc_size
-    values["neutral_size"] = size if neutral else None
+    values["neutral_size"] = neutral_size
     values["raceway"] = st.rtype
     values["raceway_size"] = raceway_size
     values["raceway_fill_pct"] = fill_pct

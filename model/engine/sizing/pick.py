@@ -10,7 +10,11 @@ every rule it fails named.
 3. the drop targets: this run's drop and the drop from the service (informational notes to
    210.19(A) and 215.2(A); recommendations, made binding here as the job's targets);
 4. the job's minimum size (a job specification; common practice);
-5. conductors in parallel are 1/0 AWG and larger (310.10(G)).
+5. conductors in parallel are 1/0 AWG and larger (310.10(G));
+6. where a rule of the walk asks it (``RunSpec.min_ampacity_a``), an ampacity of at least that
+   much, the allowable ampacity (the smaller of the terminal column and the corrected
+   insulation column) with no next size up: transformer secondary conductors are not below the
+   device they end in (240.21(C), where 240.4(B) does not apply).
 
 Public API: ``pick_conductor`` (returns ``Pick``: the size index, what governed it, the
 smallest size index meeting rule 1, rules 1-2, rules 1-4, and the 240.4(D) limit of the size
@@ -76,8 +80,12 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
     term_tot, corr_tot = cols.term_total, cols.corrected_total
     if protect is None:
         protect = cols.protect_limit
+    mina = spec.min_ampacity_a
+    allow_tot = cols.allowable_total
     for i in range(cols.first, len(z)):
         if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
+            continue
+        if mina is not None and allow_tot[i] + _EPS < mina:
             continue
         if min_amp_i is None:
             min_amp_i = i
@@ -119,6 +127,11 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
         problems.append(
             f"no single {mat} size up to {sizes[i]} meets the ampacity, device and voltage-drop "
             f"limits with {sets} set{'s' if sets > 1 else ''}{hint(spec) if hint else ''}")
+
+    if mina is not None and (spec.size is not None or pick_i is None) \
+            and cols.allowable_total[i] + _EPS < mina:
+        problems.append(f"{sizes[i]} {mat} carries {amps_text(cols.allowable_total[i])}; these "
+                        f"conductors need at least {amps_text(mina)} (no next size up)")
 
     # 240.4(D) and 310.10(G) for the size
     sm = tab.small_max[i] if small_rule else None

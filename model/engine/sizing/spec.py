@@ -66,7 +66,8 @@ def check_spec(spec: RunSpec) -> None:
             and 0 <= spec.upstream_drop_pct < math.inf
             and -40 <= spec.conductor_temp_c <= 250
             and (ms is None or (ms.__class__ is str and _size_known(ms)))
-            and (oc is None or (oc.__class__ is int and oc > 0))):
+            and (oc is None or (oc.__class__ is int and oc > 0))
+            and spec.min_ampacity_a is None and spec.neutral_amps is None):
         return
     _check_spec_fields(spec)
 
@@ -108,3 +109,9 @@ def _check_spec_fields(spec: RunSpec) -> None:
             raise SizingError(f"min_size: {exc}") from None
     if spec.ocpd_a is not None and (spec.ocpd_a.__class__ is not int or spec.ocpd_a <= 0):
         raise SizingError(f"ocpd_a must be a whole number of amperes, not {spec.ocpd_a!r}")
+    na = spec.neutral_amps
+    if na is not None and (na.__class__ not in _NUMBER or not 0 <= na < math.inf):
+        raise SizingError(f"neutral_amps must be a number of zero or more, not {na!r}")
+    mina = spec.min_ampacity_a
+    if mina is not None and _bad_positive(mina):
+        raise SizingError(f"min_ampacity_a must be a number above zero, not {mina!r}")

@@ -1,0 +1,36 @@
+"""A feeder's neutral sized for the current it carries: NEC 220.61 makes the feeder neutral load
+the maximum unbalance of the load, so the neutral may be smaller than the phase conductors.
+
+The neutral is the smallest size whose allowable ampacity (the same columns and corrections as
+the phase conductors, ``columns.ampacity_columns``) carries that current, no smaller than the
+EGC the feeder's device asks (NEC 215.2(A)(2), Table 250.122), no larger than the phase
+conductors, and 1/0 AWG or larger in parallel sets (310.10(G)). The loads are taken as linear:
+where most of them are nonlinear (electronic) on a four-wire wye, 220.61(C) forbids the
+reduction, and the walk does not know that, so the note says so. The 70 % demand factor of
+220.61(B) on the unbalance above 200 A is not taken (conservative).
+
+Public API: ``neutral_for(i, neutral_amps, egc_size, cols, tab) -> (size, notes)``.
+"""
+
+from __future__ import annotations
+
+from gaugewalk.model.engine.sizing.columns import MAT, AmpacityColumns, MaterialTable, cmil
+from gaugewalk.model.engine.sizing.text import amps_text
+
+_EPS = 1e-9
+
+
+def neutral_for(i: int, neutral_amps: float, egc_size: str | None, material: str,
+                cols: AmpacityColumns, tab: MaterialTable) -> tuple[str, tuple[str, ...]]:
+    """The neutral for phase conductors of size index ``i`` carrying ``neutral_amps`` [A]."""
+    floor = cmil(egc_size) if egc_size is not None else 0.0
+    allow = cols.allowable_total
+    for j in range(cols.first, i):
+        if allow[j] + _EPS >= neutral_amps and tab.cmil[j] + _EPS >= floor:
+            size = tab.sizes[j]
+            return size, (
+                f"NEC 220.61: the neutral carries {amps_text(neutral_amps)} (the maximum "
+                f"unbalance): {size} {MAT[material]}, not below the EGC (215.2(A)(2)); loads "
+                "taken as linear (220.61(C): no reduction where most are nonlinear on a "
+                "4-wire wye)",)
+    return tab.sizes[i], ()
