@@ -225,19 +225,15 @@ class WalkSession:
         the small change its load makes to the feeders above shows once it is stored."""
         from gaugewalk.model.engine.circuits import CircuitError
         from gaugewalk.model.engine.loads import LoadError
-        from gaugewalk.model.engine.sizing import evaluate
-        from gaugewalk.model.walk.compute import run_spec_for
+        from gaugewalk.model.walk.compute import size_run
 
         trial = self._with(run, replaces, new_source)
         problems = self._reference_problems(trial, run)
         if problems:
             return Preview(None, problems)
-        source = trial.source(run.from_)
         upstream = self.source_drop(run.from_) or 0.0
-        if source is not None and source.kind == "transformer":
-            upstream = 0.0
         try:
-            res = evaluate(run_spec_for(trial, run, upstream))
+            res = size_run(trial, run, upstream, self.result)
         except CircuitError as exc:
             return Preview(None, [Problem("", None, "run", run.id, "connection", str(exc))])
         except (LoadError, ValueError) as exc:

@@ -1,9 +1,11 @@
 """Cumulative voltage drop along a chain of runs: service -> feeder -> panel -> branch circuit.
 
-Percent drops of runs in series add up (each is against the nominal voltage of the same
-system). A transformer starts a new system: the sum restarts at its secondary, because the drop
-upstream of it is on another voltage and is usually made up by the transformer's taps (common
-practice). Pure functions; the job computation walks its source tree and calls these.
+Percent drops of runs in series add up (each is against the nominal voltage of its own system,
+so percents carry across a transformer where volts would not). At a transformer the walk either
+carries the drop through, adding the transformer's own drop at its load (the default,
+``Defaults.drop_through_transformers``), or restarts at 0 % on its secondary, as when the taps
+make up the drop upstream (common practice where the taps are set for it). Pure functions; the
+job computation walks its source tree and calls these.
 """
 
 from __future__ import annotations
@@ -49,6 +51,13 @@ def upstream_drop(parent_total_pct: float | None, *, from_transformer: bool = Fa
     if parent_total_pct is None or from_transformer:
         return 0.0
     return parent_total_pct
+
+
+def secondary_bus_drop(primary_total_pct: float, transformer_drop_pct: float, *,
+                       through: bool) -> float:
+    """Drop from the service to a transformer's secondary bus [%]: the drop at its primary
+    terminals plus its own drop when the drop carries ``through`` transformers, else 0."""
+    return primary_total_pct + transformer_drop_pct if through else 0.0
 
 
 def within_limit(total_pct: float, limit_pct: float) -> bool:

@@ -1,22 +1,29 @@
-"""Compute a whole walk: every run sized, feeder loads summed, drop carried down every chain.
+"""Compute a whole walk: every run placed, summed and sized, loads summed line by line up the
+supply graph, drop carried down every chain.
 
 Public API:
 
 - ``compute_job(job) -> JobResult``.
 - ``JobResult``: ``runs`` {run id: ``RunResult``}, ``run_total_drop_pct`` {run id: [%] from the
-  service (or the last transformer) to the run's far end}, ``source_drop_pct`` {source id: [%] at
-  its bus}, ``feeder_amps`` {run id: [A]} for feeders, ``connected_va`` {source id: [VA] it
-  serves}, ``run_va`` {run id: [VA]}, ``problems`` (list of ``Problem``, per run and per chain),
-  ``ok``, ``run_problems(run_id)``.
-- ``run_spec_for(job, run, upstream_drop_pct, *, feeder_load=None) -> RunSpec``: the engine input
-  with the job defaults applied and the branch or feeder drop target.
+  service to the run's far end}, ``source_drop_pct`` {source id: [%] at its bus},
+  ``feeder_amps`` {run id: [A] the load current on a feeder's heaviest line}, ``connected_va``
+  {source id: [VA] it serves}, ``run_va`` {run id: [VA]}, ``lines`` {source id: ``Lines``, the
+  phasor sums of its lines}, ``placements`` {run id: ``Placement``}, ``feeders`` {run id:
+  ``FeederInfo``}, ``transformers`` {source id: ``TransformerInfo``}, ``loadings`` {source id:
+  ``Loading``}, ``problems`` (list of ``Problem``), ``ok``, ``run_problems(run_id)``.
+- ``FeederInfo``: what a feeder is sized for (``basis`` in words, ``amps``), its heaviest
+  ``line`` and ``load_amps``, and the connected-load answer ``beside`` an equipment basis.
+- ``run_spec_for(job, run, upstream_drop_pct, *, result=None) -> RunSpec`` and
+  ``size_run(job, run, upstream_drop_pct, result=None) -> RunResult``: one run with the job
+  defaults applied, the branch or feeder drop target and the feeder's rules.
 - ``WalkState``: one computation over a walk writing into a ``JobResult`` (shared with the
   incremental path, ``gaugewalk.model.walk.recompute``).
 
-Rules: the supply graph (``gaugewalk.model.walk.graph``) is walked from the top; a feeder's load
-is what its panel serves (``gaugewalk.model.walk.feeder_loads``, NEC 215.2(A)(1)); each run is
-sized by the engine (``gaugewalk.model.engine.sizing``); percent drops add along a chain and
-restart at a transformer secondary (``gaugewalk.model.walk.chain``).
+Rules: the supply graph (``gaugewalk.model.walk.graph``) is walked from the bottom to place each
+source's runs and sum its lines (``phases``, ``feeder_loads``; NEC 215.2(A)(1), 220.61), with the
+transformers (``transformers``: Table 450.3(B), 240.21(C)) and the ratings (``equipment``:
+408.30, 408.36); then from the top, each run sized by the engine (``gaugewalk.model.engine.sizing``)
+with the drop carried down (``chain``).
 """
 
 from __future__ import annotations
@@ -30,21 +37,47 @@ from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
-from gaugewalk.model.walk.chain import upstream_drop
+from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
 from gaugewalk.model.walk.equipment import load_facts
+from gaugewalk.model.walk.ratings import (
+    FeederRule,
+    Loading,
+    equipment_rule,
+    loading,
+    lugs_problem,
+)
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
-    FeederLoad,
-    amps_of_va,
-    load_of,
-    sum_loads,
+    Feed,
+    Lines,
+    OwnLoad,
+    feed_of,
+    own_load,
+    sum_source,
 )
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.walk.phases import Placement
 from gaugewalk.model.walk.problems import Problem
+from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
+from gaugewalk.model.walk.vocabulary import LINE_NAMES
 
 _EPS = 1e-9
+
+
+@dataclass(frozen=True)
+class FeederInfo:
+    """What a feeder is sized for: ``basis`` in words, ``amps`` the current [A] (its load on
+    its heaviest line, or the device or rating the basis names), ``load_amps`` [A] the load on
+    its heaviest ``line`` (None for a feeder with its own load), and for an equipment basis the
+    connected-load answer ``beside`` it."""
+
+    basis: str
+    amps: float
+    load_amps: float
+    line: str | None
+    beside: RunResult | None = None
 
 
 @dataclass
@@ -57,13 +90,20 @@ class JobResult:
     feeder_amps: dict[str, float] = field(default_factory=dict)
     connected_va: dict[str, float] = field(default_factory=dict)
     run_va: dict[str, float] = field(default_factory=dict)
+    lines: dict[str, Lines] = field(default_factory=dict)
+    placements: dict[str, Placement] = field(default_factory=dict)
+    feeders: dict[str, FeederInfo] = field(default_factory=dict)
+    transformers: dict[str, TransformerInfo] = field(default_factory=dict)
+    loadings: dict[str, Loading] = field(default_factory=dict)
     problems: list[Problem] = field(default_factory=list)
     # kept for recompute_run
     _specs: dict[str, RunSpec] = field(default_factory=dict, repr=False)
     _circuits: dict[str, Circuit] = field(default_factory=dict, repr=False)
-    _loads: dict[str, FeederLoad] = field(default_factory=dict, repr=False)
-    _run_loads: dict[str, FeederLoad] = field(default_factory=dict, repr=False)
+    _own: dict[str, OwnLoad | None] = field(default_factory=dict, repr=False)
+    _feeds: dict[str, Feed] = field(default_factory=dict, repr=False)
     _run_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
+    _place_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
+    _sum_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _chain_problems: list[Problem] = field(default_factory=list, repr=False)
     _shape: tuple = field(default=(), repr=False)
     _walk: SupplyGraph | None = field(default=None, repr=False, compare=False)
@@ -74,8 +114,9 @@ class JobResult:
         return not self.problems
 
     def run_problems(self, run_id: str) -> list[Problem]:
-        """Problems of one run (its own and the engine's)."""
-        return list(self._run_problems.get(run_id, ()))
+        """Problems of one run (its own, the engine's and its place in its source)."""
+        return (list(self._run_problems.get(run_id, ()))
+                + list(self._place_problems.get(run_id, ())))
 
 
 def run_spec_for(
@@ -83,17 +124,20 @@ def run_spec_for(
     run: Run,
     upstream_drop_pct: float,
     *,
-    feeder_load: FeederLoad | None = None,
+    result: JobResult | None = None,
     circuit: Circuit | None = None,
     is_feeder: bool | None = None,
 ) -> RunSpec:
     """The engine input for one run, with the job defaults applied.
 
     A branch uses the branch drop target, a feeder the feeder target (informational notes to
-    NEC 210.19 and 215.2); both share the total target. A feeder without its own load needs
-    ``feeder_load`` (what its panel serves); when it is not given it is summed here.
-    Raises ``LoadError`` or ``CircuitError`` for a run that cannot be specified.
+    NEC 210.19 and 215.2); both share the total target. A feeder without its own load is sized
+    for what its source's lines carry, read from ``result`` (the walk computed already) or
+    summed here; a feeder's rules (a transformer's primary device, 240.21(C), the equipment
+    basis) come from the same place. Raises ``LoadError`` or ``CircuitError`` for a run that
+    cannot be specified.
     """
+    state = _state_for(job, result)
     if circuit is None:
         source = job.source(run.from_)
         if source is None:
@@ -101,7 +145,31 @@ def run_spec_for(
         circuit = resolve_circuit(source.system, connection_of(job, run))
     if is_feeder is None:
         is_feeder = job.source(run.to) is not None
-    return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feeder_load)
+    rule = state.feeder_rule(run, is_feeder)
+    feed = state.result._feeds.get(run.to) if is_feeder else None
+    return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feed, rule)
+
+
+def size_run(job: Job, run: Run, upstream_drop_pct: float,
+             result: JobResult | None = None) -> RunResult:
+    """``run`` sized in the walk (``run_spec_for`` and the engine), with the notes and problems
+    of its feeder rules. Raises ``LoadError``, ``CircuitError`` or ``ValueError``."""
+    state = _state_for(job, result)
+    is_feeder = job.source(run.to) is not None
+    rule = state.feeder_rule(run, is_feeder)
+    spec = run_spec_for(job, run, upstream_drop_pct, result=state.result, is_feeder=is_feeder)
+    return _with_rule(evaluate(spec), rule)
+
+
+def _state_for(job: Job, result: JobResult | None) -> WalkState:
+    """A state over ``job`` reading ``result`` (without building the supply graph: it reads
+    only sources and the sums already made); without one, the walk is summed first."""
+    if result is not None:
+        return WalkState(None, result, job)
+    state = WalkState(SupplyGraph(job), JobResult())
+    state.resolve_circuits()
+    state.sum_all()
+    return state
 
 
 _NUMBER = (int, float)
@@ -130,7 +198,7 @@ def _load_amps(value: float, unit: str, circuit: Circuit, pf: float) -> float:
 
 
 def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder: bool,
-          feeder_load: FeederLoad | None) -> RunSpec:
+          feed: Feed | None, rule: FeederRule | None = None) -> RunSpec:
     d = job.defaults
     pf = d.pf
     continuous_amps = None
@@ -145,14 +213,11 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         facts = load_facts(run, circuit, pf)
         amps, pf, continuous, equipment = facts.amps, facts.pf, facts.continuous, facts.equipment
     elif feeder:
-        if feeder_load is None:
-            feeder_load = _sum_below(job, run.to)
-        if feeder_load.va <= 0:
+        if feed is None or feed.load.va <= 0:
             raise LoadError(f"{run.to} serves no load yet, so its feeder cannot be sized; "
                             "add its runs or give the feeder a load")
-        amps = amps_of_va(feeder_load.va, circuit)
-        continuous_amps = amps_of_va(feeder_load.continuous_va, circuit)
-        pf = min(1.0, max(0.05, feeder_load.watts / feeder_load.va))
+        _, _, amps, continuous_amps = feed.heaviest()
+        pf = min(1.0, max(0.05, feed.load.watts / feed.load.va))
     else:
         raise LoadError(f"the run has no load; give it in {or_words(LOAD_UNITS)}")
     max_drop = run.max_drop_pct
@@ -188,25 +253,31 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
     values["min_size"] = d.min_size
     values["equipment"] = equipment
     values["starting_drop_pct"] = d.starting_drop_pct
+    if continuous_amps is not None and circuit.neutral and feed.frame == "lines":
+        values["neutral_amps"] = abs(sum(feed.total))   # NEC 220.61: the maximum unbalance
+    if rule is not None:
+        if rule.ocpd_a is not None:
+            values["ocpd_a"] = rule.ocpd_a
+        values["min_ampacity_a"] = rule.min_ampacity_a
     _set_attr(spec, "__dict__", values)
     return spec
 
 
-def _sum_below(job: Job, source_id: str) -> FeederLoad:
-    """What a source serves, summed through every level below it (single use; ``compute_job``
-    sums all sources in one pass)."""
-    state = WalkState(SupplyGraph(job), JobResult())
-    state.resolve_circuits()
-    state.sum_loads()
-    return state.result._loads.get(source_id, FeederLoad(0.0, 0.0, 0.0))
+def _with_rule(result: RunResult, rule: FeederRule | None) -> RunResult:
+    """The result with the notes and problems of the feeder rule it was sized by."""
+    if rule is None or not (rule.notes or rule.problems):
+        return result
+    return replace(result, notes=result.notes + rule.notes,
+                   problems=result.problems + rule.problems)
 
 
 class WalkState:
     """One computation over a walk, writing into a JobResult."""
 
-    def __init__(self, walk: SupplyGraph, result: JobResult) -> None:
-        self.walk = walk
-        self.job = walk.job
+    def __init__(self, walk: SupplyGraph | None, result: JobResult,
+                 job: Job | None = None) -> None:
+        self.walk = walk   # None: a state that only reads ``result`` (``run_spec_for``)
+        self.job = walk.job if walk is not None else job
         self.result = result
         self._circuit_cache: dict[tuple[str, str], Circuit] = {}
 
@@ -228,9 +299,12 @@ class WalkState:
             except CircuitError as exc:
                 self.fail(run, str(exc), "connection")
                 self.result._circuits.pop(run.id, None)
+                self.result._own[run.id] = None
                 return None
             self._circuit_cache[key] = c
         self.result._circuits[run.id] = c
+        self.result._own[run.id] = (own_load(run, c, self.job.defaults.pf)
+                                    if run.load is not None else None)
         return c
 
     def resolve_circuits(self) -> None:
@@ -238,30 +312,105 @@ class WalkState:
             if r.from_ in self.walk.sources:
                 self.resolve_circuit(r)
 
-    def own_load(self, run: Run) -> FeederLoad | None:
-        """A run's own load as VA, continuous VA and W; None for a feeder summing its panel."""
-        if run.load is None:
+    # -- bottom-up: placing and summing ------------------------------------------------------
+    def sum_all(self) -> None:
+        """Bottom-up: every source placed and summed (children before the sources above)."""
+        for sid in reversed(self.walk.order):
+            self.sum_source(sid)
+
+    def sum_source(self, sid: str) -> bool:
+        """Place and sum one source's runs; its transformer and loading; what its feeder
+        carries. Returns True when that changed."""
+        res, walk = self.result, self.walk
+        outcome, lines = sum_source(walk, sid, res._circuits, res._own, res._feeds)
+        res.lines[sid] = lines
+        res.connected_va[sid] = lines.load.va
+        children = walk.children[sid]
+        place_problems = res._place_problems
+        placements = res.placements
+        for r in children:
+            place_problems.pop(r.id, None)
+            placements.pop(r.id, None)
+        placements.update(outcome.placements)
+        for rid, field_name, message in outcome.problems:
+            place_problems.setdefault(rid, []).append(
+                Problem("", None, "run", rid, field_name, message))
+        source = walk.sources[sid]
+        feeder = walk.feeder.get(sid)
+        primary = res._circuits.get(feeder.id) if feeder is not None else None
+        problems: list[Problem] = []
+        if source.kind == "transformer":
+            fed = [(r, walk.sources[r.to] if walk.feeder.get(r.to) is r else None)
+                   for r in children]
+            info = transformer_info(source, lines, primary, feeder, fed)
+            res.transformers[sid] = info
+            problems += [Problem("", None, "source", sid, f, m) for f, m in info.problems]
+        feed, why = feed_of(source, lines, primary)
+        if why is not None and feeder is not None:
+            problems.append(Problem("", None, "run", feeder.id, "connection", why))
+        ld = loading(source, lines)
+        res.loadings[sid] = ld
+        problems += [Problem("", None, "source", sid, f, m) for f, m in ld.problems]
+        res._sum_problems[sid] = problems
+        own, feeds, run_va = res._own, res._feeds, res.run_va
+        for r in children:
+            mine = own.get(r.id)
+            if mine is not None:
+                run_va[r.id] = mine.load.va
+            elif walk.feeder.get(r.to) is r and r.to in feeds:
+                run_va[r.id] = feeds[r.to].load.va
+            else:
+                run_va.pop(r.id, None)
+        old = feeds.get(sid)
+        feeds[sid] = feed
+        return old != feed
+
+    # -- the rules a feeder is sized by ------------------------------------------------------
+    def feeder_rule(self, r: Run, is_feeder: bool) -> FeederRule | None:
+        """The rule sizing ``r`` other than its load: 240.21(C) for a run from a transformer's
+        secondary, the primary device for a feeder into a transformer (Table 450.3(B), 240.4),
+        the equipment basis; None: its load."""
+        job, res = self.job, self.result
+        source = job.source(r.from_)
+        target = job.source(r.to) if is_feeder else None
+        if source is not None and source.kind == "transformer":
+            info = res.transformers.get(source.id)
+            if info is None:
+                return None
+            sec = secondary_rule(r, source, info, target)
+            if not is_feeder:
+                return FeederRule(sec.basis, problems=sec.problems) if sec.problems else None
+            device = r.ocpd_a if r.ocpd_a is not None else sec.ocpd_a
+            return FeederRule(sec.basis, device, sec.min_ampacity_a, sec.min_ampacity_a, False,
+                              sec.notes, sec.problems)
+        if target is None:
             return None
-        circuit = self.result._circuits.get(run.id)
-        if circuit is None:
-            return None
-        return load_of(run, circuit, self.job.defaults.pf)
+        if target.kind == "transformer":
+            info = res.transformers.get(target.id)
+            if info is None or info.primary_ocpd_a is None:
+                return None
+            device = info.primary_ocpd_a
+            problems: tuple[str, ...] = ()
+            if (r.ocpd_a is not None and info.primary_max_a is not None
+                    and r.ocpd_a > info.primary_max_a + _EPS):
+                problems = (f"NEC Table 450.3(B): the {r.ocpd_a} A primary device is over the "
+                            f"{info.primary_max_a:.0f} A it permits for {target.id} "
+                            f"({info.primary_fla_a:.1f} A rated)",)
+            return FeederRule(f"transformer primary device, NEC Table 450.3(B): {device} A",
+                              device, None, float(device), False,
+                              (f"NEC 240.4: the primary conductors are protected by the "
+                               f"{device} A primary device",), problems)
+        basis = r.basis or self.job.defaults.feeder_basis
+        if basis == "equipment":
+            rule = equipment_rule(r, target)
+            if rule is None:
+                return FeederRule("its load", problems=(
+                    f"sized to the equipment it feeds, but {target.id} gives neither main_a nor "
+                    "rating_a; sized for its load",))
+            return rule
+        return None
 
-    def set_run_load(self, run: Run, load: FeederLoad | None) -> None:
-        res = self.result
-        if load is None:
-            res._run_loads.pop(run.id, None)
-            res.run_va.pop(run.id, None)
-        else:
-            res._run_loads[run.id] = load
-            res.run_va[run.id] = load.va
-
-    def sum_loads(self) -> None:
-        """Bottom-up: what each source serves [VA]."""
-        res = self.result
-        sum_loads(self.walk, res._circuits, self.job.defaults.pf, self.set_run_load, res._loads,
-                  res.connected_va)
-
+    # -- top-down: sizing ------------------------------------------------------------------
     def evaluate_run(self, r: Run, upstream: float) -> None:
         res = self.result
         res._run_problems.pop(r.id, None)
@@ -272,24 +421,48 @@ class WalkState:
                 self.forget(r)
                 return
         is_feeder = self.walk.feeder.get(r.to) is r
+        feed = res._feeds.get(r.to) if is_feeder else None
+        rule = self.feeder_rule(r, is_feeder) if is_feeder or _from_transformer(self, r) else None
         try:
-            spec = _spec(self.job, r, upstream, circuit, is_feeder,
-                         res._loads.get(r.to) if is_feeder else None)
+            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule)
             result = evaluate(spec)
+            beside = None
+            if rule is not None and rule.beside:
+                beside = evaluate(_spec(self.job, r, upstream, circuit, is_feeder, feed))
         except (LoadError, CircuitError, ValueError) as exc:
             self.forget(r)
             self.fail(r, str(exc))
             return
+        result = _with_rule(result, rule)
         if r.connection is None and not is_feeder:
             note = unstated_circuit_note(self.job, r)
             if note is not None:
                 result = replace(result, notes=(note, *result.notes))
         res._specs[r.id] = spec
+        if is_feeder:
+            res.feeders[r.id] = self.feeder_info(r, spec, feed, rule, beside)
         self.store(r, result, is_feeder, spec)
+
+    def feeder_info(self, r: Run, spec: RunSpec, feed: Feed | None, rule: FeederRule | None,
+                    beside: RunResult | None) -> FeederInfo:
+        line = None
+        if r.load is None and feed is not None:
+            k, design, _, _ = feed.heaviest()
+            line = LINE_NAMES[k] if feed.frame == "lines" else "winding"
+            words = (f"heaviest line {line}: {spec.amps:.1f} A, design {design:.1f} A "
+                     "(NEC 215.2(A)(1))" if feed.frame == "lines" else
+                     f"primary winding: {spec.amps:.1f} A, design {design:.1f} A "
+                     "(NEC 215.2(A)(1))")
+        else:
+            words = "its own load"
+        if rule is not None and rule.amps is not None:
+            return FeederInfo(rule.basis, rule.amps, spec.amps, line, beside)
+        return FeederInfo(words, spec.amps, spec.amps, line, beside)
 
     def forget(self, r: Run) -> None:
         res = self.result
-        for table in (res.runs, res.run_total_drop_pct, res.feeder_amps, res._specs):
+        for table in (res.runs, res.run_total_drop_pct, res.feeder_amps, res._specs,
+                      res.feeders):
             table.pop(r.id, None)
 
     def store(self, r: Run, result: RunResult, is_feeder: bool, spec: RunSpec) -> None:
@@ -304,11 +477,16 @@ class WalkState:
         if is_feeder:
             res.feeder_amps[r.id] = spec.amps
             target = self.walk.sources[r.to]
-            res.source_drop_pct[r.to] = upstream_drop(
-                result.total_drop_pct, from_transformer=target.kind == "transformer")
+            if target.kind == "transformer":
+                info = res.transformers.get(r.to)
+                res.source_drop_pct[r.to] = secondary_bus_drop(
+                    result.total_drop_pct, info.drop_pct if info is not None else 0.0,
+                    through=self.job.defaults.drop_through_transformers)
+            else:
+                res.source_drop_pct[r.to] = result.total_drop_pct
 
     def chain_problems(self) -> None:
-        walk = self.walk
+        walk, res = self.walk, self.result
         found: list[Problem] = []
         for r in walk.orphans:
             found.append(Problem("", None, "run", r.id, "from", f"the run starts at "
@@ -317,26 +495,34 @@ class WalkState:
             found.append(Problem("", None, "source", sid, None, "this source is in a loop of "
                                  "feeders, so it cannot be followed up to the service"))
         for sid in walk.order:
-            s = walk.sources[sid]
-            if s.kind == "transformer" and s.kva is not None:
-                va = self.result._loads[sid].va
-                if va > s.kva * 1000.0 + _EPS:
-                    found.append(Problem("", None, "source", sid, "kva", f"the loads below add "
-                                         f"up to {va / 1000:.1f} kVA, more than the transformer's "
-                                         f"{s.kva:g} kVA"))
-        self.result._chain_problems = found
+            found.extend(res._sum_problems.get(sid, ()))
+            feeder = walk.feeder.get(sid)
+            fed = res.runs.get(feeder.id) if feeder is not None else None
+            why = lugs_problem(walk.sources[sid], fed.ocpd_a if fed is not None else None)
+            if why is not None:
+                found.append(Problem("", None, "source", sid, "main_a", why))
+        res._chain_problems = found
 
     def assemble_problems(self) -> None:
         res = self.result
         problems = list(res._chain_problems)
         position = self.walk.position
+        runs = res._run_problems
+        placed = res._place_problems
         if len(position) == len(self.job.runs):  # ids unique: only the runs with problems, in order
-            for rid in sorted(res._run_problems, key=position.__getitem__):
-                problems.extend(res._run_problems[rid])
-        elif res._run_problems:
+            for rid in sorted(set(runs) | set(placed), key=position.__getitem__):
+                problems.extend(runs.get(rid, ()))
+                problems.extend(placed.get(rid, ()))
+        elif runs or placed:
             for r in self.job.runs:
-                problems.extend(res._run_problems.get(r.id, ()))
+                problems.extend(runs.get(r.id, ()))
+                problems.extend(placed.get(r.id, ()))
         res.problems = problems
+
+
+def _from_transformer(state: WalkState, r: Run) -> bool:
+    source = state.walk.sources.get(r.from_)
+    return source is not None and source.kind == "transformer"
 
 
 def compute_job(job: Job) -> JobResult:
@@ -357,7 +543,7 @@ def _compute_job(job: Job) -> JobResult:
     result = JobResult()
     state = WalkState(walk, result)
     state.resolve_circuits()
-    state.sum_loads()
+    state.sum_all()
     for sid in walk.order:
         upstream = result.source_drop_pct.setdefault(sid, 0.0)
         for r in walk.children[sid]:

@@ -1,42 +1,71 @@
-"""What each source serves: the loads below it summed up the supply graph, for its feeder.
+"""What each source's lines carry: every load's current summed as phasors, line by line, up the
+supply graph, for the feeders, the panels' loading and the transformers.
 
-A feeder's load is what its panel serves, the sum of the apparent power of the runs below it
-(loads in A turned into VA on their own circuit), turned back into amps on the feeder's circuit;
-its continuous share likewise (NEC 215.2(A)(1)). A feeder with its own ``load`` uses that
-instead. Summing VA arithmetically ignores the phase angle between loads, which can only
-overstate the current (common practice). Single-phase S = V I, three-phase S = sqrt(3) V_LL I.
+Each run's current enters its source's lines where it is placed
+(``gaugewalk.model.walk.phases``), lagging its voltage by the power-factor angle: a
+line-to-neutral load on its line (and back on the neutral); a line-to-line load on both lines,
++I on the first and -I on the second, at the angle of the voltage between them; a three-phase
+load, and each leg of a multiwire circuit, on every line it takes at that line's angle. A feeder
+carries what its panel's lines carry (rotated where its poles start on another line); a
+transformer's primary carries its secondary's currents through its windings (below). The
+magnitude of each line's sum is its current; the neutral carries the magnitude of the sum of all
+line currents (Kirchhoff: a line-to-line or balanced load adds nothing to it). So two 16 A, 120 V
+loads on a 208Y/120 V panel put 16 A on two lines, not 10.7 A on three (NEC 215.2(A)(1) and 220.61
+ask the heaviest line and the maximum unbalance, not the average).
+
+Transformers: a three-phase transformer with a four-wire (wye) secondary is taken as delta-wye
+(common practice for general-purpose dry-type units): winding a of the secondary lies on A-B of
+the primary, so the primary line currents are I_A = (I_a - I_c) e^{j30}/n, I_B = (I_b - I_a)
+e^{j30}/n, I_C = (I_c - I_b) e^{j30}/n with n the winding ratio V_primary,LL / V_secondary,LN
+(the secondary's neutral current circulates in the delta and does not reach the primary); a
+three-wire secondary is taken as delta-delta (currents times V_secondary / V_primary). A
+single-phase transformer's primary winding carries (I_X1 - I_X2)/2 x V_secondary,LL / V_primary
+(a two-wire secondary: I x V_secondary / V_primary), on the two lines (or the line and neutral)
+its feeder connects.
 
 Public API:
 
-- ``FeederLoad(va, continuous_va, watts)`` [VA, VA, W]; ``ZERO``; ``add(a, b, sign=1.0)``.
-- ``va_of(value, unit, circuit, pf)`` [VA]; ``amps_of_va(va, circuit)`` [A].
-- ``load_of(run, circuit, default_pf)``: a run's own load, or None (a feeder summing its panel);
-  a load of a kind (motor, HVAC...) as ``gaugewalk.model.walk.equipment.feeder_share`` reads it.
-- ``sum_loads(graph, circuits, default_pf, set_run_load, loads, connected_va)``: bottom-up over
-  the graph.
-- ``carry_up(graph, source_id, delta, loads, connected_va, set_run_load)``: a change of load at
-  one source added to it and to every source above it whose feeder sums its panel.
+- ``FeederLoad(va, continuous_va, watts)`` [VA, VA, W], ``feeder_load``, ``ZERO``, ``add``:
+  connected load as arithmetic sums (the connected kVA, and the power factor a feeder's drop
+  uses).
+- ``OwnLoad``: a run's own load on its circuit; ``own_load(run, circuit, default_pf)`` (a load
+  of a kind, motor, HVAC..., as ``gaugewalk.model.walk.equipment.feeder_share`` reads it).
+- ``Lines``: a source's line sums (``total``, ``continuous`` [A, phasors], ``load``,
+  ``has_neutral``) with ``phase_amps``, ``design``, ``heaviest()`` and ``neutral_amps``.
+- ``Feed``: what a source's feeder carries (``total``, ``continuous``, ``frame``), with
+  ``heaviest()``; ``feed_of(source, lines, primary)``.
+- ``sum_source(graph, source_id, circuits, own, feeds) -> (PlaceOutcome, Lines)``: one source
+  placed and summed from its runs' own loads and the feeds of the sources it feeds.
 """
 
 from __future__ import annotations
 
+import cmath
 import math
-from collections.abc import Callable
+from collections.abc import Mapping
 from dataclasses import dataclass
 
+from gaugewalk.model.engine.circuits import SYSTEMS
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.loads import UNITS, LoadError
 from gaugewalk.model.walk.equipment import feeder_share
 from gaugewalk.model.walk.graph import SupplyGraph
-from gaugewalk.model.walk.job import Run
+from gaugewalk.model.walk.job import Run, Source
+from gaugewalk.model.walk.phases import (
+    PlaceItem,
+    PlaceOutcome,
+    design_line,
+    line_phasors,
+    place,
+)
 
 SQRT3 = math.sqrt(3.0)
+_SHIFT = cmath.rect(1.0, math.pi / 6)   # e^{j30}: a delta-wye secondary leads by 30 degrees
 
 
 @dataclass(frozen=True)
 class FeederLoad:
-    """What a feeder carries, from the loads below it: apparent power [VA], its continuous part
-    [VA] and real power [W]."""
+    """Connected load: apparent power [VA], its continuous part [VA] and real power [W]."""
 
     va: float
     continuous_va: float
@@ -49,7 +78,7 @@ _set_attr = object.__setattr__
 
 def feeder_load(va: float, continuous_va: float, watts: float) -> FeederLoad:
     """``FeederLoad(va, continuous_va, watts)`` without the per-field ``object.__setattr__`` of
-    a frozen dataclass's ``__init__`` (two are made per run)."""
+    a frozen dataclass's ``__init__``."""
     load = _new_object(FeederLoad)
     _set_attr(load, "__dict__", {"va": va, "continuous_va": continuous_va, "watts": watts})
     return load
@@ -73,63 +102,245 @@ def va_of(value: float, unit: str, circuit: Circuit, pf: float) -> float:
     return va / pf if unit in ("W", "kW") else va
 
 
-def amps_of_va(va: float, circuit: Circuit) -> float:
-    """Line current of an apparent power on a circuit [A] (S/V, S/(sqrt 3 V_LL))."""
-    return va / (circuit.line_volts * (SQRT3 if circuit.phases == 3 else 1.0))
+class OwnLoad:
+    """A run's own load on its circuit: the line current ``amps`` [A] as a phasor lagging its
+    voltage by the power-factor angle (``phasor``), whether it is ``continuous``, whether it
+    lies between two lines (``ll``: line-to-line) or on each line it takes (line-to-neutral,
+    multiwire legs, three-phase), and its ``load`` [VA, VA, W]."""
+
+    __slots__ = ("amps", "phasor", "continuous", "ll", "load")
+
+    def __init__(self, amps: float, phasor: complex, continuous: bool, ll: bool,
+                 load: FeederLoad) -> None:
+        self.amps = amps
+        self.phasor = phasor
+        self.continuous = continuous
+        self.ll = ll
+        self.load = load
 
 
-def load_of(run: Run, circuit: Circuit, default_pf: float) -> FeederLoad | None:
-    """A run's own load as VA, continuous VA and W on its circuit; None when it gives none (or
-    its kind cannot be read on the circuit: the run itself says why). A load of a kind other
-    than general is read by ``gaugewalk.model.walk.equipment.feeder_share``."""
+def own_load(run: Run, circuit: Circuit, default_pf: float) -> OwnLoad | None:
+    """A run's own load (None when it gives none: a feeder summing its panel; or when its kind
+    cannot be read on the circuit: the run itself says why). A line-to-line load with a neutral
+    (``LLN``) is taken between its two lines (its neutral current, from any 120 V parts, is not
+    known). A load of a kind other than general is read by
+    ``gaugewalk.model.walk.equipment.feeder_share``."""
     load = run.load
     if load is None:
         return None
     if load.kind != "general":
         try:
-            return feeder_load(*feeder_share(run, circuit, default_pf))
+            va, cva, watts = feeder_share(run, circuit, default_pf)
         except LoadError:
             return None
-    pf = load.pf if load.pf is not None else default_pf
-    va = va_of(load.value, load.unit, circuit, pf)
-    return feeder_load(va, va if run.continuous else 0.0, va * pf)
+        continuous = cva > 0.0
+        pf = min(1.0, watts / va) if va > 0 else 1.0
+    else:
+        continuous = bool(run.continuous)
+        pf = load.pf if load.pf is not None else default_pf
+        va = va_of(load.value, load.unit, circuit, pf)
+        watts = va * pf
+    amps = va / (circuit.line_volts * (SQRT3 if circuit.phases == 3 else 1.0))
+    phasor = cmath.rect(amps, -math.acos(min(1.0, pf)))
+    ll = circuit.hots == 2 and circuit.phases == 1 and circuit.drop_factor == 2.0
+    return OwnLoad(amps, phasor, continuous, ll,
+                   feeder_load(va, va if continuous else 0.0, watts))
 
 
-def sum_loads(graph: SupplyGraph, circuits: dict[str, Circuit], default_pf: float,
-              set_run_load: Callable[[Run, FeederLoad | None], None],
-              loads: dict[str, FeederLoad], connected_va: dict[str, float]) -> None:
-    """Bottom-up: what each source serves [VA], into ``loads`` and ``connected_va``; each run's
-    load (its own on its circuit from ``circuits``, or for a feeder without one what its panel
-    serves) to ``set_run_load``."""
-    feeder, children = graph.feeder, graph.children
-    for sid in reversed(graph.order):
-        total = ZERO
-        for r in children[sid]:
-            circuit = circuits.get(r.id) if r.load is not None else None
-            load = None if circuit is None else load_of(r, circuit, default_pf)
-            if load is None and feeder.get(r.to) is r:
-                load = loads.get(r.to)
-            set_run_load(r, load)
-            if load is not None:
-                total = add(total, load)
-        loads[sid] = total
-        connected_va[sid] = total.va
+class _OwnShare:
+    """``PlaceItem.share`` of a run's own load on a source whose lines are ``u``."""
+
+    __slots__ = ("u", "own")
+
+    def __init__(self, u: tuple[complex, ...], own: OwnLoad) -> None:
+        self.u = u
+        self.own = own
+
+    def __call__(self, lines: tuple[int, ...]) -> list[tuple[int, complex, complex]]:
+        own, u = self.own, self.u
+        p = own.phasor
+        if own.ll and len(lines) == 2:
+            d = u[lines[0]] - u[lines[1]]
+            cur = p * d / abs(d)
+            c = cur if own.continuous else 0j
+            return [(lines[0], cur, c), (lines[1], -cur, -c)]
+        if own.continuous:
+            return [(k, p * u[k], p * u[k]) for k in lines]
+        return [(k, p * u[k], 0j) for k in lines]
 
 
-def carry_up(graph: SupplyGraph, source_id: str, delta: FeederLoad,
-             loads: dict[str, FeederLoad], connected_va: dict[str, float],
-             set_run_load: Callable[[Run, FeederLoad | None], None]) -> list[Run]:
-    """Add ``delta`` to what ``source_id`` serves and to every source above it, up to the first
-    feeder that gives its own load; returns the feeders whose load changed, lowest first."""
-    chain: list[Run] = []
-    sid = source_id
-    while True:
-        total = add(loads[sid], delta)
-        loads[sid] = total
-        connected_va[sid] = total.va
-        f = graph.feeder.get(sid)
-        if f is None or f.load is not None:
-            return chain
-        set_run_load(f, total)
-        chain.append(f)
-        sid = f.from_
+@dataclass(frozen=True)
+class Lines:
+    """What a source's lines carry [A, phasors in its frame: line A's voltage at 0 degrees],
+    with the connected ``load``."""
+
+    total: tuple[complex, ...]
+    continuous: tuple[complex, ...]
+    load: FeederLoad
+    has_neutral: bool
+
+    @property
+    def phase_amps(self) -> tuple[float, ...]:
+        """Each line's current [A], before the 125 % for continuous loads."""
+        return tuple(abs(t) for t in self.total)
+
+    @property
+    def design(self) -> tuple[float, ...]:
+        """Each line's design current [A]: 125 % of its continuous current plus the rest
+        (NEC 215.2(A)(1))."""
+        return tuple(design_line(t, c) for t, c in zip(self.total, self.continuous, strict=True))
+
+    def heaviest(self) -> tuple[int, float]:
+        """(line, its design current [A]) of the line with the largest design current."""
+        return _heaviest(self.total, self.continuous)
+
+    @property
+    def neutral_amps(self) -> float | None:
+        """The neutral's current [A], |sum of the line currents| (NEC 220.61: the maximum
+        unbalance); None without a neutral."""
+        return abs(sum(self.total)) if self.has_neutral else None
+
+
+def _heaviest(total, continuous) -> tuple[int, float]:
+    best, line = -1.0, 0
+    for k, (t, c) in enumerate(zip(total, continuous, strict=True)):
+        d = design_line(t, c)
+        if d > best + 1e-9:
+            best, line = d, k
+    return line, max(best, 0.0)
+
+
+@dataclass(frozen=True)
+class Feed:
+    """What a source's feeder carries [A, phasors]: per line of the feeder (``frame`` ``lines``:
+    in the source's frame, to be rotated onto the lines the feeder takes upstream) or one
+    winding current (``frame`` ``winding``: a single-phase transformer's primary, in phase with
+    the voltage across the lines it takes)."""
+
+    total: tuple[complex, ...]
+    continuous: tuple[complex, ...]
+    frame: str
+    load: FeederLoad
+
+    def heaviest(self) -> tuple[int, float, float, float]:
+        """(line, design [A], load current [A], continuous current [A]) of the feeder's
+        heaviest line. The load current is the continuous plus the noncontinuous magnitude,
+        so that 125 % of the one plus the other is the design current (NEC 215.2(A)(1)); it is
+        the line's phasor current where the two are in phase, a little more where not."""
+        k, design = _heaviest(self.total, self.continuous)
+        c = abs(self.continuous[k])
+        return k, design, c + abs(self.total[k] - self.continuous[k]), c
+
+
+class _FeedShare:
+    """``PlaceItem.share`` of a feeder carrying ``feed`` from a source whose lines are ``u``."""
+
+    __slots__ = ("u", "feed")
+
+    def __init__(self, u: tuple[complex, ...], feed: Feed) -> None:
+        self.u = u
+        self.feed = feed
+
+    def __call__(self, lines: tuple[int, ...]) -> list[tuple[int, complex, complex]]:
+        u, f = self.u, self.feed
+        if f.frame == "winding":
+            t, c = f.total[0], f.continuous[0]
+            if len(lines) == 2:
+                d = u[lines[0]] - u[lines[1]]
+                w = d / abs(d)
+                return [(lines[0], t * w, c * w), (lines[1], -t * w, -c * w)]
+            w = u[lines[0]]
+            return [(lines[0], t * w, c * w)]
+        out = []
+        for k, line in enumerate(lines[:len(f.total)]):
+            m = u[line] * u[k].conjugate()
+            out.append((line, f.total[k] * m, f.continuous[k] * m))
+        return out
+
+
+def feed_of(source: Source, lines: Lines, primary: Circuit | None) -> tuple[Feed, str | None]:
+    """What the feeder of ``source`` carries, given its line sums and (for a transformer) the
+    circuit of the feeder into its primary; with a sentence when the transformer's windings
+    cannot be worked out from the walk (its load is then taken as balanced on the primary)."""
+    if source.kind != "transformer" or primary is None:
+        return Feed(lines.total, lines.continuous, "lines", lines.load), None
+    system = SYSTEMS[source.system]
+    t, c = lines.total, lines.continuous
+    vp = primary.line_volts
+    if primary.phases == 3 and system.phases == 3:
+        if system.has_neutral:
+            e = _SHIFT * (system.line_to_neutral_v / vp)
+            return Feed(_delta_wye(t, e), _delta_wye(c, e), "lines", lines.load), None
+        r = system.line_to_line_v / vp
+        return Feed(tuple(x * r for x in t), tuple(x * r for x in c), "lines", lines.load), None
+    if primary.phases == 1 and system.phases == 1:
+        if len(t) == 2:
+            r = system.line_to_line_v / primary.volts / 2.0
+            return Feed(((t[0] - t[1]) * r,), ((c[0] - c[1]) * r,), "winding", lines.load), None
+        r = system.line_to_line_v / primary.volts
+        return Feed((t[0] * r,), (c[0] * r,), "winding", lines.load), None
+    # a single-phase transformer fed by three hots, or three-phase by fewer: not a real winding
+    load = lines.load
+    pf = min(1.0, load.watts / load.va) if load.va > 0 else 1.0
+    lag = cmath.rect(1.0, -math.acos(pf))
+    if primary.phases == 3:
+        amps = load.va / (SQRT3 * vp)
+        u = line_phasors(_THREE_PHASE)
+        cont = load.continuous_va / (SQRT3 * vp)
+        feed = Feed(tuple(amps * lag * x for x in u), tuple(cont * lag * x for x in u), "lines",
+                    load)
+    else:
+        feed = Feed((load.va / primary.volts * lag,), (load.continuous_va / primary.volts * lag,),
+                    "winding", load)
+    return feed, (f"a {'three' if primary.phases == 3 else 'single'}-phase feeder cannot supply "
+                  f"a {'single' if system.phases == 1 else 'three'}-phase secondary "
+                  f"({source.system}); its load is taken as balanced on the primary")
+
+
+_THREE_PHASE = "480Y/277V 3ph 4w"
+
+
+def _delta_wye(x: tuple[complex, ...], e: complex) -> tuple[complex, ...]:
+    a, b, c = x
+    return ((a - c) * e, (b - a) * e, (c - b) * e)
+
+
+def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circuit],
+               own: Mapping[str, OwnLoad | None], feeds: Mapping[str, Feed]
+               ) -> tuple[PlaceOutcome, Lines]:
+    """Place the runs of ``source_id`` and sum their currents line by line: each run's own load
+    (``own``, from its circuit in ``circuits``), or for a feeder without one what its source
+    carries (``feeds``). A run without a circuit or a load adds nothing."""
+    source = graph.sources[source_id]
+    u = line_phasors(source.system)
+    n = len(u)
+    items: list[PlaceItem] = []
+    va = cva = watts = 0.0
+    feeder = graph.feeder
+    for r in graph.children[source_id]:
+        circuit = circuits.get(r.id)
+        if circuit is None:
+            continue
+        mine = own.get(r.id)
+        if mine is not None:
+            share = _OwnShare(u, mine)
+            size = mine.amps * circuit.hots
+            load = mine.load
+        elif feeder.get(r.to) is r and r.to in feeds:
+            f = feeds[r.to]
+            share = _FeedShare(u, f)
+            size = sum(abs(x) for x in f.total)
+            load = f.load
+        else:
+            continue
+        va += load.va
+        cva += load.continuous_va
+        watts += load.watts
+        poles = min(circuit.hots, n) if n > 1 else 1
+        items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size))
+    outcome = place(items, n, source.spaces)
+    lines = Lines(tuple(outcome.total), tuple(outcome.continuous), feeder_load(va, cva, watts),
+                  SYSTEMS[source.system].has_neutral)
+    return outcome, lines
+
+

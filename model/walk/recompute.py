@@ -1,10 +1,13 @@
 """The incremental path: after one run was edited in place, redo only what it touches.
 
-The run itself; when its load changed, every feeder above it that sums its panel (the change of
-load carried up by ``gaugewalk.model.walk.feeder_loads.carry_up``, NEC 215.2(A)(1)); then below
-every source whose bus drop changed, only the runs whose size could change (upsized for drop,
-with problems, or pushed over the total target); the rest have their total drop shifted. The
-result equals ``compute_job`` of the edited walk (a test compares them run by run).
+The run itself; its source placed and summed again (``gaugewalk.model.walk.feeder_loads``: a
+change of load or of place can move the other runs the tool places), and every source above it
+while what its feeder carries changes, up to a feeder that gives its own load; those feeders
+sized again, top-down (an edit of the feeder into a transformer, which sets the rules of
+everything on its secondary, computes the whole walk); then below every source whose bus drop changed, only the runs whose size
+could change (upsized for drop, with problems, or pushed over the total target); the rest have
+their total drop shifted. The result equals ``compute_job`` of the edited walk (tests compare
+them run by run).
 
 Public API:
 
@@ -18,7 +21,6 @@ from __future__ import annotations
 from dataclasses import replace
 
 from gaugewalk.model.walk.compute import JobResult, WalkState, compute_job
-from gaugewalk.model.walk.feeder_loads import ZERO, add, carry_up
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run
 
@@ -28,12 +30,13 @@ _EPS = 1e-9
 def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
     """Update ``result`` after run ``run_id`` was edited in place; returns the updated result.
 
-    Redoes the run and, when its load changed, every feeder above it that sums its panel; then,
-    below every source whose drop changed, re-evaluates only the runs whose size could change
-    (upsized for drop, with problems, or pushed over the total target) and shifts the total drop
-    of the rest. Falls back to ``compute_job`` when runs or sources were added, removed or
-    re-pointed. Only ``run_id`` may have changed since ``result`` was computed (edited in place
-    or put in place of the run of the same id, as the app does).
+    Redoes the run, its source's placement and sums and those above it while they change, the
+    feeders whose load changed; then, below every source whose drop changed, re-evaluates only
+    the runs whose size could change (upsized for drop, with problems, or pushed over the total
+    target) and shifts the total drop of the rest. Falls back to ``compute_job`` when runs or
+    sources were added, removed or re-pointed. Only ``run_id`` may have changed since
+    ``result`` was computed (edited in place or put in place of the run of the same id, as the
+    app does).
     """
     run = job.run(run_id)
     if run is None:
@@ -44,24 +47,27 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
         if walk.shape() != result._shape:
             return compute_job(job)
         result._walk = walk
-    if run.from_ not in walk.sources:
+    if run.from_ not in walk.sources or run.from_ not in result.lines:
         return compute_job(job)
+    target = walk.sources.get(run.to)
+    if target is not None and target.kind == "transformer" and walk.feeder.get(run.to) is run:
+        return compute_job(job)  # its device and circuit set the transformer's rules below it
     state = WalkState(walk, result)
     if state.resolve_circuit(run) is None:
         state.forget(run)
-    # the run's load and the sums above it
-    is_feeder = walk.feeder.get(run.to) is run
-    new = state.own_load(run)
-    if new is None and is_feeder:
-        new = result._loads.get(run.to)
-    old = result._run_loads.get(run_id)
-    state.set_run_load(run, new)
-    delta = add(new or ZERO, old or ZERO, -1.0)
+    # the run's source and the sources above it, while what their feeders carry changes
     chain: list[Run] = []
-    if delta != ZERO:
-        chain = carry_up(walk, run.from_, delta, result._loads, result.connected_va,
-                         state.set_run_load)
+    sid = run.from_
+    changed = state.sum_source(sid)
+    while changed:
+        f = walk.feeder.get(sid)
+        if f is None or f.load is not None or f.from_ not in result.lines:
+            break
+        chain.append(f)
+        sid = f.from_
+        changed = state.sum_source(sid)
     # re-evaluate top-down: the feeders whose load changed, then the run itself
+    is_feeder = walk.feeder.get(run.to) is run
     dirty: list[str] = []
     for f in reversed(chain):
         state.evaluate_run(f, result.source_drop_pct.get(f.from_, 0.0))

@@ -297,3 +297,28 @@ def typical_impedance(kva: float, phases: int) -> TypicalImpedance:
     row = min(r for r in rows if r >= value)
     pct, low, high = table[row]
     return TypicalImpedance(pct, low, high, row, TYPICAL_BASIS)
+
+
+# Typical X/R of general-purpose dry-type transformers by kVA (common practice, from memory: the
+# order of the %R and %X makers publish for ventilated 600 V class units; the larger the unit, the
+# more reactive its impedance). Only for splitting a nameplate %Z into %R and %X when the
+# nameplate gives no more, as a stated assumption.
+TYPICAL_X_R_3PH: dict[float, float] = {
+    15: 1.0, 30: 1.2, 45: 1.4, 75: 1.8, 112.5: 2.1, 150: 2.5, 225: 3.0, 300: 3.4, 500: 4.2,
+    750: 5.0, 1000: 5.7, 1500: 6.5, 2000: 7.0, 2500: 7.5,
+}
+TYPICAL_X_R_1PH: dict[float, float] = {
+    15: 1.0, 25: 1.1, 37.5: 1.2, 50: 1.3, 75: 1.6, 100: 1.8, 167: 2.2,
+}
+
+
+def typical_x_r(kva: float, phases: int) -> tuple[float, float]:
+    """(a typical X/R, the kVA row it was read at) for a transformer of ``kva``: the row at or
+    above it, the first row below the list and the last above it (common practice, from memory;
+    a stated assumption, never a nameplate value)."""
+    table = TYPICAL_X_R_1PH if phases == 1 else TYPICAL_X_R_3PH
+    _kva_list(phases)
+    value = _positive(kva, "a kVA rating")
+    rows = sorted(table)
+    row = next((r for r in rows if r >= value), rows[-1])
+    return table[row], row

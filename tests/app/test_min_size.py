@@ -13,9 +13,9 @@ async def test_a_smallest_size_set_in_job_settings_resizes_the_feeder_and_is_sav
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
-        # The feeder carries one 16 A load at 120 V: 1,920 VA, 5.3 A on 208 V three-phase, which
-        # 14 AWG Cu carries (NEC 2023 Table 310.16, 15 A at 60 C).
-        assert "14 Cu" in sheet_cells(app)["F1"]
+        # The feeder carries one 16 A load at 120 V, on one line: 16 A, a 20 A device and
+        # 12 AWG Cu (NEC 2023 Table 310.16, 14 AWG carries only 15 A at 60 C).
+        assert "12 Cu" in sheet_cells(app)["F1"]
         await pilot.press("j")
         app.screen.query_one("#s-min_size").focus()
         await type_text(pilot, "8")

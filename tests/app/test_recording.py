@@ -85,9 +85,11 @@ async def test_editing_a_length_updates_the_drop_and_the_footage(tmp_path):
         assert sheet_cells(app)["R1"][8] == "5.28"
         await pilot.press("2")  # supply tree first, then footage: both must follow the edit
         await pilot.press("3")
-        # hot + neutral + EGC, all 12 AWG (Table 250.122: 20 A device -> 12 AWG Cu), each
-        # (100 ft + 2 ft slack at each end, the shipped default): 3 x 104 = 312 ft
-        assert re.search(r"Cu 12 AWG +312 ", shown(app, "#footage-text"))
+        # R1: hot + neutral + EGC, all 12 AWG (Table 250.122: 20 A device -> 12 AWG Cu), each
+        # (100 ft + 2 ft slack at each end, the shipped default): 3 x 104 = 312 ft; and F1,
+        # carrying R1's 16 A on one line (a 20 A device, 12 AWG): 3 hots, neutral and EGC of
+        # 40 + 2 + 2 ft: 5 x 44 = 220 ft; 532 ft in all
+        assert re.search(r"Cu 12 AWG +532 ", shown(app, "#footage-text"))
         await pilot.press("1")
         await pilot.press("down")  # F1 -> R1
         await pilot.press("e")
@@ -100,8 +102,8 @@ async def test_editing_a_length_updates_the_drop_and_the_footage(tmp_path):
         assert session.result_for("R1").voltage_drop_pct == pytest.approx(2.64, abs=0.01)
         assert sheet_cells(app)["R1"][8] == "2.64"
         await pilot.press("3")
-        # 3 x (50 + 2 + 2) = 162 ft
-        assert re.search(r"Cu 12 AWG +162 ", shown(app, "#footage-text"))
+        # 3 x (50 + 2 + 2) = 162 ft, and F1's 220 ft
+        assert re.search(r"Cu 12 AWG +382 ", shown(app, "#footage-text"))
     assert 'length = "50"' in path.read_text()
 
 

@@ -31,6 +31,9 @@ few thousand amperes carries about this many circuits; common practice)."""
 TRANSFORMER_KVA = (45.0, 75.0, 112.5, 150.0, 225.0, 300.0, 500.0)
 """Standard three-phase dry-type transformer ratings [kVA] (common practice)."""
 
+PANEL_RATINGS = (100, 125, 150, 200, 225, 400, 600, 800)
+"""Panelboard bus and main ratings [A] (common practice)."""
+
 _HP_KINDS = ("lighting", "lighting", "lighting", "lighting", "lighting", "lighting",
              "motor", "motor", "heater", "sign")
 _LP_KINDS = ("receptacles", "receptacles", "receptacles", "receptacles", "receptacles",
@@ -87,6 +90,7 @@ class _Builder:
         self.run_no = 0
         self.feeder_no = 0
         self.walked = date(2024, 4, 8)
+        self.panels: dict[str, tuple[dict, float]] = {}
 
     # ----- pieces -------------------------------------------------------------------------
     def _run(self, frm: str, to: str, length: tuple[int, int], *, feeder: bool = False,
@@ -172,14 +176,31 @@ class _Builder:
 
     def _panel(self, panel: str, system: str, feeds_from: str, kind: str,
                branches: int, feeder_length: tuple[int, int]) -> float:
-        self.sources.append({"id": panel, "kind": "panel", "system": system,
-                             "rating_a": 225 if system.startswith("480") else 200})
+        source: dict[str, Any] = {"id": panel, "kind": "panel", "system": system}
+        self.sources.append(source)
+        self.panels[panel] = (source, 0.0)
         extra = {}
         if self.rng.random() < 0.15:
             extra = {"material": "al", "insulation": "XHHW-2"}
         self._run(feeds_from, panel, feeder_length, feeder=True, **extra)
         branch = self._branch_hp if kind == "hp" else self._branch_lp
-        return sum(branch(panel) for _ in range(branches))
+        load = sum(branch(panel) for _ in range(branches))
+        self._rate(panel, load)
+        if feeds_from in self.panels:  # a subpanel: its panel serves it too
+            self._rate(feeds_from, load)
+        return load
+
+    def _rate(self, panel: str, more_va: float) -> None:
+        """The panel's bus and main: the smallest common rating at or above 1.5 times its
+        balanced current (room for the unbalance and 125 % of continuous loads; common
+        practice)."""
+        source, va = self.panels[panel]
+        va += more_va
+        self.panels[panel] = (source, va)
+        volts = 480.0 if source["system"].startswith("480") else 208.0
+        need = 1.5 * va / (3 ** 0.5 * volts)
+        rating = next((r for r in PANEL_RATINGS if r >= need), PANEL_RATINGS[-1])
+        source["rating_a"] = source["main_a"] = rating
 
     # ----- the plan ------------------------------------------------------------------------
     def build(self) -> dict:
@@ -219,7 +240,7 @@ class _Builder:
             source: dict[str, Any] = {"id": tid, "kind": "transformer",
                                       "system": "208Y/120V 3ph 4w"}
             self.sources.append(source)
-            self._run(svc, tid, (20, 250), feeder=True)
+            self._run(svc, tid, (20, 120), feeder=True)
             load = 0.0
             for p in range(panels):
                 room = self.left - stop
@@ -232,7 +253,9 @@ class _Builder:
                     prev = f"B{b}-LP{t_no}{'ABC'[p - 1]}"
                     load += self._panel(lp, "208Y/120V 3ph 4w", prev, "lp", n - 1, (20, 120))
                 else:
-                    load += self._panel(lp, "208Y/120V 3ph 4w", tid, "lp", n, (10, 150))
+                    # secondary conductors within 25 ft, ending in the panel's main
+                    # (NEC 240.21(C)(6))
+                    load += self._panel(lp, "208Y/120V 3ph 4w", tid, "lp", n, (6, 25))
             source["kva"] = _kva(load)
             source["name"] = f"Step-down {tid}"
         # what is left goes straight from the service: large equipment

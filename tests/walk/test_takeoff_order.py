@@ -157,13 +157,17 @@ def test_a_short_feeder_no_longer_buys_a_reel_per_conductor():
     takeoff = build_takeoff(job, compute_job(job))
     assert takeoff.warnings == ()
     two = [w for w in takeoff.wire_lines if w.size == "2 AWG"]
-    # F1: (17 + 2 + 2) x 1.05 = 22.05 -> 23 ft per conductor, black, red, blue and white;
-    # 2 AWG is cut to length (common practice): 23 ft each, nothing over (it was a 1,000 ft
-    # reel each, 977 ft over, four times)
+    # F1: (17 + 2 + 2) x 1.05 = 22.05 -> 23 ft per conductor, black, red and blue; 2 AWG is
+    # cut to length (common practice): 23 ft each, nothing over (it was a 1,000 ft reel each,
+    # 977 ft over, three times)
     assert "2 AWG" in CUT_SIZES
     assert [(w.colour, [(p.label, p.length_ft, p.count) for p in w.order], w.left_over_ft)
             for w in two] == [(c, [("cut to length", 23, 1)], 0)
-                              for c in ("black", "red", "blue", "white")]
+                              for c in ("black", "red", "blue")]
+    # its neutral carries only LP1's 12 A of unbalance (NEC 220.61): the 8 AWG floor of its EGC
+    # (215.2(A)(2), Table 250.122 with 250.122(B)), and the takeoff orders it so
+    assert any(w.size == "8 AWG" and w.colour == "white" and any(c.run_id == "F1" for c in w.cuts)
+               for w in takeoff.wire_lines)
     # no line of a size the supplier cuts buys a put-up it fills less than half
     for w in takeoff.wire_lines:
         if w.size in CUT_SIZES:

@@ -1,0 +1,345 @@
+"""Where each run lands in its source: its lines, its breaker positions, and the placement that
+balances the lines when the walk does not say.
+
+Lines and positions (common practice, the usual panelboard numbering): odd positions on the left,
+even on the right, two to a row; on a three-phase panel rows go A, B, C, A ... (positions 1-2 on
+A, 3-4 on B, 5-6 on C); on a single-phase three-wire panel A, B, A ... (1-2 on A, 3-4 on B); a
+two-wire source has one line. A circuit of k poles at position p takes p, p+2, ... p+2(k-1), on the
+same side, so its lines follow one another: a 2-pole at 5 on a three-phase panel takes 5 (C) and
+7 (A), phase CA; a 3-pole at 3 takes B, C and A.
+
+A run's lines come from its ``position``, else from its ``phase``, else the tool places it:
+largest load first, each onto the option (line, pair of lines, or rotation of three) that leaves
+the heaviest line lightest, at the lowest free position for it (a longest-first greedy; common
+practice). The result is compared with placing the same runs in file order, each at the lowest
+free position, and the better is kept, so placement never leaves the heaviest line worse than
+file order. "Heaviest" is the design current per line, 125 % of the continuous current plus the
+noncontinuous (NEC 215.2(A)(1)), from the phasor sums of ``gaugewalk.model.walk.feeder_loads``.
+
+Public API:
+
+- ``line_count(system) -> int`` (1, 2 or 3) and ``line_phasors(system) -> tuple[complex, ...]``
+  (unit phasors of each line's voltage to the neutral, A at 0 degrees).
+- ``position_lines(position, poles, lines)``, ``position_span(position, poles)``,
+  ``phase_name(lines)``.
+- ``Placement(lines, positions, phase, by)``: ``by`` is ``position`` (from the file),
+  ``phase`` (the file's phase, the position picked here) or ``placed`` (both picked here).
+- ``PlaceItem``: one run to place (poles, the position and phase the walk gives, its share of
+  the line currents for a choice of lines, its size for the greedy order).
+- ``place(items, n_lines, spaces) -> PlaceOutcome``: placements, the line sums, and the
+  problems (two runs on one position, a position past the spaces, a phase that disagrees).
+"""
+
+from __future__ import annotations
+
+import cmath
+import math
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, field
+
+from gaugewalk.model.engine.circuits import SYSTEMS
+from gaugewalk.model.walk.vocabulary import LINE_NAMES, PHASES
+
+_EPS = 1e-9
+
+_THREE = (1 + 0j, cmath.rect(1.0, -2 * math.pi / 3), cmath.rect(1.0, 2 * math.pi / 3))
+
+
+def line_count(system_id: str) -> int:
+    """Lines (ungrounded conductors) a source's bus offers: 3, 2 or 1."""
+    system = SYSTEMS[system_id]
+    return 3 if system.phases == 3 else system.hots
+
+
+def line_phasors(system_id: str) -> tuple[complex, ...]:
+    """Unit phasors of each line's voltage to the neutral (to the wye's star point on a 3-wire
+    system), A at 0 degrees: A, B, C at 0, -120 and +120 degrees on three phases; A and B
+    opposite (0 and 180 degrees) on a single-phase three-wire system, or 120 degrees apart
+    where its line-to-line voltage is sqrt(3) times the line-to-neutral (two hots of a wye)."""
+    system = SYSTEMS[system_id]
+    if system.phases == 3:
+        return _THREE
+    if system.hots == 1:
+        return (1 + 0j,)
+    ln = system.line_to_neutral_v or system.line_to_line_v / 2.0
+    if abs(system.line_to_line_v - math.sqrt(3.0) * ln) < 1.0:
+        return _THREE[:2]
+    return (1 + 0j, -1 + 0j)
+
+
+def position_lines(position: int, poles: int, n_lines: int) -> tuple[int, ...]:
+    """Lines of a ``poles``-pole circuit at ``position`` on a source of ``n_lines`` lines."""
+    start = (position - 1) // 2
+    return tuple((start + k) % n_lines for k in range(poles))
+
+
+def position_span(position: int, poles: int) -> tuple[int, ...]:
+    """Positions a ``poles``-pole circuit at ``position`` takes: p, p+2, ..."""
+    return tuple(position + 2 * k for k in range(poles))
+
+
+_PAIRS = {frozenset((0, 1)): "AB", frozenset((1, 2)): "BC", frozenset((0, 2)): "CA"}
+
+
+def phase_name(lines: Sequence[int]) -> str:
+    """``A``, ``AB``, ``CA``, ``ABC`` for lines in pole order (any rotation of three is ``ABC``;
+    a 2-pole starting on B of a single-phase panel is ``AB``)."""
+    if len(lines) == 3:
+        return "ABC"
+    if len(lines) == 2:
+        return _PAIRS[frozenset(lines)]
+    return LINE_NAMES[lines[0]]
+
+
+@dataclass(frozen=True)
+class Placement:
+    """Where one run lands: ``lines`` in pole order, the ``positions`` it takes (empty when
+    none was free), its ``phase`` word, and ``by`` what decided it: ``position`` (the walk),
+    ``phase`` (the walk's phase, the position picked here) or ``placed`` (picked here)."""
+
+    lines: tuple[int, ...]
+    positions: tuple[int, ...]
+    phase: str
+    by: str
+
+
+Share = Callable[[tuple[int, ...]], Sequence[tuple[int, complex, complex]]]
+"""A run's current on each line for a choice of lines: (line, current, continuous part) [A],
+phasors in the source's frame."""
+
+
+@dataclass
+class PlaceItem:
+    """One run to place. ``poles`` from its circuit; ``position`` and ``phase`` as the walk gives
+    them (None: not given); ``share(lines)`` its line currents; ``size`` orders the greedy
+    (largest first)."""
+
+    key: str
+    poles: int
+    position: int | None
+    phase: str | None
+    share: Share
+    size: float
+
+
+@dataclass
+class PlaceOutcome:
+    """``placements`` {key: Placement}; ``total`` and ``continuous`` per line [A, phasors];
+    ``problems`` as (key, field, sentence)."""
+
+    placements: dict[str, Placement] = field(default_factory=dict)
+    total: list[complex] = field(default_factory=list)
+    continuous: list[complex] = field(default_factory=list)
+    problems: list[tuple[str, str, str]] = field(default_factory=list)
+
+
+def design_line(total: complex, continuous: complex) -> float:
+    """A line's design current [A]: 125 % of the continuous current plus the noncontinuous,
+    each as a magnitude (NEC 215.2(A)(1); adding magnitudes is the conservative choice where the
+    two are not in phase)."""
+    return 1.25 * abs(continuous) + abs(total - continuous)
+
+
+def options(poles: int, n_lines: int) -> tuple[tuple[int, ...], ...]:
+    """The choices of lines for a ``poles``-pole circuit, in the order ties are broken."""
+    if n_lines == 1:
+        return ((0,),)
+    if poles == 1:
+        return tuple((k,) for k in range(n_lines))
+    if n_lines == 2:
+        return ((0, 1), (1, 0))
+    if poles == 2:
+        return ((0, 1), (1, 2), (2, 0))
+    return ((0, 1, 2), (1, 2, 0), (2, 0, 1))
+
+
+class _Spaces:
+    """Taken positions and where to look next for each start line and pole count."""
+
+    def __init__(self, n_lines: int, spaces: int | None, taken: set[int]) -> None:
+        self.n = n_lines
+        self.spaces = spaces
+        self.taken = set(taken)
+        self._next: dict[tuple[int, int], int] = {}
+
+    def _candidate(self, start: int, index: int) -> int:
+        row = start + self.n * (index // 2)
+        return 2 * row + 1 + index % 2
+
+    def first_free(self, start: int, poles: int) -> int | None:
+        """The lowest position whose first pole is on line ``start`` with every pole free and
+        within the spaces; positions are never freed, so the search resumes where it stopped."""
+        key = (start, poles)
+        index = self._next.get(key, 0)
+        taken, spaces = self.taken, self.spaces
+        while True:
+            p = self._candidate(start, index)
+            last = p + 2 * (poles - 1)
+            if spaces is not None and last > spaces:
+                self._next[key] = index
+                return None
+            if all(q not in taken for q in range(p, last + 1, 2)):
+                self._next[key] = index
+                return p
+            index += 1
+
+    def take(self, position: int, poles: int) -> None:
+        self.taken.update(position_span(position, poles))
+
+
+def _add(total: list[complex], cont: list[complex],
+         share: Sequence[tuple[int, complex, complex]]) -> None:
+    for k, t, c in share:
+        total[k] += t
+        cont[k] += c
+
+
+def _heaviest(total: Sequence[complex], cont: Sequence[complex]) -> float:
+    return max(design_line(t, c) for t, c in zip(total, cont, strict=True))
+
+
+def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> PlaceOutcome:
+    """Place the runs of one source: the walk's positions, then the walk's phases at the lowest
+    free positions for them, then the rest to balance the lines (see the module notes)."""
+    out = PlaceOutcome(total=[0j] * n_lines, continuous=[0j] * n_lines)
+    total, cont = out.total, out.continuous
+    owner: dict[int, str] = {}
+    rest: list[PlaceItem] = []
+    by_phase: list[tuple[PlaceItem, tuple[int, ...]]] = []
+    for it in items:
+        stated = _stated_lines(it, n_lines, out.problems)
+        if it.position is None:
+            if stated is not None:
+                by_phase.append((it, stated))
+            else:
+                rest.append(it)
+            continue
+        span = position_span(it.position, it.poles)
+        lines = position_lines(it.position, it.poles, n_lines)
+        if stated is not None and sorted(stated) != sorted(lines):
+            out.problems.append((it.key, "phase", f"phase {it.phase} does not agree with "
+                                 f"position {it.position}, which is on {phase_name(lines)} "
+                                 f"(positions 1-2 on A, 3-4 on B{', 5-6 on C' if n_lines == 3 else ''}; "
+                                 "common practice)"))
+        clash = [q for q in span if q in owner]
+        if clash:
+            out.problems.append((it.key, "position", f"position {clash[0]} is already taken by "
+                                 f"run {owner[clash[0]]}"))
+        if spaces is not None and span[-1] > spaces:
+            out.problems.append((it.key, "position", f"position {span[-1]} is past the "
+                                 f"{spaces} spaces of its source"))
+        for q in span:
+            owner.setdefault(q, it.key)
+        out.placements[it.key] = Placement(lines, span, phase_name(lines), "position")
+        _add(total, cont, it.share(lines))
+    free = _Spaces(n_lines, spaces, set(owner))
+    for it, lines in by_phase:
+        p = free.first_free(lines[0], it.poles)
+        if p is None:
+            out.problems.append((it.key, "position", _no_space(it.poles, lines, spaces)))
+            positions: tuple[int, ...] = ()
+        else:
+            free.take(p, it.poles)
+            positions = position_span(p, it.poles)
+        out.placements[it.key] = Placement(lines, positions, phase_name(lines), "phase")
+        _add(total, cont, it.share(lines))
+    if rest:
+        _place_rest(rest, n_lines, spaces, free, out)
+    return out
+
+
+def _stated_lines(it: PlaceItem, n_lines: int,
+                  problems: list[tuple[str, str, str]]) -> tuple[int, ...] | None:
+    """The lines of the walk's phase, or None (none given, or one that cannot be: said)."""
+    if it.phase is None:
+        return None
+    lines = PHASES[it.phase]
+    if n_lines == 1 and lines != (0,):
+        problems.append((it.key, "phase", f"its source has one line, so its phase is A, not "
+                         f"{it.phase}"))
+        return None
+    if any(k >= n_lines for k in lines):
+        problems.append((it.key, "phase", f"its source is single-phase (lines A and B), so it "
+                         f"cannot be on {it.phase}"))
+        return None
+    if len(lines) != it.poles:
+        problems.append((it.key, "phase", f"phase {it.phase} is {len(lines)} line(s), but its "
+                         f"circuit takes {it.poles} pole(s)"))
+        return None
+    return lines
+
+
+def _no_space(poles: int, lines: tuple[int, ...], spaces: int | None) -> str:
+    return (f"no free {poles}-pole space on {phase_name(lines)} within the {spaces} spaces of "
+            "its source")
+
+
+def _place_rest(rest: list[PlaceItem], n_lines: int, spaces: int | None, free: _Spaces,
+                out: PlaceOutcome) -> None:
+    """The runs the walk does not place: the greedy, and file order; the better is kept."""
+    base_total, base_cont = list(out.total), list(out.continuous)
+    file_free = _Spaces(n_lines, spaces, free.taken)
+    greedy = _greedy(rest, n_lines, free, list(base_total), list(base_cont))
+    plain = _file_order(rest, n_lines, file_free, list(base_total), list(base_cont))
+    chosen = plain if plain[0] + _EPS < greedy[0] else greedy
+    _, placements, total, cont, problems = chosen
+    out.placements.update(placements)
+    out.total[:] = total
+    out.continuous[:] = cont
+    out.problems.extend(problems)
+
+
+def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[complex],
+            cont: list[complex]):
+    placements: dict[str, Placement] = {}
+    problems: list[tuple[str, str, str]] = []
+    design = [design_line(t, c) for t, c in zip(total, cont, strict=True)]
+    for it in sorted(rest, key=lambda i: -i.size):  # stable: file order among equals
+        best = None
+        for lines in options(it.poles, n_lines):
+            p = free.first_free(lines[0], it.poles)
+            if p is None:
+                continue
+            share = it.share(lines)
+            new = {k: design_line(total[k] + t, cont[k] + c) for k, t, c in share}
+            worst = max(max(new.values()),
+                        max((d for k, d in enumerate(design) if k not in new), default=0.0))
+            touched = sum(new.values())
+            if (best is None or worst < best[0] - _EPS
+                    or (worst < best[0] + _EPS and touched < best[1] - _EPS)):
+                best = (worst, touched, lines, p, share)
+        if best is None:
+            lines = options(it.poles, n_lines)[0]
+            problems.append((it.key, "position", _no_space(it.poles, lines, free.spaces)))
+            share = it.share(lines)
+            positions: tuple[int, ...] = ()
+        else:
+            _, _, lines, p, share = best
+            free.take(p, it.poles)
+            positions = position_span(p, it.poles)
+        _add(total, cont, share)
+        for k, _, _ in share:
+            design[k] = design_line(total[k], cont[k])
+        placements[it.key] = Placement(lines, positions, phase_name(lines), "placed")
+    return _heaviest(total, cont), placements, total, cont, problems
+
+
+def _file_order(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[complex],
+                cont: list[complex]):
+    placements: dict[str, Placement] = {}
+    problems: list[tuple[str, str, str]] = []
+    for it in rest:
+        starts = {lines[0]: lines for lines in options(it.poles, n_lines)}
+        found = [(p, starts[s]) for s in starts
+                 if (p := free.first_free(s, it.poles)) is not None]
+        if found:
+            p, lines = min(found)
+            free.take(p, it.poles)
+            positions: tuple[int, ...] = position_span(p, it.poles)
+        else:
+            lines = options(it.poles, n_lines)[0]
+            problems.append((it.key, "position", _no_space(it.poles, lines, free.spaces)))
+            positions = ()
+        _add(total, cont, it.share(lines))
+        placements[it.key] = Placement(lines, positions, phase_name(lines), "placed")
+    return _heaviest(total, cont), placements, total, cont, problems
