@@ -54,6 +54,7 @@ from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.model.walk.phases import (
     PlaceItem,
     PlaceOutcome,
+    Share,
     design_line,
     line_phasors,
     place,
@@ -322,14 +323,27 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         if circuit is None:
             continue
         mine = own.get(r.id)
+        per_line = None
+        share: Share | None
         if mine is not None:
-            share = _OwnShare(u, mine)
             size = mine.amps * circuit.hots
             load = mine.load
+            mags = ((1.25 if mine.continuous else 1.0) * mine.amps,) * circuit.hots
+            if circuit.hots == 1 and r.position is None and r.phase is None:
+                # placed by the fast path for one pole, which needs no share
+                ph = mine.phasor
+                per_line = (tuple((ph * x, ph * x) for x in u) if mine.continuous
+                            else tuple((ph * x, 0j) for x in u))
+                share = None
+            else:
+                share = _OwnShare(u, mine)
         elif feeder.get(r.to) is r and r.to in feeds:
             f = feeds[r.to]
             share = _FeedShare(u, f)
-            size = sum(abs(x) for x in f.total)
+            mags = tuple(design_line(t, c) for t, c in zip(f.total, f.continuous, strict=True))
+            if f.frame == "winding":
+                mags = mags * circuit.hots
+            size = sum(mags)
             load = f.load
         else:
             continue
@@ -337,7 +351,8 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         cva += load.continuous_va
         watts += load.watts
         poles = min(circuit.hots, n) if n > 1 else 1
-        items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size))
+        items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size, mags,
+                               mine is not None and poles == n, per_line))
     outcome = place(items, n, source.spaces)
     lines = Lines(tuple(outcome.total), tuple(outcome.continuous), feeder_load(va, cva, watts),
                   SYSTEMS[source.system].has_neutral)

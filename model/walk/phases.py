@@ -10,11 +10,13 @@ same side, so its lines follow one another: a 2-pole at 5 on a three-phase panel
 
 A run's lines come from its ``position``, else from its ``phase``, else the tool places it:
 largest load first, each onto the option (line, pair of lines, or rotation of three) that leaves
-the heaviest line lightest, at the lowest free position for it (a longest-first greedy; common
-practice). The result is compared with placing the same runs in file order, each at the lowest
-free position, and the better is kept, so placement never leaves the heaviest line worse than
-file order. "Heaviest" is the design current per line, 125 % of the continuous current plus the
-noncontinuous (NEC 215.2(A)(1)), from the phasor sums of ``gaugewalk.model.walk.feeder_loads``.
+the heaviest line lightest, weighing each line by the sum of the design currents on it as a
+panel schedule adds them, at the lowest free position for it (a longest-first greedy; common
+practice). The phasor sums of that placement are compared with those of placing the same runs
+in file order, each at the lowest free position, and the better is kept, so placement never
+leaves the heaviest line worse than file order. "Heaviest" is the design current per line, 125 %
+of the continuous current plus the noncontinuous (NEC 215.2(A)(1)), from the phasor sums of
+``gaugewalk.model.walk.feeder_loads``.
 
 Public API:
 
@@ -36,6 +38,7 @@ import cmath
 import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
+from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import SYSTEMS
 from gaugewalk.model.walk.vocabulary import LINE_NAMES, PHASES
@@ -91,8 +94,7 @@ def phase_name(lines: Sequence[int]) -> str:
     return LINE_NAMES[lines[0]]
 
 
-@dataclass(frozen=True)
-class Placement:
+class Placement(NamedTuple):
     """Where one run lands: ``lines`` in pole order, the ``positions`` it takes (empty when
     none was free), its ``phase`` word, and ``by`` what decided it: ``position`` (the walk),
     ``phase`` (the walk's phase, the position picked here) or ``placed`` (picked here)."""
@@ -108,18 +110,31 @@ Share = Callable[[tuple[int, ...]], Sequence[tuple[int, complex, complex]]]
 phasors in the source's frame."""
 
 
-@dataclass
 class PlaceItem:
     """One run to place. ``poles`` from its circuit; ``position`` and ``phase`` as the walk gives
     them (None: not given); ``share(lines)`` its line currents; ``size`` orders the greedy
-    (largest first)."""
+    (largest first); ``mags`` its design current on each of its poles [A], by which the greedy
+    weighs the lines; ``balanced``: every rotation of its lines loads them alike (a balanced
+    three-phase load), so only the first with a free space is tried; ``per_line``: for a
+    one-pole run, its (current, continuous part) on each line, worked out ahead (the usual run,
+    placed fastest)."""
 
-    key: str
-    poles: int
-    position: int | None
-    phase: str | None
-    share: Share
-    size: float
+    __slots__ = ("key", "poles", "position", "phase", "share", "size", "mags", "balanced",
+                 "per_line")
+
+    def __init__(self, key: str, poles: int, position: int | None, phase: str | None,
+                 share: Share | None, size: float, mags: tuple[float, ...],
+                 balanced: bool = False,
+                 per_line: tuple[tuple[complex, complex], ...] | None = None) -> None:
+        self.key = key
+        self.poles = poles
+        self.position = position
+        self.phase = phase
+        self.share = share
+        self.size = size
+        self.mags = mags
+        self.balanced = balanced
+        self.per_line = per_line
 
 
 @dataclass
@@ -154,37 +169,52 @@ def options(poles: int, n_lines: int) -> tuple[tuple[int, ...], ...]:
 
 
 class _Spaces:
-    """Taken positions and where to look next for each start line and pole count."""
+    """Taken positions and where to look next, for each start line and pole count and for any
+    start; positions are never freed, so each search resumes where it stopped."""
 
     def __init__(self, n_lines: int, spaces: int | None, taken: set[int]) -> None:
         self.n = n_lines
         self.spaces = spaces
         self.taken = set(taken)
-        self._next: dict[tuple[int, int], int] = {}
+        self._next: dict[int, int] = {}
+        self._any: dict[int, int] = {}
 
-    def _candidate(self, start: int, index: int) -> int:
-        row = start + self.n * (index // 2)
-        return 2 * row + 1 + index % 2
+    def _fits(self, p: int, poles: int) -> bool:
+        taken = self.taken
+        return p not in taken and (poles == 1 or (p + 2 not in taken
+                                                   and (poles == 2 or p + 4 not in taken)))
 
     def first_free(self, start: int, poles: int) -> int | None:
         """The lowest position whose first pole is on line ``start`` with every pole free and
-        within the spaces; positions are never freed, so the search resumes where it stopped."""
-        key = (start, poles)
+        within the spaces."""
+        key = start * 4 + poles
         index = self._next.get(key, 0)
-        taken, spaces = self.taken, self.spaces
+        n, spaces = self.n, self.spaces
         while True:
-            p = self._candidate(start, index)
-            last = p + 2 * (poles - 1)
-            if spaces is not None and last > spaces:
+            p = 2 * (start + n * (index >> 1)) + 1 + (index & 1)
+            if spaces is not None and p + 2 * poles - 2 > spaces:
                 self._next[key] = index
                 return None
-            if all(q not in taken for q in range(p, last + 1, 2)):
+            if self._fits(p, poles):
                 self._next[key] = index
                 return p
             index += 1
 
+    def lowest_free(self, poles: int) -> int | None:
+        """The lowest position with every pole free and within the spaces, on any line."""
+        p = self._any.get(poles, 1)
+        spaces = self.spaces
+        while True:
+            if spaces is not None and p + 2 * poles - 2 > spaces:
+                self._any[poles] = p
+                return None
+            if self._fits(p, poles):
+                self._any[poles] = p
+                return p
+            p += 1
+
     def take(self, position: int, poles: int) -> None:
-        self.taken.update(position_span(position, poles))
+        self.taken.update(range(position, position + 2 * poles, 2))
 
 
 def _add(total: list[complex], cont: list[complex],
@@ -192,6 +222,15 @@ def _add(total: list[complex], cont: list[complex],
     for k, t, c in share:
         total[k] += t
         cont[k] += c
+
+
+def _share(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, complex, complex]]:
+    """The line currents of ``it`` on ``lines``: its share, or its worked-out one-pole lines."""
+    if it.share is not None:
+        return it.share(lines)
+    assert it.per_line is not None, "a run to place has a share or its one-pole lines"
+    t, c = it.per_line[lines[0]]
+    return ((lines[0], t, c),)
 
 
 def _heaviest(total: Sequence[complex], cont: Sequence[complex]) -> float:
@@ -231,7 +270,7 @@ def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> Place
         for q in span:
             owner.setdefault(q, it.key)
         out.placements[it.key] = Placement(lines, span, phase_name(lines), "position")
-        _add(total, cont, it.share(lines))
+        _add(total, cont, _share(it, lines))
     free = _Spaces(n_lines, spaces, set(owner))
     for it, lines in by_phase:
         p = free.first_free(lines[0], it.poles)
@@ -242,7 +281,7 @@ def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> Place
             free.take(p, it.poles)
             positions = position_span(p, it.poles)
         out.placements[it.key] = Placement(lines, positions, phase_name(lines), "phase")
-        _add(total, cont, it.share(lines))
+        _add(total, cont, _share(it, lines))
     if rest:
         _place_rest(rest, n_lines, spaces, free, out)
     return out
@@ -280,10 +319,23 @@ def _place_rest(rest: list[PlaceItem], n_lines: int, spaces: int | None, free: _
     base_total, base_cont = list(out.total), list(out.continuous)
     file_free = _Spaces(n_lines, spaces, free.taken)
     greedy = _greedy(rest, n_lines, free, list(base_total), list(base_cont))
-    plain = _file_order(rest, n_lines, file_free, list(base_total), list(base_cont))
-    chosen = plain if plain[0] + _EPS < greedy[0] else greedy
-    _, placements, total, cont, problems = chosen
-    out.placements.update(placements)
+    plain_worst, plain_at, plain_total, plain_cont = _file_order(
+        rest, n_lines, file_free, list(base_total), list(base_cont))
+    if plain_worst + _EPS < greedy[0]:
+        problems: list[tuple[str, str, str]] = []
+        for it, p in zip(rest, plain_at, strict=True):
+            if p is None:
+                lines = options(it.poles, n_lines)[0]
+                problems.append((it.key, "position", _no_space(it.poles, lines, spaces)))
+                out.placements[it.key] = Placement(lines, (), _name(lines), "placed")
+            else:
+                lines = position_lines(p, it.poles, n_lines)
+                out.placements[it.key] = Placement(lines, tuple(range(p, p + 2 * it.poles, 2)),
+                                                   _name(lines), "placed")
+        total, cont = plain_total, plain_cont
+    else:
+        _, placements, total, cont, problems = greedy
+        out.placements.update(placements)
     out.total[:] = total
     out.continuous[:] = cont
     out.problems.extend(problems)
@@ -291,55 +343,116 @@ def _place_rest(rest: list[PlaceItem], n_lines: int, spaces: int | None, free: _
 
 def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[complex],
             cont: list[complex]):
+    """Largest run first onto the option that leaves the heaviest line lightest. Each line's
+    load is counted here as the sum of the design currents on it (125 % of the continuous
+    currents plus the rest, as magnitudes: the schedule's way, cheap to weigh); the phasor sums
+    of the chosen places are then added up, and ``_place_rest`` weighs them against file
+    order."""
     placements: dict[str, Placement] = {}
     problems: list[tuple[str, str, str]] = []
-    design = [design_line(t, c) for t, c in zip(total, cont, strict=True)]
-    for it in sorted(rest, key=lambda i: -i.size):  # stable: file order among equals
+    load = [design_line(t, c) for t, c in zip(total, cont, strict=True)]
+    first_free = free.first_free
+    singles = _SINGLES[n_lines]
+    limited = free.spaces is not None
+    lines_of = range(n_lines)
+    for it in sorted(rest, key=_by_size):  # stable: file order among equals
+        poles = it.poles
+        per_line = it.per_line
+        if per_line is not None:
+            # one pole: the least loaded line with a free position, the first of equals
+            k = -1
+            for j in lines_of:
+                if (k < 0 or load[j] < load[k] - _EPS) and not (
+                        limited and first_free(j, 1) is None):
+                    k = j
+            if k < 0:
+                problems.append((it.key, "position", _no_space(1, (0,), free.spaces)))
+                k, at = 0, ()
+            else:
+                p = first_free(k, 1)
+                free.taken.add(p)
+                at = (p,)
+            load[k] += it.mags[0]
+            t, c = per_line[k]
+            total[k] += t
+            cont[k] += c
+            placements[it.key] = Placement(singles[k], at, LINE_NAMES[k], "placed")
+            continue
+        choices = options(poles, n_lines)
+        mags = it.mags
         best = None
-        for lines in options(it.poles, n_lines):
-            p = free.first_free(lines[0], it.poles)
+        best_worst = best_touched = 0.0
+        for lines in choices:
+            if it.balanced and best is not None:
+                break  # every rotation loads the lines alike: the first with a space will do
+            p = first_free(lines[0], poles)
             if p is None:
                 continue
-            share = it.share(lines)
-            new = {k: design_line(total[k] + t, cont[k] + c) for k, t, c in share}
-            worst = max(max(new.values()),
-                        max((d for k, d in enumerate(design) if k not in new), default=0.0))
-            touched = sum(new.values())
-            if (best is None or worst < best[0] - _EPS
-                    or (worst < best[0] + _EPS and touched < best[1] - _EPS)):
-                best = (worst, touched, lines, p, share)
+            new = load[:]
+            touched = 0.0
+            for k, m in zip(lines, mags, strict=False):
+                new[k] += m
+                touched += new[k]
+            worst = max(new)
+            if (best is None or worst < best_worst - _EPS
+                    or (worst < best_worst + _EPS and touched < best_touched - _EPS)):
+                best = (lines, p)
+                best_worst, best_touched = worst, touched
         if best is None:
-            lines = options(it.poles, n_lines)[0]
-            problems.append((it.key, "position", _no_space(it.poles, lines, free.spaces)))
-            share = it.share(lines)
+            lines = choices[0]
+            problems.append((it.key, "position", _no_space(poles, lines, free.spaces)))
             positions: tuple[int, ...] = ()
         else:
-            _, _, lines, p, share = best
-            free.take(p, it.poles)
-            positions = position_span(p, it.poles)
-        _add(total, cont, share)
-        for k, _, _ in share:
-            design[k] = design_line(total[k], cont[k])
-        placements[it.key] = Placement(lines, positions, phase_name(lines), "placed")
+            lines, p = best
+            free.take(p, poles)
+            positions = tuple(range(p, p + 2 * poles, 2))
+        for k, m in zip(lines, mags, strict=False):
+            load[k] += m
+        for k, t, c in _share(it, lines):
+            total[k] += t
+            cont[k] += c
+        placements[it.key] = Placement(lines, positions, _name(lines), "placed")
     return _heaviest(total, cont), placements, total, cont, problems
+
+
+_SINGLES = {1: ((0,),), 2: ((0,), (1,)), 3: ((0,), (1,), (2,))}
+
+
+def _by_size(item: PlaceItem) -> float:
+    return -item.size
 
 
 def _file_order(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[complex],
                 cont: list[complex]):
-    placements: dict[str, Placement] = {}
-    problems: list[tuple[str, str, str]] = []
+    """Each run in file order at the lowest free position for its poles: the heaviest design
+    current, the position of each (None: no space) and the line sums."""
+    at: list[int | None] = []
+    lowest_free, take = free.lowest_free, free.take
     for it in rest:
-        starts = {lines[0]: lines for lines in options(it.poles, n_lines)}
-        found = [(p, starts[s]) for s in starts
-                 if (p := free.first_free(s, it.poles)) is not None]
-        if found:
-            p, lines = min(found)
-            free.take(p, it.poles)
-            positions: tuple[int, ...] = position_span(p, it.poles)
+        poles = it.poles
+        p = lowest_free(poles)
+        at.append(p)
+        if p is not None:
+            take(p, poles)
+            start = (p - 1) // 2
         else:
-            lines = options(it.poles, n_lines)[0]
-            problems.append((it.key, "position", _no_space(it.poles, lines, free.spaces)))
-            positions = ()
-        _add(total, cont, it.share(lines))
-        placements[it.key] = Placement(lines, positions, phase_name(lines), "placed")
-    return _heaviest(total, cont), placements, total, cont, problems
+            start = 0
+        if it.per_line is not None:
+            k = start % n_lines
+            t, c = it.per_line[k]
+            total[k] += t
+            cont[k] += c
+            continue
+        lines = tuple((start + j) % n_lines for j in range(poles))
+        for k, t, c in _share(it, lines):
+            total[k] += t
+            cont[k] += c
+    return _heaviest(total, cont), at, total, cont
+
+
+def _name(lines: tuple[int, ...]) -> str:
+    return _NAMES.get(lines) or phase_name(lines)
+
+
+_NAMES = {lines: name for name, lines in PHASES.items()}
+"""Phase words of the usual line tuples, looked up before ``phase_name`` works one out."""

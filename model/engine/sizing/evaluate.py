@@ -296,6 +296,8 @@ def _parallel_hint(spec: RunSpec) -> str:
     """'; 3 sets in parallel would' when more sets make the run work."""
     if spec.size is not None:
         return ""
+    if spec.upstream_drop_pct >= spec.max_total_drop_pct:
+        return ""  # the drop up to the source takes the whole total target: no sets would do
     for sets in range(spec.sets + 1, 13):
         try:
             r = _evaluate(replace(spec, sets=sets), hint=False)
