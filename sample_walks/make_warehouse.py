@@ -4,6 +4,8 @@ Invented job: distribution centre "DC-2" for Pellham Logistics, 1800 Quarry Flat
 480Y/277 V service into a main switchboard; three 480Y/277 V distribution panels (high-bay
 lighting on 277 V, dock doors, chargers and unit heaters on 480 V); two step-down transformers to
 208Y/120 V, each feeding a panel and subpanels for the offices, the break room and the docks.
+The transformers carry their nameplate impedance and primary-only protection (NEC Table
+450.3(B)); the drop from the service carries through them (the job default).
 
 Deterministic: a seeded ``random.Random`` picks lengths and loads, so running it twice writes the
 same bytes (a test checks the committed file against a fresh run). Run from the repository root::
@@ -38,17 +40,18 @@ def build() -> Job:
         Source(id="H2", kind="panel", system="480Y/277V 3ph 4w", name="Lighting panel H2",
                rating_a=400, notes="Column line C-14, aisle 11"),
         Source(id="H3", kind="panel", system="480Y/277V 3ph 4w", name="Dock and mechanical H3",
-               rating_a=400, notes="Dock wall, between doors 12 and 13"),
+               rating_a=600, notes="Dock wall, between doors 12 and 13"),
         Source(id="T1", kind="transformer", system="208Y/120V 3ph 4w", kva=225,
-               name="Office transformer", notes="Electrical room 101, on the pad"),
+               impedance_pct=4.6, name="Office transformer",
+               notes="Electrical room 101, on the pad"),
         Source(id="L1", kind="panel", system="208Y/120V 3ph 4w", name="Office panel L1",
-               rating_a=400, notes="Electrical room 101"),
+               rating_a=600, main_a=600, spaces=84, notes="Electrical room 101"),
         Source(id="L1A", kind="panel", system="208Y/120V 3ph 4w", name="Office subpanel L1A",
-               rating_a=100, notes="Office corridor, by the copy room"),
+               rating_a=225, notes="Office corridor, by the copy room"),
         Source(id="L1B", kind="panel", system="208Y/120V 3ph 4w", name="Break room subpanel L1B",
                rating_a=100, notes="Break room, behind the door"),
-        Source(id="T2", kind="transformer", system="208Y/120V 3ph 4w", kva=112.5,
-               name="Dock transformer", notes="Dock wall, beside H3"),
+        Source(id="T2", kind="transformer", system="208Y/120V 3ph 4w", kva=150,
+               impedance_pct=3.5, name="Dock transformer", notes="Dock wall, beside H3"),
         Source(id="L2", kind="panel", system="208Y/120V 3ph 4w", name="Dock panel L2",
                rating_a=225, notes="Dock wall, beside T2"),
         Source(id="L2A", kind="panel", system="208Y/120V 3ph 4w", name="Shipping office L2A",

@@ -41,10 +41,21 @@ def test_the_warehouse_steps_down_to_208y120_through_its_transformers_and_passes
     assert job.source("T1").system == "208Y/120V 3ph 4w"
     result = compute_job(job)
     assert result.ok, [str(p) for p in result.problems][:5]
-    assert result.source_drop_pct["T1"] == 0.0  # drop restarts on a transformer secondary
-    # the office subpanel's bus drop is the two feeders below T1 added up
+    # the drop from the service carries through T1 (the default): its primary feeder's drop
+    # plus its own drop at its load (IEEE Std 141 approximation)
+    assert job.defaults.drop_through_transformers
+    assert result.source_drop_pct["T1"] == pytest.approx(
+        result.runs["F-T1"].voltage_drop_pct + result.transformers["T1"].drop_pct)
+    assert result.transformers["T1"].drop_pct > 0.5
+    # Table 450.3(B) primary-only: 225 kVA at 480 V is 225000 / (sqrt(3) x 480) = 270.6 A;
+    # 125 % = 338.3 A, note 1 next standard rating (240.6(A)) 350 A
+    assert result.transformers["T1"].primary_fla_a == pytest.approx(270.6, abs=0.05)
+    assert result.transformers["T1"].primary_ocpd_a == 350
+    assert result.runs["F-T1"].ocpd_a == 350
+    # the office subpanel's bus drop is T1's secondary plus the two feeders below it
     assert result.source_drop_pct["L1A"] == pytest.approx(
-        result.runs["F-L1"].voltage_drop_pct + result.runs["F-L1A"].voltage_drop_pct)
+        result.source_drop_pct["T1"] + result.runs["F-L1"].voltage_drop_pct
+        + result.runs["F-L1A"].voltage_drop_pct)
 
 
 def test_the_retail_sample_passes_and_the_farm_has_only_its_documented_problem():
