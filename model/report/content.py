@@ -9,7 +9,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from gaugewalk.model.walk.equipment import load_words, run_continuous
+from gaugewalk.model.walk.compute import JobResult
 from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
 from gaugewalk.model.engine.contract import RunResult
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
 from gaugewalk.tables.order.putups import CUT_LABEL
@@ -76,6 +78,20 @@ class Report:
     fitting_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]]
     assumptions: tuple[str, ...]
     warnings: tuple[str, ...]
+    sources_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]] = ((), ())
+    schedules: tuple[ReportSchedule, ...] = ()
+    drop_basis: str = ""
+
+
+@dataclass(frozen=True)
+class ReportSchedule:
+    """One panel schedule as text: a ``title``, ``notes`` (feeder, main, loading, spaces) and
+    its table (``columns``, ``rows``; the last row is the totals)."""
+
+    title: str
+    notes: tuple[str, ...]
+    columns: tuple[str, ...]
+    rows: tuple[tuple[str, ...], ...]
 
 
 def _num(value: float, places: int = 1) -> str:
@@ -136,6 +152,10 @@ def _defaults(job: Job) -> tuple[tuple[str, str], ...]:
         ("Branch drop target [%]", f"{d.branch_drop_pct:g} (informational note to NEC 210.19)"),
         ("Feeder drop target [%]", f"{d.feeder_drop_pct:g} (informational note to NEC 215.2)"),
         ("Total drop target [%]", f"{d.total_drop_pct:g} (informational note to NEC 215.2)"),
+        ("Drop through transformers", drop_basis(job)),
+        ("Feeder basis", {"load": "the load served, heaviest line (NEC 215.2(A)(1))",
+                          "equipment": "the main or bus rating of the equipment fed "
+                                       "(common practice)"}[d.feeder_basis]),
         ("Slack per end [ft]", f"{d.slack_per_end_ft:g}"),
         ("Waste allowance [%]", f"{d.waste_pct:g}"),
         ("Colour scheme", d.colour_scheme),
@@ -145,9 +165,11 @@ def _defaults(job: Job) -> tuple[tuple[str, str], ...]:
 
 
 def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeoff, *,
-                 file_name: str = "", run_errors: dict[str, str] | None = None) -> Report:
+                 file_name: str = "", run_errors: dict[str, str] | None = None,
+                 job_result: JobResult | None = None) -> Report:
     """The report of ``job``: ``results`` maps run id to its result (None: not sized, with the
-    reason in ``run_errors``)."""
+    reason in ``run_errors``); with the whole ``job_result``, the sources list and the panel
+    schedules too."""
     run_errors = run_errors or {}
     h = job.job
     header = [("Job", h.name or "(no name)")]
@@ -214,7 +236,83 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         fitting_table=fitting_table_of(takeoff),
         assumptions=takeoff.assumptions,
         warnings=takeoff.warnings,
+        sources_table=sources_table_of(job, job_result) if job_result is not None else ((), ()),
+        schedules=schedules_of(job, job_result) if job_result is not None else (),
+        drop_basis=drop_basis(job),
     )
+
+
+SOURCE_COLUMNS = ("Source", "Kind", "System", "Bus [A]", "Main [A]", "Load [kVA]",
+                  "Per line [A]", "Neutral [A]", "Heaviest design [A]", "Loading [%]",
+                  "Drop at bus [%]", "Notes")
+
+
+def _amps_text(names: tuple[str, ...], amps: tuple[float, ...]) -> str:
+    return " / ".join(f"{n} {a:.1f}" for n, a in zip(names, amps, strict=True))
+
+
+def sources_table_of(job: Job, result: JobResult):
+    """Every source with its ratings and loading as ``(columns, rows)`` of text; a
+    transformer's nameplate, protection and own drop in its notes."""
+    rows = []
+    for s in job.sources:
+        sch = schedule_of(job, result, s.id)
+        info = result.transformers.get(s.id)
+        notes = ""
+        if s.kind == "transformer" and info is not None:
+            z = f"{info.impedance_pct:g} %Z{' (assumed)' if info.impedance_assumed else ''}"
+            sec = (f", secondary device {info.secondary_ocpd_a} A"
+                   if info.secondary_ocpd_a is not None else "")
+            notes = (f"{info.kva:g} kVA, {z}; primary {info.primary_fla_a:.1f} A, device "
+                     f"{info.primary_ocpd_a} A{sec}; secondary {info.secondary_fla_a:.1f} A; "
+                     f"loaded {info.utilisation_pct:.0f} %; drop in it {info.drop_pct:.2f} %")
+        loading = result.loadings.get(s.id)
+        drop = result.source_drop_pct.get(s.id)
+        rows.append((
+            s.id, s.kind, s.system, "" if s.rating_a is None else str(s.rating_a),
+            "" if s.main_a is None else str(s.main_a) if s.kind != "transformer" else "",
+            f"{sch.connected_va / 1000:.1f}", _amps_text(sch.lines, sch.phase_amps),
+            "" if sch.neutral_amps is None else f"{sch.neutral_amps:.1f}",
+            "" if loading is None else f"{loading.design_a:.1f} ({loading.line})",
+            "" if sch.utilisation_pct is None else f"{sch.utilisation_pct:.0f}",
+            "" if drop is None else f"{drop:.2f}", notes))
+    return SOURCE_COLUMNS, tuple(rows)
+
+
+def schedules_of(job: Job, result: JobResult) -> tuple[ReportSchedule, ...]:
+    """Each panel's schedule as text: positions, runs, poles, phase, VA per line, totals."""
+    out = []
+    for sch in schedules(job, result):
+        columns = ("Position", "Run", "To", "Poles", "Phase", *(f"{n} [VA]" for n in sch.lines),
+                   "Placed")
+        rows = [("-".join(str(p) for p in row.positions) or "no space", row.run_id, row.to,
+                 str(row.poles), row.phase, *(f"{v:.0f}" if v else "" for v in row.va),
+                 _PLACED[row.by]) for row in sch.rows]
+        rows.append(("", "Total", "", "", "", *(f"{v:.0f}" for v in sch.total_va), ""))
+        notes = [f"{sch.kind} {sch.system}; current per line "
+                 f"{_amps_text(sch.lines, sch.phase_amps)} A (before the 125 % for continuous "
+                 "loads)" + ("" if sch.neutral_amps is None else
+                             f"; neutral {sch.neutral_amps:.1f} A (NEC 220.61)")]
+        ratings = []
+        if sch.rating_a is not None:
+            ratings.append(f"bus {sch.rating_a} A")
+        ratings.append(f"main {sch.main_a} A" if sch.main_a is not None else
+                       "no main device given" if sch.kind == "service" else "main lugs only")
+        if sch.feeder is not None:
+            ratings.append(f"fed by {sch.feeder}" + (f" on {sch.feeder_ocpd_a} A"
+                                                     if sch.feeder_ocpd_a else ""))
+        if sch.utilisation_pct is not None:
+            ratings.append(f"loaded {sch.utilisation_pct:.0f} % (heaviest line's design "
+                           "current, NEC 215.2(A)(1))")
+        notes.append("; ".join(ratings))
+        notes.append(f"{sch.spaces} spaces" if sch.spaces is not None else
+                     "spaces not given: positions are not checked against the end of the panel")
+        notes.append("VA split equally over a circuit's poles (common practice)")
+        out.append(ReportSchedule(f"{sch.source_id}", tuple(notes), columns, tuple(rows)))
+    return tuple(out)
+
+
+_PLACED = {"position": "as walked", "phase": "phase as walked", "placed": "by the tool"}
 
 
 def _order_text(w: WireLine) -> str:

@@ -190,8 +190,8 @@ def test_markdown_report_has_the_same_sections(tmp_path):
     assert rc == 0
     md = out.read_text(encoding="utf-8")
     assert md.count(CAUTION) == 2
-    for heading in ("## Defaults used", "## Runs", "## Conductor footage by size",
-                    "## Material list", "## Takeoff assumptions"):
+    for heading in ("## Defaults used", "## Runs", "## Sources", "## Panel schedules",
+                    "## Conductor footage by size", "## Material list", "## Takeoff assumptions"):
         assert heading in md
     assert "| F1 | MSB | LP1 | 150.0 | 300 A | 2 x 3/0 AWG Cu | 1.64 | 1.64 |" in md
     check_golden("report_walk.md", md)

@@ -15,6 +15,7 @@ from typing import Any
 from gaugewalk.model.walk.compute import JobResult, compute_job
 from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Job
+from gaugewalk.model.walk.schedule import drop_basis, source_entry
 from gaugewalk.model.walkfile.read import WalkFileError, check_walk_text, read_walk_text
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
 from gaugewalk.tui.cli.main import CAUTION
@@ -50,6 +51,12 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             "flc_a": None, "locked_rotor_a": None, "starting_drop_pct": None, "kind_rule": None,
             "ok": False, "problems": [p.message for p in result.run_problems(r.id)],
         }
+        feeder = result.feeders.get(r.id)
+        entry["basis"] = feeder.basis if feeder is not None else None
+        placed = result.placements.get(r.id)
+        entry["position"] = list(placed.positions) if placed is not None else None
+        entry["phase"] = placed.phase if placed is not None else None
+        entry["placed_by"] = placed.by if placed is not None else None
         if rr is not None:
             entry.update({
                 "amps": round(rr.amps, 3), "required_ampacity_a": round(rr.required_ampacity_a, 3),
@@ -63,13 +70,11 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
                 "starting_drop_pct": _round(rr.starting_drop_pct),
                 "kind_rule": rr.kind_rule, "ok": rr.ok,
             })
+            if feeder is not None:  # the current it is sized for, by its basis
+                entry["amps"] = round(feeder.amps, 3)
+                entry["load_amps"] = round(feeder.load_amps, 3)
         runs.append(entry)
-    sources = [
-        {"id": s.id, "kind": s.kind, "system": s.system,
-         "drop_pct": _round(result.source_drop_pct.get(s.id)),
-         "connected_va": _round(result.connected_va.get(s.id))}
-        for s in job.sources
-    ]
+    sources = [source_entry(job, result, s.id) for s in job.sources]
     failing = [e["id"] for e in runs if not e["ok"]]
     totals = [e["total_drop_pct"] for e in runs if e["total_drop_pct"] is not None]
     worst = max(runs, key=lambda e: e["total_drop_pct"] or -1.0, default=None)
@@ -78,6 +83,8 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         "job": job.job.name,
         "runs": runs,
         "sources": sources,
+        "drop_through_transformers": job.defaults.drop_through_transformers,
+        "drop_basis": drop_basis(job),
         "summary": {
             "runs": len(runs),
             "ok": len(runs) - len(failing),

@@ -82,7 +82,7 @@ def run(args: argparse.Namespace) -> int:
     fmt = check_output(args.file, args.output, args.replace)
     job, result, takeoff = load_computed(args.file)
     report = build_report(job, result.runs, takeoff, file_name=Path(args.file).name,
-                          run_errors=run_errors_of(result))
+                          run_errors=run_errors_of(result), job_result=result)
     try:
         atomic_write(Path(args.output), render(fmt, report).encode("utf-8"), keep_backup=False)
     except OSError as exc:

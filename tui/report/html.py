@@ -116,6 +116,16 @@ def render_html(report: Report) -> str:
         out.append("<h2>Equipment by its article</h2>")
         out.append(_table(*report.equipment_table, label="Equipment by its article"))
 
+    if report.sources_table[0]:
+        out.append("<h2>Sources</h2>")
+        out.append(f"<p>Total drop: {escape(report.drop_basis)}.</p>")
+        out.append(_table(*report.sources_table, label="Sources"))
+        out.append("<h2>Panel schedules</h2>")
+        for sch in report.schedules:
+            out.append(f"<h3>{escape(sch.title)}</h3>")
+            out.append("<ul>" + "".join(f"<li>{escape(n)}</li>" for n in sch.notes) + "</ul>")
+            out.append(_table(sch.columns, sch.rows, label=f"Schedule of {sch.title}"))
+
     out.append("<h2>Conductor footage by size</h2>")
     out.append(footage_chart_svg(report))
     out.append(_table(("Material", "Size", "Net [ft]", "With waste [ft]"),

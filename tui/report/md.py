@@ -67,6 +67,14 @@ def render_md(report: Report) -> str:
     out += ["## Runs", ""] + _table(RUN_COLUMNS, [r.cells() for r in report.runs]) + [""]
     if report.equipment_table[1]:
         out += ["## Equipment by its article", ""] + _table(*report.equipment_table) + [""]
+    if report.sources_table[0]:
+        out += ["## Sources", "", md_escape(f"Total drop: {report.drop_basis}."), ""]
+        out += _table(*report.sources_table) + [""]
+        out += ["## Panel schedules", ""]
+        for sch in report.schedules:
+            out += [f"### {md_escape(sch.title)}", ""]
+            out += [f"- {md_escape(n)}" for n in sch.notes] + [""]
+            out += _table(sch.columns, sch.rows) + [""]
     out += ["## Conductor footage by size", "", "Feet to order per size, with waste allowance:", ""]
     out += footage_chart_text(report) + [""]
     out += _table(("Material", "Size", "Net [ft]", "With waste [ft]"),
