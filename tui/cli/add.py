@@ -19,6 +19,7 @@ from gaugewalk.model.walk.checks import branch_circuit_for_kind
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.job import Run
 from gaugewalk.model.walk.problems import Locator, problems_from_errors
+from gaugewalk.model.walk.vocabulary import PHASES
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,
@@ -47,6 +48,11 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="how the load is wired (default for a branch run: the usual circuit "
                         "for its kind of load, said when added; for a feeder: every hot and "
                         "the neutral)")
+    parser.add_argument("--position", type=int, metavar="N",
+                        help="breaker position (circuit number) in its source; a k-pole "
+                             "circuit at N takes N, N+2, ... (default: placed to balance)")
+    parser.add_argument("--phase", choices=tuple(PHASES),
+                        help="the line or lines it lands on, when no position is given")
     parser.add_argument("--continuous", action=argparse.BooleanOptionalAction, default=None,
                         help="load runs 3 h or more (default: by its kind; EV chargers, water "
                         "heaters and heaters are by their article, lighting by default)")
@@ -77,6 +83,7 @@ def _run_data(args: argparse.Namespace, run_id: str) -> dict:
         "ocpd_a": args.ocpd, "material": args.material, "insulation": args.insulation,
         "raceway": args.raceway, "terminal_temp": args.terminal_temp, "ambient_c": args.ambient,
         "max_drop_pct": args.max_drop, "bends": args.bends, "measured_on": args.measured_on,
+        "position": args.position, "phase": args.phase,
     }
     data.update({k: v for k, v in options.items() if v is not None})
     if args.continuous is not None:
@@ -133,6 +140,16 @@ def run(args: argparse.Namespace) -> int:
             summary += f", starting {rr.starting_drop_pct:.2f}%"
         if rr.problems:
             summary += "; " + "; ".join(rr.problems)
+    placed = result.placements.get(run_id)
+    if placed is not None:
+        where = (f"position {'-'.join(str(p) for p in placed.positions)}"
+                 if placed.positions else "no free position")
+        how = {"position": "as given", "phase": "phase as given",
+               "placed": "placed to balance the lines"}[placed.by]
+        summary += f"; {where}, phase {placed.phase} ({how})"
+    for problem in result.run_problems(run_id):
+        if problem.field in ("position", "phase"):
+            summary += f"; {problem.message}"
     print(summary)
     if not stated_circuit and new.connection is not None and source is not None:
         words = circuit_words(resolve_circuit(source.system, new.connection))

@@ -19,6 +19,7 @@ COMMAND_MODULES: tuple[str, ...] = (
     "gaugewalk.tui.cli.new",
     "gaugewalk.tui.cli.source",
     "gaugewalk.tui.cli.add",
+    "gaugewalk.tui.cli.place",
     "gaugewalk.tui.cli.check",
     "gaugewalk.tui.cli.merge",
     "gaugewalk.tui.cli.schema",

@@ -14,7 +14,7 @@ from pydantic import ValidationError
 
 from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.model.walk.problems import Locator, problems_from_errors
-from gaugewalk.model.walk.vocabulary import SOURCE_KINDS
+from gaugewalk.model.walk.vocabulary import PROTECTIONS, SOURCE_KINDS
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,
@@ -36,7 +36,18 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="supply system at its bus (transformer: secondary), e.g. 208Y/120")
     parser.add_argument("--name", default="", help="name on the equipment")
     parser.add_argument("--kva", type=float, help="transformer rating [kVA]")
-    parser.add_argument("--rating", type=int, metavar="A", help="bus or main rating [A]")
+    parser.add_argument("--rating", type=int, metavar="A", help="bus rating [A]")
+    parser.add_argument("--main", type=int, metavar="A",
+                        help="main device [A] (none: main lugs only)")
+    parser.add_argument("--spaces", type=int, metavar="N", help="breaker positions it has")
+    parser.add_argument("--impedance", type=float, metavar="PCT",
+                        help="transformer nameplate impedance [%%] (none: a typical value, "
+                             "stated as assumed)")
+    parser.add_argument("--protection", choices=tuple(PROTECTIONS),
+                        help="transformer protection by NEC Table 450.3(B): primary only "
+                             "(default) or primary and secondary")
+    parser.add_argument("--secondary-ocpd", type=int, metavar="A",
+                        help="transformer secondary device at the transformer [A]")
     parser.add_argument("--notes", default="")
     parser.add_argument("--from", dest="from_", metavar="SOURCE",
                         help="the source feeding it (needed for all but the service)")
@@ -56,6 +67,11 @@ def run(args: argparse.Namespace) -> int:
         return EXIT_INVALID
     data = {"id": args.id, "kind": args.kind, "system": args.system, "name": args.name,
             "kva": args.kva, "rating_a": args.rating, "notes": args.notes}
+    for key, value in (("main_a", args.main), ("spaces", args.spaces),
+                       ("impedance_pct", args.impedance), ("protection", args.protection),
+                       ("secondary_ocpd_a", args.secondary_ocpd)):
+        if value is not None:
+            data[key] = value
     try:
         source = Source.model_validate(data)
     except ValidationError as exc:
