@@ -60,6 +60,7 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("walk.runs", "1", "show_view('runs')", "Runs", "Run sheet: every run, sortable and filterable.", "walk", footer=False),
     KeyAction("walk.tree", "2", "show_view('tree')", "Tree", "Supply tree: service to feeders, panels and branch runs with cumulative drop.", "walk", footer=False),
     KeyAction("walk.feet", "3", "show_view('footage')", "Footage", "Footage by size and material, with a bar chart.", "walk", footer=False),
+    KeyAction("walk.boards", "4", "show_view('boards')", "Boards", "Boards: the sources' ratings and loading, and every panel's schedule (positions, phases, load per line).", "walk", footer=False),
     KeyAction("walk.views", "tab", "next_view", "View", "Next view (runs, tree, footage).", "walk", key_display="Tab"),
     KeyAction("walk.trial", "t", "trial", "Try", "Trial change: try another material, size or voltage on the run, see the effect, keep it or not.", "walk", priority=True),
     KeyAction("walk.job", "j", "job_settings", "Job", "Job settings: the defaults every run inherits; all runs recompute.", "walk", priority=True),

@@ -15,14 +15,15 @@ from gaugewalk.tui.app.sheet.rows import all_rows, detail_lines
 from gaugewalk.model.session.session import WalkSession
 from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
-from gaugewalk.tui.app.widgets.views import SupplyTree, footage_text
+from gaugewalk.tui.app.widgets.views import SupplyTree, boards_text, footage_text
 
-VIEWS = ("runs", "tree", "footage")
+VIEWS = ("runs", "tree", "footage", "boards")
 
 
 # actions of keys that open another screen (priority bindings in gaugewalk.tui.app.keys)
 _OPENERS = {"new_run", "edit_run", "choose", "trial", "job_settings"}
-VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage"}
+VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage",
+               "boards": "4 Boards"}
 
 
 class WalkScreen(Screen):
@@ -38,6 +39,7 @@ class WalkScreen(Screen):
         self.source_filter: str | None = None
         self._tree_stale = True
         self._footage_stale = True
+        self._boards_stale = True
 
     def compose(self) -> ComposeResult:
         yield Header()
@@ -52,6 +54,8 @@ class WalkScreen(Screen):
             yield SupplyTree(id="tree")
             with ScrollableContainer(id="footage", can_focus=True):
                 yield Static("", id="footage-text")
+            with ScrollableContainer(id="boards", can_focus=True):
+                yield Static("", id="boards-text")
         yield Footer()
 
     def on_mount(self) -> None:
@@ -76,6 +80,7 @@ class WalkScreen(Screen):
         sheet.set_rows(all_rows(self.session), keep_key=focus)
         self._tree_stale = True
         self._footage_stale = True
+        self._boards_stale = True
         if self.view != "runs":
             self._refresh_view()
         self._bar()
@@ -117,6 +122,9 @@ class WalkScreen(Screen):
             width = max(self.size.width - 2, 40)
             self.query_one("#footage-text", Static).update(footage_text(self.session, width))
             self._footage_stale = False
+        elif self.view == "boards" and self._boards_stale:
+            self.query_one("#boards-text", Static).update(boards_text(self.session))
+            self._boards_stale = False
 
     @on(RunSheet.Highlighted)
     def _highlighted(self, event: RunSheet.Highlighted) -> None:
@@ -158,7 +166,8 @@ class WalkScreen(Screen):
         self.view = view
         self.query_one(ContentSwitcher).current = view
         self._refresh_view()
-        target = {"runs": "#sheet", "tree": "#tree", "footage": "#footage"}[view]
+        target = {"runs": "#sheet", "tree": "#tree", "footage": "#footage",
+                  "boards": "#boards"}[view]
         self.query_one(target).focus()
         self._bar()
 

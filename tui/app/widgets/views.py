@@ -1,10 +1,12 @@
-"""The supply tree and the footage tally: the two other ways to look at a walk.
+"""The supply tree, the footage tally and the boards: the other ways to look at a walk.
 
 The tree goes from each service through feeders, transformers and panels to the branch runs, with
 the cumulative drop at every node; it is built only when shown, with the chain of sources open
 and each panel's branch runs folded. The footage tally shows the takeoff's conductor feet by
 material and size with a bar for each in text blocks (readable without colour), then the takeoff:
-the order, the cut lists and a short pull list.
+the order, the cut lists and a short pull list. The boards show each panel's schedule: its
+positions, runs, poles, phase and load per line, from ``gaugewalk.model.report.content`` (the
+report's own text), with the sources' ratings and loading above them.
 """
 
 from __future__ import annotations
@@ -88,6 +90,16 @@ class SupplyTree(Tree):
             t.append(f" · via {feeder.id} {fmt_ft(feeder.length_ft)} ft {size_text(res)}")
             if res is not None:
                 t.append(f" · run {fmt_pct(res.voltage_drop_pct)}%")
+        result = session.result
+        if result is not None:
+            info = result.transformers.get(src.id)
+            loading = result.loadings.get(src.id)
+            if info is not None:
+                t.append(f" · {info.kva:g} kVA loaded {info.utilisation_pct:.0f}%, "
+                         f"drop in it {fmt_pct(info.drop_pct)}%")
+            elif loading is not None and loading.utilisation_pct is not None:
+                t.append(f" · loaded {loading.utilisation_pct:.0f}% of {loading.limit_a} A "
+                         f"(line {loading.line})")
         n = len(self.graph.children[src.id])
         t.append(f" · {n} runs")
         return t
@@ -152,4 +164,32 @@ def footage_text(session: WalkSession, width: int = 78) -> str:
     lines.append(escape(render_text(takeoff, "[Takeoff]", runs_per_piece=PULL_LIST_RUNS,
                                     pieces_per_line=PULL_LIST_PIECES)
                         .replace("[Takeoff]", "Takeoff")))
+    return "\n".join(lines)
+
+
+# ----- boards ----------------------------------------------------------------------------------
+def _grid(columns: tuple[str, ...], rows: tuple[tuple[str, ...], ...]) -> list[str]:
+    """Columns padded to their widest cell, as plain lines (not yet escaped)."""
+    widths = [max([len(c), *(len(r[i]) for r in rows)]) for i, c in enumerate(columns)]
+    out = ["  ".join(c.ljust(w) for c, w in zip(columns, widths, strict=True)).rstrip()]
+    out += ["  ".join(v.ljust(w) for v, w in zip(r, widths, strict=True)).rstrip() for r in rows]
+    return out
+
+
+def boards_text(session: WalkSession) -> str:
+    """The sources with their ratings and loading, then every panel's schedule."""
+    from gaugewalk.model.report.content import schedules_of, sources_table_of
+    from gaugewalk.model.walk.schedule import drop_basis
+
+    if session.result is None:
+        return "Sizing the walk…"
+    job, result = session.job, session.result
+    lines = ["[b]Sources[/b]", escape(f"Total drop: {drop_basis(job)}."), ""]
+    columns, rows = sources_table_of(job, result)
+    lines += [escape(x) for x in _grid(columns, rows)]
+    for sch in schedules_of(job, result):
+        lines += ["", f"[b]{escape(sch.title)}[/b]"]
+        lines += [escape(n) for n in sch.notes]
+        lines += [escape(x) for x in _grid(sch.columns, sch.rows)]
+    lines += ["", "Keep the tool's positions in the file: gaugewalk place FILE"]
     return "\n".join(lines)
