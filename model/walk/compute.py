@@ -21,7 +21,7 @@ Public API:
 
 Rules: the supply graph (``gaugewalk.model.walk.graph``) is walked from the bottom to place each
 source's runs and sum its lines (``phases``, ``feeder_loads``; NEC 215.2(A)(1), 220.61), with the
-transformers (``transformers``: Table 450.3(B), 240.21(C)) and the ratings (``equipment``:
+transformers (``transformers``: Table 450.3(B), 240.21(C)) and the ratings (``ratings``:
 408.30, 408.36); then from the top, each run sized by the engine (``gaugewalk.model.engine.sizing``)
 with the drop carried down (``chain``).
 """
