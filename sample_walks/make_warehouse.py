@@ -86,7 +86,8 @@ def build() -> Job:
     add("F-T1", "MSB", "T1", "24", bends=2, notes="Primary, 480 V 3-wire")
     add("F-L1", "T1", "L1", "18", bends=2, sets=2, notes="Secondary, 208Y/120 V, two sets")
     add("F-L1A", "L1", "L1A", "95+10", bends=3)
-    add("F-L1B", "L1", "L1B", "140+10", bends=3)
+    add("F-L1B", "L1", "L1B", "140+10", bends=3, max_drop_pct=1.0,
+        notes="Sized for 1 % so the break room circuits keep their share of the total drop")
     add("F-T2", "H3", "T2", "12", bends=2, notes="Primary, 480 V 3-wire")
     add("F-L2", "T2", "L2", "10", bends=1)
     add("F-L2A", "L2", "L2A", "65+16", bends=3, notes="Up to the mezzanine")

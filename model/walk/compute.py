@@ -58,6 +58,13 @@ from gaugewalk.model.walk.feeder_loads import (
 )
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.walk.motor_feeders import (
+    MotorGroup,
+    device_limit,
+    largest,
+    notes_for,
+    run_motor,
+)
 from gaugewalk.model.walk.phases import Placement
 from gaugewalk.model.walk.problems import Problem
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
@@ -78,6 +85,7 @@ class FeederInfo:
     load_amps: float
     line: str | None
     beside: RunResult | None = None
+    max_ocpd_a: float | None = None   # NEC 430.62(A) for a feeder supplying motors
 
 
 @dataclass
@@ -95,6 +103,7 @@ class JobResult:
     feeders: dict[str, FeederInfo] = field(default_factory=dict)
     transformers: dict[str, TransformerInfo] = field(default_factory=dict)
     loadings: dict[str, Loading] = field(default_factory=dict)
+    motor_groups: dict[str, MotorGroup] = field(default_factory=dict)
     problems: list[Problem] = field(default_factory=list)
     # kept for recompute_run
     _specs: dict[str, RunSpec] = field(default_factory=dict, repr=False)
@@ -147,7 +156,8 @@ def run_spec_for(
         is_feeder = job.source(run.to) is not None
     rule = state.feeder_rule(run, is_feeder)
     feed = state.result._feeds.get(run.to) if is_feeder else None
-    return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feed, rule)
+    return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feed, rule,
+                 _motors_fed(job, state.result, run, is_feeder))
 
 
 def size_run(job: Job, run: Run, upstream_drop_pct: float,
@@ -197,8 +207,20 @@ def _load_amps(value: float, unit: str, circuit: Circuit, pf: float) -> float:
     return load_amps(value, unit, circuit, pf)
 
 
+def _motors_fed(job: Job, result: JobResult, run: Run, is_feeder: bool) -> MotorGroup | None:
+    """The motors a feeder without its own load supplies (none through a transformer, whose
+    primary device sizes its feeder)."""
+    if not is_feeder or run.load is not None:
+        return None
+    target = job.source(run.to)
+    if target is None or target.kind == "transformer":
+        return None
+    return result.motor_groups.get(run.to)
+
+
 def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder: bool,
-          feed: Feed | None, rule: FeederRule | None = None) -> RunSpec:
+          feed: Feed | None, rule: FeederRule | None = None,
+          motors: MotorGroup | None = None) -> RunSpec:
     d = job.defaults
     pf = d.pf
     continuous_amps = None
@@ -217,6 +239,8 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
             raise LoadError(f"{run.to} serves no load yet, so its feeder cannot be sized; "
                             "add its runs or give the feeder a load")
         _, _, amps, continuous_amps = feed.heaviest()
+        if motors is not None:  # NEC 430.24: the largest motor at 125 %
+            continuous_amps += min(motors.largest_a, max(0.0, amps - continuous_amps))
         pf = min(1.0, max(0.05, feed.load.watts / feed.load.va))
     else:
         raise LoadError(f"the run has no load; give it in {or_words(LOAD_UNITS)}")
@@ -363,7 +387,36 @@ class WalkState:
                 run_va.pop(r.id, None)
         old = feeds.get(sid)
         feeds[sid] = feed
-        return old != feed
+        return self.group_motors(sid) or old != feed
+
+    def group_motors(self, sid: str) -> bool:
+        """The motors ``sid`` supplies, its own runs' and those of the panels it feeds (not
+        through a transformer); returns True when that changed."""
+        res, walk = self.result, self.walk
+        pf = self.job.defaults.pf
+        groups: list[MotorGroup | None] = []
+        only = True
+        for r in walk.children[sid]:
+            if r.load is not None:
+                circuit = res._circuits.get(r.id)
+                mine = (run_motor(r, circuit, pf) if circuit is not None
+                        and r.load.kind in ("motor", "hvac") else None)
+                only = only and mine is not None
+                groups.append(mine)
+            elif walk.feeder.get(r.to) is r:
+                below = (res.motor_groups.get(r.to)
+                         if walk.sources[r.to].kind != "transformer" else None)
+                only = only and below is not None and below.only_motors
+                groups.append(below)
+        group = largest(groups)
+        if group is not None and not only and group.only_motors:
+            group = replace(group, only_motors=False)
+        old = res.motor_groups.get(sid)
+        if group is None:
+            res.motor_groups.pop(sid, None)
+        else:
+            res.motor_groups[sid] = group
+        return old != group
 
     # -- the rules a feeder is sized by ------------------------------------------------------
     def feeder_rule(self, r: Run, is_feeder: bool) -> FeederRule | None:
@@ -423,12 +476,14 @@ class WalkState:
         is_feeder = self.walk.feeder.get(r.to) is r
         feed = res._feeds.get(r.to) if is_feeder else None
         rule = self.feeder_rule(r, is_feeder) if is_feeder or _from_transformer(self, r) else None
+        motors = _motors_fed(self.job, res, r, is_feeder)
         try:
-            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule)
+            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule, motors)
             result = evaluate(spec)
             beside = None
             if rule is not None and rule.beside:
-                beside = evaluate(_spec(self.job, r, upstream, circuit, is_feeder, feed))
+                beside = evaluate(_spec(self.job, r, upstream, circuit, is_feeder, feed,
+                                        None, motors))
         except (LoadError, CircuitError, ValueError) as exc:
             self.forget(r)
             self.fail(r, str(exc))
@@ -438,13 +493,24 @@ class WalkState:
             note = unstated_circuit_note(self.job, r)
             if note is not None:
                 result = replace(result, notes=(note, *result.notes))
+        limit = None
+        if motors is not None:
+            limit = device_limit(motors, result.design_amps)
+            extra = (spec.continuous_amps or 0.0) - (feed.heaviest()[3] if feed else 0.0)
+            notes = notes_for(motors, extra, limit)
+            problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "
+                         f"{limit:.0f} A it permits for the motors it supplies",)
+                        if motors.only_motors and result.ocpd_a > limit + _EPS else ())
+            result = replace(result, notes=result.notes + notes,
+                             problems=result.problems + problems)
         res._specs[r.id] = spec
         if is_feeder:
-            res.feeders[r.id] = self.feeder_info(r, spec, feed, rule, beside)
+            res.feeders[r.id] = self.feeder_info(r, spec, feed, rule, beside, motors, limit)
         self.store(r, result, is_feeder, spec)
 
     def feeder_info(self, r: Run, spec: RunSpec, feed: Feed | None, rule: FeederRule | None,
-                    beside: RunResult | None) -> FeederInfo:
+                    beside: RunResult | None, motors: MotorGroup | None = None,
+                    limit: float | None = None) -> FeederInfo:
         line = None
         if r.load is None and feed is not None:
             k, design, _, _ = feed.heaviest()
@@ -453,11 +519,15 @@ class WalkState:
                      "(NEC 215.2(A)(1))" if feed.frame == "lines" else
                      f"primary winding: {spec.amps:.1f} A, design {design:.1f} A "
                      "(NEC 215.2(A)(1))")
+            if motors is not None:
+                design = spec.continuous_amps * 1.25 + spec.amps - spec.continuous_amps
+                words = (f"heaviest line {line}: {spec.amps:.1f} A, design {design:.1f} A with "
+                         f"125 % of the largest motor (NEC 430.24)")
         else:
             words = "its own load"
         if rule is not None and rule.amps is not None:
-            return FeederInfo(rule.basis, rule.amps, spec.amps, line, beside)
-        return FeederInfo(words, spec.amps, spec.amps, line, beside)
+            return FeederInfo(rule.basis, rule.amps, spec.amps, line, beside, limit)
+        return FeederInfo(words, spec.amps, spec.amps, line, beside, limit)
 
     def forget(self, r: Run) -> None:
         res = self.result

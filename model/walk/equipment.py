@@ -18,11 +18,12 @@ Public API:
   the current its branch is sized from (motor FLC, HVAC MCA, welder 630.11(A) current), and its
   branch device. None for a run without a load of its own.
 
-Feeders: until a feeder's rules for motors (430.24) land, a motor adds its full-load current as
-a continuous load, so the feeder takes 125 % of every motor (at least the 125 % of the largest
-430.24 asks; conservative); HVAC equipment adds its nameplate MCA (125 % of its largest motor
-included, as 440.33 counts one unit); a welder its 630.11(A) current; every other kind its
-running current, continuous as its kind and the run say.
+Feeders: a motor adds its full-load current (noncontinuous: NEC 430.24 takes the motors at
+100 % and the largest once more at 25 %, which ``gaugewalk.model.walk.motor_feeders`` adds);
+HVAC equipment known by its MCA adds MCA / 1.25 as its rated-load current (440.33, the 25 % of
+the largest unit added once the same way; assumed, and said), or its running current where a
+load is given; a welder its 630.11(A) current; every other kind its running current,
+continuous as its kind and the run say.
 """
 
 from __future__ import annotations
@@ -42,6 +43,10 @@ from gaugewalk.model.engine.sizing.kinds import (
 from gaugewalk.model.engine.vocabulary import MOTOR_DEVICES
 from gaugewalk.model.walk.job import Load, Run
 from gaugewalk.tables.equipment.horsepower import hp_text
+
+HVAC_RLA_FACTOR = 1.25
+"""MCA / 1.25 taken as an HVAC unit's rated-load current when only its MCA is known (the MCA
+is 125 % of its largest motor plus the rest, NEC 440.33; an assumption, stated)."""
 
 def _equipment(load: Load, continuous: bool | None) -> Equipment:
     return Equipment(
@@ -97,15 +102,16 @@ def load_facts(run: Run, circuit: Circuit, default_pf: float) -> LoadFacts:
                      eq)
 
 
-def _feeder_amps(facts: LoadFacts) -> tuple[float, bool]:
-    """The current a run adds to its panel for the feeder [A], and whether continuously."""
+def _feeder_amps(facts: LoadFacts, given: bool) -> tuple[float, bool]:
+    """The current a run adds to its panel for the feeder [A], and whether continuously;
+    ``given``: the run gives a load value (not the nameplate alone)."""
     eq = facts.equipment
     if eq is None:
         return facts.amps, facts.continuous
     if eq.kind == "motor":
-        return facts.amps, True
+        return facts.amps, False
     if eq.kind == "hvac" and eq.mca_a is not None:
-        return max(facts.amps, eq.mca_a), False
+        return (facts.amps if given else eq.mca_a / HVAC_RLA_FACTOR), False
     if eq.kind == "welder":
         current, _notes = welder_current(eq)
         return (current if current is not None else facts.amps), False
@@ -116,7 +122,7 @@ def feeder_share(run: Run, circuit: Circuit, default_pf: float) -> tuple[float, 
     """What the run adds to the panel it is on: (VA, continuous VA, W) on its circuit (S = V I,
     sqrt(3) V I three-phase; W = S pf); see the module docstring for each kind."""
     facts = load_facts(run, circuit, default_pf)
-    amps, continuous = _feeder_amps(facts)
+    amps, continuous = _feeder_amps(facts, run.load is not None and run.load.value is not None)
     va = amps * circuit.line_volts * (1.7320508075688772 if circuit.phases == 3 else 1.0)
     return va, va if continuous else 0.0, va * facts.pf
 

@@ -73,6 +73,8 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             if feeder is not None:  # the current it is sized for, by its basis
                 entry["amps"] = round(feeder.amps, 3)
                 entry["load_amps"] = round(feeder.load_amps, 3)
+                entry["max_ocpd_a"] = (None if feeder.max_ocpd_a is None
+                                       else round(feeder.max_ocpd_a, 1))
         runs.append(entry)
     sources = [source_entry(job, result, s.id) for s in job.sources]
     failing = [e["id"] for e in runs if not e["ok"]]

@@ -1,0 +1,112 @@
+"""Feeders that supply motors and HVAC equipment: what NEC 430.24, 430.62(A) and 440.33 add to
+the heaviest line's load. The kinds themselves are read by ``gaugewalk.model.walk.equipment``
+(and ``gaugewalk.model.engine.sizing.kinds``); this module only gathers a source's motors.
+
+- Conductors (430.24, 440.33): the motors' full-load currents are summed per line with the
+  other loads (noncontinuous: 430.24 takes them at 100 %), and 125 % of the largest motor's is
+  added: the heaviest line's largest-motor current is counted as continuous. The largest motor
+  is the largest anywhere below the feeder; where it is on another line than the heaviest this
+  adds a little more than 430.24 asks (conservative).
+- HVAC equipment known by its nameplate MCA alone: its rated-load current is taken as
+  MCA / 1.25 (the MCA holds 125 % of the largest motor, 440.33 counts that 25 % once for the
+  group; assumed, and said in the feeder's notes).
+- Device (430.62(A), 430.63): not above the largest branch short-circuit and ground-fault
+  device of any motor supplied plus the other loads on the heaviest line: the other motors'
+  full-load currents and the rest as 215.3 counts them (125 % of the continuous). For a feeder
+  of motors alone (430.62(A): "shall not be greater than") a device above that is a problem; a
+  feeder with other loads too (430.63, worded as a floor) has the figure in its notes only.
+- Motors below a transformer are the transformer's load: the feeder into its primary is sized
+  by the primary device (Table 450.3(B)), and no motor group passes through it.
+
+Public API: ``MotorGroup``, ``run_motor(run, circuit, default_pf)``, ``largest(groups)``,
+``device_limit(group, load_amps)``, ``notes_for(group, extra_a)``.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+from dataclasses import dataclass
+
+from gaugewalk.model.engine.contract import Circuit
+from gaugewalk.model.engine.loads import LoadError
+from gaugewalk.model.walk.equipment import HVAC_RLA_FACTOR, run_kind_load
+from gaugewalk.model.walk.job import Run
+
+
+@dataclass(frozen=True)
+class MotorGroup:
+    """The motors a feeder supplies, as its rules need them: the ``largest_a`` motor current [A]
+    (run ``largest_run``), the largest branch device ``device_a`` [A] of any of them and the
+    current of the motor it protects (``device_motor_a``) [A], whether an HVAC unit's
+    current was taken from its MCA (``hvac_assumed``), and whether the feeder supplies motors
+    and HVAC equipment alone (``only_motors``)."""
+
+    largest_a: float
+    largest_run: str
+    device_a: float
+    device_motor_a: float
+    hvac_assumed: bool = False
+    only_motors: bool = True
+
+
+def run_motor(run: Run, circuit: Circuit, default_pf: float) -> MotorGroup | None:
+    """The run's motor or HVAC unit as a group of one; None for any other load (or one whose
+    kind cannot be read: the run itself says why)."""
+    load = run.load
+    if load is None or load.kind not in ("motor", "hvac"):
+        return None
+    try:
+        kl = run_kind_load(run, circuit, default_pf)
+    except LoadError:
+        return None
+    if kl is None:
+        return None
+    if kl.is_motor:
+        current = kl.flc_a if kl.flc_a is not None else kl.running_a
+        return MotorGroup(current, run.id, float(kl.branch_device_a), current)
+    if kl.mca_a is None:
+        return None
+    current = kl.mca_a / HVAC_RLA_FACTOR
+    device = float(kl.mocp_a if kl.mocp_a is not None else kl.branch_device_a)
+    return MotorGroup(current, run.id, device, current, True)
+
+
+def largest(groups: Iterable[MotorGroup | None]) -> MotorGroup | None:
+    """The group of several: the largest motor, and the largest branch device."""
+    out: MotorGroup | None = None
+    for g in groups:
+        if g is None:
+            continue
+        if out is None:
+            out = g
+            continue
+        big = g if g.largest_a > out.largest_a else out
+        dev = g if g.device_a > out.device_a else out
+        out = MotorGroup(big.largest_a, big.largest_run, dev.device_a, dev.device_motor_a,
+                         out.hvac_assumed or g.hvac_assumed, out.only_motors and g.only_motors)
+    return out
+
+
+def device_limit(group: MotorGroup, design_a: float) -> float:
+    """NEC 430.62(A), 430.63: the largest feeder device [A]: the largest branch device of any
+    motor supplied plus the rest of the heaviest line's load. ``design_a`` is that line's
+    design current with the motors (430.24: the largest at 125 %), so the rest is it less the
+    largest motor's 25 % and the current of the motor whose device is counted."""
+    return group.device_a + max(0.0, design_a - 0.25 * group.largest_a - group.device_motor_a)
+
+
+def notes_for(group: MotorGroup, extra_a: float, limit_a: float) -> tuple[str, ...]:
+    """The feeder's notes on its motors: the 125 % of the largest (430.24, 440.33), the device
+    limit (430.62(A)) and the HVAC assumption."""
+    notes = [f"NEC 430.24: 125 % of the largest motor ({group.largest_run}, "
+             f"{group.largest_a:.1f} A) plus the other loads: {extra_a:.1f} A added at 25 %",
+             f"NEC 430.62(A): feeder device not above {limit_a:.0f} A (the largest branch "
+             f"device, {group.device_a:.0f} A, plus the other loads on the line)"
+             if group.only_motors else
+             f"NEC 430.63: with other loads, the motors' part per 430.62(A) plus the other loads "
+             f"is {limit_a:.0f} A (the largest branch device, {group.device_a:.0f} A, plus the "
+             "rest)"]
+    if group.hvac_assumed:
+        notes.append(f"NEC 440.33: an HVAC unit known by its MCA alone is taken at MCA / "
+                     f"{HVAC_RLA_FACTOR:g} as its rated-load current (assumed)")
+    return tuple(notes)

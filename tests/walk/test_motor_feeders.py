@@ -1,0 +1,97 @@
+"""Feeders that supply motors and HVAC equipment, worked by hand: NEC 430.24 (conductors),
+430.62(A) (the device) and 440.33 (HVAC), on the load kinds of ``gaugewalk.model.walk.equipment``.
+Every walk here is invented."""
+
+from __future__ import annotations
+
+import pytest
+
+from gaugewalk.model.walk.compute import compute_job
+from tests.support.walks import make_job, run_table, source_table
+
+Y480 = "480Y/277V 3ph 4w"
+Y208 = "208Y/120V 3ph 4w"
+
+
+def _motors_job(*runs, defaults=None):
+    """Service SVC (480Y/277) -> feeder F1, 30 ft -> panel MCC, then ``runs`` from MCC."""
+    return make_job("motors", defaults=defaults,
+                    sources=[source_table("SVC", "service", Y480),
+                             source_table("MCC", "panel", Y480)],
+                    runs=[run_table("F1", "SVC", "MCC", "30"), *runs])
+
+
+def _motor(rid, hp, **keys):
+    return run_table(rid, "MCC", f"Motor {rid}", "40", load={"value": hp, "unit": "hp"},
+                     connection="3P", **keys)
+
+
+def test_a_feeder_of_three_motors_takes_125_percent_of_the_largest_and_a_device_up_to_125_a():
+    # NEC 2023 Table 430.250, 460 V column: 25 hp 34 A, 15 hp 21 A, 10 hp 14 A
+    job = _motors_job(_motor("M1", 25), _motor("M2", 15), _motor("M3", 10))
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    # 430.24: 1.25 x 34 + 21 + 14 = 42.5 + 35 = 77.5 A (not 125 % of all three: 86.25 A)
+    assert f1.amps == pytest.approx(34 + 21 + 14)
+    assert f1.design_amps == pytest.approx(77.5)
+    assert "430.24" in result.feeders["F1"].basis
+    # 430.52(C)(1): inverse-time breaker 250 % of 34 A = 85 A, next standard rating 90 A;
+    # 430.62(A): the feeder device not above 90 + 21 + 14 = 125 A
+    assert result.runs["M1"].ocpd_a == 90
+    assert result.feeders["F1"].max_ocpd_a == pytest.approx(125.0)
+    # the device picked for 77.5 A: the next standard rating, 80 A (240.6(A)), within 125 A
+    assert f1.ocpd_a == 80 and result.ok
+    assert any("430.62(A)" in n and "125 A" in n for n in f1.notes)
+
+
+def test_a_fixed_feeder_device_over_the_430_62_limit_is_a_problem():
+    job = _motors_job(_motor("M1", 25), _motor("M2", 15), _motor("M3", 10))
+    job.runs[0].ocpd_a = 150   # above the 125 A of 430.62(A)
+    result = compute_job(job)
+    assert any("430.62(A)" in p and "150 A" in p for p in result.runs["F1"].problems)
+
+
+def test_a_motor_among_other_loads_still_adds_its_25_percent_but_sets_no_device_limit():
+    job = _motors_job(_motor("M1", 25),
+                      run_table("H1", "MCC", "Heater", "40", load=(20, "A"), connection="3P",
+                                continuous=True))
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    # 215.2(A)(1) and 430.24: 1.25 x 20 + 1.25 x 34 = 25 + 42.5 = 67.5 A
+    assert f1.design_amps == pytest.approx(67.5)
+    # 430.63 words the combined figure as a floor: said in the notes, never a problem
+    assert any("430.63" in n for n in f1.notes) and result.ok
+
+
+def test_hvac_units_known_by_mca_count_mca_over_1_25_and_the_largest_once_more_at_25_percent():
+    job = _motors_job(
+        run_table("U1", "MCC", "RTU-1", "40", load={"kind": "hvac", "mca": 40, "mocp": 60},
+                  connection="3P"),
+        run_table("U2", "MCC", "RTU-2", "40", load={"kind": "hvac", "mca": 25, "mocp": 40},
+                  connection="3P"))
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    # 440.33 with MCA alone (assumed RLA = MCA / 1.25): 32 + 20 = 52 A; + 25 % of 32 A = 60 A
+    # (the sum of the MCAs, 65 A, would count the 25 % twice)
+    assert f1.amps == pytest.approx(40 / 1.25 + 25 / 1.25)
+    assert f1.design_amps == pytest.approx(60.0)
+    assert any("440.33" in n and "assumed" in n for n in f1.notes)
+    # 440.22 / 430.62(A): the largest branch device (MOCP 60 A) + 20 A = 80 A
+    assert result.feeders["F1"].max_ocpd_a == pytest.approx(80.0)
+
+
+def test_motors_below_a_transformer_do_not_reach_the_feeder_into_its_primary():
+    job = make_job("motors", sources=[source_table("SVC", "service", Y480),
+                                      source_table("T1", "transformer", Y208, kva=45),
+                                      source_table("LP1", "panel", Y208)],
+                   runs=[run_table("F-T1", "SVC", "T1", "10"), run_table("F-LP1", "T1", "LP1",
+                                                                          "8"),
+                         run_table("M1", "LP1", "Pump", "40", load={"value": 10, "unit": "hp"},
+                                   connection="3P")])
+    result = compute_job(job)
+    # the primary feeder is sized by Table 450.3(B): 125 % of 54.1 A, next standard 70 A
+    assert result.runs["F-T1"].ocpd_a == 70
+    assert not any("430.24" in n for n in result.runs["F-T1"].notes)
+    # the panel's feeder below the transformer takes 430.24: 125 % of 30.8 A (Table 430.250,
+    # 10 hp at 208 V)
+    assert result.runs["F-LP1"].design_amps >= 1.25 * 30.8 - 1e-6
