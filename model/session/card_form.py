@@ -52,6 +52,7 @@ FIELDS: tuple[CardField, ...] = (
     CardField("circuit", "Circuit", "LN LL LLN MW 3P"),
     CardField("kind", "Kind", "general, motor, hvac…"),
     CardField("plate", "Nameplate", "as the kind needs"),
+    CardField("place", "Position", "breaker no. or phase"),
     CardField("continuous", "Continuous", "yes / no"),
     CardField("spread", "Spread", "no: load at the end"),
     CardField("sets", "Sets", "1"),
@@ -237,6 +238,7 @@ def run_to_fields(run: Run) -> dict[str, str]:
         "size": run.size or "",
         "material": run.material or "",
         "raceway": run.raceway or "",
+        "place": (str(run.position) if run.position is not None else run.phase or ""),
         "id": run.id,
         "notes": run.notes,
     }
@@ -647,6 +649,39 @@ def _check_raceway(r: _Reading) -> None:
         r.errors["raceway"] = str(exc)
 
 
+def _check_place(r: _Reading) -> None:
+    """Where the run lands in its panel: a breaker position (the circuit number), or a phase
+    (``A``, ``BC``, ``ABC`` ...); blank: placed by the tool to balance the lines. The hint
+    names the lines a position takes (rows A, B, C; common practice)."""
+    from gaugewalk.model.walk.phases import line_count, phase_name, position_lines
+    from gaugewalk.model.walk.vocabulary import MAX_POSITION, PHASES
+
+    text = r.v["place"].strip().upper()
+    r.got["position"] = r.got["phase"] = None
+    if not text:
+        r.hints["place"] = "placed to balance the lines"
+        return
+    if text.isdigit():
+        position = int(text)
+        if not 1 <= position <= MAX_POSITION:
+            r.errors["place"] = f"a breaker position from 1 to {MAX_POSITION}"
+            return
+        r.got["position"] = position
+        circuit = r.got.get("circuit")
+        if "from" not in r.errors and isinstance(circuit, Circuit):
+            n = line_count(r.job.source(r.got["from"]).system)
+            poles = min(circuit.hots, n) if n > 1 else 1
+            lines = position_lines(position, poles, n)
+            span = "-".join(str(position + 2 * k) for k in range(poles))
+            r.hints["place"] = f"{span} on {phase_name(lines)}"
+        return
+    if text not in PHASES:
+        r.errors["place"] = ("a breaker position (a number) or a phase: "
+                             + ", ".join(PHASES) + " (blank: placed by the tool)")
+        return
+    r.got["phase"] = text
+
+
 def _check_id(r: _Reading) -> None:
     run_id = r.v["id"].strip()
     r.got["id"] = run_id
@@ -670,6 +705,7 @@ CHECKS: tuple[tuple[str, Callable[[_Reading], None]], ...] = (
     ("size", _check_size),
     ("material", _check_material),
     ("raceway", _check_raceway),
+    ("place", _check_place),
     ("id", _check_id),
 )
 """Each field's check, in an order where a check may use what the earlier ones read."""
@@ -683,6 +719,7 @@ def _run_data(r: _Reading) -> dict:
         "load": g["load"], "continuous": g["continuous"], "distributed": g["distributed"],
         "connection": g["connection"], "sets": g["sets"], "size": g["size"],
         "material": g["material"], "raceway": g["raceway"], "notes": r.v["notes"].strip(),
+        "position": g["position"], "phase": g["phase"],
     }
 
 

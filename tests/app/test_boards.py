@@ -42,3 +42,29 @@ async def test_the_boards_show_each_panels_positions_phases_and_loading(tmp_path
         tree = " ".join(labels) + " ".join(
             str(n.label) for n in app.screen.query_one(SupplyTree).root.children[0].children)
         assert "45 kVA loaded" in tree and "drop in it" in tree
+
+
+async def test_the_run_card_stores_the_breaker_position_typed_in_it(tmp_path):
+    import tomllib
+
+    from gaugewalk.tui.app.screens.card import RunCard
+    from tests.support.app_helpers import type_text
+
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")
+        assert isinstance(app.screen, RunCard)
+        await type_text(pilot, "Mixer")
+        await pilot.press("tab")
+        await type_text(pilot, "40")
+        await pilot.press("tab")
+        await type_text(pilot, "10A")
+        app.screen.query_one("#f-place").focus()
+        await type_text(pilot, "4")
+        await pilot.press("enter")
+        await pilot.press("escape")
+        await pilot.pause()
+    runs = {r["to"]: r for r in tomllib.loads(path.read_text())["run"]}
+    assert runs["Mixer"]["position"] == 4

@@ -359,3 +359,26 @@ def test_a_run_of_a_kind_reads_back_into_the_card(session):
     assert (fields["load"], fields["kind"], fields["plate"]) == ("1-1/2hp", "motor",
                                                                  "dual-element code G")
     assert read_nameplate(fields["plate"]) == {"motor_device": "dual-element", "code_letter": "G"}
+
+
+def test_the_card_takes_a_breaker_position_or_a_phase_and_names_the_lines(session):
+    form = CardForm(session)
+    form.start()
+    # a 2-pole 208 V circuit at 5 takes 5 (C) and 7 (A): CA (rows A, B, C; common practice)
+    checked = _typed(form, to="Heater", length="30", load="4kW 208V", place="5").check()
+    assert checked.errors == {}
+    assert checked.run.position == 5 and checked.run.phase is None
+    assert checked.hints["place"] == "5-7 on CA"
+    checked = _typed(form, place="bc").check()
+    assert checked.run.phase == "BC" and checked.run.position is None
+    checked = _typed(form, place="").check()
+    assert (checked.run.position, checked.run.phase) == (None, None)
+    assert "balance" in checked.hints["place"]
+
+
+@pytest.mark.parametrize("text", ["0", "999", "D", "5A"])
+def test_a_position_or_phase_that_cannot_be_is_named(session, text):
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Lamp", length="30", load="5A", place=text).check()
+    assert "place" in checked.errors and checked.run is None
