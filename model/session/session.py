@@ -363,6 +363,24 @@ class WalkSession:
 
         return self._commit(f"delete {run_id}", run_id, change)
 
+    def keep_positions(self) -> tuple[int, list[str], str | None]:
+        """Write the positions the tool picked into every run the walk does not place, as one
+        change (one undo). Returns how many, the runs with no free position, and why the change
+        was refused (or None)."""
+        from gaugewalk.model.walk.schedule import positions_to_keep
+
+        if self.result is None:
+            return 0, [], "the walk is not sized yet"
+        positions, unplaced = positions_to_keep(self.job, self.result)
+        if not positions:
+            return 0, unplaced, None
+
+        def change() -> None:
+            self.job.runs[:] = [r.model_copy(update={"position": positions[r.id]})
+                                if r.id in positions else r for r in self.job.runs]
+
+        return len(positions), unplaced, self._commit("keep positions", None, change)
+
     def set_job(self, header: JobHeader, defaults: Defaults) -> str | None:
         """Store new job settings; every run recomputes."""
 

@@ -9,7 +9,8 @@ connected load of the source it feeds. The per-line currents (``phase_amps``) ar
 sums of ``gaugewalk.model.walk.feeder_loads``, which the VA columns only summarise.
 
 Public API: ``ScheduleRow``, ``Schedule``, ``schedule_of(job, result, source_id)``,
-``schedules(job, result)`` (all but transformers), ``source_entry(job, result, source_id) -> dict`` (the
+``schedules(job, result)`` (all but transformers), ``positions_to_keep(job, result,
+source_id=None)`` (what ``gaugewalk place`` and the app's keep key write), ``source_entry(job, result, source_id) -> dict`` (the
 ``check --json`` shape), ``drop_basis(job) -> str``.
 """
 
@@ -113,6 +114,25 @@ def schedules(job: Job, result: JobResult) -> list[Schedule]:
     """The schedule of every source with positions (all but transformers), in the walk's
     order."""
     return [schedule_of(job, result, s.id) for s in job.sources if s.kind != "transformer"]
+
+
+def positions_to_keep(job: Job, result: JobResult, source_id: str | None = None
+                      ) -> tuple[dict[str, int], list[str]]:
+    """The position the tool picked for each run the walk does not place ({run id: its first
+    position}), of one source or all, and the runs it found no free position for."""
+    kept: dict[str, int] = {}
+    unplaced: list[str] = []
+    for r in job.runs:
+        if r.position is not None or (source_id is not None and r.from_ != source_id):
+            continue
+        placed = result.placements.get(r.id)
+        if placed is None:
+            continue
+        if placed.positions:
+            kept[r.id] = placed.positions[0]
+        else:
+            unplaced.append(r.id)
+    return kept, unplaced
 
 
 def drop_basis(job: Job) -> str:

@@ -68,3 +68,25 @@ async def test_the_run_card_stores_the_breaker_position_typed_in_it(tmp_path):
         await pilot.pause()
     runs = {r["to"]: r for r in tomllib.loads(path.read_text())["run"]}
     assert runs["Mixer"]["position"] == 4
+
+
+async def test_p_keeps_the_tools_positions_in_the_file_as_one_undo(tmp_path):
+    import tomllib
+
+    runs = [run_table(f"R{n}", "LP1", f"Load {n}", "30", load=(10 + n, "A"), connection="LN")
+            for n in range(1, 4)]
+    path = write_walk(tmp_path, walk_text(
+        "keep", sources=[source_table("SVC", "service"), source_table("LP1", "panel")],
+        runs=[run_table("F1", "SVC", "LP1", "20"), *runs]))
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        placed = {rid: p.positions[0] for rid, p in app.session.result.placements.items()}
+        await pilot.press("p")
+        await pilot.pause()
+        kept = {r["id"]: r.get("position") for r in tomllib.loads(path.read_text())["run"]}
+        assert kept == placed   # the same positions, now in the file
+        await pilot.press("ctrl+z")
+        await pilot.pause()
+        undone = tomllib.loads(path.read_text())["run"]
+        assert all("position" not in r for r in undone)

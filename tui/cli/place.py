@@ -13,6 +13,7 @@ import argparse
 import sys
 
 from gaugewalk.model.walk.compute import compute_job
+from gaugewalk.model.walk.schedule import positions_to_keep
 from gaugewalk.tui.cli.common import (
     EXIT_INVALID,
     EXIT_OK,
@@ -39,19 +40,14 @@ def run(args: argparse.Namespace) -> int:
         print(f"{args.file}: there is no source {args.source}", file=sys.stderr)
         return EXIT_INVALID
     result = compute_job(job)
+    positions, unplaced = positions_to_keep(job, result, args.source)
     kept: list[str] = []
-    unplaced: list[str] = []
     for i, r in enumerate(job.runs):
-        if r.position is not None or (args.source is not None and r.from_ != args.source):
-            continue
-        placed = result.placements.get(r.id)
-        if placed is None:
-            continue
-        if not placed.positions:
-            unplaced.append(r.id)
-            continue
-        job.runs[i] = r.model_copy(update={"position": placed.positions[0]})
-        kept.append(f"{r.id} at {'-'.join(str(p) for p in placed.positions)} ({placed.phase})")
+        if r.id in positions:
+            placed = result.placements[r.id]
+            job.runs[i] = r.model_copy(update={"position": positions[r.id]})
+            kept.append(f"{r.id} at {'-'.join(str(p) for p in placed.positions)} "
+                        f"({placed.phase})")
     if not kept:
         print("every run already has its position" if not unplaced else
               "no run could be given a position")

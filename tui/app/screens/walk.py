@@ -327,6 +327,21 @@ class WalkScreen(Screen):
         self.reload()
         self._said_saved(f"Deleted {key} (ctrl+z brings it back).")
 
+    def action_keep_positions(self) -> None:
+        if self._busy():
+            return
+        count, unplaced, refusal = self.session.keep_positions()
+        if refusal:
+            self.notify(f"Positions not kept: {refusal}.", severity="warning", timeout=8)
+            return
+        if not count:
+            self.notify("Every run already has its position." if not unplaced
+                        else "No free position for: " + ", ".join(unplaced))
+            return
+        self.reload()
+        self._said_saved(f"Kept the positions of {count} run(s)."
+                         + (f" No free position for: {', '.join(unplaced)}." if unplaced else ""))
+
     def action_undo(self) -> None:
         if self._busy():
             return

@@ -191,5 +191,5 @@ def boards_text(session: WalkSession) -> str:
         lines += ["", f"[b]{escape(sch.title)}[/b]"]
         lines += [escape(n) for n in sch.notes]
         lines += [escape(x) for x in _grid(sch.columns, sch.rows)]
-    lines += ["", "Keep the tool's positions in the file: gaugewalk place FILE"]
+    lines += ["", "p keeps the positions the tool picked in the walk file (gaugewalk place FILE)"]
     return "\n".join(lines)
