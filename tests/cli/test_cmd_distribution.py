@@ -142,3 +142,18 @@ def test_check_json_lists_the_sources_with_their_loading_and_schedule(tmp_path, 
     assert feeders["F-T1"]["amps"] == 70 and "450.3(B)" in feeders["F-T1"]["basis"]
     # the secondary conductors end in LP1's 100 A main: sized for 100 A (NEC 240.21(C))
     assert feeders["F-LP1"]["amps"] == 100 and "240.21(C)" in feeders["F-LP1"]["basis"]
+
+
+def test_check_json_keeps_the_connected_load_answer_beside_an_equipment_basis(tmp_path, capsys):
+    path = write_walk(tmp_path, walk_text(
+        "job", defaults={"feeder_basis": "equipment"},
+        sources=[source_table("SVC", "service"),
+                 source_table("LP1", "panel", rating_a=225, main_a=200)],
+        runs=[run_table("F1", "SVC", "LP1", "20"),
+              run_table("R1", "LP1", "Bench", "40", load=(16, "A"), connection="LN")]))
+    f1 = next(r for r in _check_json(path, capsys)["runs"] if r["id"] == "F1")
+    # sized to LP1's 200 A main (common practice): 200 A, 3/0 AWG Cu (75 C, Table 310.16)
+    assert (f1["amps"], f1["ocpd_a"], f1["size"]) == (200, 200, "3/0 AWG")
+    assert "200 A main" in f1["basis"]
+    # beside it, the 16 A it serves: a 20 A device (240.6(A))
+    assert f1["load_answer"]["ocpd_a"] == 20 and f1["load_answer"]["amps"] == 16

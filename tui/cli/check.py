@@ -75,6 +75,10 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
                 entry["load_amps"] = round(feeder.load_amps, 3)
                 entry["max_ocpd_a"] = (None if feeder.max_ocpd_a is None
                                        else round(feeder.max_ocpd_a, 1))
+                beside = feeder.beside   # the connected-load answer beside an equipment basis
+                entry["load_answer"] = None if beside is None else {
+                    "amps": round(beside.amps, 3), "size": beside.size, "sets": beside.sets,
+                    "ocpd_a": beside.ocpd_a, "voltage_drop_pct": round(beside.voltage_drop_pct, 4)}
         runs.append(entry)
     sources = [source_entry(job, result, s.id) for s in job.sources]
     failing = [e["id"] for e in runs if not e["ok"]]
