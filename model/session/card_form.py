@@ -29,6 +29,8 @@ from gaugewalk.model.engine.loads import LoadError, parse_load
 from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Load, Run, Source
+from gaugewalk.model.walk.plain_text import shown as shown_plain
+from gaugewalk.model.walk.plausible import long_length
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 
@@ -240,7 +242,7 @@ def run_to_fields(run: Run) -> dict[str, str]:
         "raceway": run.raceway or "",
         "place": (str(run.position) if run.position is not None else run.phase or ""),
         "id": run.id,
-        "notes": run.notes,
+        "notes": shown_plain(run.notes),  # control characters made visible, never sent raw
     }
 
 
@@ -461,6 +463,8 @@ def _check_length(r: _Reading) -> None:
         feet = parse_length(r.v["length"])
         r.got["feet"] = feet
         r.hints["length"] = f"= {fmt_ft(feet)} ft"
+        if long_length(feet, r.job.defaults) is not None:  # said, never refused
+            r.hints["length"] += f" ⚠ over {r.job.defaults.max_plausible_length_ft:,.0f} ft?"
     except LengthError as exc:
         r.errors["length"] = str(exc) if r.v["length"].strip() else "type the length along the route"
 
@@ -937,6 +941,10 @@ class CardForm:
         if original is None:
             return {**fields, "measured_on": date.today()}
         data = original.model_dump(by_alias=True)
+        if fields.get("notes") == shown_plain(original.notes).strip():
+            # the card shows a note's control characters escaped (``plain_text``): an untouched
+            # note keeps them as the file has them
+            fields = {**fields, "notes": original.notes}
         load = fields.get("load")
         fields = {**fields, "load": load.model_dump() if load is not None else None}
         data.update(fields)

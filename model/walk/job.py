@@ -68,6 +68,7 @@ from gaugewalk.model.engine.vocabulary import (
     TerminalTemp,
     WelderType,
 )
+from gaugewalk.model.walk.plain_text import no_control
 from gaugewalk.model.walk.vocabulary import (
     MAX_POSITION,
     FeederBasis,
@@ -138,6 +139,10 @@ def _known(parse):
     return AfterValidator(lambda value: _canonical(parse, value))
 
 
+OneLine = Annotated[str, AfterValidator(no_control)]
+"""A name, a place, a label: one line of plain text, control characters refused
+(``gaugewalk.model.walk.plain_text``). Notes keep them, shown escaped."""
+
 SizeName = Annotated[str, _known(parse_size)]
 """A conductor size as Table 310.16 names it (``12 AWG``, ``250 kcmil``)."""
 InsulationName = Annotated[str, _known(parse_insulation)]
@@ -149,13 +154,13 @@ RacewayName = Annotated[str, _known(parse_raceway)]
 class JobHeader(_Strict):
     """Who walked what, where and when."""
 
-    name: str = ""
+    name: OneLine = ""
     """Job name as the crew knows it."""
-    site: str = ""
+    site: OneLine = ""
     """Site address or description."""
     walked_on: date | None = None
     """Date of the walk."""
-    walked_by: str = ""
+    walked_by: OneLine = ""
     """Who walked it."""
     notes: str = ""
     """Anything the crew should know about the job."""
@@ -164,7 +169,7 @@ class JobHeader(_Strict):
 class PutUp(_Strict):
     """A box or reel the supplier sells conductor sizes in, for the takeoff's order."""
 
-    label: str = Field(min_length=1, max_length=40)
+    label: OneLine = Field(min_length=1, max_length=40)
     """What the order calls it, e.g. ``500 ft box``."""
     length_ft: int = Field(gt=0, le=100_000)
     """Conductor on one box or reel [ft]."""
@@ -222,6 +227,9 @@ class Defaults(_Strict):
     pull_every_ft: float = Field(PULL_EVERY_FT, ge=0.0, le=10_000.0)
     """A pull point (conduit body or pull box) on a long run at least this often [ft] (common
     practice: about every 100 ft); 0: only where bends need one (NEC 358.26 and kin)."""
+    max_plausible_length_ft: float = Field(3000.0, gt=0.0, le=1e6)
+    """A run longer than this [ft] is warned about, never refused: about the length of the
+    largest factory and warehouse buildings (common practice); raise it for a long site feeder."""
     colour_scheme: str = "common"
     """Conductor colours for the takeoff. ``common``: black/red/blue on 120/240 V and 208Y/120 V,
     brown/orange/yellow on 480Y/277 V and 480 V, white or grey neutrals, green EGC (common
@@ -353,7 +361,7 @@ class Segment(_Strict):
 
     length: LengthText
     """Length as typed (same grammar as the run's length)."""
-    note: str = ""
+    note: OneLine = ""
     """Where this stretch goes."""
 
 
@@ -398,7 +406,7 @@ class Source(_Strict):
     """``service``, ``switchboard``, ``panel`` or ``transformer``."""
     system: str
     """Supply system at this source's bus, e.g. ``208Y/120V 3ph 4w`` (transformer: secondary)."""
-    name: str = ""
+    name: OneLine = ""
     """Name on the equipment or drawings."""
     kva: float | None = Field(None, gt=0.0, le=1e5)
     """Transformer rating [kVA]."""
@@ -455,7 +463,7 @@ class Run(_Strict):
     """Short id, e.g. ``R12`` or ``F-LP2``."""
     from_: str = Field(alias="from")
     """Id of the source the run starts at."""
-    to: str = Field(min_length=1, max_length=120)
+    to: OneLine = Field(min_length=1, max_length=120)
     """A source id of this job (the run is then its feeder) or the load's name."""
     length: LengthText
     """One-way route length as typed: ``85+12+2*6``, ``36m+8ft`` [ft unless a unit is given]."""

@@ -23,6 +23,8 @@ from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from typing import Any
 
+from gaugewalk.model.walk.plain_text import shown
+
 ABOUT = ("file", "job", "defaults", "source", "run", "option")
 """What a problem can be about: the file as a whole, the ``[job]`` or ``[defaults]`` table, one
 ``[[source]]`` or ``[[run]]`` (named by ``Problem.id``), or a command-line option."""
@@ -54,7 +56,7 @@ class Problem:
 
     def brief(self) -> str:
         """The problem without its file and field: ``run R12: the run starts at ...``."""
-        return f"{self.where}: {self.message}"
+        return f"{clip(self.where)}: {clip(self.message)}"
 
     def is_about(self, about: str, ids) -> bool:
         """True when the problem is about a ``source`` or ``run`` whose id is in ``ids``."""
@@ -62,7 +64,7 @@ class Problem:
 
     def __str__(self) -> str:
         parts = []
-        head = self.file or "walk"
+        head = shown(self.file) if self.file else "walk"
         if self.line is not None:
             head += f" line {self.line}"
         parts.append(head)
@@ -83,14 +85,11 @@ class Problem:
 _LONG_WORD = re.compile(r"\S{61,}|\s{61,}")
 
 
-_CONTROL = {c: repr(chr(c))[1:-1] for c in (*range(32), 127, 0x85, 0x2028, 0x2029)}
-
-
 def clip(text: str) -> str:
     """Keep a problem on one readable line: control characters and line breaks in an echoed
-    value are shown escaped (``\\n``), and any word or gap over 60 characters (a pasted id or
-    value, a run of spaces) is shortened."""
-    text = text.translate(_CONTROL)
+    value are shown escaped (``\\n``, ``gaugewalk.model.walk.plain_text.shown``), and any word
+    or gap over 60 characters (a pasted id or value, a run of spaces) is shortened."""
+    text = shown(text)
     return _LONG_WORD.sub(lambda m: f"{m.group(0)[:40]}…({len(m.group(0)):,} characters)", text)
 
 
@@ -158,7 +157,7 @@ def _friendly(error: Mapping[str, Any]) -> str:
     kind = error.get("type", "")
     ctx = error.get("ctx") or {}
     value = error.get("input")
-    shown = repr(value) if isinstance(value, str) else str(value)
+    given = repr(value) if isinstance(value, str) else str(value)
     if kind == "missing":
         return "is missing"
     if kind == "extra_forbidden":
@@ -169,22 +168,22 @@ def _friendly(error: Mapping[str, Any]) -> str:
         limit = next(iter(ctx.values()), "")
         if isinstance(limit, float):
             limit = f"{limit:g}"
-        return f"must be {words} {limit}, not {shown}"
+        return f"must be {words} {limit}, not {given}"
     if kind in ("float_parsing", "float_type", "int_parsing", "int_type", "int_from_float"):
         whole = "a whole number" if kind.startswith("int") else "a number"
-        return f"must be {whole}, not {shown}"
+        return f"must be {whole}, not {given}"
     if kind == "literal_error":
-        return f"must be {ctx.get('expected', 'one of the listed values')}, not {shown}"
+        return f"must be {ctx.get('expected', 'one of the listed values')}, not {given}"
     if kind in ("string_type",):
-        return f"must be text in quotes, not {shown}"
+        return f"must be text in quotes, not {given}"
     if kind in ("bool_type", "bool_parsing"):
-        return f"must be true or false, not {shown}"
+        return f"must be true or false, not {given}"
     if kind.startswith("date"):
-        return f"must be a date such as 2024-05-02, not {shown}"
+        return f"must be a date such as 2024-05-02, not {given}"
     if kind in ("model_type", "model_attributes_type", "dict_type"):
-        return f"must be a table of keys, not {shown}"
+        return f"must be a table of keys, not {given}"
     if kind == "list_type":
-        return f"must be a list, not {shown}"
+        return f"must be a list, not {given}"
     if kind in ("string_too_short",):
         return "must not be empty"
     if kind in ("string_too_long",):

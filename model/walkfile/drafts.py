@@ -23,6 +23,7 @@ from dataclasses import dataclass
 from datetime import datetime, timezone
 from pathlib import Path
 
+from gaugewalk.model.walk.plain_text import shown
 from gaugewalk.model.walkfile.atomic import atomic_write
 
 DRAFT_SUFFIX = ".draft.json"
@@ -82,7 +83,8 @@ def load_draft(walk: str | os.PathLike) -> Draft | None:
         return None
     if not isinstance(fields, dict) or not (run_id is None or isinstance(run_id, str)):
         return None
-    clean = {str(k): v[:MAX_FIELD_CHARS] for k, v in fields.items() if isinstance(v, str)}
+    # typed text comes back as typed; control characters (none can be typed) are made visible
+    clean = {str(k): shown(v[:MAX_FIELD_CHARS]) for k, v in fields.items() if isinstance(v, str)}
     return Draft(clean, run_id, saved_at)
 
 

@@ -35,6 +35,7 @@ from dataclasses import asdict, dataclass
 from datetime import datetime, timezone
 from pathlib import Path
 
+from gaugewalk.model.walk.plain_text import shown
 from gaugewalk.model.walkfile.atomic import atomic_write
 
 LOCK_PREFIX = "."
@@ -96,9 +97,10 @@ class LockHolder:
             return self.since
 
     def describe(self) -> str:
-        """``dana on laptop-3 (process 4121, gaugewalk app) since 2024-05-02 14:03``."""
-        return (f"{self.user} on {self.host} (process {self.pid}, {self.tool}) "
-                f"since {self.since_local()}")
+        """``dana on laptop-3 (process 4121, gaugewalk app) since 2024-05-02 14:03``: text from
+        a lock file, control characters shown escaped (``plain_text``)."""
+        return shown(f"{self.user} on {self.host} (process {self.pid}, {self.tool}) "
+                     f"since {self.since_local()}")
 
     def on_this_host(self) -> bool:
         return self.host == socket.gethostname()

@@ -146,7 +146,10 @@ def test_a_draft_is_written_whole_and_read_back(tmp_path):
     save_draft(walk, fields)
     assert draft_path(walk) == tmp_path / ".shop.toml.draft.json"
     back = load_draft(walk)
-    assert isinstance(back, Draft) and back.fields == fields and back.run_id is None
+    # read back as typed, but a control character (here a bidi override) made visible: a draft
+    # beside a walk someone sent is text from outside (model/walk/plain_text.py)
+    assert isinstance(back, Draft) and back.run_id is None
+    assert back.fields == {**fields, "to": "Ice machine ✓ \\u202e"}
     assert back.typed()
     assert [p.name for p in tmp_path.iterdir()] == [".shop.toml.draft.json"]  # no temp left
     clear_draft(walk)

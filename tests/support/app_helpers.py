@@ -54,3 +54,24 @@ def sheet_cells(app) -> dict[str, tuple[str, ...]]:
 def shown(app, selector: str) -> str:
     """The plain text a widget of the current screen shows."""
     return str(app.screen.query_one(selector).render())
+
+
+def screen_text(app) -> str:
+    """What the terminal shows now, as plain lines, rendered the way the app writes it; fails if
+    any piece of text would send a control character to the terminal (text from a walk or a lock
+    must be shown escaped, ``gaugewalk.model.walk.plain_text``)."""
+    from gaugewalk.model.walk.plain_text import CONTROL_CHARS
+
+    update = app.screen._compositor.render_full_update()
+    lines = []
+    for chops in update.strips:
+        line = ""
+        for strip in chops:
+            for segment in strip:
+                if segment.control:
+                    continue
+                raw = sorted({c for c in segment.text if c in CONTROL_CHARS})
+                assert not raw, f"control characters {raw!r} sent raw in {segment.text!r}"
+                line += segment.text
+        lines.append(line)
+    return "\n".join(lines)

@@ -118,3 +118,29 @@ def write_walk(folder: Path, text: str = SMALL_WALK, name: str = "walk.toml") ->
     path = folder / name
     path.write_text(text, encoding="utf-8")
     return path
+
+
+# -- a walk and a lock someone hostile sent -------------------------------------------------------
+TERMINAL_TRICKS = "\x1b]0;PWNED\x07\x1b[2J\x1b[31m\x9b2J\u202eevil\u2028\x00"
+"""Control characters that would set the terminal's title, clear the screen, colour it, reorder
+what it shows and break a line if they reached it raw."""
+MARKUP_TRICKS = ("[@click=screen.delete_run]click[/] [link=https://example.invalid]x[/link] "
+                 "[$accent]a[/] [B]b[/B] dana [/x] \\[b]")
+"""Markup of every kind Textual and Rich read: an action, a link, a variable, an unclosed tag."""
+
+HOSTILE_WALK = panel_walk(
+    "Quay " + MARKUP_TRICKS,
+    run_table("R1", "LP1", "Pump " + MARKUP_TRICKS[:60], "100", load=(16, "A"), connection="LN",
+              notes="pump by the quay " + TERMINAL_TRICKS + "\nsecond line"),
+    run_table("R2", "LP1", "[red]Mixer[/red]", "85+12", load=(1.8, "kVA"),
+              segments=[{"length": "85", "note": "[@click=app.quit]q[/]"},
+                        {"length": "12", "note": "up the wall"}],
+              notes=MARKUP_TRICKS),
+).replace('name = "Quay', 'site = "[link=https://example.invalid]dock[/link]"\n'
+          'notes = ' + tomli_w.dumps({"v": TERMINAL_TRICKS}).removeprefix("v = ").strip()
+          + '\nname = "Quay', 1).replace(
+    'id = "LP1"\nkind = "panel"\n',
+    'id = "LP1"\nkind = "panel"\nname = "Panel [@click=app.quit]q[/] dana [/x]"\n'
+    'notes = "\\u001b[2Jclears the screen"\n', 1)
+"""Invented: a quay-side pump and mixer whose every text field holds markup, and whose notes hold
+terminal control characters (kept in the file; names cannot hold them)."""

@@ -14,8 +14,10 @@ from textual import events, work
 from textual.app import App, ComposeResult
 from textual.widgets import Footer, Header, Static
 
+from gaugewalk.model.walk.plain_text import shown, shown_lines
 from gaugewalk.tui.app.keyorder import deliver_in_order
 from gaugewalk.tui.app.keys import bindings_for
+from gaugewalk.tui.app.plain import plain
 from gaugewalk.tui.app.recent import RecentWalks
 from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
 
@@ -95,7 +97,7 @@ class WalkApp(App[int]):
             return
         self.title = p.name
         self.sub_title = "opening…"
-        self.query_one("#opening", Static).update(f" Opening {p}…")
+        self.query_one("#opening", Static).update(plain(f" Opening {p}…"))
         from gaugewalk.tui.app.sheet.rawrows import raw_rows
         from gaugewalk.tui.app.widgets.runsheet import RunSheet
 
@@ -199,8 +201,16 @@ class WalkApp(App[int]):
 
     def fail_exit(self, text: str) -> None:
         """Leave with status 2; ``open_app`` prints ``text`` as one line on stderr."""
-        self.exit_message = "gaugewalk: " + " ".join(text.split())
+        self.exit_message = "gaugewalk: " + shown(" ".join(text.split()))
         self.exit(2, return_code=2)
+
+    def notify(self, message: str, *, title: str = "", severity="information",
+               timeout: float | None = None, markup: bool = True) -> None:
+        """Every notification is plain text (``gaugewalk.model.walk.plain_text``): what it says
+        may come from a walk, a lock file or the system, so it is never markup, a link or an
+        action (``markup`` is ignored) and its control characters are shown escaped."""
+        super().notify(shown_lines(str(message)), title=shown(title), severity=severity,
+                       timeout=timeout, markup=False)
 
     # ----- title ------------------------------------------------------------------------
     def refresh_title(self) -> None:
@@ -211,8 +221,8 @@ class WalkApp(App[int]):
             state = "read-only"
         else:
             state = "✓ saved" if s.state.saved else "✗ NOT SAVED (ctrl+s retries)"
-        self.title = f"{s.path.name} · {state}"
-        self.sub_title = s.job.job.name or s.path.stem
+        self.title = f"{shown(s.path.name)} · {state}"
+        self.sub_title = shown(s.job.job.name or s.path.stem)
 
     # ----- app-wide actions -------------------------------------------------------------
     def action_key_guide(self) -> None:

@@ -15,6 +15,8 @@ from typing import Any
 from gaugewalk.model.walk.compute import JobResult, compute_job
 from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Job
+from gaugewalk.model.walk.plain_text import shown
+from gaugewalk.model.walk.plausible import implausible
 from gaugewalk.model.walk.schedule import drop_basis, source_entry
 from gaugewalk.model.walkfile.read import WalkFileError, check_walk_text, read_walk_text
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
@@ -98,6 +100,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             "max_total_drop_pct": max(totals) if totals else None,
             "worst_run": worst["id"] if worst and worst["total_drop_pct"] is not None else None,
             "problems": [str(p) for p in result.problems],
+            "warnings": [p.brief() for p in implausible(job)],
             "all_ok": result.ok,
         },
         "caution": CAUTION,
@@ -135,7 +138,7 @@ def _table(path: str, job: Job, result: JobResult) -> str:
 
     head = line(("run", "from", "to", "ft", "load", "size", "drop%", "total%", "status"))
     counts = f"{_plural(len(job.runs), 'run')}, {_plural(len(job.sources), 'source')}"
-    title = f"{job.job.name or path}: {counts}"
+    title = f"{job.job.name or shown(path)}: {counts}"
     lines = [title, "", head, "-" * len(head)] + [line(row) for row in rows]
     lines.append("")
     if result.problems:
@@ -143,6 +146,11 @@ def _table(path: str, job: Job, result: JobResult) -> str:
         lines += [f"  {p.brief()}" for p in result.problems]
     else:
         lines.append("Every run is within its ampacity and drop targets.")
+    warnings = implausible(job)
+    if warnings:  # said, never counted against the walk (the exit status)
+        lines.append("")
+        lines.append(f"{len(warnings)} warning(s):")
+        lines += [f"  {p.brief()}" for p in warnings]
     lines += ["", CAUTION]
     return "\n".join(lines)
 

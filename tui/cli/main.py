@@ -4,12 +4,19 @@
 Each subcommand lives in its own module exposing ``NAME``, ``HELP``, ``add_arguments(parser)``
 and ``run(args) -> int``. Textual is imported only when the app is opened, so headless commands
 start fast.
+
+What a command writes may hold text from a walk, a lock file, a file name or the system: its
+output and messages pass through ``gaugewalk.model.walk.plain_text.shown_lines`` on the way out,
+so no control character reaches the terminal (a line break and a tab stay what they are).
+A reader that stops early (``check --json | head``) ends the command quietly.
 """
 
 from __future__ import annotations
 
 import argparse
+import contextlib
 import importlib
+import os
 import sys
 from typing import NoReturn
 
@@ -67,12 +74,54 @@ def main(argv: list[str] | None = None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
     try:
         if argv and (argv[0] in _command_names() or argv[0] in {"-h", "--help"}):
-            args = build_parser().parse_args(argv)
-            return int(args._run(args) or 0)
+            with _plain_output():
+                args = build_parser().parse_args(argv)
+                return int(args._run(args) or 0)
         return _open_app(argv)
     except UsageError as exc:
         print(str(exc), file=sys.stderr)
         return 2
+    except BrokenPipeError:  # the reader stopped early (``check --json | head``): not an error
+        _quiet_stdout()
+        return 0
+
+
+class _PlainStream:
+    """A text stream that writes ``shown_lines(text)`` to the stream it wraps."""
+
+    def __init__(self, stream) -> None:
+        self._stream = stream
+
+    def write(self, text: str) -> int:
+        from gaugewalk.model.walk.plain_text import shown_lines
+
+        self._stream.write(shown_lines(text))
+        return len(text)
+
+    def __getattr__(self, name: str):
+        return getattr(self._stream, name)
+
+
+@contextlib.contextmanager
+def _plain_output():
+    """While a command runs, its standard output and error are plain text (see above)."""
+    out, err = sys.stdout, sys.stderr
+    sys.stdout, sys.stderr = _PlainStream(out), _PlainStream(err)
+    try:
+        yield
+    finally:
+        sys.stdout, sys.stderr = out, err
+
+
+def _quiet_stdout() -> None:
+    """Point standard output at /dev/null, so Python's flush at exit does not fail again on the
+    closed pipe (the way the Python documentation gives for SIGPIPE)."""
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        os.close(devnull)
+    except (OSError, ValueError):  # no real file behind sys.stdout (a test's StringIO)
+        pass
 
 
 def _open_app(argv: list[str]) -> int:

@@ -1,12 +1,19 @@
 """The report as one self-contained HTML page: inline styles with print rules, an inline SVG bar
-chart, nothing fetched from the network. Every piece of user text is escaped."""
+chart, nothing fetched from the network. Every piece of user text is escaped, its control
+characters shown as ``\x1b`` (``gaugewalk.model.walk.plain_text``)."""
 
 from __future__ import annotations
 
+import html
 from collections.abc import Set as AbstractSet
-from html import escape
 
 from gaugewalk.model.report.content import RUN_COLUMNS, Report
+from gaugewalk.model.walk.plain_text import shown
+
+
+def escape(text: str) -> str:
+    """Text for the page: control characters made visible, then HTML-escaped (quotes too)."""
+    return html.escape(shown(text))
 
 _STYLE = """
 body { font-family: system-ui, sans-serif; font-size: 13px; color: #111; margin: 1.5em; }

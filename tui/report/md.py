@@ -1,11 +1,13 @@
 """The report as Markdown: the same sections as the HTML page, with a text bar chart.
 
-User text is escaped so that it cannot become markup (emphasis, links, table breaks or raw HTML).
+User text is escaped so that it cannot become markup (emphasis, links, table breaks or raw HTML),
+and its control characters are shown as ``\x1b`` (``gaugewalk.model.walk.plain_text``).
 """
 
 from __future__ import annotations
 
 from gaugewalk.model.report.content import RUN_COLUMNS, Report
+from gaugewalk.model.walk.plain_text import shown
 
 _SPECIAL = "\\`*_[]|#<>"
 _BAR_WIDTH = 40
@@ -13,7 +15,7 @@ _BAR_WIDTH = 40
 
 def md_escape(text: str) -> str:
     """One line of user text, safe in a Markdown paragraph or table cell."""
-    text = " ".join(str(text).split())
+    text = shown(" ".join(str(text).split()))
     out = []
     for ch in text:
         if ch == "&":

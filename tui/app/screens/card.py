@@ -8,7 +8,7 @@ next one; a run with an invalid field is not stored.
 
 from __future__ import annotations
 
-from rich.markup import escape
+from gaugewalk.tui.app.plain import escape
 from textual import on
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical

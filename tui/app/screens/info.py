@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import textwrap
 
-from rich.markup import escape
+from gaugewalk.tui.app.plain import escape
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Vertical, VerticalScroll

@@ -3,7 +3,7 @@ every run and says what moved."""
 
 from __future__ import annotations
 
-from rich.markup import escape
+from gaugewalk.tui.app.plain import escape
 from textual.app import ComposeResult
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen

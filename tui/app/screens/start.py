@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from rich.markup import escape
+from gaugewalk.tui.app.plain import escape
 from textual import on
 from textual.app import ComposeResult
 from textual.containers import Vertical
@@ -35,7 +35,7 @@ class StartScreen(Screen[tuple[str, str] | None]):
             for p in self.recent:
                 path = Path(p)
                 mark = "" if path.exists() else "  (missing)"
-                options.append(Option(f"{path.name}  [dim]{escape(str(path.parent))}[/dim]{mark}", id=p))
+                options.append(Option(f"{escape(path.name)}  [dim]{escape(str(path.parent))}[/dim]{mark}", id=p))
             yield OptionList(*options, id="start-list")
             yield Static("", id="start-new-label")
             yield Input(placeholder="file for the new walk, e.g. walks/shop-3.toml", id="start-path", compact=True)

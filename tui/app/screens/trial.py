@@ -3,7 +3,7 @@ feeder, see what it does to that run and to everything downstream, then keep it 
 
 from __future__ import annotations
 
-from rich.markup import escape
+from gaugewalk.tui.app.plain import escape
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.screen import Screen

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from rich.markup import escape
+from gaugewalk.tui.app.plain import escape
 from textual import on
 from textual.app import ComposeResult
 from textual.containers import ScrollableContainer, Vertical

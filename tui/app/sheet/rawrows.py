@@ -11,6 +11,7 @@ import math
 import tomllib
 from pathlib import Path
 
+from gaugewalk.model.walk.plain_text import shown
 from gaugewalk.tui.app.widgets.runsheet import SheetRow
 
 SIZING = "… sizing"
@@ -42,7 +43,7 @@ def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024) -> list[SheetRo
         p = Path(path)
         if p.stat().st_size > max_bytes:
             return None
-        data = tomllib.loads(p.read_text(encoding="utf-8"))
+        data = tomllib.loads(p.read_text(encoding="utf-8-sig"))
     except (OSError, ValueError, RecursionError):  # the real reader says what is wrong
         return None
     runs = data.get("run")
@@ -54,7 +55,8 @@ def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024) -> list[SheetRo
     for r in runs:
         if not isinstance(r, dict):
             return None
-        rid, frm, to = str(r.get("id", "")), str(r.get("from", "")), str(r.get("to", ""))
+        # not checked yet: shown as plain text, control characters escaped (plain_text)
+        rid, frm, to = (shown(str(r.get(k, ""))) for k in ("id", "from", "to"))
         cells = (rid, frm, to, _feet(r.get("length", "")), _load(r.get("load"), to in source_ids),
                  "", "", "", "", "", SIZING)
         rows.append(SheetRow(rid, cells, False, {}, "", frm))

@@ -14,6 +14,7 @@ from gaugewalk.model.session.session import (
 from gaugewalk.model.walk.checks import connection_of, default_connection
 from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Run
+from gaugewalk.model.walk.plausible import long_length
 from gaugewalk.tables.conductor.sizes import size_index
 from gaugewalk.tables.equipment.horsepower import hp_text
 from gaugewalk.tui.app.widgets.runsheet import SheetRow
@@ -191,6 +192,10 @@ def detail_lines(session: WalkSession, run: Run | None) -> str:
             f" · EGC {egc} · {race} · {res.ocpd_a} A"
         )
     lines = [head, body]
-    if st.problems:
-        lines.append(f"{st.words}: " + "; ".join(st.problems))
+    said = [f"{st.words}: " + "; ".join(st.problems)] if st.problems else []
+    long = long_length(run.length_ft, session.job.defaults)
+    if long:  # a warning, never a problem: the third line has room for both
+        said.append(f"⚠ {long}")
+    if said:
+        lines.append("; ".join(said))
     return "\n".join(lines)

@@ -11,7 +11,7 @@ report's own text), with the sources' ratings and loading above them.
 
 from __future__ import annotations
 
-from rich.markup import escape
+from gaugewalk.tui.app.plain import escape
 from rich.text import Text
 from textual.widgets import Tree
 
