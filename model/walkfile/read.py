@@ -98,8 +98,14 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml"
             gc.enable()
 
 
+BOM = "\ufeff"
+"""A UTF-8 byte-order mark, which some editors put at the start of a file: read past, and not
+written back (gaugewalk writes UTF-8 without one)."""
+
+
 def _check_walk_text(text: str, path: str | os.PathLike) -> tuple[Job | None, list[Problem]]:
     file = str(path)
+    text = text.removeprefix(BOM)
     if len(text) > MAX_WALK_BYTES:
         return None, [Problem(file, None, "file", None, None, too_big(len(text.encode("utf-8"))))]
     if not text.strip():
@@ -130,7 +136,7 @@ def _check_walk_text(text: str, path: str | os.PathLike) -> tuple[Job | None, li
     def one(model: type[BaseModel], raw, table: str, index: int | None,
             ident: str | None = None, number: int | None = None):
         try:
-            return model.model_validate(raw)
+            return model.model_validate(raw, strict=True)  # "2" is not 2, "yes" not true
         except ValidationError as exc:
             problems.extend(problems_from_errors(exc.errors(), table, index, locator, file, ident,
                                                  number=number))

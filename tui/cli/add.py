@@ -18,6 +18,7 @@ from gaugewalk.model.session.card_form import circuit_words
 from gaugewalk.model.walk.checks import branch_circuit_for_kind
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.job import Run
+from gaugewalk.model.walk.plausible import long_length
 from gaugewalk.model.walk.problems import Locator, problems_from_errors
 from gaugewalk.model.walk.vocabulary import PHASES
 from gaugewalk.tui.cli.common import (
@@ -155,4 +156,7 @@ def run(args: argparse.Namespace) -> int:
         words = circuit_words(resolve_circuit(source.system, new.connection))
         print(f"  circuit {new.connection}: {words}, the usual for this kind of load; "
               "give --connection if it is wired otherwise")
+    warning = long_length(new.length_ft, job.defaults)
+    if warning:
+        print(f"warning: {args.file}, run {run_id}, length: {warning}", file=sys.stderr)
     return EXIT_OK

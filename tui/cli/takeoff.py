@@ -14,7 +14,6 @@ from __future__ import annotations
 import argparse
 import csv
 import json
-import os
 import sys
 from pathlib import Path
 
@@ -148,10 +147,7 @@ def _priced(path: str | None, takeoff: Takeoff):
 def run(args: argparse.Namespace) -> int:
     job, _result, takeoff = load_computed(args.file)
     priced = _priced(args.prices, takeoff)
-    try:
-        _write(args, job, takeoff, priced)
-    except BrokenPipeError:  # the reader stopped early (``| head``): not an error
-        sys.stdout = open(os.devnull, "w")  # noqa: SIM115 - keeps Python's exit flush quiet
+    _write(args, job, takeoff, priced)  # a closed pipe (``| head``): ``main`` says nothing
     return 0
 
 
