@@ -21,14 +21,14 @@ from __future__ import annotations
 
 import os
 from dataclasses import replace
-from pathlib import Path
 
 from gaugewalk.model.walk.checks import check_references
 from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walk.problems import Locator, Problem
+from gaugewalk.model.walkfile.atomic import real_path
 from gaugewalk.model.walkfile.fingerprint import Fingerprint, fingerprint
 from gaugewalk.model.walkfile.lock import WalkLock, acquire_lock
-from gaugewalk.model.walkfile.read import load_walk
+from gaugewalk.model.walkfile.read import loads_walk, read_walk_text
 from gaugewalk.model.walkfile.write import SaveNotice, dumps_walk, save_walk
 
 
@@ -41,7 +41,9 @@ class WalkHold:
 
     def __init__(self, path: str | os.PathLike, tool: str = "gaugewalk") -> None:
         self.file = os.fspath(path)   # as given, for messages
-        self.path = Path(path)
+        # resolved once: through a symbolic link the walk is the file it names, and its lock,
+        # draft and backup are beside that file (another name for it finds the same lock)
+        self.path = real_path(path)
         self.tool = tool
         self.lock: WalkLock | None = None
         self.fingerprint: Fingerprint | None = None   # what the file held when it was read
@@ -54,10 +56,10 @@ class WalkHold:
         self.lock = acquire_lock(self.path, self.tool)
         return self.lock
 
-    def release(self) -> None:
-        if self.lock is not None:
-            self.lock.release()
-            self.lock = None
+    def release(self) -> str | None:
+        """Let the walk go; returns why its lock could not be removed, if it could not."""
+        lock, self.lock = self.lock, None
+        return lock.release() if lock is not None else None
 
     def __enter__(self) -> "WalkHold":
         return self
@@ -74,7 +76,7 @@ class WalkHold:
     def read(self) -> Job:
         """Note the file, then read and check it; raises ``WalkFileError``."""
         self.note()
-        return load_walk(self.path)
+        return loads_walk(read_walk_text(self.path), self.file)
 
     # -- changing -------------------------------------------------------------------------------
     def added_problems(self, job: Job, before: Job | None = None) -> list[Problem]:

@@ -94,6 +94,7 @@ class WalkSession:
         self.draft: dict[str, str] | None = None
         self.busy = False   # True while the whole walk is being sized in the background
         self.read_only: str | None = None   # why the walk cannot be changed here, if it cannot
+        self.lock_refusal = None   # the WalkLocked that made it read-only, if a lock did
         if hold is None:
             hold = WalkHold(self.path, "gaugewalk app")
             hold.note()  # what was read: a save checks it is still there
@@ -452,7 +453,7 @@ class WalkSession:
 
         if self.read_only:
             return None
-        notice = pending_notice(self.path)
+        notice = pending_notice(self.hold.path)
         if notice is None:
             return None
         return (f"{self.path.name} has {notice.comment_lines} comment line(s). gaugewalk does not "
@@ -465,26 +466,55 @@ class WalkSession:
         returns a sentence to show (who holds it, or a stale lock that was cleared), else None."""
         from gaugewalk.model.walkfile.lock import LockError, WalkLocked
 
+        from gaugewalk.model.walkfile.write import read_only_reason
+
+        self.lock_refusal = None
         try:
             lock = self.hold.take_lock()
         except WalkLocked as exc:
             self.read_only = exc.message
+            self.lock_refusal = exc  # ctrl+u offers to clear a lock nobody holds any more
             return f"Read-only: {exc.message}"
         except LockError as exc:
             self.read_only = str(exc)
             return f"Read-only: {exc}"
+        reason = read_only_reason(self.hold.path)
+        if reason is not None:  # a read-only walk is never replaced: say so before any change
+            self.hold.release()
+            self.read_only = f"{self.path.name}: {reason}"
+            return f"Read-only: {self.read_only}"
+        self.read_only = None
         from gaugewalk.model.walkfile.drafts import load_draft
 
         said = [lock.message] if lock.message else []
-        kept = load_draft(self.path)  # a card typed when the app last stopped (crash recovery)
+        kept = load_draft(self.hold.path)  # a card typed when the app last stopped (crash recovery)
         if kept is not None and kept.run_id is None and self._typed(kept.fields):
             self.draft = kept.fields
             said.append("The run card you were typing when gaugewalk last stopped is kept: "
                         "n brings it back.")
         return " ".join(said) or None
 
-    def release_lock(self) -> None:
-        self.hold.release()
+    def release_lock(self) -> str | None:
+        """Let the walk go; returns why its lock could not be removed, if it could not."""
+        return self.hold.release()
+
+    def unlock(self, force: bool = False) -> str:
+        """Clear the lock that made this walk read-only (``gaugewalk.model.walkfile.lock.
+        break_lock``: never one a live process here holds; one from another computer only with
+        ``force``), then take the walk for writing. Returns what happened, in a sentence."""
+        from gaugewalk.model.walkfile.lock import LockError, WalkLocked, break_lock
+
+        if self.lock_refusal is None:
+            return "This walk is not held by a lock; there is nothing to clear."
+        try:
+            state = break_lock(self.hold.path, force=force)
+        except (WalkLocked, LockError) as exc:
+            return f"Not cleared: {getattr(exc, 'message', None) or exc}"
+        said = self.take_lock()
+        done = f"Cleared the lock ({state.describe()})."
+        if self.read_only:
+            return f"{done} {said}"
+        return f"{done} The walk is open for writing." + (f" {said}" if said else "")
 
     @staticmethod
     def _typed(fields: dict[str, str]) -> bool:
@@ -500,9 +530,9 @@ class WalkSession:
             return
         try:
             if self.draft:
-                save_draft(self.path, self.draft)
+                save_draft(self.hold.path, self.draft)
             else:
-                clear_draft(self.path)
+                clear_draft(self.hold.path)
         except OSError:
             pass  # the walk itself is saved apart; a draft is a convenience
 

@@ -7,6 +7,16 @@ Public API:
 - ``atomic_write(path, data, *, keep_backup=True, create_only=False)``: a temporary file in the
   same folder, flushed and fsynced, then put in place (``os.replace``, or a hard link with
   ``create_only``), then the folder fsynced.
+- ``real_path(path)``: the file a path names, symbolic links followed (the walk code resolves a
+  walk once, when it is opened, and keeps its lock, draft and backup beside the real file).
+
+What a replaced file keeps: a write through a symbolic link lands on the file the link names
+(the link stays a link); the file's permissions stay, and its owner and group too (a save made
+as root over a colleague's walk leaves it theirs; as another user the group is kept where the
+system allows). A file with more than one name (hard links) is written in place, after its
+backup is written whole as a copy, so every name sees the new content; a crash during that write
+can leave it torn, with the previous version whole in ``NAME~`` (a rename would leave the other
+names with the old walk).
 - ``backup_path(path)``: where the previous version is kept (``walk.toml~``); ``BACKUP_SUFFIX``.
 - ``LEFTOVER_AGE_S``: a temporary older than this was left by a write that was killed, and the
   next write beside it removes it.
@@ -36,6 +46,14 @@ def backup_path(path: str | os.PathLike) -> Path:
     return p.with_name(p.name + BACKUP_SUFFIX)
 
 
+def real_path(path: str | os.PathLike) -> Path:
+    """The file ``path`` names, every symbolic link followed (``os.path.realpath``); a path that
+    is not a link comes back as given (a folder reached through a link is the same folder by
+    either name, so what is kept beside the file is found by both)."""
+    p = Path(path)
+    return Path(os.path.realpath(p)) if os.path.islink(p) else p
+
+
 def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = True,
                  create_only: bool = False) -> None:
     """Write ``data`` to ``path`` so that a crash leaves either the old or the new file whole:
@@ -49,27 +67,38 @@ def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = Tr
     file is created with ``O_EXCL`` and written in place).
     """
     path = Path(path)
+    if not create_only and os.path.islink(path):
+        path = real_path(path)  # write the file the link names; the link stays a link
     folder = path.parent if str(path.parent) else Path(".")
     try:
-        mode = os.stat(path).st_mode & 0o7777
+        info = os.stat(path)
+        mode = info.st_mode & 0o7777
         existed = True
     except FileNotFoundError:
+        info = None
         umask = os.umask(0)
         os.umask(umask)
         mode = 0o666 & ~umask
         existed = False
+    if info is not None and info.st_nlink > 1 and not create_only:
+        _write_in_place(path, data, info, keep_backup)
+        return
     fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
     staged = None
     try:
         _write_synced(fd, data)
         os.chmod(tmp, mode)
+        if info is not None:
+            _keep_owner(tmp, info)
         if existed and keep_backup and not create_only:
             staged = _temp_beside(path, "bak")
             try:
                 os.link(path, staged)
             except OSError:  # no hard links here: copy the bytes
                 with open(path, "rb") as src:
-                    _write_synced(os.open(staged, os.O_WRONLY | os.O_CREAT, 0o666), src.read())
+                    _write_synced(os.open(staged, os.O_WRONLY | os.O_CREAT, mode), src.read())
+                if info is not None:
+                    _keep_owner(staged, info)
             os.replace(staged, backup_path(path))
         if create_only:
             _create(tmp, path, data, mode)
@@ -86,6 +115,55 @@ def atomic_write(path: str | os.PathLike, data: bytes, *, keep_backup: bool = Tr
         raise
     _fsync_dir(folder)
     _sweep_leftovers(path)
+
+
+def _keep_owner(path: str | Path, old: os.stat_result) -> None:
+    """Give ``path`` the owner and group of the file it replaces: as root, both (a save made as
+    root over a colleague's walk must leave it theirs); as anyone else, the group where the
+    system allows it. Nothing is raised: a new file that keeps our own owner is still whole."""
+    try:
+        if os.geteuid() == 0:
+            if (old.st_uid, old.st_gid) != (0, 0):
+                os.chown(path, old.st_uid, old.st_gid)
+        elif old.st_gid != os.getegid():
+            os.chown(path, -1, old.st_gid)
+    except (OSError, AttributeError):  # not allowed here, or no owners on this system
+        pass
+
+
+def _write_in_place(path: Path, data: bytes, info: os.stat_result, keep_backup: bool) -> None:
+    """Write a file that has other names (hard links) in place, so they all see the new content:
+    the new bytes first whole in a temporary beside it, the previous file copied whole to its
+    backup, then the file rewritten and synced, then the temporary removed."""
+    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=path.parent)
+    try:
+        _write_synced(fd, data)
+        if keep_backup:
+            with open(path, "rb") as src:
+                old = src.read()
+            staged = _temp_beside(path, "bak")
+            try:
+                _write_synced(os.open(staged, os.O_WRONLY | os.O_CREAT | os.O_EXCL,
+                                      info.st_mode & 0o7777), old)
+                _keep_owner(staged, info)
+                os.replace(staged, backup_path(path))
+            except BaseException:
+                try:
+                    os.unlink(staged)
+                except OSError:
+                    pass
+                raise
+        with open(path, "r+b") as handle:
+            handle.write(data)
+            handle.truncate(len(data))
+            handle.flush()
+            os.fsync(handle.fileno())
+    finally:
+        try:
+            os.unlink(tmp)
+        except OSError:
+            pass
+    _fsync_dir(path.parent)
 
 
 def _create(tmp: str, path: Path, data: bytes, mode: int) -> None:

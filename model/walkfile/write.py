@@ -14,14 +14,19 @@ Public API:
   backup keeps them), or, with ``allow_comment_loss=False``, raises ``CommentsWouldBeLost``
   before writing anything.
 - ``pending_notice(path)``: what a save over the file would report, without saving.
+- ``read_only_reason(path) -> str | None``: why a walk file must not be replaced (its mode
+  gives nobody write permission, or this user cannot write it); ``ReadOnlyWalk`` (a
+  ``PermissionError``) is what ``save_walk`` raises then, writing nothing.
 - ``comment_lines(text) -> int``: lines of the text that hold a comment.
 """
 
 from __future__ import annotations
 
+import errno
 import math
 import os
 import re
+import stat
 from dataclasses import dataclass
 from datetime import date
 from functools import lru_cache
@@ -31,6 +36,7 @@ import tomli_w
 from pydantic import BaseModel
 
 from gaugewalk.model.walk.job import SCHEMA_VERSION, Job
+from gaugewalk.model.walk.plain_text import shown
 from gaugewalk.model.walk.problems import Problem
 from gaugewalk.model.walkfile.atomic import atomic_write, backup_path
 from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk, Fingerprint
@@ -55,6 +61,27 @@ class SaveNotice:
 
     def __str__(self) -> str:
         return self.message
+
+
+def read_only_reason(path: str | os.PathLike) -> str | None:
+    """Why the walk file at ``path`` must not be replaced, or None (no file, or writable). A
+    file whose mode gives nobody write permission (``chmod 444``) is read-only even for root:
+    someone made it so on purpose."""
+    try:
+        mode = os.stat(path).st_mode
+    except OSError:
+        return None
+    if mode & 0o222 and os.access(path, os.W_OK):
+        return None
+    return (f"the walk is read-only ({stat.filemode(mode)}); gaugewalk does not replace a "
+            f"read-only walk: make it writable (chmod u+w {shown(Path(path).name)}) to save it")
+
+
+class ReadOnlyWalk(PermissionError):
+    """Raised by ``save_walk`` over a read-only walk; nothing is written."""
+
+    def __init__(self, path: Path, reason: str) -> None:
+        super().__init__(errno.EACCES, reason, str(path))
 
 
 class CommentsWouldBeLost(Exception):
@@ -256,6 +283,10 @@ def save_walk(
         old = None
     if old == data:
         return None
+    if old is not None:
+        reason = read_only_reason(path)
+        if reason is not None:
+            raise ReadOnlyWalk(path, reason)
     if expected is not None and not expected.matches(None if old is None else Fingerprint.of(old)):
         raise ChangedOnDisk(path)
     notice = None

@@ -6,6 +6,7 @@ from __future__ import annotations
 import socket
 import subprocess
 import sys
+from datetime import datetime, timezone
 
 from gaugewalk.model.walkfile.lock import LockHolder, lock_path
 
@@ -22,9 +23,11 @@ def dead_pid() -> int:
     return proc.pid
 
 
-def write_lock(walk, pid: int, host: str | None = None,
-               since: str = "2024-05-02T14:03:00+00:00") -> LockHolder:
-    """Put a lock beside ``walk`` as the app of process ``pid`` would."""
+def write_lock(walk, pid: int, host: str | None = None, since: str | None = None) -> LockHolder:
+    """Put a lock beside ``walk`` as the app of process ``pid`` would, written ``since`` (default:
+    now; a lock written before its process started names a reused process id)."""
+    if since is None:
+        since = datetime.now(timezone.utc).replace(microsecond=0).isoformat()
     holder = LockHolder("dana", host or socket.gethostname(), pid, since, "gaugewalk app")
     lock_path(walk).write_text(holder.to_json())
     return holder

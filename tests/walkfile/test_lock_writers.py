@@ -33,7 +33,7 @@ def walk(tmp_path):
 def other_app(walk):
     """Another live process holding the walk, as the app does while it is open."""
     proc = live_process()
-    write_lock(walk, proc.pid)
+    proc.holder = write_lock(walk, proc.pid)
     yield proc
     proc.kill()
     proc.wait()
@@ -50,7 +50,8 @@ def test_add_onto_a_walk_open_in_the_app_is_refused_with_who_holds_it(walk, othe
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 1
     assert f"process {other_app.pid}" in err[0] and "dana" in err[0]
-    assert socket.gethostname() in err[0] and "2024-05-02" in err[0] and "gaugewalk app" in err[0]
+    assert socket.gethostname() in err[0] and "gaugewalk app" in err[0]
+    assert f"since {other_app.holder.since_local()}" in err[0]
     assert walk.read_bytes() == before
 
 
@@ -225,16 +226,16 @@ def test_the_app_session_does_not_overwrite_a_save_made_while_it_was_reading(wal
     from gaugewalk.model.session.session import WalkSession
 
     theirs = walk_versions(2, runs=6)[1]
-    real_load = walkfile.load_walk
+    real_read = walkfile.read_walk_text
 
-    def load_then_someone_saves(path):
-        job = real_load(path)
+    def read_then_someone_saves(path):
+        text = real_read(path)
         save_walk(theirs, path)
-        return job
+        return text
 
-    monkeypatch.setattr(walkfile, "load_walk", load_then_someone_saves)
+    monkeypatch.setattr(walkfile, "read_walk_text", read_then_someone_saves)
     session = WalkSession.open(walk, compute=False)
-    monkeypatch.setattr(walkfile, "load_walk", real_load)
+    monkeypatch.setattr(walkfile, "read_walk_text", real_read)
     session.job.job.notes = "mine"
     assert session.save() is False
     assert "changed on disk since you opened it" in session.state.message

@@ -186,7 +186,9 @@ class WalkApp(App[int]):
 
     def on_unmount(self) -> None:
         if self.session is not None:
-            self.session.release_lock()
+            left = self.session.release_lock()
+            if left and not self.exit_message:  # said on stderr after the app has gone
+                self.exit_message = f"gaugewalk: {shown(self.session.path.name)}: {left}"
 
     def _show(self, session: WalkSession) -> None:
         from gaugewalk.tui.app.screens.walk import WalkScreen

@@ -66,6 +66,7 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("walk.trial", "t", "trial", "Try", "Trial change: try another material, size or voltage on the run, see the effect, keep it or not.", "walk", priority=True),
     KeyAction("walk.job", "j", "job_settings", "Job", "Job settings: the defaults every run inherits; all runs recompute.", "walk", priority=True),
     KeyAction("walk.save", "ctrl+s", "save_now", "Save", "Save again now (every change is already saved at once).", "walk", footer=False, key_display="^s"),
+    KeyAction("walk.unlock", "ctrl+u", "unlock", "Unlock", "Read-only because of a stale or broken lock: clear it (asks first; never one a running gaugewalk holds) and take the walk for writing.", "walk", footer=False, key_display="^u"),
     # run card
     KeyAction("card.store", "enter", "store", "Store+next", "Store the run and start the next one.", "card", priority=True, key_display="Enter"),
     KeyAction("card.close", "escape", "close_card", "Close", "Close the card; an unstored draft is kept for the next new run.", "card", key_display="Esc"),

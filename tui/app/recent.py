@@ -49,7 +49,9 @@ class RecentWalks:
         return rec
 
     def remember(self, path: str | os.PathLike) -> None:
-        full = str(Path(path).expanduser().resolve())
+        """Put ``path`` first, as the person opened it: absolute, but a symbolic link stays the
+        link (it is what they know the walk by, and it may be moved to another file later)."""
+        full = os.path.abspath(Path(path).expanduser())
         self.paths = [full] + [p for p in self.paths if p != full]
         del self.paths[MAX_RECENT:]
         self.store()

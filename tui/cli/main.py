@@ -29,6 +29,7 @@ COMMAND_MODULES: tuple[str, ...] = (
     "gaugewalk.tui.cli.place",
     "gaugewalk.tui.cli.check",
     "gaugewalk.tui.cli.merge",
+    "gaugewalk.tui.cli.unlock",
     "gaugewalk.tui.cli.schema",
     "gaugewalk.tui.cli.takeoff",
     "gaugewalk.tui.cli.report",

@@ -363,9 +363,46 @@ class WalkScreen(Screen):
         self._said_saved(f"Redid: {snap.label}.")
 
     def action_save_now(self) -> None:
-        self.session.save()
+        if self.session.read_only:
+            self.notify(f"Nothing saved: this walk is open read-only here: {self.session.read_only}",
+                        severity="warning", timeout=8)
+            return
+        saved = self.session.save()
         self.app.refresh_title()
-        self._said_saved("Saved.")
+        if saved:
+            self._said_saved("Saved.")
+        else:
+            self.notify(f"Not saved: {self.session.state.message}", severity="error", timeout=10)
+
+    def action_unlock(self) -> None:
+        """ctrl+u: clear the stale or broken lock that made the walk read-only, after asking;
+        never a lock a running gaugewalk on this computer holds."""
+        from gaugewalk.model.walkfile.lock import inspect_lock
+
+        session = self.session
+        if session.lock_refusal is None:
+            why = f" It is read-only because {session.read_only}" if session.read_only else ""
+            self.notify("No lock holds this walk here; there is nothing to clear." + why,
+                        severity="warning", timeout=8)
+            return
+        state = inspect_lock(session.hold.path)
+        if state.kind == "held":
+            self.notify(f"Not cleared: the walk is {state.describe()}; close it there first.",
+                        severity="warning", timeout=10)
+            return
+        what = state.describe() if state.kind != "none" else "the lock is gone already"
+        question = (f"Clear this lock and take the walk for writing? {what}. "
+                    "Only if no gaugewalk has this walk open.")
+
+        def answer(yes: bool | None) -> None:
+            if not yes:
+                return
+            said = session.unlock(force=state.kind == "elsewhere")
+            self.notify(said, severity="warning" if session.read_only else "information",
+                        timeout=10)
+            self.reload()
+
+        self.app.push_screen(AskScreen(question, "clear it", "leave it"), answer)
 
     def _said_saved(self, text: str) -> None:
         st = self.session.state
