@@ -142,10 +142,11 @@ def _git(*argv: str, cwd: str | None = None) -> str:
     return done.stdout
 
 
-def _base_in_git(a: _Named, b: _Named) -> tuple[Job | None, str]:
-    """The walk in the common commit of A and B when git holds them, and how it was found."""
+def _base_in_git(a: _Named, b: _Named) -> tuple[Job | None, str | None]:
+    """The walk in the common commit of A and B when git holds them, and how it was found (None:
+    neither was named in git, so none was looked for)."""
     if a.rev is None and b.rev is None:
-        return None, "no base: neither walk was named as REV:PATH in git (see --base)"
+        return None, None
     where_a, where_b = a.at(), b.at()
     if where_a is None or where_b is None:
         return None, "no base: both walks must be in one git repository (see --base)"
@@ -168,7 +169,7 @@ def _base_in_git(a: _Named, b: _Named) -> tuple[Job | None, str]:
 
 # -- merging ---------------------------------------------------------------------------------------
 
-def _read_three(args) -> tuple[Job, Job, Job | None, str] | None:
+def _read_three(args) -> tuple[Job, Job, Job | None, str | None] | None:
     """A, B, the base (None: none) and a line saying where the base came from; None (after
     saying why) when something asked for cannot be read."""
     a_named, b_named = _Named(args.a), _Named(args.b)
@@ -196,7 +197,8 @@ def _merge_files(args: argparse.Namespace) -> int:
         return EXIT_INVALID
     a, b, base, said = read
     merged = merge_jobs(a, b, prefer=args.prefer, base=base)
-    print(said, file=sys.stderr)
+    if said:
+        print(said, file=sys.stderr)
     _say_result(merged)
     if merged.job is None:
         print(f"{len(merged.conflicts)} conflict(s); nothing written. Fix one side, or choose "
