@@ -10,7 +10,9 @@ commands take.
 from __future__ import annotations
 
 import math
+import os
 from dataclasses import dataclass, field, replace
+from datetime import datetime
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -18,6 +20,7 @@ from gaugewalk.model.engine.contract import RunResult
 from gaugewalk.model.session.hold import WalkHold
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Run, Source
+from gaugewalk.model.walk.merge import Side
 from gaugewalk.model.walk.problems import Problem
 
 if TYPE_CHECKING:
@@ -77,6 +80,8 @@ class SaveState:
     saved: bool = True
     message: str | None = None     # why the last save failed, if it did
     notice: str | None = None      # said once after a save (e.g. comments were dropped)
+    changed_outside: bool = False  # not saved because the file changed on disk (see outside.py)
+    kept: Path | None = None       # where the walk that could not be saved is kept whole
 
 
 class WalkSession:
@@ -89,6 +94,10 @@ class WalkSession:
         self.result = None
         self.job_problems: list[Problem] = []   # the walk's problems about no one run
         self.state = SaveState()
+        # the walk as last read or saved: an outside change is merged against it (outside.py)
+        self.base = _copy(job)
+        self.started = datetime.now()   # names the file an unsaved walk is kept in
+        self._draft_until_saved = False  # a stored run's draft stays on disk until it is saved
         self.history: list[Snapshot] = []
         self.future: list[Snapshot] = []
         self.draft: dict[str, str] | None = None
@@ -412,35 +421,149 @@ class WalkSession:
 
     # ----- saving -----------------------------------------------------------------------
     def save(self) -> bool:
-        """Write the walk now (atomic, with a backup). On failure the walk stays in memory,
-        marked unsaved, with the reason in ``state.message``."""
+        """Write the walk now (atomic, with a backup). When the file changed on disk since it was
+        read, that change is merged in first where nothing clashes (``take_outside_change``).
+        On failure the walk stays in memory, marked unsaved, with the reason in
+        ``state.message``, and is kept whole in a file of its own (``state.kept``)."""
         from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
-        from gaugewalk.model.walkfile.read import WalkFileError
 
         if self.read_only:
             self.state = SaveState(False, f"read-only: {self.read_only}")
             return False
         try:
             notice = self.hold.save(self.job)
-        except ChangedOnDisk as exc:
-            self.state = SaveState(False, str(exc))
-            return False
-        except WalkFileError as exc:
-            self.state = SaveState(False, str(exc))
-            return False
-        except OSError as exc:
-            self.state = SaveState(False, f"cannot write {self.path}: {exc.strerror or exc}")
-            return False
+        except ChangedOnDisk:
+            return self._take_outside(prefer=None)
         except Exception as exc:  # a walk the file code refuses: keep it in memory, say why
-            self.state = SaveState(False, f"not saved: {exc}")
-            return False
-        self.state = SaveState(True, None, notice or None)
+            return self._not_saved(self._why(exc))
+        self._saved(notice.message if notice else None)
         return True
+
+    def _why(self, exc: Exception) -> str:
+        from gaugewalk.model.walkfile.read import WalkFileError
+
+        if isinstance(exc, WalkFileError):
+            return str(exc)
+        if isinstance(exc, OSError):
+            return f"cannot write {self.path}: {exc.strerror or exc}"
+        return f"not saved: {exc}"
+
+    def _saved(self, notice: str | None) -> None:
+        self.state = SaveState(True, None, notice or None)
+        self.base = _copy(self.job)
+        if self._draft_until_saved and not self.draft:  # its run is on disk now
+            self._draft_until_saved = False
+            self.keep_draft(None)
+
+    def _not_saved(self, message: str, changed_outside: bool = False) -> bool:
+        from gaugewalk.model.session.outside import keep_unsaved
+
+        kept = keep_unsaved(self.job, self.hold.path, self.started)
+        if kept is not None:
+            message += f". Everything open here is kept in {kept}"
+        self.state = SaveState(False, message, changed_outside=changed_outside, kept=kept)
+        return False
+
+    # ----- a change on disk while the walk is open ------------------------------------------
+    def changed_on_disk(self) -> bool:
+        """True when the file no longer holds what this session last read or saved (cheap when
+        it did not change: its size and time are looked at first)."""
+        from gaugewalk.model.walkfile.fingerprint import fingerprint
+
+        known = self.hold.fingerprint
+        try:
+            info = os.stat(self.hold.path)
+        except FileNotFoundError:
+            return known is not None
+        except OSError:
+            return False
+        if known is not None and (info.st_size, info.st_mtime_ns) == (known.size, known.mtime_ns):
+            return False
+        now = fingerprint(self.hold.path)
+        if known is not None and known.matches(now):
+            self.hold.fingerprint = now   # touched, not changed
+            return False
+        return True
+
+    def take_outside_change(self, prefer: Side | None = "b") -> str:
+        """Take in the walk as it is on disk now: merged with the walk here against what this
+        session last read or saved (runs added there and here both kept; a run both sides
+        changed keeps this side with ``prefer="b"``, the other version stays in the backup
+        ``NAME~``), then saved. Returns what happened, in a sentence."""
+        self._take_outside(prefer)
+        return str(self.state.notice if self.state.saved else self.state.message)
+
+    def _take_outside(self, prefer: Side | None) -> bool:
+        from gaugewalk.model.session.outside import merge_outside, read_theirs
+        from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
+
+        name = self.path.name
+        theirs = read_theirs(self.hold.path)
+        if theirs.job is None:
+            if theirs.fingerprint is None and not os.path.lexists(self.hold.path):
+                self.hold.fingerprint = None   # deleted: nothing there to keep, write it again
+                said = f"{name} was deleted on disk; saved again from what is open here."
+                return self._save_adopted(said)
+            return self._not_saved(f"{name} changed on disk and {theirs.problem}; not saved, so "
+                                   "that file is left as it is", changed_outside=True)
+        merged = merge_outside(self.base, theirs.job, self.job, prefer)
+        if merged.job is None:
+            clash = "; ".join(str(c) for c in merged.conflicts[:3])
+            more = f" and {len(merged.conflicts) - 3} more" if len(merged.conflicts) > 3 else ""
+            return self._not_saved(f"{name} changed on disk since it was read, and both sides "
+                                   f"changed the same thing: {clash}{more}; not saved, so "
+                                   "neither is lost", changed_outside=True)
+        refused = self.hold.refusals(merged.job)
+        if refused:
+            return self._not_saved(f"{name} changed on disk; with that change the walk here would "
+                                   f"not be valid ({refused[0].brief()}); not saved",
+                                   changed_outside=True)
+        self._adopt(merged.job)
+        self.hold.fingerprint = theirs.fingerprint
+        if merged.job == theirs.job:   # nothing here that is not there: take it as it is
+            self._saved(f"{name} changed on disk; reloaded it.")
+            return True
+        said = f"{name} changed on disk; merged with it ({merged.summary()})"
+        said += "".join(f"; your run {old} is now {new} (that id was taken there)"
+                        for old, new in merged.renamed.items())
+        if merged.conflicts:
+            said += (f"; kept yours where both changed ({len(merged.conflicts)}), theirs is in "
+                     f"{name}~")
+        try:
+            return self._save_adopted(said + ".")
+        except ChangedOnDisk:   # changed again meanwhile: leave it for the next try
+            return self._not_saved(f"{name} is changing on disk; not saved", changed_outside=True)
+
+    def _save_adopted(self, said: str) -> bool:
+        from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
+
+        try:
+            notice = self.hold.save(self.job)
+        except ChangedOnDisk:
+            raise
+        except Exception as exc:
+            return self._not_saved(self._why(exc))
+        self._saved(said + (f" {notice.message}" if notice else ""))
+        return True
+
+    def _adopt(self, job: Job) -> None:
+        """Put ``job`` (a merge with the walk on disk) in place of the walk here; undo starts
+        again from it (an older step would take back what came from disk)."""
+        self.job.runs[:] = job.runs
+        self.job.sources[:] = job.sources
+        self.job.defaults = job.defaults
+        self.job.job = job.job
+        self._touch()
+        self.history.clear()
+        self.future.clear()
+        self.recompute()
 
     @property
     def lose_on_quit(self) -> str | None:
         """What quitting now would lose, in words, or None."""
         if not self.state.saved:
+            if self.state.kept is not None:
+                return None   # kept whole in a file of its own: nothing is lost
             return "changes that could not be saved to " + self.path.name
         if self.draft:
             return "a run card that was not stored"
@@ -492,6 +615,16 @@ class WalkSession:
             self.draft = kept.fields
             said.append("The run card you were typing when gaugewalk last stopped is kept: "
                         "n brings it back.")
+        from gaugewalk.model.session.outside import kept_beside
+
+        earlier = kept_beside(self.hold.path)
+        if earlier:
+            name = self.path.name
+            said.append(f"Changes an earlier session could not save to {name} are kept in "
+                        f"{earlier[-1].name}" + (f" ({len(earlier)} such files)"
+                                                 if len(earlier) > 1 else "")
+                        + f": 'gaugewalk merge {name} {earlier[-1].name} -o {name}' joins them "
+                        "back; delete the file after.")
         return " ".join(said) or None
 
     def release_lock(self) -> str | None:
@@ -528,6 +661,11 @@ class WalkSession:
         self.draft = fields if fields and self._typed(fields) else None
         if self.read_only:
             return
+        if self.draft is None and not self.state.saved:
+            # the card's run was stored but is not on disk yet: its draft stays until it is
+            self._draft_until_saved = True
+            return
+        self._draft_until_saved = False
         try:
             if self.draft:
                 save_draft(self.hold.path, self.draft)
@@ -576,6 +714,12 @@ def _put_in(items: list, item, replaces: str | None) -> None:
                 items[i] = item
                 return
     items.append(item)
+
+
+def _copy(job: Job) -> Job:
+    """The walk as it is now, for a merge base: its own lists of the same (never changed in
+    place) runs and sources."""
+    return job.model_copy(update={"runs": list(job.runs), "sources": list(job.sources)})
 
 
 def _short(text: str, width: int = 12) -> str:

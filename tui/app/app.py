@@ -222,7 +222,9 @@ class WalkApp(App[int]):
         if s.read_only:
             state = "read-only"
         else:
-            state = "✓ saved" if s.state.saved else "✗ NOT SAVED (ctrl+s retries)"
+            state = ("✓ saved" if s.state.saved
+                     else "✗ NOT SAVED: changed on disk (ctrl+s)" if s.state.changed_outside
+                     else "✗ NOT SAVED (ctrl+s retries)")
         self.title = f"{shown(s.path.name)} · {state}"
         self.sub_title = shown(s.job.job.name or s.path.stem)
 
@@ -242,6 +244,13 @@ class WalkApp(App[int]):
         """Quit; ask only when changes could not be saved. An unstored run card is not lost:
         it is kept beside the walk as it is typed and comes back with n next time."""
         s = self.session
+        if s is not None and not s.read_only and not s.state.saved:
+            s.save()   # one more try: a disk with room again, a change on disk that merges
+            if not s.state.saved and s.state.kept is not None:
+                name = s.path.name
+                self.exit_message = shown(
+                    f"gaugewalk: {name} was not saved: {s.state.message}. To join it back: "
+                    f"gaugewalk merge {s.path} {s.state.kept} -o {s.path}")
         lose = s.lose_on_quit if s is not None and not s.read_only and not s.state.saved else None
         if not lose:
             self.exit(0)

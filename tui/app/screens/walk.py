@@ -24,6 +24,8 @@ VIEWS = ("runs", "tree", "footage", "boards")
 _OPENERS = {"new_run", "edit_run", "choose", "trial", "job_settings"}
 VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage",
                "boards": "4 Boards"}
+DISK_LOOK_S = 2.0
+"""How often the walk screen looks whether its file changed on disk [s]."""
 
 
 class WalkScreen(Screen):
@@ -40,6 +42,7 @@ class WalkScreen(Screen):
         self._tree_stale = True
         self._footage_stale = True
         self._boards_stale = True
+        self._told_outside = False   # a change on disk was said (once) while changes here wait
 
     def compose(self) -> ComposeResult:
         yield Header()
@@ -62,9 +65,26 @@ class WalkScreen(Screen):
         self.query_one("#find").display = False
         self.reload()
         self.query_one(RunSheet).focus()
+        self.set_interval(DISK_LOOK_S, self.look_at_disk)
 
     def on_screen_resume(self) -> None:
         self.reload()
+        self.look_at_disk()
+
+    def look_at_disk(self) -> None:
+        """Now and then, and on coming back to this screen: a walk changed on disk is taken in at
+        once when nothing here waits to be saved; otherwise it is said once, with the key."""
+        s = self.session
+        if s.read_only or s.busy or self.app.screen is not self or not s.changed_on_disk():
+            return
+        if s.state.saved:
+            said = s.take_outside_change(prefer=None)
+            self.reload()
+            self.notify(said, severity="information" if s.state.saved else "error", timeout=10)
+        elif not self._told_outside:
+            self._told_outside = True
+            self.notify(f"{s.path.name} changed on disk. ctrl+s takes that change in and puts "
+                        "your unsaved changes on top.", severity="warning", timeout=12)
 
     def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
         """The keys that open a screen are priority bindings (so the keys typed right after
@@ -371,8 +391,30 @@ class WalkScreen(Screen):
         self.app.refresh_title()
         if saved:
             self._said_saved("Saved.")
+        elif self.session.state.changed_outside:
+            self._offer_outside_change()
         else:
             self.notify(f"Not saved: {self.session.state.message}", severity="error", timeout=10)
+
+    def _offer_outside_change(self) -> None:
+        """ctrl+s after the walk changed on disk in a way that clashes with changes here: offer
+        to take that change in with this side's changes on top (theirs stays in NAME~)."""
+        session = self.session
+        name = session.path.name
+        question = (f"{session.state.message}.\n\nTake {name} as it is on disk now and put your "
+                    f"unsaved changes on top? Where both changed the same thing, yours is kept "
+                    f"and theirs stays in {name}~.")
+
+        def answer(yes: bool | None) -> None:
+            if not yes:
+                return
+            said = session.take_outside_change(prefer="b")
+            self._told_outside = not session.state.saved
+            self.reload()
+            self.notify(said, severity="information" if session.state.saved else "error",
+                        timeout=12)
+
+        self.app.push_screen(AskScreen(question, "take it in, mine on top", "not now"), answer)
 
     def action_unlock(self) -> None:
         """ctrl+u: clear the stale or broken lock that made the walk read-only, after asking;
