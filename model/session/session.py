@@ -718,8 +718,10 @@ def _put_in(items: list, item, replaces: str | None) -> None:
 
 def _copy(job: Job) -> Job:
     """The walk as it is now, for a merge base: its own lists of the same (never changed in
-    place) runs and sources."""
-    return job.model_copy(update={"runs": list(job.runs), "sources": list(job.sources)})
+    place) runs and sources, its own header and defaults."""
+    return job.model_copy(update={"runs": list(job.runs), "sources": list(job.sources),
+                                  "job": job.job.model_copy(),
+                                  "defaults": job.defaults.model_copy()})
 
 
 def _short(text: str, width: int = 12) -> str:

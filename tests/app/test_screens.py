@@ -7,6 +7,7 @@ import tomllib
 
 import pytest
 
+from gaugewalk.model.walkfile.read import load_walk
 from gaugewalk.tui.app.keys import KEYS
 from gaugewalk.tui.app.recent import RecentWalks
 from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
@@ -329,14 +330,17 @@ async def test_a_walk_changed_on_disk_by_someone_else_is_not_overwritten(tmp_pat
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
-        theirs = path.read_text().replace('length = "40"', 'length = "45"')
+        theirs = path.read_text().replace('length = "100"', 'length = "104"')  # R1 re-measured
         path.write_text(theirs)
-        await pilot.press("down", "delete")
+        await pilot.press("down", "delete")   # and R1 deleted here: a clash
         await pilot.pause()
         assert "NOT SAVED" in app.title
         assert path.read_text() == theirs
-        await pilot.press("ctrl+q")
-        assert isinstance(app.screen, AskScreen)  # quitting would lose the unsaved delete
+        await pilot.press("ctrl+q")           # the unsaved delete is kept whole beside the walk
+        await pilot.pause()
+    kept = app.session.state.kept
+    assert kept is not None and "R1" not in {r.id for r in load_walk(kept).runs}
+    assert str(kept) in app.exit_message and path.read_text() == theirs
 
 
 async def test_a_feeder_whose_panel_still_feeds_runs_cannot_be_deleted(tmp_path):

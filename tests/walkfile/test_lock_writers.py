@@ -221,7 +221,7 @@ def test_twelve_adds_at_once_each_either_lands_or_is_refused_none_is_lost(walk):
 
 def test_the_app_session_does_not_overwrite_a_save_made_while_it_was_reading(walk, monkeypatch):
     """A command saves between the app reading the walk and the app noting what it read: the
-    app's next save must be refused, not overwrite that command's run."""
+    app's next save must not overwrite that command's runs (it merges them in, issue 15)."""
     import gaugewalk.model.session.hold as walkfile  # where the session reads the walk
     from gaugewalk.model.session.session import WalkSession
 
@@ -236,7 +236,16 @@ def test_the_app_session_does_not_overwrite_a_save_made_while_it_was_reading(wal
     monkeypatch.setattr(walkfile, "read_walk_text", read_then_someone_saves)
     session = WalkSession.open(walk, compute=False)
     monkeypatch.setattr(walkfile, "read_walk_text", real_read)
-    session.job.job.notes = "mine"
+    session.job.job.site = "Dock 4"          # a change theirs did not make: merged in
+    assert session.save() is True
+    assert "changed on disk; merged with it" in str(session.state.notice)
+    saved = load_walk(walk)
+    assert saved.runs == theirs.runs and saved.sources == theirs.sources
+    assert saved.job.site == "Dock 4" and saved.job.notes == theirs.job.notes
+    session.job.job.notes = "mine"           # their notes changed too: a clash, never written
+    before = walk.read_bytes()
+    save_walk(theirs.model_copy(update={"job": theirs.job.model_copy(
+        update={"notes": "theirs again"})}), walk)
     assert session.save() is False
-    assert "changed on disk since you opened it" in session.state.message
-    assert load_walk(walk) == theirs
+    assert "both sides changed the same thing" in session.state.message
+    assert load_walk(walk).job.notes == "theirs again" and walk.read_bytes() != before
