@@ -61,6 +61,21 @@ class WalkHold:
         lock, self.lock = self.lock, None
         return lock.release() if lock is not None else None
 
+    def _hold_again(self) -> None:
+        """A lock deleted by hand (or by a sync tool) while the walk is held is taken again
+        before the next save, so another writer is stopped as before; if someone holds it by
+        now, the save goes on guarded by the fingerprint (a change on disk is never written
+        over)."""
+        from gaugewalk.model.walkfile.lock import LockError, WalkLocked
+
+        lock = self.lock
+        if lock is None or lock.still_mine():
+            return
+        try:
+            self.lock = acquire_lock(self.path, self.tool)
+        except (WalkLocked, LockError):
+            return
+
     def __enter__(self) -> "WalkHold":
         return self
 
@@ -107,6 +122,7 @@ class WalkHold:
         """Write the walk (atomic, with a backup), refused with ``ChangedOnDisk`` when the file
         no longer holds what was read, ``WalkFileError`` past the limits; then note the file
         again. Returns the notice that comments were dropped, if they were."""
+        self._hold_again()
         notice = save_walk(job, self.path, allow_comment_loss=allow_comment_loss,
                            expected=self.fingerprint)
         self.fingerprint = fingerprint(self.path)

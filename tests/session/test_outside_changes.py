@@ -173,3 +173,13 @@ def test_the_next_open_says_where_an_earlier_sessions_unsaved_walk_is_kept(sessi
     said = again.take_lock()
     assert f"are kept in {kept.name}: 'gaugewalk merge walk.toml {kept.name} -o walk.toml'" in said
     again.release_lock()
+
+
+def test_a_lock_deleted_while_the_walk_is_open_is_taken_again_at_the_next_save(session):
+    from gaugewalk.model.walkfile.lock import WalkLocked, acquire_lock, lock_path
+
+    os.remove(lock_path(session.path))
+    assert session.put_run(_run("R2", "Slicer")) is None and session.state.saved
+    assert str(os.getpid()) in lock_path(session.path).read_text()
+    with pytest.raises(WalkLocked):        # a second writer is stopped again
+        acquire_lock(session.path, "gaugewalk add")
