@@ -6,7 +6,7 @@ from __future__ import annotations
 
 from gaugewalk.model.walkfile.drafts import load_draft
 from gaugewalk.model.walkfile.read import load_walk
-from tests.support.app_helpers import new_app, opened, type_text
+from tests.support.app_helpers import new_app, opened, shown, type_text
 from tests.support.walks import SMALL_WALK, run_table, tables_text, write_walk
 
 
@@ -105,3 +105,23 @@ async def test_quitting_with_changes_that_cannot_be_saved_keeps_them_and_says_wh
     kept = app.session.state.kept
     assert kept is not None and load_walk(kept).run("R2").to == "Slicer"
     assert f"gaugewalk merge {walk} {kept} -o {walk}" in app.exit_message
+
+
+async def test_the_clash_question_shows_walk_text_as_text_never_markup(tmp_path):
+    # a name someone typed on disk, and one typed here, that would be markup and a click action
+    walk = write_walk(tmp_path, SMALL_WALK)
+    app = new_app(walk, tmp_path / "cfg")
+    async with app.run_test(size=(160, 40)) as pilot:
+        await opened(app, pilot)
+        walk.write_text(walk.read_text().replace('"Harbour Lane bakery"',
+                                                 '"[@click=app.quit]theirs[/] [b]x"'))
+        app.session.set_job(app.session.job.job.model_copy(update={"name": "[red]mine"}),
+                            app.session.job.defaults)
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        assert app.screen.__class__.__name__ == "AskScreen"
+        question = " ".join(shown(app, "#ask-question").split())
+        assert "'[@click=app.quit]theirs[/] [b]x'" in question and "'[red]mine'" in question
+        await pilot.press("n")
+        await pilot.pause()
+        assert app.is_running
