@@ -47,6 +47,19 @@ async def test_a_change_on_disk_is_taken_in_when_nothing_here_waits(tmp_path):
         assert "✓ saved" in app.title
 
 
+async def test_coming_back_to_the_terminal_looks_at_the_disk(tmp_path):
+    from textual import events
+
+    walk = write_walk(tmp_path, SMALL_WALK)
+    app = new_app(walk, tmp_path / "cfg")
+    async with app.run_test(size=(100, 30)) as pilot:
+        await opened(app, pilot)
+        _hand_add(walk, "R9", "Walk-in cooler")
+        app.post_message(events.AppFocus())
+        await pilot.pause()
+        assert app.session.job.run("R9") is not None
+
+
 async def test_a_run_stored_after_a_change_on_disk_is_saved_with_it(tmp_path):
     walk = write_walk(tmp_path, SMALL_WALK)
     app = new_app(walk, tmp_path / "cfg")

@@ -184,6 +184,12 @@ class WalkApp(App[int]):
             self.notify(said, severity="warning", timeout=12)
         self._show(session)
 
+    def on_app_focus(self, event: events.AppFocus) -> None:
+        """Back in the terminal: the walk may have been changed on disk meanwhile."""
+        look = getattr(self.screen, "look_at_disk", None)
+        if look is not None:
+            look()
+
     def on_unmount(self) -> None:
         if self.session is not None:
             left = self.session.release_lock()
