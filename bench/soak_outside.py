@@ -1,14 +1,16 @@
 """The kill soak of a walk changed on disk while the app has it open, run by hand (never by the
 test suite):
 
-    python -m bench.soak_outside --trials 40
+    python -m bench.soak_outside --trials 60 [--early]
 
 Each trial runs the app headless in its own process on a fresh walk: it stores a run, then
 someone changes the walk on disk (an editor's save: a new file renamed into place, adding a run
 of their own), then the app types and stores a second run, which merges with that change; the
-app is killed (SIGKILL) at a random moment from the last keystroke on. After every kill: the walk
+app is killed (SIGKILL) at a random moment from the last keystroke on (``--early``: from the
+change on disk on, so also while the run is typed). After every kill: the walk
 is whole, the change made on disk is in it, the first run is in it, and the second run is in the
-walk, in the run card's draft or in the walk kept beside it. Prints one line and exits 1 if
+walk, in the run card's draft or in the walk kept beside it (killed while typing: the draft
+holds what was typed so far). Prints one line and exits 1 if
 anything was lost.
 """
 
@@ -93,7 +95,7 @@ def _edit_on_disk(walk: Path) -> None:
     os.replace(tmp, walk)
 
 
-def trial(folder: Path, rng: random.Random) -> str:
+def trial(folder: Path, rng: random.Random, early: bool = False) -> str:
     """One kill; returns where the second run was found ("walk", "draft", "kept"), or raises
     ``AssertionError`` naming what was lost."""
     walk = folder / "walk.toml"
@@ -106,8 +108,12 @@ def trial(folder: Path, rng: random.Random) -> str:
         assert _wait_for(marker, "stored", proc), "the app did not store its first run"
         _edit_on_disk(walk)
         go.write_text("go")
-        assert _wait_for(marker, "typed", proc), "the app did not type its second run"
-        time.sleep(rng.uniform(0.0, 0.12))
+        if early:   # any moment while the second run is typed or stored
+            time.sleep(rng.uniform(0.0, 0.8))
+        else:
+            assert _wait_for(marker, "typed", proc), "the app did not type its second run"
+            time.sleep(rng.uniform(0.0, 0.12))
+        typed = marker.read_text() in ("typed", "done")
     finally:
         proc.send_signal(signal.SIGKILL)
         proc.wait()
@@ -122,6 +128,10 @@ def trial(folder: Path, rng: random.Random) -> str:
         return "draft"
     if any("Kettle" in {r.to for r in load_walk(k).runs} for k in kept_beside(walk)):
         return "kept"
+    if not typed:   # killed while it was being typed: what was typed so far is in the draft
+        so_far = draft.fields.get("to", "") if draft is not None else ""
+        assert "Kettle".startswith(so_far), f"the draft holds {so_far!r}"
+        return "typing (draft as far as typed)"
     raise AssertionError("the second run is nowhere: not in the walk, the draft or a kept walk")
 
 
@@ -130,6 +140,8 @@ def main(argv: list[str] | None = None) -> int:
                                      formatter_class=argparse.RawDescriptionHelpFormatter)
     parser.add_argument("--trials", type=int, default=40)
     parser.add_argument("--seed", type=int, default=int(time.time()))
+    parser.add_argument("--early", action="store_true",
+                        help="kill at any moment from the change on disk on, while typing too")
     args = parser.parse_args(argv)
     rng = random.Random(args.seed)
     where: dict[str, int] = {}
@@ -137,7 +149,7 @@ def main(argv: list[str] | None = None) -> int:
     for i in range(args.trials):
         with tempfile.TemporaryDirectory(prefix="gaugewalk-soak-") as tmp:
             try:
-                kind = trial(Path(tmp), rng)
+                kind = trial(Path(tmp), rng, args.early)
             except Exception as exc:  # noqa: BLE001  (every failure is counted and shown)
                 lost.append(f"trial {i}: {exc}")
                 continue
