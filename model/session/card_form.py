@@ -11,7 +11,8 @@ Public API:
 - ``FIELDS``, ``FIELD_KEYS``, ``label(key)``; ``choices(session)``: what each field completes from.
 - ``CardForm(session, run_id=None)``: ``start()`` (fills the fields, says where typing starts),
   ``type(key, text)`` (the person typed; returns the fields the form filled in on their behalf),
-  ``check(store_tried=False) -> CardCheck``, ``next_card(run, new_source)`` after a store.
+  ``check(store_tried=False) -> CardCheck``, ``next_card(run, new_source)`` after a store;
+  ``last_run()``, ``like(run)`` (a new card like a run) and ``proposed_to()`` (its name stepped).
 - ``run_to_fields(run)``, ``new_source_from(id, text)``, ``parse_load_text(text)``,
   ``complete(text, choices)``.
 """
@@ -26,6 +27,7 @@ from typing import Callable, Iterable
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError, parse_load
+from gaugewalk.model.session.card_steps import step_name
 from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Load, Run, Source
@@ -760,6 +762,7 @@ class CardForm:
         self.values: dict[str, str] = {k: "" for k in FIELD_KEYS}
         self.typed: set[str] = set()
         self.restored = False  # the card came back from a draft
+        self.last_stored: Run | None = None  # the run this card stored last
 
     # ----- filling in -------------------------------------------------------------------
     def start(self) -> str | None:
@@ -789,12 +792,49 @@ class CardForm:
         fills in (circuit, id...) count as typed only where they differ from what it would fill
         in now; the others follow the run again (a card restored and moved to another source
         takes that source's ids)."""
-        self.values = {k: str(draft.get(k, "")) for k in FIELD_KEYS}
+        self._take_texts(draft)
+        self.restored = True
+
+    def _take_texts(self, texts: dict[str, str]) -> None:
+        """Fill the card with ``texts``: a field the card fills in counts as typed only where
+        it differs from what the card would fill in."""
+        self.values = {k: str(texts.get(k, "")) for k in FIELD_KEYS}
         self.typed = {k for k in FIELD_KEYS if k not in FOLLOWING and self.values[k]}
         following = self._following_values(self.values)
         self.typed |= {k for k in FOLLOWING if self.values[k] != following[k]}
         self._follow()
-        self.restored = True
+
+    # ----- a run like the last one ------------------------------------------------------
+    def last_run(self) -> Run | None:
+        """The run a new card can be made like: the last branch run from the card's source,
+        else the run this card stored last, else the walk's last run."""
+        source_id = self.values["from"].strip()
+        prev = self.session.previous_like(source_id or None)
+        if prev is not None and prev.from_ == source_id:
+            return prev
+        return self.last_stored or prev
+
+    def proposed_to(self) -> str | None:
+        """What To proposes on a new card: the name of the last run from the card's source
+        stepped on ("Pump 4" after "Pump 3"; ``card_steps``), None when there is none."""
+        if self.run_id is not None:
+            return None
+        prev = self.session.previous_like(self.values["from"].strip() or None)
+        if prev is None or prev.from_ != self.values["from"].strip():
+            return None
+        return step_name(prev.to, self.session.known_names())
+
+    def like(self, run: Run) -> str:
+        """Make this new card like ``run``: its fields copied, To stepped on (``proposed_to``),
+        the id the next free one, the notes and a new panel left out. Returns the field
+        typing goes on in: the length, the one thing a run like the last one surely changes."""
+        texts = run_to_fields(run)
+        texts["to"] = step_name(run.to, self.session.known_names()) or run.to
+        texts["panel"] = texts["notes"] = ""
+        texts["id"] = self._following_values(texts)["id"]
+        self._take_texts(texts)
+        self.restored = False
+        return "length"
 
     def fresh(self, source_id: str | None) -> dict[str, str]:
         """A new card's texts: from ``source_id`` (else the last run's source), with what the
@@ -815,6 +855,7 @@ class CardForm:
         self.values = self.fresh(next_from)
         self.typed = set()
         self.restored = False
+        self.last_stored = stored
         return next_from
 
     def next_id(self, like: Run | None, feeder: bool = False) -> str:

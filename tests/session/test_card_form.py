@@ -382,3 +382,33 @@ def test_a_position_or_phase_that_cannot_be_is_named(session, text):
     form.start()
     checked = _typed(form, to="Lamp", length="30", load="5A", place=text).check()
     assert "place" in checked.errors and checked.run is None
+
+
+def test_a_card_like_the_last_run_copies_it_with_to_stepped_and_the_next_id(session):
+    form = CardForm(session)
+    form.start()
+    _typed(form, to="Troffers row 1", length="62+10", load="1150VA", continuous="yes",
+           spread="yes", circuit="LL", raceway="PVC-40", notes="over the racks")
+    stored = form.check().run
+    assert stored is not None
+    session.put_run(stored)
+    form.next_card(stored, None)
+    assert form.proposed_to() == "Troffers row 2"
+    assert form.like(form.last_run()) == "length"  # typing goes on in Length
+    v = form.values
+    assert (v["from"], v["to"], v["length"], v["load"], v["continuous"], v["spread"]) == (
+        "LP1", "Troffers row 2", "62+10", "1150VA", "yes", "yes")
+    assert (v["circuit"], v["raceway"], v["id"], v["notes"]) == ("LL", "PVC-40", "R3", "")
+    form.type("length", "74+10")
+    run = form.check().run
+    assert run is not None and (run.id, run.to, run.length) == ("R3", "Troffers row 2", "74+10")
+
+
+def test_a_card_like_a_run_whose_name_has_nothing_to_step_keeps_the_name(session):
+    form = CardForm(session)
+    form.start()
+    assert form.proposed_to() is None  # "Proofer" has no number or closing letter
+    form.like(form.last_run())  # R1, from LP1: 16A on LN, 12 AWG fixed
+    v = form.values
+    assert (v["to"], v["load"], v["size"], v["circuit"], v["id"]) == (
+        "Proofer", "16A", "12 AWG", "LN", "R2")

@@ -75,3 +75,29 @@ def screen_text(app) -> str:
                 line += segment.text
         lines.append(line)
     return "\n".join(lines)
+
+
+CHARACTERS = {"tab": "\t", "enter": "\r", "backspace": "\x08", "escape": "\x1b",
+              "shift+tab": None, "down": None, "up": None, "ctrl+o": "\x0f", "ctrl+r": "\x12"}
+"""The character a terminal sends with each named key that is not printable itself."""
+
+
+def key_event(key: str):
+    """The ``Key`` event a terminal's key makes (``"a"``, ``" "``, ``"tab"``, ``"ctrl+r"``)."""
+    from textual import events
+
+    if len(key) == 1:
+        return events.Key(KEY_NAMES.get(key, key), key)
+    return events.Key(key, CHARACTERS.get(key, key))
+
+
+async def burst(app, pilot, keys) -> None:
+    """Put every key of ``keys`` in the app's queue before the first is handled (a paste, a
+    fast typist), then wait until they are handled and the walk's work is done."""
+    driver = app._driver
+    assert driver is not None  # run_test gives the app its headless driver
+    for key in keys:
+        driver.send_message(key_event(key))
+    await pilot.pause(0.3)
+    await app.workers.wait_for_complete()
+    await pilot.pause()

@@ -114,7 +114,9 @@ class RunCard(TypedInOrder, Screen):
         self._update_title()
         self.recheck()
         if focus == "to" and not self.form.restored:
-            self._sticky = f"From {self.form.values['from']} (shift+tab to change it). Type where the run goes."
+            like = " ^r: like the last run." if self.form.last_run() is not None else ""
+            self._sticky = (f"From {self.form.values['from']} (shift+tab changes it). "
+                            f"Type where the run goes.{like}")
         self.start_typing(self._input(focus))
 
     def _input(self, key: str) -> Input:
@@ -142,6 +144,13 @@ class RunCard(TypedInOrder, Screen):
     def _show_values(self) -> None:
         for k in FIELD_KEYS:
             self._show(k, self.form.values[k])
+        self._propose_to()
+
+    def _propose_to(self) -> None:
+        """Show in the empty To what Tab takes there: the last run's name stepped on."""
+        proposed = self.form.proposed_to()
+        placeholder = next(f.placeholder for f in FIELDS if f.key == "to")
+        self._input("to").placeholder = f"Tab: {proposed}" if proposed else placeholder
 
     def _update_title(self) -> None:
         if self.run_id is not None:
@@ -167,6 +176,8 @@ class RunCard(TypedInOrder, Screen):
         self._seen[key] = field.value
         for k, value in self.form.type(key, field.value).items():
             self._show(k, value)
+        if key == "from":
+            self._propose_to()
         if self.run_id is None:
             self.session.keep_draft(self.form.draft())
         self._sticky = None
@@ -301,7 +312,10 @@ class RunCard(TypedInOrder, Screen):
         worked out now from the same list the field suggests from (the field's own suggestion
         arrives later, and may not have arrived when Tab is typed right behind)."""
         key = (field.id or "")[2:]
-        suggestion = complete(field.value, self._choices.get(key, ()))
+        if key == "to" and not field.value:
+            suggestion = self.form.proposed_to()
+        else:
+            suggestion = complete(field.value, self._choices.get(key, ()))
         if suggestion and field.cursor_at_end and suggestion != field.value:
             field.value = suggestion
             field.cursor_position = len(suggestion)
@@ -359,11 +373,27 @@ class RunCard(TypedInOrder, Screen):
         self._show_values()
         self._update_title()
         self._sticky = (
-            f"Stored {run.id} ({run.from_} → {run.to}). Next run from {next_from}; "
-            "shift+tab changes the source."
+            f"Stored {run.id} ({run.from_} → {run.to}). Next from {next_from}; "
+            "^r: like it."
         )
         self.recheck()
         self._focus_field("to")
+
+    def action_like_last(self) -> None:
+        """ctrl+r: this new card like the last run, its To stepped on, typing on in Length."""
+        run = self.form.last_run() if self.run_id is None else None
+        if run is None:
+            self._sticky = ("ctrl+r makes a new run like the last one; "
+                            + ("this card edits a run." if self.run_id else "there is none yet."))
+            self._message_for_focus()
+            return
+        focus = self.form.like(run)
+        self._show_values()
+        self.session.keep_draft(self.form.draft())
+        self._sticky = (f"Like {run.id}: to {self.form.values['to']}. Type its length; "
+                        "Enter stores it.")
+        self.recheck()
+        self._focus_field(focus)
 
     def action_close_card(self) -> None:
         if self.run_id is None:

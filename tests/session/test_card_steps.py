@@ -1,0 +1,34 @@
+"""A run card's proposal for a run like the last one: the last run's name stepped on
+(``gaugewalk.model.session.card_steps``). Names of rows walked in order step by one (common
+practice: rows, pumps and units are numbered or lettered in walking order)."""
+
+from __future__ import annotations
+
+import pytest
+
+from gaugewalk.model.session.card_steps import step_name
+
+
+@pytest.mark.parametrize(("name", "stepped"), [
+    ("Pump 3", "Pump 4"),
+    ("High bay row 1", "High bay row 2"),
+    ("Sales floor troffers row 9", "Sales floor troffers row 10"),
+    ("Pump 09", "Pump 10"),                       # the zeros kept: as wide as written
+    ("Pump 007", "Pump 008"),
+    ("RTU-1 rooftop unit", "RTU-2 rooftop unit"),  # the last number, wherever it is
+    ("Line 2 conveyor 7", "Line 2 conveyor 8"),
+    ("Floor boxes A", "Floor boxes B"),            # a closing single letter
+    ("Bay-c", "Bay-d"),
+])
+def test_the_last_number_or_closing_letter_steps_on_by_one(name, stepped):
+    assert step_name(name) == stepped
+
+
+@pytest.mark.parametrize("name", ["Microwave", "Wall receptacles, north", "Boxes Z", ""])
+def test_a_name_with_nothing_to_step_proposes_nothing(name):
+    assert step_name(name) is None
+
+
+def test_a_stepped_name_already_in_the_walk_is_stepped_again_in_any_case():
+    assert step_name("Pump 3", ["pump 4", "Pump 5"]) == "Pump 6"
+    assert step_name("Boxes A", ["Boxes B"]) == "Boxes C"
