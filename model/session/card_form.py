@@ -826,15 +826,20 @@ class CardForm:
 
     def like(self, run: Run) -> str:
         """Make this new card like ``run``: its fields copied, To stepped on (``proposed_to``),
-        the id the next free one, the notes and a new panel left out. Returns the field
-        typing goes on in: the length, the one thing a run like the last one surely changes."""
+        the id the next free one, the notes and a new panel left out; what was typed on the
+        card already is kept (a name typed first). Returns the field typing goes on in: the
+        length, the one thing a run like the last one surely changes (the load when the length
+        was typed already)."""
         texts = run_to_fields(run)
         texts["to"] = step_name(run.to, self.session.known_names()) or run.to
         texts["panel"] = texts["notes"] = ""
-        texts["id"] = self._following_values(texts)["id"]
+        kept = {k: self.values[k] for k in self.typed if self.values[k].strip()}
+        texts.update(kept)
+        if "id" not in kept:
+            texts["id"] = self._following_values(texts)["id"]
         self._take_texts(texts)
         self.restored = False
-        return "length"
+        return next((k for k in ("length", "load") if k not in kept), "length")
 
     def fresh(self, source_id: str | None) -> dict[str, str]:
         """A new card's texts: from ``source_id`` (else the last run's source), with what the

@@ -12,6 +12,8 @@ from __future__ import annotations
 import re
 from collections.abc import Collection
 
+_LAST_RANGE = re.compile(r"^(.*?)(\d+)([-–])(\d+)(\D*)$")
+"""A name ending in a range of numbers: ``Shop lights, bays 1-2``."""
 _LAST_NUMBER = re.compile(r"^(.*?)(\d+)(\D*)$")
 """A name's text before its last number, the number, and the text after it."""
 _LAST_LETTER = re.compile(r"^(.*[\s\-_#])([A-Za-y])$")
@@ -20,11 +22,20 @@ _LAST_LETTER = re.compile(r"^(.*[\s\-_#])([A-Za-y])$")
 
 def step_name(name: str, taken: Collection[str] = ()) -> str | None:
     """``name`` with its last number stepped on by one, keeping its zeros (``Pump 09`` ->
-    ``Pump 10``, ``RTU-1 roof`` -> ``RTU-2 roof``), else its closing single letter (``Boxes A``
-    -> ``Boxes B``); stepped again past any name in ``taken`` (any case). None when the name has
-    neither to step."""
+    ``Pump 10``, ``RTU-1 roof`` -> ``RTU-2 roof``; a closing range to the next as wide: ``bays
+    1-2`` -> ``bays 3-4``), else its closing single letter (``Boxes A`` -> ``Boxes B``); stepped
+    again past any name in ``taken`` (any case). None when the name has neither to step."""
     used = {t.casefold() for t in taken}
     text = name.strip()
+    span = _LAST_RANGE.match(text)
+    if span and int(span.group(4)) > int(span.group(2)):
+        head, first, dash, last, tail = span.groups()
+        low, high = int(first), int(last)
+        while True:
+            low, high = high + 1, 2 * high + 1 - low
+            stepped = f"{head}{low:0{len(first)}d}{dash}{high:0{len(last)}d}{tail}"
+            if stepped.casefold() not in used:
+                return stepped
     number = _LAST_NUMBER.match(text)
     if number:
         head, digits, tail = number.groups()

@@ -412,3 +412,20 @@ def test_a_card_like_a_run_whose_name_has_nothing_to_step_keeps_the_name(session
     v = form.values
     assert (v["to"], v["load"], v["size"], v["circuit"], v["id"]) == (
         "Proofer", "16A", "12 AWG", "LN", "R2")
+
+
+def test_a_card_made_like_the_last_run_keeps_what_was_typed_on_it_first(session):
+    form = CardForm(session)
+    form.start()
+    form.type("to", "Walk-in cooler")
+    assert form.like(form.last_run()) == "length"
+    v = form.values
+    assert (v["to"], v["length"], v["load"], v["size"], v["id"]) == (
+        "Walk-in cooler", "100", "16A", "12 AWG", "R2")
+    again = CardForm(session)
+    again.start()
+    again.type("to", "Walk-in cooler")
+    again.type("length", "45")
+    assert again.like(again.last_run()) == "load"  # the length typed is kept too
+    assert (again.values["to"], again.values["length"], again.values["load"]) == (
+        "Walk-in cooler", "45", "16A")

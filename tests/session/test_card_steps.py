@@ -17,6 +17,9 @@ from gaugewalk.model.session.card_steps import step_name
     ("Pump 007", "Pump 008"),
     ("RTU-1 rooftop unit", "RTU-2 rooftop unit"),  # the last number, wherever it is
     ("Line 2 conveyor 7", "Line 2 conveyor 8"),
+    ("Shop lights, bays 1-2", "Shop lights, bays 3-4"),  # a range: the next as wide
+    ("Racks 10-12", "Racks 13-15"),
+    ("Circuits 3-1", "Circuits 3-2"),              # not a range: the last number
     ("Floor boxes A", "Floor boxes B"),            # a closing single letter
     ("Bay-c", "Bay-d"),
 ])

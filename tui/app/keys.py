@@ -74,7 +74,7 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("card.prev", "shift+tab", "prev_field", "Prev field", "Previous field.", "card", footer=False, key_display="S-Tab"),
     KeyAction("card.down", "down", "next_field(False)", "Down", "Next field (↓), without taking the completion.", "card", footer=False, key_display="↓"),
     KeyAction("card.up", "up", "prev_field", "Up", "Previous field (↑).", "card", footer=False, key_display="↑"),
-    KeyAction("card.like", "ctrl+r", "like_last", "Like last", "A new run like the last one: its fields copied, To stepped on (row 2 after row 1), the id the next free one; typing goes on in Length.", "card", key_display="^r"),
+    KeyAction("card.like", "ctrl+r", "like_last", "Like last", "A new run like the last one: its fields copied (what you typed kept), To stepped on (row 2 after row 1), the id the next free one; typing goes on in Length.", "card", key_display="^r"),
     KeyAction("card.more", "ctrl+o", "toggle_more", "More fields", "Jump to the other fields (new panel, circuit, sets, size, material...) and back.", "card", key_display="^o"),
     # trial change
     KeyAction("trial.keep", "ctrl+s", "keep", "Keep", "Keep the trial change (it can be undone).", "trial", key_display="^s"),
