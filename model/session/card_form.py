@@ -27,6 +27,8 @@ from typing import Callable, Iterable
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError, parse_load
+from gaugewalk.model.session.card_source import EXAMPLE as SOURCE_EXAMPLE
+from gaugewalk.model.session.card_source import new_source_from
 from gaugewalk.model.session.card_steps import step_name
 from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.engine import vocabulary as vocab
@@ -52,7 +54,7 @@ FIELDS: tuple[CardField, ...] = (
     CardField("to", "To", "load or panel", True),
     CardField("length", "Length", "e.g. 85+12+2*6", True),
     CardField("load", "Load", "16A, 5kW 208V, 10hp", True),
-    CardField("panel", "New panel", "system; xfmr …"),
+    CardField("panel", "New panel", SOURCE_EXAMPLE),
     CardField("circuit", "Circuit", "LN LL LLN MW 3P"),
     CardField("kind", "Kind", "general, motor, hvac…"),
     CardField("plate", "Nameplate", "as the kind needs"),
@@ -246,42 +248,6 @@ def run_to_fields(run: Run) -> dict[str, str]:
         "id": run.id,
         "notes": shown_plain(run.notes),  # control characters made visible, never sent raw
     }
-
-
-SOURCE_WORDS = {
-    "panel": "panel", "transformer": "transformer", "xfmr": "transformer", "xf": "transformer",
-    "switchboard": "switchboard", "swbd": "switchboard",
-}
-
-
-def new_source_from(source_id: str, text: str) -> Source:
-    """A source declared from the run card: ``208Y/120``, ``xfmr 208Y/120 75kVA``,
-    ``switchboard 480Y/277``. A transformer's system is its secondary. Raises ValueError with a
-    sentence."""
-    from gaugewalk.model.engine.circuits import CircuitError, parse_system
-
-    words = text.split()
-    kind = "panel"
-    if words and words[0].lower() in SOURCE_WORDS:
-        kind = SOURCE_WORDS[words.pop(0).lower()]
-    kva = None
-    rest = []
-    for w in words:
-        low = w.lower()
-        if low.endswith("kva") and low[:-3].replace(".", "", 1).isdigit():
-            kva = float(low[:-3])
-        else:
-            rest.append(w)
-    if not rest:
-        raise ValueError("give the new source's system, e.g. 208Y/120 (xfmr 208Y/120 for a transformer)")
-    try:
-        system = parse_system(" ".join(rest))
-    except CircuitError as exc:
-        raise ValueError(str(exc)) from None
-    try:
-        return Source(id=source_id, kind=kind, system=system, kva=kva)
-    except Exception as exc:
-        raise ValueError(_first_error(exc)) from None
 
 
 @dataclass(frozen=True)
@@ -542,7 +508,9 @@ def _check_panel(r: _Reading) -> None:
         r.errors["panel"] = str(exc)
         return
     r.got["new_source"] = new
-    r.hints["panel"] = f"{new.kind} {new.system}"
+    rating = f" {new.rating_a}A" if new.rating_a is not None else ""
+    kva = f" {new.kva:g}kVA" if new.kva is not None else ""
+    r.hints["panel"] = f"{new.kind} {new.system.split()[0]}{rating}{kva}"
 
 
 def _check_circuit(r: _Reading) -> None:

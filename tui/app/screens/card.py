@@ -21,6 +21,7 @@ from gaugewalk.model.session.card_form import (
     FIELD_KEYS, FIELDS, LOAD_KEYS, MAIN_KEYS, CardCheck, CardForm, choices, complete, label,
     placeholder, shown,
 )
+from gaugewalk.model.session.card_source import GRAMMAR as SOURCE_GRAMMAR
 from gaugewalk.model.session.session import WalkSession
 from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
@@ -283,6 +284,8 @@ class RunCard(TypedInOrder, Screen):
         hard = [k for k in self.errors if k not in self.soft]
         if key in self.errors and key not in self.soft:
             self._say(f"{label(key)}: {self.errors[key]}", bad=True)
+        elif key == "panel" and not self.form.values["panel"].strip():
+            self._say(f"{label(key)}: {SOURCE_GRAMMAR}")
         elif hard:
             k = hard[0]
             self._say(f"{len(hard)} to fix — {label(k)}: {self.errors[k]}", bad=True)

@@ -1,0 +1,100 @@
+"""A source declared in one field of the run card: ``panel 208Y/120 225A``,
+``480Y/277; switchboard 400A``, ``xfmr 208Y/120 75kVA``.
+
+The field takes, in any order, separated by spaces, commas or semicolons: the kind (``panel``,
+the default; ``switchboard`` or ``swbd``; ``transformer``, ``xfmr`` or ``xf``), the system (as
+``gaugewalk.model.engine.circuits.parse_system`` reads it; for a transformer its secondary), the
+bus rating in amperes (``225A``, NEC 408.30) and a transformer's rating (``75kVA``). Anything
+else is refused with a sentence that names it and repeats the grammar (``GRAMMAR``).
+
+Public API: ``GRAMMAR``, ``ORDER``, ``EXAMPLE``, ``read_source_text(text) -> dict``,
+``new_source_from(source_id, text) -> Source``.
+"""
+
+from __future__ import annotations
+
+import re
+
+from gaugewalk.model.walk.job import Source
+
+KIND_WORDS = {
+    "panel": "panel", "transformer": "transformer", "xfmr": "transformer", "xf": "transformer",
+    "switchboard": "switchboard", "swbd": "switchboard",
+}
+"""The words for a kind of source the field takes, and the kind each names."""
+ORDER = "kind system amps kVA, any order"
+GRAMMAR = f"{ORDER}: panel 208Y/120 225A, xfmr 208Y/120 75kVA"
+"""The field's grammar in one line, for its hint (``ORDER`` in its refusals)."""
+EXAMPLE = "208Y/120 225A"
+
+_AMPS = re.compile(r"^(\d+)\s*a(?:mps?)?$")
+_KVA = re.compile(r"^(\d+(?:\.\d+)?)\s*kva$")
+_SEPARATORS = re.compile(r"[\s,;]+")
+# "225 A", "75 kVA": the number and its unit belong together
+_NUMBER_UNIT = re.compile(r"(?<=\d)\s+(?=(?:a|amps?|kva)\b)", re.IGNORECASE)
+
+
+def read_source_text(text: str) -> dict:
+    """The field read into a source's fields (``kind``, ``system``, and ``rating_a`` or
+    ``kva`` where given). Raises ValueError with a sentence naming what is wrong."""
+    from gaugewalk.model.engine.circuits import CircuitError, parse_system
+
+    words = [w for w in _SEPARATORS.split(_NUMBER_UNIT.sub("", text.strip())) if w]
+    found: dict = {}
+    system_words: list[str] = []
+
+    def once(key: str, value, word: str, what: str) -> None:
+        if key in found:
+            raise ValueError(f"two {what}s, {found[key][1]} and {word} ({ORDER})")
+        found[key] = (value, word)
+
+    for word in words:
+        low = word.lower()
+        if low in KIND_WORDS:
+            once("kind", KIND_WORDS[low], word, "kind")
+        elif m := _AMPS.match(low):
+            once("rating_a", int(m.group(1)), word, "rating")
+        elif m := _KVA.match(low):
+            once("kva", float(m.group(1)), word, "kVA rating")
+        else:
+            system_words.append(word)
+    if not system_words:
+        raise ValueError(f"give the system ({ORDER}), e.g. {EXAMPLE}")
+    said = " ".join(system_words)
+    try:
+        system = parse_system(said)
+    except CircuitError as exc:
+        if "not a supply system" not in str(exc):
+            raise ValueError(str(exc)) from None  # incomplete or ambiguous: it says which
+        raise ValueError(f"'{said}' is not a system or a word of {ORDER} "
+                         "(systems: 208Y/120, 480Y/277, 120/240...)") from None
+    out = {key: value for key, (value, _) in found.items()}
+    out.setdefault("kind", "panel")
+    out["system"] = system
+    if "kva" in out and out["kind"] != "transformer":
+        raise ValueError(f"a kVA rating is a transformer's; write xfmr {system} "
+                         f"{found['kva'][1]}")
+    return out
+
+
+def new_source_from(source_id: str, text: str) -> Source:
+    """The source ``source_id`` the field declares. Raises ValueError with a sentence."""
+    fields = read_source_text(text)
+    try:
+        return Source(id=source_id, **fields)
+    except Exception as exc:  # pydantic: a rating out of range, an id it refuses
+        raise ValueError(_first_error(exc)) from None
+
+
+def _first_error(exc: Exception) -> str:
+    errors = getattr(exc, "errors", None)
+    if callable(errors):
+        try:
+            first = errors()[0]
+            where = ".".join(str(x) for x in first.get("loc", ()))
+            words = {"rating_a": "the rating [A]", "kva": "the kVA rating", "id": "the id"}
+            said = str(first.get("msg", exc)).removeprefix("Value error, ")
+            return f"{words.get(where, where)}: {said}" if where else said
+        except Exception:
+            pass
+    return str(exc)
