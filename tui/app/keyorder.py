@@ -73,12 +73,18 @@ class TypedInOrder:
     async def take_key(self, event: events.Key) -> bool:
         """Apply ``event`` to the field focused now, as Textual would but at once: priority
         bindings first, then a character the field takes, then the bindings from the field up to
-        the screen and the app (a binding whose action does not apply passes the key on). False
-        when no field has focus: the key then goes Textual's usual way."""
+        the screen and the app (a binding whose action does not apply passes the key on). With a
+        widget other than a field focused (a list), its bindings and the screen's act at once.
+        False when nothing takes the key: it then goes Textual's usual way."""
         field = self.focused  # type: ignore[attr-defined]
-        if not isinstance(field, Input):
-            return False
         app = self.app  # type: ignore[attr-defined]
+        if not isinstance(field, Input):
+            # a list or no focus: the key's binding acts at once (a list's Down, a screen's n),
+            # so the keys behind it find the focus where it moved; a key bound to nothing goes
+            # Textual's way
+            if await app._check_bindings(event.key, priority=True):
+                return True
+            return bool(await app._check_bindings(event.key))
         before = field.value
         if await app._check_bindings(event.key, priority=True):
             pass

@@ -84,8 +84,10 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("job.store", "ctrl+s,enter", "store", "Store", "Store the settings (Enter does the same); every run recomputes.", "job", priority=True, key_display="^s"),
     KeyAction("job.leave", "escape", "leave", "Leave unchanged", "Leave the settings as they were.", "job", key_display="Esc"),
     # first screen and new walk
+    KeyAction("start.go", "enter", "go", "Open", "Open the walk picked, or create the file named.", "start", priority=True, key_display="Enter"),
     KeyAction("start.new", "n", "new", "New walk", "Start a new walk (asks for its file).", "start"),
     KeyAction("start.quit", "escape", "leave", "Quit", "Quit (or leave the file name box).", "start", key_display="Esc"),
+    KeyAction("newwalk.create", "enter", "create", "Create", "Create the walk with these answers.", "newwalk", priority=True, key_display="Enter"),
     KeyAction("newwalk.cancel", "escape", "leave", "Don't create", "Do not create the walk.", "newwalk", key_display="Esc"),
     # questions and the information screens
     KeyAction("ask.yes", "y", "answer(True)", "Yes", "Answer yes.", "ask"),

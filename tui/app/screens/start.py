@@ -1,4 +1,6 @@
-"""The first screen when gaugewalk is started without a file: recent walks, or a new one."""
+"""The first screen when gaugewalk is started without a file: recent walks, or a new one; and
+the questions a new walk starts with. Both take keys in order, at once (``keyorder``): a burst
+that picks "new walk", names the file and answers the questions lands as typed."""
 
 from __future__ import annotations
 
@@ -12,12 +14,13 @@ from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, OptionList, Static
 from textual.widgets.option_list import Option
 
+from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
 
 NEW = "\x00new"
 
 
-class StartScreen(Screen[tuple[str, str] | None]):
+class StartScreen(TypedInOrder, Screen[tuple[str, str] | None]):
     """Pick a recent walk or start a new one. Dismisses with ("open", path), ("new", path) or
     None (quit)."""
 
@@ -38,7 +41,8 @@ class StartScreen(Screen[tuple[str, str] | None]):
                 options.append(Option(f"{escape(path.name)}  [dim]{escape(str(path.parent))}[/dim]{mark}", id=p))
             yield OptionList(*options, id="start-list")
             yield Static("", id="start-new-label")
-            yield Input(placeholder="file for the new walk, e.g. walks/shop-3.toml", id="start-path", compact=True)
+            yield Input(placeholder="file for the new walk, e.g. walks/shop-3.toml", id="start-path",
+                        compact=True, select_on_focus=False)
             yield Static("", id="start-msg")
         yield Footer()
 
@@ -47,11 +51,24 @@ class StartScreen(Screen[tuple[str, str] | None]):
         choices = self.query_one("#start-list", OptionList)
         if self.recent:  # Enter reopens the walk used last; n still starts a new one
             choices.highlighted = 1
-        choices.focus()
+        self.set_focus(choices)
 
     @on(OptionList.OptionSelected)
     def _chosen(self, event: OptionList.OptionSelected) -> None:
-        oid = event.option.id
+        """A click on a walk (Enter is ``action_go``, at once)."""
+        self._open(event.option.id)
+
+    def action_go(self) -> None:
+        """Enter: create the file named in the box, else open what the list has picked."""
+        inp = self.query_one("#start-path", Input)
+        if self.focused is inp:
+            self._new_path(inp.value)
+            return
+        choices = self.query_one("#start-list", OptionList)
+        if choices.highlighted is not None:
+            self._open(choices.get_option_at_index(choices.highlighted).id)
+
+    def _open(self, oid: str | None) -> None:
         if oid == NEW:
             self.action_new()
             return
@@ -64,11 +81,10 @@ class StartScreen(Screen[tuple[str, str] | None]):
         self.query_one("#start-new-label", Static).update("New walk file (Enter creates it, Esc goes back):")
         inp = self.query_one("#start-path", Input)
         inp.display = True
-        inp.focus()
+        self.start_typing(inp)
 
-    @on(Input.Submitted, "#start-path")
-    def _new_path(self, event: Input.Submitted) -> None:
-        text = event.value.strip()
+    def _new_path(self, value: str) -> None:
+        text = value.strip()
         msg = self.query_one("#start-msg", Static)
         if not text:
             msg.update("✗ type a file name for the new walk")
@@ -89,12 +105,12 @@ class StartScreen(Screen[tuple[str, str] | None]):
         if inp.display:
             inp.display = False
             self.query_one("#start-new-label", Static).update("")
-            self.query_one("#start-list").focus()
+            self.set_focus(self.query_one("#start-list"))
             return
         self.dismiss(None)
 
 
-class NewWalkScreen(Screen[dict | None]):
+class NewWalkScreen(TypedInOrder, Screen[dict | None]):
     """Start a walk at ``path``: its name and the service it starts from. Dismisses with the
     answers, or None when the person would rather not create it."""
 
@@ -116,20 +132,24 @@ class NewWalkScreen(Screen[dict | None]):
             )
             yield Static(f"[b]{head}[/b]", id="newwalk-head")
             yield Static("Job name")
-            yield Input(Path(self.path).stem, id="nw-name", compact=True)
+            yield Input(Path(self.path).stem, id="nw-name", compact=True, select_on_focus=False)
             yield Static("Service id (runs start from it)")
-            yield Input("SVC", id="nw-service", compact=True)
+            yield Input("SVC", id="nw-service", compact=True, select_on_focus=False)
             yield Static("Service system: " + escape(", ".join(SYSTEMS)))
-            yield Input("208Y/120V 3ph 4w", id="nw-system", compact=True)
+            yield Input("208Y/120V 3ph 4w", id="nw-system", compact=True, select_on_focus=False)
             yield Static("Enter creates the walk · Esc: don't create", id="newwalk-foot")
             yield Static("", id="start-msg")
         yield Footer()
 
     def on_mount(self) -> None:
-        self.query_one("#nw-name").focus()
+        self.start_typing(self.query_one("#nw-name", Input))
 
-    @on(Input.Submitted)
-    def _go(self) -> None:
+    def field_entered(self, field: Input) -> None:
+        """Each answer is a proposal: moving into it selects it, so typing replaces it."""
+        field.select_all()
+
+    def action_create(self) -> None:
+        """Enter: create the walk with these answers, or say which one is wrong."""
         from gaugewalk.model.walk.job import Source
         from gaugewalk.model.engine.circuits import CircuitError, parse_system
 
@@ -138,7 +158,7 @@ class NewWalkScreen(Screen[dict | None]):
             system = parse_system(self.query_one("#nw-system", Input).value)
         except CircuitError as exc:
             msg.update("✗ service system: " + escape(str(exc)))
-            self.query_one("#nw-system").focus()
+            self.move_to(self.query_one("#nw-system", Input))
             return
         service = self.query_one("#nw-service", Input).value.strip()
         try:
@@ -147,7 +167,7 @@ class NewWalkScreen(Screen[dict | None]):
             errs = getattr(exc, "errors", None)
             text = errs()[0]["msg"] if callable(errs) else str(exc)
             msg.update("✗ service id: " + escape(str(text).removeprefix("Value error, ")))
-            self.query_one("#nw-service").focus()
+            self.move_to(self.query_one("#nw-service", Input))
             return
         self.dismiss({
             "name": self.query_one("#nw-name", Input).value.strip(),
