@@ -393,8 +393,11 @@ class RunCard(TypedInOrder, Screen):
         focus = self.form.like(run)
         self._show_values()
         self.session.keep_draft(self.form.draft())
-        self._sticky = (f"Like {run.id}: to {self.form.values['to']}. Type its length; "
-                        "Enter stores it.")
+        to = self.form.values["to"]
+        self._sticky = (f"Like {run.id}: to {to}. Type its length; Enter stores it."
+                        if to != run.to else
+                        f"Like {run.id}, to the same name (shift+tab to change it). Type its "
+                        "length; Enter stores it.")
         self.recheck()
         self._focus_field(focus)
 
