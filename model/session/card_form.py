@@ -29,7 +29,7 @@ from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError, parse_load
 from gaugewalk.model.session.card_source import EXAMPLE as SOURCE_EXAMPLE
 from gaugewalk.model.session.card_source import new_source_from
-from gaugewalk.model.session.card_steps import step_name
+from gaugewalk.model.session.card_steps import next_position, step_name
 from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Load, Run, Source
@@ -782,6 +782,34 @@ class CardForm:
             return prev
         return self.last_stored or prev
 
+    def _next_place(self, run: Run, texts: dict[str, str]) -> str:
+        """The breaker position a run like ``run`` (typed as ``texts``) takes next in its source:
+        below ``run``'s on its side, where its poles fit (``card_steps.next_position``); blank
+        (placed by the tool) when none fits or the circuit is not known."""
+        from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
+        from gaugewalk.model.walk.checks import default_connection
+        from gaugewalk.model.walk.phases import position_span
+
+        job = self.session.job
+        source = job.source(texts["from"].strip())
+        if source is None or run.position is None:
+            return ""
+
+        def poles(connection: str | None, to: str) -> int:
+            dest = job.source(to)
+            conn = connection or default_connection(
+                source.system, dest is not None and dest.kind == "transformer")
+            try:
+                return resolve_circuit(source.system, conn).hots
+            except CircuitError:
+                return 1
+
+        taken = {q for r in job.runs if r.from_ == source.id and r.position is not None
+                 for q in position_span(r.position, poles(r.connection, r.to))}
+        nxt = next_position(taken, run.position, poles(texts["circuit"].strip().upper() or None,
+                                                       texts["to"]), source.spaces)
+        return str(nxt) if nxt is not None else ""
+
     def proposed_to(self) -> str | None:
         """What To proposes on a new card: the name of the last run from the card's source
         stepped on ("Pump 4" after "Pump 3"; ``card_steps``), None when there is none."""
@@ -803,6 +831,8 @@ class CardForm:
         texts["panel"] = texts["notes"] = ""
         kept = {k: self.values[k] for k in self.typed if self.values[k].strip()}
         texts.update(kept)
+        if run.position is not None and "place" not in kept:
+            texts["place"] = self._next_place(run, texts)
         if "id" not in kept:
             texts["id"] = self._following_values(texts)["id"]
         self._take_texts(texts)

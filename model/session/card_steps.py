@@ -4,13 +4,20 @@ Runs walked one after another are often the next of a row: "Pump 3" after "Pump 
 row 2" after "High bay row 1", "Floor boxes B" after "Floor boxes A" (common practice). A card
 proposes the name the last run's name steps to; the person takes it or types another.
 
-Public API: ``step_name(name, taken=())``.
+A run like the last one also lands in the next breaker position: on the same side, below the
+last run's (a walk's circuits are numbered down one side as it goes, common practice), the first
+where its poles fit among the positions taken.
+
+Public API: ``step_name(name, taken=())``, ``next_position(taken, after, poles, spaces)``.
 """
 
 from __future__ import annotations
 
 import re
 from collections.abc import Collection
+
+from gaugewalk.model.walk.phases import position_span
+from gaugewalk.model.walk.vocabulary import MAX_POSITION
 
 _LAST_RANGE = re.compile(r"^(.*?)(\d+)([-–])(\d+)(\D*)$")
 """A name ending in a range of numbers: ``Shop lights, bays 1-2``."""
@@ -53,3 +60,18 @@ def step_name(name: str, taken: Collection[str] = ()) -> str | None:
             if stepped.casefold() not in used:
                 return stepped
     return None
+
+
+def next_position(taken: Collection[int], after: int, poles: int,
+                  spaces: int | None = None) -> int | None:
+    """The first position below ``after`` on its side (``after`` + 2, + 4 ...) where a
+    ``poles``-pole circuit fits (it takes p, p+2 ...; ``phases.position_span``) among the
+    positions ``taken`` and within ``spaces``; else the first that fits from position 1; None
+    when none fits."""
+    limit = min(spaces or MAX_POSITION, MAX_POSITION)
+
+    def fits(p: int) -> bool:
+        return all(q <= limit and q not in taken for q in position_span(p, poles))
+
+    below = range(after + 2, limit + 1, 2)
+    return next((p for p in below if fits(p)), next((p for p in range(1, limit + 1) if fits(p)), None))

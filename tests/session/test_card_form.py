@@ -429,3 +429,26 @@ def test_a_card_made_like_the_last_run_keeps_what_was_typed_on_it_first(session)
     assert again.like(again.last_run()) == "load"  # the length typed is kept too
     assert (again.values["to"], again.values["length"], again.values["load"]) == (
         "Walk-in cooler", "45", "16A")
+
+
+def test_a_card_like_a_run_with_a_position_takes_the_next_position_its_poles_fit(tmp_path):
+    from tests.support.walks import panel_walk, run_table
+
+    text = panel_walk("Positions", run_table("R1", "LP1", "Row 1", "40", load=(8, "A"),
+                                             connection="LN", position=1),
+                      run_table("R2", "LP1", "Dryer", "30", load=(20, "A"), connection="LL",
+                                position=3))
+    session = WalkSession.open(write_walk(tmp_path, text))
+    form = CardForm(session)
+    form.start()
+    form.like(session.job.run("R1"))  # one pole below 1: 3 and 5 are R2's two poles
+    assert (form.values["to"], form.values["place"]) == ("Row 2", "7")
+    again = CardForm(session)
+    again.start()
+    again.like(session.job.run("R2"))  # two poles below 3: 5 is taken, 7 and 9 are free
+    assert again.values["place"] == "7"
+    session.put_run(again.check().run.model_copy(update={"length": "35"}))
+    third = CardForm(session)
+    third.start()
+    third.like(session.job.run("R2"))  # 7 and 9 taken now: 11 and 13
+    assert third.values["place"] == "11"

@@ -35,3 +35,19 @@ def test_a_name_with_nothing_to_step_proposes_nothing(name):
 def test_a_stepped_name_already_in_the_walk_is_stepped_again_in_any_case():
     assert step_name("Pump 3", ["pump 4", "Pump 5"]) == "Pump 6"
     assert step_name("Boxes A", ["Boxes B"]) == "Boxes C"
+
+
+# A k-pole circuit at position p takes p, p+2 ... (one side of the panel, common practice).
+@pytest.mark.parametrize(("taken", "after", "poles", "spaces", "expected"), [
+    ({1}, 1, 1, None, 3),                 # the next below on the same side
+    ({1, 3, 5}, 1, 1, None, 7),           # past the positions taken
+    ({1, 3, 7}, 1, 2, None, 9),           # two poles need 9 and 11 (5 and 7: 7 is taken)
+    ({2}, 2, 3, None, 4),                 # the even side stays even
+    ({1, 3}, 3, 1, 4, 2),                 # no room below within 4 spaces: the first free
+    ({1, 2, 3, 4}, 1, 1, 4, None),        # a full panel: none
+])
+def test_the_next_position_is_below_the_last_on_its_side_where_the_poles_fit(
+        taken, after, poles, spaces, expected):
+    from gaugewalk.model.session.card_steps import next_position
+
+    assert next_position(taken, after, poles, spaces) == expected
