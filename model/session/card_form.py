@@ -509,8 +509,9 @@ def _check_panel(r: _Reading) -> None:
         return
     r.got["new_source"] = new
     rating = f" {new.rating_a}A" if new.rating_a is not None else ""
+    main = f" main {new.main_a}A" if new.main_a is not None else ""
     kva = f" {new.kva:g}kVA" if new.kva is not None else ""
-    r.hints["panel"] = f"{new.kind} {new.system.split()[0]}{rating}{kva}"
+    r.hints["panel"] = f"{new.kind} {new.system.split()[0]}{rating}{main}{kva}"
 
 
 def _check_circuit(r: _Reading) -> None:

@@ -1,10 +1,11 @@
-"""A source declared in one field of the run card: ``panel 208Y/120 225A``,
+"""A source declared in one field of the run card: ``panel 208Y/120 225A main 200A``,
 ``480Y/277; switchboard 400A``, ``xfmr 208Y/120 75kVA``.
 
 The field takes, in any order, separated by spaces, commas or semicolons: the kind (``panel``,
 the default; ``switchboard`` or ``swbd``; ``transformer``, ``xfmr`` or ``xf``), the system (as
 ``gaugewalk.model.engine.circuits.parse_system`` reads it; for a transformer its secondary), the
-bus rating in amperes (``225A``, NEC 408.30) and a transformer's rating (``75kVA``). Anything
+bus rating in amperes (``225A``, NEC 408.30), the main device's (``main 200A``; ``mlo``: main
+lugs only, NEC 408.36) and a transformer's rating (``75kVA``). Anything
 else is refused with a sentence that names it and repeats the grammar (``GRAMMAR``).
 
 Public API: ``GRAMMAR``, ``ORDER``, ``EXAMPLE``, ``read_source_text(text) -> dict``,
@@ -22,8 +23,8 @@ KIND_WORDS = {
     "switchboard": "switchboard", "swbd": "switchboard",
 }
 """The words for a kind of source the field takes, and the kind each names."""
-ORDER = "kind system amps kVA, any order"
-GRAMMAR = f"{ORDER}: panel 208Y/120 225A, xfmr 208Y/120 75kVA"
+ORDER = "kind system amps main kVA, any order"
+GRAMMAR = f"{ORDER}: panel 208Y/120 225A main 200A, xfmr 208Y/120 75kVA"
 """The field's grammar in one line, for its hint (``ORDER`` in its refusals)."""
 EXAMPLE = "208Y/120 225A"
 
@@ -48,9 +49,18 @@ def read_source_text(text: str) -> dict:
             raise ValueError(f"two {what}s, {found[key][1]} and {word} ({ORDER})")
         found[key] = (value, word)
 
-    for word in words:
+    words.reverse()
+    while words:
+        word = words.pop()
         low = word.lower()
-        if low in KIND_WORDS:
+        if low == "main":
+            amps = _AMPS.match(words[-1].lower()) if words else None
+            if amps is None:
+                raise ValueError(f"give the main's rating after 'main', e.g. main 200A ({ORDER})")
+            once("main_a", int(amps.group(1)), f"main {words.pop()}", "main")
+        elif low == "mlo":
+            once("main_a", None, word, "main")
+        elif low in KIND_WORDS:
             once("kind", KIND_WORDS[low], word, "kind")
         elif m := _AMPS.match(low):
             once("rating_a", int(m.group(1)), word, "rating")
@@ -68,7 +78,7 @@ def read_source_text(text: str) -> dict:
             raise ValueError(str(exc)) from None  # incomplete or ambiguous: it says which
         raise ValueError(f"'{said}' is not a system or a word of {ORDER} "
                          "(systems: 208Y/120, 480Y/277, 120/240...)") from None
-    out = {key: value for key, (value, _) in found.items()}
+    out = {key: value for key, (value, _) in found.items() if value is not None}
     out.setdefault("kind", "panel")
     out["system"] = system
     if "kva" in out and out["kind"] != "transformer":
@@ -92,7 +102,8 @@ def _first_error(exc: Exception) -> str:
         try:
             first = errors()[0]
             where = ".".join(str(x) for x in first.get("loc", ()))
-            words = {"rating_a": "the rating [A]", "kva": "the kVA rating", "id": "the id"}
+            words = {"rating_a": "the rating [A]", "main_a": "the main [A]",
+                     "kva": "the kVA rating", "id": "the id"}
             said = str(first.get("msg", exc)).removeprefix("Value error, ")
             return f"{words.get(where, where)}: {said}" if where else said
         except Exception:

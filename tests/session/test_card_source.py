@@ -20,6 +20,11 @@ from gaugewalk.model.session.card_source import ORDER, new_source_from, read_sou
     ("xfmr 208Y/120 75kVA", {"kind": "transformer", "system": "208Y/120V 3ph 4w", "kva": 75.0}),
     ("75 kVA 208Y/120 XF", {"kind": "transformer", "system": "208Y/120V 3ph 4w", "kva": 75.0}),
     ("480V 3ph 3w, swbd", {"kind": "switchboard", "system": "480V 3ph 3w"}),
+    ("panel 208Y/120 225A main 200A",
+     {"kind": "panel", "system": "208Y/120V 3ph 4w", "rating_a": 225, "main_a": 200}),
+    ("main 200 A; 208Y/120 225A", {"kind": "panel", "system": "208Y/120V 3ph 4w",
+                                   "rating_a": 225, "main_a": 200}),
+    ("208Y/120 225A mlo", {"kind": "panel", "system": "208Y/120V 3ph 4w", "rating_a": 225}),
 ])
 def test_kind_system_and_ratings_are_read_in_any_order(text, fields):
     assert read_source_text(text) == fields
@@ -34,6 +39,8 @@ def test_kind_system_and_ratings_are_read_in_any_order(text, fields):
     ("panel 208Y/120 rooftop", "'208Y/120 rooftop' is not a system or a word of"),
     ("panel 208", "'208' is incomplete"),          # the parser says what is missing
     ("panel 208Y/120 0A", "the rating [A]"),       # the walk model's range (above 0)
+    ("panel 208Y/120 main", "give the main's rating after 'main'"),
+    ("panel 208Y/120 main 100A mlo", "two mains, main 100A and mlo"),
 ])
 def test_what_the_field_cannot_read_is_refused_with_a_sentence_naming_it(text, reason):
     with pytest.raises(ValueError) as refused:
@@ -46,7 +53,7 @@ def test_a_refusal_of_an_unknown_word_repeats_the_grammar():
         new_source_from("LP2", "panel 208Y/120 rooftop")
 
 
-def test_the_declared_source_is_a_walk_source_with_its_rating():
-    source = new_source_from("SWB-1", "480Y/277; switchboard 400A")
-    assert (source.id, source.kind, source.system, source.rating_a) == (
-        "SWB-1", "switchboard", "480Y/277V 3ph 4w", 400)
+def test_the_declared_source_is_a_walk_source_with_its_rating_and_main():
+    source = new_source_from("SWB-1", "480Y/277; switchboard 400A main 400A")
+    assert (source.id, source.kind, source.system, source.rating_a, source.main_a) == (
+        "SWB-1", "switchboard", "480Y/277V 3ph 4w", 400, 400)
