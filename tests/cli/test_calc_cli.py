@@ -6,7 +6,7 @@ import math
 
 import pytest
 
-from gaugewalk.tui.cli.main import CAUTION, COMMAND_MODULES, main
+from gaugewalk.tui.cli.main import CAUTION, COMMANDS, main
 
 
 def run_json(capsys, *argv):
@@ -17,7 +17,7 @@ def run_json(capsys, *argv):
 
 
 def test_calc_is_a_registered_command():
-    assert "gaugewalk.tui.cli.calc" in COMMAND_MODULES
+    assert ("calc", "gaugewalk.tui.cli.calc") in {(c.name, c.module) for c in COMMANDS}
 
 
 def test_json_has_the_answer_and_the_inputs_as_understood(capsys):

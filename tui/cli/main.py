@@ -2,8 +2,10 @@
 
 ``gaugewalk SUBCOMMAND ...`` runs a headless command; ``gaugewalk [FILE]`` opens the app.
 Each subcommand lives in its own module exposing ``NAME``, ``HELP``, ``add_arguments(parser)``
-and ``run(args) -> int``. Textual is imported only when the app is opened, so headless commands
-start fast.
+and ``run(args) -> int``. ``COMMANDS`` names them with their help, so ``gaugewalk --help`` lists
+every command without importing one, and a command's module (with pydantic and the walk model, for
+the commands that read a walk) is imported only when that command runs. Textual is imported only
+when the app is opened.
 
 What a command writes may hold text from a walk, a lock file, a file name or the system: its
 output and messages pass through ``gaugewalk.model.walk.plain_text.shown_lines`` on the way out,
@@ -18,21 +20,41 @@ import contextlib
 import importlib
 import os
 import sys
-from typing import NoReturn
+from typing import NamedTuple, NoReturn
 
-# Subcommand modules, in the order ``gaugewalk --help`` lists them.
-COMMAND_MODULES: tuple[str, ...] = (
-    "gaugewalk.tui.cli.calc",
-    "gaugewalk.tui.cli.new",
-    "gaugewalk.tui.cli.source",
-    "gaugewalk.tui.cli.add",
-    "gaugewalk.tui.cli.place",
-    "gaugewalk.tui.cli.check",
-    "gaugewalk.tui.cli.merge",
-    "gaugewalk.tui.cli.unlock",
-    "gaugewalk.tui.cli.schema",
-    "gaugewalk.tui.cli.takeoff",
-    "gaugewalk.tui.cli.report",
+
+class Command(NamedTuple):
+    name: str
+    module: str
+    help: str
+
+
+# Every subcommand, in the order ``gaugewalk --help`` lists them. ``name`` and ``help`` are the
+# module's NAME and HELP (tests/cli/test_main_cli.py checks that they agree).
+COMMANDS: tuple[Command, ...] = (
+    Command("calc", "gaugewalk.tui.cli.calc",
+            "Size one run: conductor, device, voltage drop, EGC and raceway."),
+    Command("new", "gaugewalk.tui.cli.new",
+            "Start a new walk file (refuses to write over an existing one)."),
+    Command("source", "gaugewalk.tui.cli.source",
+            "Add a service, switchboard, panel or transformer to a walk file."),
+    Command("add", "gaugewalk.tui.cli.add",
+            "Add a run to a walk file (same length grammar as 'calc')."),
+    Command("place", "gaugewalk.tui.cli.place",
+            "Write the breaker positions the tool picked into the walk file."),
+    Command("check", "gaugewalk.tui.cli.check",
+            "Check a walk file and compute every run (exit 0 all within limits, 1 not, "
+            "2 invalid)."),
+    Command("merge", "gaugewalk.tui.cli.merge",
+            "Merge two walk files by run and source id; conflicts stop the merge unless --prefer."),
+    Command("unlock", "gaugewalk.tui.cli.unlock",
+            "Clear a walk's stale or broken lock (never one a running gaugewalk holds)."),
+    Command("schema", "gaugewalk.tui.cli.schema",
+            "Print the JSON Schema of walk files (for editor completion and checks)."),
+    Command("takeoff", "gaugewalk.tui.cli.takeoff",
+            "List the order, cut lists, raceway and fittings a walk needs (rough takeoff)."),
+    Command("report", "gaugewalk.tui.cli.report",
+            "Write a printable report of a walk (HTML or Markdown, by the extension of -o)."),
 )
 
 CAUTION = (
@@ -50,7 +72,9 @@ class _Parser(argparse.ArgumentParser):
         raise UsageError(f"{self.prog}: {message}")
 
 
-def build_parser() -> argparse.ArgumentParser:
+def build_parser(chosen: str | None = None) -> argparse.ArgumentParser:
+    """The parser: every command listed with its help; only ``chosen`` (a command name, or None
+    for none) has its module imported, its options added and its ``run`` set."""
     parser = _Parser(
         prog="gaugewalk",
         description="Record a site walk of electrical runs and size them. "
@@ -58,25 +82,23 @@ def build_parser() -> argparse.ArgumentParser:
         epilog=CAUTION,
     )
     subparsers = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
-    for module_name in COMMAND_MODULES:
-        module = importlib.import_module(module_name)
-        sub = subparsers.add_parser(module.NAME, help=module.HELP, description=module.HELP,
+    for command in COMMANDS:
+        sub = subparsers.add_parser(command.name, help=command.help, description=command.help,
                                     epilog=CAUTION)
-        module.add_arguments(sub)
-        sub.set_defaults(_run=module.run)
+        if command.name == chosen:
+            module = importlib.import_module(command.module)
+            module.add_arguments(sub)
+            sub.set_defaults(_run=module.run)
     return parser
-
-
-def _command_names() -> set[str]:
-    return {importlib.import_module(m).NAME for m in COMMAND_MODULES}
 
 
 def main(argv: list[str] | None = None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
+    names = {command.name for command in COMMANDS}
     try:
-        if argv and (argv[0] in _command_names() or argv[0] in {"-h", "--help"}):
+        if argv and (argv[0] in names or argv[0] in {"-h", "--help"}):
             with _plain_output():
-                args = build_parser().parse_args(argv)
+                args = build_parser(argv[0]).parse_args(argv)
                 return int(args._run(args) or 0)
         return _open_app(argv)
     except UsageError as exc:

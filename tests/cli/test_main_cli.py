@@ -1,0 +1,79 @@
+"""The dispatcher (``gaugewalk.tui.cli.main``): its table of commands agrees with the command
+modules, ``--help`` lists them all without importing one, and a command imports only what it
+needs (``calc`` neither pydantic nor the walk model)."""
+
+from __future__ import annotations
+
+import importlib
+import json
+import subprocess
+import sys
+
+import pytest
+
+from gaugewalk.tui.cli.main import COMMANDS, main
+from tests.support.paths import REPO
+
+
+def test_the_table_names_every_module_with_its_own_name_and_help():
+    for command in COMMANDS:
+        module = importlib.import_module(command.module)
+        assert (module.NAME, module.HELP) == (command.name, command.help)
+        assert callable(module.add_arguments) and callable(module.run)
+    assert len({c.name for c in COMMANDS}) == len(COMMANDS)
+
+
+def test_every_command_module_is_in_the_table():
+    listed = {c.module for c in COMMANDS}
+    modules = {"gaugewalk.tui.cli." + p.stem for p in (REPO / "tui" / "cli").glob("*.py")
+               if any(line.startswith("NAME = ") for line in p.read_text().splitlines())}
+    assert modules == listed
+
+
+def test_help_lists_every_command_with_its_help(capsys):
+    with pytest.raises(SystemExit) as done:
+        main(["--help"])
+    assert done.value.code == 0
+    out = " ".join(capsys.readouterr().out.split())  # argparse wraps the help lines
+    for command in COMMANDS:
+        assert f"{command.name} {' '.join(command.help.split())}" in out
+
+
+def test_each_command_shows_its_own_options(capsys):
+    for command, option in (("calc", "--amps"), ("check", "--json"), ("takeoff", "--prices")):
+        with pytest.raises(SystemExit) as done:
+            main([command, "--help"])
+        assert done.value.code == 0
+        assert option in capsys.readouterr().out
+
+
+def loaded_by(argv: list[str]) -> set[str]:
+    """Modules a fresh interpreter has loaded after running ``gaugewalk ARGV`` (output dropped)."""
+    code = (
+        "import contextlib, io, json, sys\n"
+        "from gaugewalk.tui.cli.main import main\n"
+        "with contextlib.redirect_stdout(io.StringIO()):\n"
+        "    try:\n"
+        f"        code = main({argv!r})\n"
+        "    except SystemExit as exc:\n"
+        "        code = exc.code\n"
+        "print(json.dumps([code, sorted(sys.modules)]))\n"
+    )
+    done = subprocess.run([sys.executable, "-c", code], cwd=REPO, capture_output=True, text=True,
+                          check=True)
+    code, modules = json.loads(done.stdout.splitlines()[-1])
+    assert code == 0, done.stderr
+    return set(modules)
+
+
+def test_calc_imports_neither_pydantic_nor_the_walk_model():
+    loaded = loaded_by(["calc", "--amps", "40", "--length", "120+35+2*12", "--volts", "240"])
+    assert "gaugewalk.model.engine.sizing" in loaded  # it did size the run
+    heavy = {m for m in loaded
+             if m.split(".")[0] == "pydantic" or m.startswith("gaugewalk.model.walk")}
+    assert heavy == set()
+
+
+def test_help_imports_no_command_module():
+    loaded = loaded_by(["--help"])
+    assert {m for m in loaded if m.startswith("gaugewalk.tui.cli.")} == {"gaugewalk.tui.cli.main"}
