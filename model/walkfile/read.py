@@ -50,6 +50,7 @@ from gaugewalk.model.walk.checks import check_references
 from gaugewalk.model.walk.job import SCHEMA_VERSION, Defaults, Job, JobHeader, Run, Source
 from gaugewalk.model.walk.problems import Locator, Problem, problems_from_errors
 from gaugewalk.model.walkfile.migrate import migrate
+from gaugewalk.model.walkfile.toml_parse import parse_toml
 
 MAX_WALK_BYTES = 20 * 1024 * 1024
 """Largest walk file read or written [bytes] (20 MiB: 50,000 runs of about 400 bytes each)."""
@@ -112,7 +113,7 @@ def _check_walk_text(text: str, path: str | os.PathLike) -> tuple[Job | None, li
         return None, [Problem(file, None, "file", None, None,
                               "the file is empty; a walk file starts with 'schema = 1'")]
     try:
-        data = tomllib.loads(text)
+        data = parse_toml(text)
     except tomllib.TOMLDecodeError as exc:
         return None, [_syntax_problem(exc, file)]
     except RecursionError:
