@@ -104,6 +104,10 @@ class WalkSession:
         self.busy = False   # True while the whole walk is being sized in the background
         self.read_only: str | None = None   # why the walk cannot be changed here, if it cannot
         self.lock_refusal = None   # the WalkLocked that made it read-only, if a lock did
+        # True when the cross-checks are known to find nothing in the walk as it is (a walk
+        # read from its file, or one a change left so): one run put in place of another is
+        # then checked on its own (checks.put_keeps_clean), not the whole walk
+        self.references_clean = False
         if hold is None:
             hold = WalkHold(self.path, "gaugewalk app")
             hold.note()  # what was read: a save checks it is still there
@@ -118,7 +122,9 @@ class WalkSession:
         ``compute=False`` the runs are not sized yet (call ``recompute``)."""
         hold = WalkHold(path, "gaugewalk app")
         job = hold.read()  # noted before reading: a save in between is then caught
-        return cls(Path(path), job, compute=compute, hold=hold)
+        session = cls(Path(path), job, compute=compute, hold=hold)
+        session.references_clean = True  # read_walk refuses a walk the cross-checks find fault in
+        return session
 
     @classmethod
     def create(
@@ -212,12 +218,25 @@ class WalkSession:
         trial._index_cache = None
         return trial
 
-    def _reference_problems(self, trial: Job, run: Run) -> list[Problem]:
-        """The cross-check problems of ``trial`` about ``run`` or the sources at its ends (those
-        said against its ``to`` field)."""
+    def _keeps_clean(self, run: Run, replaces: str | None, new_sources: tuple[Source, ...]) -> bool:
+        """True when storing ``run`` (in place of run ``replaces``) leaves a walk the cross-checks
+        find nothing in, known from the run and its ends alone; False: check the whole walk."""
+        from gaugewalk.model.walk.checks import put_keeps_clean
+
+        if not self.references_clean or new_sources:
+            return False
+        return put_keeps_clean(self.job, run, self.job.run(replaces) if replaces else None)
+
+    def _reference_problems(self, trial: Job, run: Run, replaces: str | None = None,
+                            new_sources: tuple[Source, ...] = ()) -> list[Problem]:
+        """The cross-check problems of ``trial`` (the walk with ``run`` stored in place of run
+        ``replaces`` and ``new_sources``) about ``run`` or the sources at its ends (those said
+        against its ``to`` field)."""
         from gaugewalk.model.walk.checks import check_references
         from gaugewalk.model.walk.problems import Locator
 
+        if self._keeps_clean(run, replaces, new_sources):
+            return []
         out = []
         for p in check_references(trial, Locator(""), self.path.name):
             if p.is_about("run", (run.id,)):
@@ -238,7 +257,8 @@ class WalkSession:
         from gaugewalk.model.walk.compute import size_run
 
         trial = self._with(run, replaces, new_source)
-        problems = self._reference_problems(trial, run)
+        problems = self._reference_problems(
+            trial, run, replaces, (new_source,) if new_source is not None else ())
         if problems:
             return Preview(None, problems)
         upstream = self.source_drop(run.from_) or 0.0
@@ -288,6 +308,7 @@ class WalkSession:
         return Snapshot(label, list(job.runs), list(job.sources), job.defaults, job.job, focus)
 
     def _restore(self, snap: Snapshot) -> None:
+        self.references_clean = False  # not known for the walk as it was: the next change checks
         self.job.runs[:] = snap.runs
         self.job.sources[:] = snap.sources
         if self.job.defaults is not snap.defaults:
@@ -308,19 +329,24 @@ class WalkSession:
         self.job._index_cache = None
 
     def _commit(self, label: str, focus: str | None, change,
-                edited: str | None = None) -> str | None:
+                edited: str | None = None, keeps_clean: bool = False) -> str | None:
         """Make a change, recompute and save. A change that would leave the walk unreadable
         (a panel nothing feeds, a run from a missing source...) is taken back and the reason
-        returned; nothing is saved then."""
+        returned; nothing is saved then. ``keeps_clean``: the change is known to leave a walk the
+        cross-checks find nothing in (``_keeps_clean``), so the whole walk is not checked."""
         before = self._snapshot(label, focus)
+        was_clean = self.references_clean
         change()
         self._touch()
-        new = self.hold.added_problems(self.job)
+        found = [] if keeps_clean else self.hold.added_problems(self.job)
+        new = found
         if new:  # only what the change adds refuses it: compare with the walk before it
             new = self.hold.added_problems(self.job, self._job_at(before))
         if new:
             self._restore(before)
+            self.references_clean = was_clean  # the walk is again as it was
             return "; ".join(sorted({p.brief() for p in new}))
+        self.references_clean = not found
         self.history.append(before)
         self.future.clear()
         self.recompute(edited)
@@ -333,17 +359,20 @@ class WalkSession:
         the panel the run feeds (or replace the source of that id). Returns why it was refused,
         or None."""
 
+        label = f"edit {run.id}" if replaces else f"add {run.id}"
+        old = self.job.run(replaces) if replaces else None
+
         def change() -> None:
             _put(self.job.runs, self.job.sources, run, replaces,
                  ((new_source,) if new_source is not None else ()) + tuple(sources))
 
-        label = f"edit {run.id}" if replaces else f"add {run.id}"
-        old = self.job.run(replaces) if replaces else None
         in_place = (
             old is not None and old.id == run.id and old.from_ == run.from_ and old.to == run.to
             and new_source is None and not sources
         )
-        return self._commit(label, run.id, change, edited=run.id if in_place else None)
+        new_sources = ((new_source,) if new_source is not None else ()) + tuple(sources)
+        return self._commit(label, run.id, change, edited=run.id if in_place else None,
+                            keeps_clean=self._keeps_clean(run, replaces, new_sources))
 
     def delete_refusal(self, run_id: str) -> str | None:
         """Why a run cannot be deleted (a feeder whose panel still feeds runs), or None."""

@@ -202,3 +202,40 @@ def check_references(
                    f"{target.id}'s system {target.system}; only a transformer changes the "
                    "system")
     return problems
+
+
+def _run_problem_free(job: Job, run: Run) -> bool:
+    """The checks of ``check_references`` about one run alone (its source, its ends, its
+    connection, the system it brings, its load) find nothing; sources looked up in ``job``."""
+    source = job.source(run.from_)
+    if source is None or run.from_ == run.to:
+        return False
+    try:
+        circuit = resolve_circuit(source.system, connection_of(job, run))
+    except CircuitError:
+        return False
+    target = job.source(run.to)
+    if target is None:
+        return run.load is not None
+    return target.kind == "transformer" or _delivers(circuit, target.system)
+
+
+def put_keeps_clean(job: Job, run: Run, old: Run | None) -> bool:
+    """True when ``check_references`` finds nothing in ``job`` with ``run`` put in place of
+    ``old`` (None: added at the end), the sources unchanged, given that it finds nothing in
+    ``job`` now; False when it might find something (then check the whole walk).
+
+    Only what the change can touch is looked at, in a few lookups: the run's id against the
+    other runs' (ids unique now, so only a new id can repeat one), the checks about the run
+    alone, and the feeder of the sources at its ends (every source but the service has exactly
+    one now; a run that feeds a source, or fed one, keeps clean only as the same feeder, from the
+    same source to the same source, so no source gains or loses its feeder and no loop forms).
+    Every other run's checks read only the sources, which do not change."""
+    if old is not None and job.run(old.id) is not old:
+        return False
+    if (old is None or run.id != old.id) and job.run(run.id) is not None:
+        return False
+    if job.source(run.to) is not None or (old is not None and job.source(old.to) is not None):
+        if old is None or run.to != old.to or run.from_ != old.from_:
+            return False
+    return _run_problem_free(job, run)
