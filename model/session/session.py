@@ -332,12 +332,13 @@ class WalkSession:
                 edited: str | None = None, keeps_clean: bool = False) -> str | None:
         """Make a change, recompute and save. A change that would leave the walk unreadable
         (a panel nothing feeds, a run from a missing source...) is taken back and the reason
-        returned; nothing is saved then. ``keeps_clean``: the change is known to leave a walk the
+        returned; nothing is saved then. ``change()`` returns True when it kept the job's id
+        lookups up to date itself. ``keeps_clean``: the change is known to leave a walk the
         cross-checks find nothing in (``_keeps_clean``), so the whole walk is not checked."""
         before = self._snapshot(label, focus)
         was_clean = self.references_clean
-        change()
-        self._touch()
+        if not change():  # True: the change kept the job's id lookups up to date itself
+            self._touch()
         found = [] if keeps_clean else self.hold.added_problems(self.job)
         new = found
         if new:  # only what the change adds refuses it: compare with the walk before it
@@ -362,9 +363,13 @@ class WalkSession:
         label = f"edit {run.id}" if replaces else f"add {run.id}"
         old = self.job.run(replaces) if replaces else None
 
-        def change() -> None:
+        def change() -> bool:
             _put(self.job.runs, self.job.sources, run, replaces,
                  ((new_source,) if new_source is not None else ()) + tuple(sources))
+            if old is None or old.id != run.id or new_source is not None or sources:
+                return False
+            self.job.replaced_run(old, run)  # one run for another of its id: no rebuilt lookups
+            return True
 
         in_place = (
             old is not None and old.id == run.id and old.from_ == run.from_ and old.to == run.to

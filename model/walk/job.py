@@ -636,6 +636,19 @@ with warnings.catch_warnings():
             (appending or removing items is noticed on its own)."""
             self._index_cache = None
 
+        def replaced_run(self, old: Run, new: Run) -> None:
+            """Note that ``new`` was put in ``runs`` where ``old`` was, with the same id: the
+            lookups follow without being rebuilt (a pass over every run); otherwise they are
+            forgotten, as by ``reindex``."""
+            cache = self._index_cache
+            if cache is not None and old.id == new.id:
+                key, _sources, runs = cache
+                if (key == (id(self.sources), len(self.sources), id(self.runs), len(self.runs),
+                            _ID_EPOCH[0]) and runs.get(new.id) is old):
+                    runs[new.id] = new
+                    return
+            self._index_cache = None
+
         def source(self, source_id: str) -> Source | None:
             """The source with this id, or None."""
             found = self._index()[0].get(source_id)

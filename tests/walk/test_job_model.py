@@ -62,6 +62,19 @@ def test_a_renamed_source_is_found_under_its_new_id():
     assert job.run("R9").to == "Pump"
 
 
+def test_a_run_put_in_place_of_one_of_its_id_is_found_without_rebuilding_the_lookups():
+    job = _job()
+    old = job.run("R7")
+    new = old.model_copy(update={"notes": "moved pump"})
+    job.runs[1] = new
+    job.replaced_run(old, new)
+    assert job.run("R7") is new and job._index_cache is not None  # patched, not dropped
+    other = Run.model_validate({"id": "R8", "from": "SP", "to": "Fan", "length": "9"})
+    job.runs[1] = other  # another id: the lookups are dropped and rebuilt
+    job.replaced_run(new, other)
+    assert job.run("R8") is other and job.run("R7") is None
+
+
 def test_ids_with_line_breaks_or_leading_spaces_are_refused():
     for bad in (" R1", "R\n1", ""):
         with pytest.raises(ValidationError):
