@@ -13,8 +13,8 @@ Public API:
 
 - ``WalkHold(path, tool)``: ``take_lock()`` (raises ``WalkLocked`` or ``LockError``),
   ``release()``, ``note()``, ``read() -> Job``, ``added_problems(job, before)`` and
-  ``refusals(job, before)`` (lists of ``Problem``), ``save(job) -> SaveNotice | None`` (raises
-  ``ChangedOnDisk``, ``WalkFileError`` or ``OSError``; nothing is written then).
+  ``refusals(job, before)`` (lists of ``Problem``), ``save(job, written=None) -> SaveNotice |
+  None`` (raises ``ChangedOnDisk``, ``WalkFileError`` or ``OSError``; nothing is written then).
 """
 
 from __future__ import annotations
@@ -118,12 +118,14 @@ class WalkHold:
         out.sort(key=lambda p: (p.line is None, p.line or 0))
         return [replace(p, line=None) for p in out]
 
-    def save(self, job: Job, *, allow_comment_loss: bool = True) -> SaveNotice | None:
+    def save(self, job: Job, *, allow_comment_loss: bool = True,
+             written: dict | None = None) -> SaveNotice | None:
         """Write the walk (atomic, with a backup), refused with ``ChangedOnDisk`` when the file
         no longer holds what was read, ``WalkFileError`` past the limits; then note the file
-        again. Returns the notice that comments were dropped, if they were."""
+        again. Returns the notice that comments were dropped, if they were. ``written``: as
+        for ``gaugewalk.model.walkfile.write.dumps_walk``."""
         self._hold_again()
         notice = save_walk(job, self.path, allow_comment_loss=allow_comment_loss,
-                           expected=self.fingerprint)
+                           expected=self.fingerprint, written=written)
         self.fingerprint = fingerprint(self.path)
         return notice

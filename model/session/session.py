@@ -4,13 +4,15 @@ No Textual here, so it can be tested and timed on its own. Runs, sources and def
 changed in place: every change puts new objects into the job's lists, so an undo step is just the
 previous lists (copies of references, cheap even with thousands of runs). Every stored change
 reaches the disk through ``gaugewalk.model.session.hold.WalkHold``, the same path the writing
-commands take.
+commands take: at once, or, once ``save_behind`` is called (the app), by one writer thread in the
+order of the changes (``gaugewalk.model.session.save_behind``) while editing goes on.
 """
 
 from __future__ import annotations
 
 import math
 import os
+from collections.abc import Callable
 from dataclasses import dataclass, field, replace
 from datetime import datetime
 from pathlib import Path
@@ -18,6 +20,7 @@ from typing import TYPE_CHECKING
 
 from gaugewalk.model.engine.contract import RunResult
 from gaugewalk.model.session.hold import WalkHold
+from gaugewalk.model.session.save_behind import SaveBehind
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Run, Source
 from gaugewalk.model.walk.merge import Side
@@ -76,6 +79,21 @@ class TrialOutcome:
 
 
 @dataclass
+class _Outcome:
+    """How one save in the writer thread went: ``job`` (the walk it was handed) written, or
+    refused because the file changed on disk (``clash``), or failed (``failure``, why)."""
+
+    job: Job
+    notice: str | None = None
+    clash: bool = False
+    failure: str | None = None
+
+    @property
+    def saved(self) -> bool:
+        return not self.clash and self.failure is None
+
+
+@dataclass
 class SaveState:
     saved: bool = True
     message: str | None = None     # why the last save failed, if it did
@@ -108,6 +126,13 @@ class WalkSession:
         # read from its file, or one a change left so): one run put in place of another is
         # then checked on its own (checks.put_keeps_clean), not the whole walk
         self.references_clean = False
+        # each recompute adds one to ``version``; ``changed``: the runs whose row it changed
+        # (None: any run may have changed), for a face that shows the walk to redo only those
+        self.version = 0
+        self.changed: set[str] | None = None
+        self._saver: SaveBehind[Job] | None = None   # set by ``save_behind``
+        self._written: dict = {}   # each run's text as last saved (write.dumps_walk)
+        self._outcomes: list[_Outcome] = []   # how the writer's saves went, for ``after_save``
         if hold is None:
             hold = WalkHold(self.path, "gaugewalk app")
             hold.note()  # what was read: a save checks it is still there
@@ -151,10 +176,16 @@ class WalkSession:
         from gaugewalk.model.walk.compute import compute_job
         from gaugewalk.model.walk.recompute import recompute_run
 
-        if edited is not None and self.result is not None:
-            self.result = recompute_run(self.job, self.result, edited)
+        before = self.result
+        if edited is not None and before is not None:
+            marks = before.marks()
+            self.result = recompute_run(self.job, before, edited)
+            same = self.result is before  # else it fell back to a whole computation
+            self.changed = before.changed_since(marks) | {edited} if same else None
         else:
             self.result = compute_job(self.job)
+            self.changed = None
+        self.version += 1
         self.job_problems = [p for p in self.result.problems if p.about != "run"]
 
     def result_for(self, run_id: str) -> RunResult | None:
@@ -351,7 +382,7 @@ class WalkSession:
         self.history.append(before)
         self.future.clear()
         self.recompute(edited)
-        self.save()
+        self._save_change()
         return None
 
     def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None,
@@ -450,22 +481,106 @@ class WalkSession:
         target.append(self._snapshot(snap.label, snap.focus))
         self._restore(snap)
         self.recompute()
-        self.save()
+        self._save_change()
         return snap
 
     # ----- saving -----------------------------------------------------------------------
+    # With ``save_behind`` (the app) the writer thread only writes the walk it was handed through
+    # the hold and notes how it went (``_outcomes``); everything else a save leads to (a change
+    # on disk merged in, a walk that cannot be saved kept whole, the draft file cleared) is done
+    # on the editing thread, by ``after_save`` once the writer is idle.
+    def save_behind(self, done: Callable[[], None] | None = None) -> None:
+        """From now on each change is saved by one writer thread, in order, while editing goes
+        on (``SaveBehind``); ``done()`` is called in that thread after each save: the face then
+        calls ``after_save`` on its own thread, and ``state`` says how it went."""
+        self._saver = SaveBehind(self._write_behind, done)
+
+    @property
+    def saves_behind(self) -> bool:
+        """True once ``save_behind`` was called."""
+        return self._saver is not None
+
+    @property
+    def saving(self) -> bool:
+        """True while a change is waiting to be written, or written and not yet taken in by
+        ``after_save`` (the file on disk is then the app's own, whatever it holds)."""
+        return self._saver is not None and (self._saver.pending or bool(self._outcomes))
+
+    @property
+    def writing(self) -> bool:
+        """True while the writer thread has a save still to write."""
+        return self._saver is not None and self._saver.pending
+
+    def settle(self, timeout: float | None = None) -> bool:
+        """Wait until every change is written (or failed to be: see ``state``), then
+        ``after_save``; False when ``timeout`` [s] ran out first."""
+        done = self._saver is None or self._saver.wait(timeout)
+        self.after_save()
+        return done
+
+    def _save_change(self) -> None:
+        """Save after a change: now, or handed to the writer thread with a copy of the walk
+        that later changes do not touch (they put new lists in)."""
+        if self._saver is None or self.read_only:
+            self.save()
+            return
+        self._saver.ask(_copy(self.job))
+
+    def _write_behind(self, job: Job) -> None:
+        """In the writer thread: write ``job`` through the hold (refused, never written over,
+        when the file changed on disk) and note how it went; nothing else."""
+        from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
+
+        try:
+            notice = self.hold.save(job, written=self._written)
+        except ChangedOnDisk:
+            self._outcomes.append(_Outcome(job, clash=True))
+        except Exception as exc:  # said by ``after_save`` on the editing thread
+            self._outcomes.append(_Outcome(job, failure=self._why(exc)))
+        else:
+            self._outcomes.append(_Outcome(job, notice=notice.message if notice else None))
+
+    def after_save(self) -> None:
+        """On the editing thread, once the writer has written every change asked for (the app
+        calls it from ``done``): take in how the saves went. The last one says it: saved (the
+        stored card's draft file then goes); refused because the file changed on disk (that
+        change is merged in here and saved, or, when it cannot be, everything open is kept
+        whole beside the walk); failed (kept whole, the draft stays)."""
+        if self._saver is None or self._saver.pending or not self._outcomes:
+            return
+        outcomes, self._outcomes = self._outcomes, []
+        notices = []
+        for outcome in outcomes:
+            if outcome.saved:
+                self.base = outcome.job   # the walk on disk now: outside changes merge against it
+                if outcome.notice:
+                    notices.append(outcome.notice)
+        last = outcomes[-1]
+        if last.clash:
+            self._take_outside(prefer=None)
+        elif last.failure is not None:
+            self._not_saved(last.failure)
+        else:
+            self._saved(" ".join(dict.fromkeys(notices)) or None, base=last.job)
+
     def save(self) -> bool:
-        """Write the walk now (atomic, with a backup). When the file changed on disk since it was
-        read, that change is merged in first where nothing clashes (``take_outside_change``).
-        On failure the walk stays in memory, marked unsaved, with the reason in
-        ``state.message``, and is kept whole in a file of its own (``state.kept``)."""
+        """Write the walk now (atomic, with a backup), after any change still waiting to be.
+        When the file changed on disk since it was read, that change is merged in first where
+        nothing clashes (``take_outside_change``). On failure the walk stays in memory, marked
+        unsaved, with the reason in ``state.message``, and is kept whole in a file of its own
+        (``state.kept``)."""
         from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
 
         if self.read_only:
             self.state = SaveState(False, f"read-only: {self.read_only}")
             return False
+        if self._saver is not None:
+            self._saver.ask(_copy(self.job))
+            self._saver.wait()
+            self.after_save()
+            return self.state.saved
         try:
-            notice = self.hold.save(self.job)
+            notice = self.hold.save(self.job, written=self._written)
         except ChangedOnDisk:
             return self._take_outside(prefer=None)
         except Exception as exc:  # a walk the file code refuses: keep it in memory, say why
@@ -482,9 +597,10 @@ class WalkSession:
             return f"cannot write {self.path}: {exc.strerror or exc}"
         return f"not saved: {exc}"
 
-    def _saved(self, notice: str | None) -> None:
+    def _saved(self, notice: str | None, base: Job | None = None) -> None:
+        """Saved: ``base`` (default: the walk here, copied) is what the file now holds."""
         self.state = SaveState(True, None, notice or None)
-        self.base = _copy(self.job)
+        self.base = base if base is not None else _copy(self.job)
         if self._draft_until_saved and not self.draft:  # its run is on disk now
             self._draft_until_saved = False
             self.keep_draft(None)
@@ -501,8 +617,13 @@ class WalkSession:
     # ----- a change on disk while the walk is open ------------------------------------------
     def changed_on_disk(self) -> bool:
         """True when the file no longer holds what this session last read or saved (cheap when
-        it did not change: its size and time are looked at first)."""
+        it did not change: its size and time are looked at first). While a save of its own is
+        waiting or not yet taken in (``saving``) it says False: the file is then the app's own,
+        and ``after_save`` looks at any clash the writer met."""
         from gaugewalk.model.walkfile.fingerprint import fingerprint
+
+        if self.saving:
+            return False
 
         known = self.hold.fingerprint
         try:
@@ -524,6 +645,12 @@ class WalkSession:
         session last read or saved (runs added there and here both kept; a run both sides
         changed keeps this side with ``prefer="b"``, the other version stays in the backup
         ``NAME~``), then saved. Returns what happened, in a sentence."""
+        if self._saver is not None:   # the writer idle first: the merge and its save are here
+            self._saver.wait()
+            for outcome in self._outcomes:
+                if outcome.saved:
+                    self.base = outcome.job
+            self._outcomes.clear()
         self._take_outside(prefer)
         return str(self.state.notice if self.state.saved else self.state.message)
 
@@ -588,6 +715,7 @@ class WalkSession:
         self.job.defaults = job.defaults
         self.job.job = job.job
         self._touch()
+        self.references_clean = False   # not known for the merged walk: the next change checks
         self.history.clear()
         self.future.clear()
         self.recompute()
@@ -695,7 +823,7 @@ class WalkSession:
         self.draft = fields if fields and self._typed(fields) else None
         if self.read_only:
             return
-        if self.draft is None and not self.state.saved:
+        if self.draft is None and (self.saving or not self.state.saved):
             # the card's run was stored but is not on disk yet: its draft stays until it is
             self._draft_until_saved = True
             return

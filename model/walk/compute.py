@@ -10,7 +10,8 @@ Public API:
   {source id: [VA] it serves}, ``run_va`` {run id: [VA]}, ``lines`` {source id: ``Lines``, the
   phasor sums of its lines}, ``placements`` {run id: ``Placement``}, ``feeders`` {run id:
   ``FeederInfo``}, ``transformers`` {source id: ``TransformerInfo``}, ``loadings`` {source id:
-  ``Loading``}, ``problems`` (list of ``Problem``), ``ok``, ``run_problems(run_id)``.
+  ``Loading``}, ``problems`` (list of ``Problem``), ``ok``, ``run_problems(run_id)``; ``marks()`` and
+  ``changed_since(marks)``: the runs an update in place changed.
 - ``FeederInfo``: what a feeder is sized for (``basis`` in words, ``amps``), its heaviest
   ``line`` and ``load_amps``, and the connected-load answer ``beside`` an equipment basis.
 - ``run_spec_for(job, run, upstream_drop_pct, *, result=None) -> RunSpec`` and
@@ -126,6 +127,22 @@ class JobResult:
         """Problems of one run (its own, the engine's and its place in its source)."""
         return (list(self._run_problems.get(run_id, ()))
                 + list(self._place_problems.get(run_id, ())))
+
+    def marks(self) -> tuple[dict[str, RunResult], dict[str, list[Problem]]]:
+        """What each run's result and problems are now, for ``changed_since`` after an update
+        in place (``gaugewalk.model.walk.recompute``)."""
+        return dict(self.runs), dict(self._run_problems)
+
+    def changed_since(self, marks: tuple[dict[str, RunResult], dict[str, list[Problem]]]
+                      ) -> set[str]:
+        """The runs whose result or problems are other objects than in ``marks``: every update
+        puts new ones in (never changes one in place), so the rest are as they were."""
+        runs, problems = marks
+        out = {k for k, v in self.runs.items() if runs.get(k) is not v}
+        out.update(runs.keys() - self.runs.keys())
+        out.update(k for k, v in self._run_problems.items() if problems.get(k) is not v)
+        out.update(problems.keys() - self._run_problems.keys())
+        return out
 
 
 def run_spec_for(

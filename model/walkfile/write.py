@@ -2,9 +2,11 @@
 
 Public API:
 
-- ``dumps_walk(job) -> str``: the file text; keys in a fixed order, defaults left out, so saving
-  twice gives the same bytes and a reload gives the same Job.
-- ``save_walk(job, path, *, allow_comment_loss=True, expected=None) -> SaveNotice | None``: an
+- ``dumps_walk(job, written=None) -> str``: the file text; keys in a fixed order, defaults left
+  out, so saving twice gives the same bytes and a reload gives the same Job. ``written`` (a
+  ``Written`` dict the caller keeps) spares writing again the runs written last time.
+- ``save_walk(job, path, *, allow_comment_loss=True, expected=None, written=None)
+  -> SaveNotice | None``: an
   atomic write (``gaugewalk.model.walkfile.atomic``) with a backup of the previous file at
   ``backup_path(path)`` (``walk.toml~``). With ``expected`` (the ``Fingerprint`` taken when the
   walk was read) it raises ``ChangedOnDisk`` and writes nothing if the file's content is no
@@ -216,18 +218,47 @@ def _table(model: BaseModel) -> list[str]:
     return lines
 
 
-def dumps_walk(job: Job) -> str:
-    """The walk file text for ``job``: deterministic, defaults left out."""
+Written = dict[int, tuple[BaseModel, str]]
+"""Each source's and run's text as last written, by the object's ``id`` (the object kept beside
+it, so an id is never taken for another object's)."""
+
+
+def dumps_walk(job: Job, written: Written | None = None) -> str:
+    """The walk file text for ``job``: deterministic, defaults left out.
+
+    With ``written`` (what an earlier call left in it) a source or run that is the very object
+    written then is not written again: its text is taken from there. Only for a caller whose
+    sources and runs are never changed in place once written (the editing session puts new
+    objects in its lists); ``written`` is left holding this walk's texts."""
     out = [f"schema = {SCHEMA_VERSION}", ""]
     for name, model in (("job", job.job), ("defaults", job.defaults)):
         lines = _table(model)
         if lines:
             out += [f"[{name}]", *lines, ""]
-    for source in job.sources:
-        out += ["[[source]]", *_table(source), ""]
-    for run in job.runs:
-        out += ["[[run]]", *_table(run), ""]
-    return "\n".join(out).rstrip("\n") + "\n"
+    if written is None:
+        for source in job.sources:
+            out += ["[[source]]", *_table(source), ""]
+        for run in job.runs:
+            out += ["[[run]]", *_table(run), ""]
+        return "\n".join(out).rstrip("\n") + "\n"
+    head = "\n".join(out)  # "\n".join(a + b) == "\n".join(a) + "\n" + "\n".join(b)
+    parts = [head]
+    kept: Written = {}
+    listed: tuple[tuple[str, list[BaseModel]], ...] = (
+        ("[[source]]", list(job.sources)), ("[[run]]", list(job.runs)))
+    for heading, items in listed:
+        for item in items:
+            key = id(item)
+            hit = written.get(key)
+            if hit is not None and hit[0] is item:
+                text = hit[1]
+            else:
+                text = "\n".join([heading, *_table(item), ""])
+            kept[key] = (item, text)
+            parts.append(text)
+    written.clear()
+    written.update(kept)
+    return "\n".join(parts).rstrip("\n") + "\n"
 
 
 _COMMENT_SCAN = re.compile(r'"""|\'\'\'|"(?:[^"\\]|\\.)*"|\'[^\']*\'|#')
@@ -258,7 +289,7 @@ def comment_lines(text: str) -> int:
 
 def save_walk(
     job: Job, path: str | os.PathLike, *, allow_comment_loss: bool = True,
-    expected: Fingerprint | None = None,
+    expected: Fingerprint | None = None, written: Written | None = None,
 ) -> SaveNotice | None:
     """Write the walk atomically, keeping the previous file as ``walk.toml~``.
 
@@ -273,7 +304,7 @@ def save_walk(
     if len(job.runs) > MAX_RUNS:
         raise WalkFileError([Problem(str(path), None, "file", None, "run",
                                      too_many(len(job.runs)))])
-    text = dumps_walk(job)
+    text = dumps_walk(job, written)
     data = text.encode("utf-8")
     if len(data) > MAX_WALK_BYTES:
         raise WalkFileError([Problem(str(path), None, "file", None, None, too_big(len(data)))])

@@ -10,7 +10,7 @@ from datetime import date
 import pytest
 
 from gaugewalk.tui.app.screens.card import RunCard
-from tests.support.app_helpers import new_app, opened, sheet_cells, shown, type_text
+from tests.support.app_helpers import new_app, opened, settle, sheet_cells, shown, type_text
 from tests.support.walks import SMALL_WALK, write_walk
 
 
@@ -148,15 +148,15 @@ async def test_undo_brings_back_a_deleted_run_and_redo_deletes_it_again(tmp_path
         await opened(app, pilot)
         original = path.read_text()
         await pilot.press("down", "delete")
-        await pilot.pause()
+        await settle(app, pilot)
         assert "R1" not in sheet_cells(app)
         assert 'id = "R1"' not in path.read_text()
         await pilot.press("ctrl+z")
-        await pilot.pause()
+        await settle(app, pilot)
         assert "R1" in sheet_cells(app)
         assert path.read_text() == original
         await pilot.press("ctrl+y")
-        await pilot.pause()
+        await settle(app, pilot)
         assert 'id = "R1"' not in path.read_text()
 
 
@@ -169,10 +169,10 @@ async def test_undo_restores_a_run_edit(tmp_path):
         await pilot.press("down", "e")
         await type_text(pilot, "250")
         await pilot.press("enter")
-        await pilot.pause()
+        await settle(app, pilot)
         assert 'length = "250"' in path.read_text()
         await pilot.press("ctrl+z")
-        await pilot.pause()
+        await settle(app, pilot)
         assert path.read_text() == original
         assert app.session.result_for("R1").voltage_drop_pct == pytest.approx(5.28, abs=0.01)
 

@@ -212,13 +212,13 @@ async def test_job_settings_recompute_every_run_and_can_be_undone(tmp_path):
         await pilot.press("ctrl+a", "ctrl+k")  # clear the field
         await type_text(pilot, "6")
         await pilot.press("enter")
-        await pilot.pause()
+        await settle(app, pilot)
         assert isinstance(app.screen, WalkScreen)
         # 5.28 % is within a 6 % branch target; with the feeder's drop it is over the 5 % total
         assert sheet_cells(app)["R1"][-1] == "▲ total"
         assert tomllib.loads(path.read_text())["defaults"]["branch_drop_pct"] == 6
         await pilot.press("ctrl+z")
-        await pilot.pause()
+        await settle(app, pilot)
         assert sheet_cells(app)["R1"][-1] == "▲ drop"
         assert "branch_drop_pct" not in tomllib.loads(path.read_text())["defaults"]
 
@@ -333,7 +333,7 @@ async def test_a_walk_changed_on_disk_by_someone_else_is_not_overwritten(tmp_pat
         theirs = path.read_text().replace('length = "100"', 'length = "104"')  # R1 re-measured
         path.write_text(theirs)
         await pilot.press("down", "delete")   # and R1 deleted here: a clash
-        await pilot.pause()
+        await settle(app, pilot)
         assert "NOT SAVED" in app.title
         assert path.read_text() == theirs
         await pilot.press("ctrl+q")           # the unsaved delete is kept whole beside the walk

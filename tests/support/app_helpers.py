@@ -30,6 +30,8 @@ async def settle(app, pilot) -> None:
         await app.workers.wait_for_complete()
     except WorkerCancelled:  # the app ended while opening (a walk that cannot be read)
         pass
+    if app.session is not None:
+        app.session.settle()  # every change on disk (the app saves behind the editing)
     await pilot.pause()
     await pilot.pause()
 

@@ -12,6 +12,7 @@ from typing import TYPE_CHECKING
 
 from textual import events, work
 from textual.app import App, ComposeResult
+from textual.message import Message
 from textual.widgets import Footer, Header, Static
 
 from gaugewalk.model.walk.plain_text import shown, shown_lines
@@ -142,6 +143,32 @@ class WalkApp(App[int]):
             if isinstance(screen, WalkScreen):
                 screen.reload()
 
+    # ----- saving behind the editing ----------------------------------------------------
+    class SavedBehind(Message):
+        """The session's writer thread finished a save (``WalkSession.save_behind``)."""
+
+    def _saved_behind(self) -> None:
+        """Called in the writer thread: the rest happens on the app's own (post_message is
+        thread-safe and never waits, so a quit waiting for the writer cannot deadlock)."""
+        self.post_message(self.SavedBehind())
+
+    def on_walk_app_saved_behind(self, _message: SavedBehind) -> None:
+        """Say how the saves went once the last one asked for is done: a failure stays in the
+        title until a save succeeds (and the stored card's draft stays beside the walk)."""
+        s = self.session
+        if s is None or s.writing:
+            return  # a newer save is on its way; it will say how it went
+        version = s.version
+        s.after_save()   # here, not in the writer: a change on disk is merged in on this thread
+        if s.version != version:   # the walk took in a change made on disk
+            self._computed()
+        self.refresh_title()
+        state = s.state
+        if not state.saved:
+            self.notify(f"NOT SAVED: {state.message}", severity="error", timeout=10)
+        elif state.notice:
+            self.notify(str(state.notice), timeout=10)
+
     def _failed(self, path: str, exc: Exception) -> None:
         problems = getattr(exc, "problems", None)
         if problems:
@@ -200,6 +227,7 @@ class WalkApp(App[int]):
         from gaugewalk.tui.app.screens.walk import WalkScreen
 
         self.session = session
+        session.save_behind(self._saved_behind)  # storing a run never waits for the disk
         self.recent.remember(session.path)
         self.push_screen(WalkScreen(session))
         self.refresh_title()
@@ -250,6 +278,8 @@ class WalkApp(App[int]):
         """Quit; ask only when changes could not be saved. An unstored run card is not lost:
         it is kept beside the walk as it is typed and comes back with n next time."""
         s = self.session
+        if s is not None:
+            s.settle()  # every change asked to be saved is written (or failed) before leaving
         if s is not None and not s.read_only and not s.state.saved:
             s.save()   # one more try: a disk with room again, a change on disk that merges
             if not s.state.saved and s.state.kept is not None:

@@ -363,7 +363,9 @@ class RunCard(TypedInOrder, Screen):
         self.session.keep_draft(None)
         state = self.session.state
         self.app.refresh_title()
-        if not state.saved:
+        if self.session.saves_behind:
+            pass  # the app says how the save went once it is written (WalkApp.SavedBehind)
+        elif not state.saved:
             self.notify(f"Stored {run.id} but NOT SAVED: {state.message}", severity="error", timeout=10)
         elif state.notice:
             self.notify(str(state.notice), timeout=10)

@@ -11,7 +11,7 @@ from textual.widgets import ContentSwitcher, Footer, Header, Input, Static
 
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
-from gaugewalk.tui.app.sheet.rows import all_rows, detail_lines
+from gaugewalk.tui.app.sheet.rows import all_rows, changed_rows, detail_lines
 from gaugewalk.model.session.session import WalkSession
 from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
@@ -43,6 +43,7 @@ class WalkScreen(Screen):
         self._footage_stale = True
         self._boards_stale = True
         self._told_outside = False   # a change on disk was said (once) while changes here wait
+        self._shown = -1   # the session's ``version`` the sheet shows
 
     def compose(self) -> ComposeResult:
         yield Header()
@@ -73,9 +74,12 @@ class WalkScreen(Screen):
 
     def look_at_disk(self) -> None:
         """Now and then, and on coming back to this screen: a walk changed on disk is taken in at
-        once when nothing here waits to be saved; otherwise it is said once, with the key."""
+        once when nothing here waits to be saved; otherwise it is said once, with the key. Not
+        while a save of the app's own is on its way (``WalkSession.saving``): that is no outside
+        change, and a clash the writer meets is taken in by ``after_save``."""
         s = self.session
-        if s.read_only or s.busy or self.app.screen is not self or not s.changed_on_disk():
+        if (s.read_only or s.busy or s.saving or self.app.screen is not self
+                or not s.changed_on_disk()):
             return
         if s.state.saved:
             said = s.take_outside_change(prefer=None)
@@ -95,9 +99,19 @@ class WalkScreen(Screen):
 
     # ----- refreshing -------------------------------------------------------------------
     def reload(self, focus: str | None = None) -> None:
-        """Rebuild the rows from the session (after any change: results can move anywhere)."""
+        """Show the session's walk as it is now: after one change that says which runs it
+        touched (``WalkSession.changed``), only their rows are made again; after any other,
+        every row (results can move anywhere); after none, none."""
         sheet = self.query_one(RunSheet)
-        sheet.set_rows(all_rows(self.session), keep_key=focus)
+        session = self.session
+        if self._shown == session.version and focus is None:
+            pass
+        elif (self._shown == session.version - 1 and session.changed is not None and focus is None
+              and sheet.update_rows(changed_rows(session, session.changed))):
+            pass
+        else:
+            sheet.set_rows(all_rows(session), keep_key=focus)
+        self._shown = session.version
         self._tree_stale = True
         self._footage_stale = True
         self._boards_stale = True

@@ -168,6 +168,14 @@ def all_rows(session: WalkSession) -> list[SheetRow]:
     return [sheet_row(session, r, sources) for r in session.job.runs]
 
 
+def changed_rows(session: WalkSession, run_ids: set[str]) -> list[SheetRow]:
+    """The rows of the runs ``run_ids`` (those of them still in the walk), as ``all_rows``
+    makes them."""
+    sources = source_kinds(session)
+    runs = (session.job.run(rid) for rid in run_ids)
+    return [sheet_row(session, r, sources) for r in runs if r is not None]
+
+
 def detail_lines(session: WalkSession, run: Run | None) -> str:
     """Two or three lines about one run, for under the sheet (Rich markup escaped by caller)."""
     if run is None and session.job.runs:

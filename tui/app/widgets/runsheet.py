@@ -175,6 +175,36 @@ class RunSheet(ScrollView, can_focus=True):
             self._fit_columns()
         self._rebuild_view(keep_key)
 
+    def update_rows(self, changed: Sequence[SheetRow]) -> bool:
+        """Put each row in place of the row of its key, the rest as they are; the columns, the
+        view (filtered, sorted) and the cursor then as ``set_rows`` of the whole would leave
+        them. False, changing nothing, when a key is not in the sheet."""
+        index = self._index
+        if any(row.key not in index for row in changed):
+            return False
+        rows, longest = self.rows, self._longest
+        shrunk = False
+        for row in changed:
+            i = index[row.key]
+            old = rows[i].cells
+            rows[i] = row
+            for c, text in enumerate(row.cells[: len(longest)]):
+                n = len(text)
+                if n > longest[c]:
+                    longest[c] = n
+                elif n < longest[c] and c < len(old) and len(old[c]) == longest[c]:
+                    shrunk = True  # it may have been the longest: count again
+        if shrunk:
+            self._longest = [max((len(r.cells[i]) for r in rows if i < len(r.cells)), default=0)
+                             for i in range(len(self.columns))]
+        if self.is_mounted:
+            self._fit_columns()
+        if self.filter_text or self.filter_pred is not None or self.sort_key:
+            self._rebuild_view(self.cursor_key)  # a changed row may now match, or sort apart
+        else:
+            self.refresh()
+        return True
+
     def set_filter(self, text: str = "", pred: Callable[[SheetRow], bool] | None = None) -> None:
         self.filter_text = text.lower().strip()
         self.filter_pred = pred

@@ -1,0 +1,83 @@
+"""Storing a run in the app: the save is written behind the editing, the run sheet redoes only
+the rows the change touched and then shows what a whole rebuild shows, and a save that fails
+stays said in the title and a notice."""
+
+from __future__ import annotations
+
+from bench.walks import deepest_branch
+from gaugewalk.tui.app.screens.walk import WalkScreen
+from gaugewalk.tui.app.sheet.rows import all_rows
+from gaugewalk.tui.app.widgets.runsheet import RunSheet
+from tests.support.app_helpers import new_app, opened, settle, type_text
+from tests.support.synthetic_walk import synthetic_walk_text
+
+
+def _fresh_sheet(app, sheet: RunSheet) -> RunSheet:
+    """A sheet given every row anew, with the same filter and sort as ``sheet``."""
+    fresh = RunSheet(sheet.columns)
+    fresh.sort_key, fresh.sort_reverse = sheet.sort_key, sheet.sort_reverse
+    fresh.filter_text, fresh.filter_pred = sheet.filter_text, sheet.filter_pred
+    fresh.cursor = sheet.cursor
+    fresh.set_rows(all_rows(app.session), keep_key=sheet.cursor_key)
+    return fresh
+
+
+async def _store_load(app, pilot, run_id: str, text: str) -> None:
+    sheet = app.screen.query_one(RunSheet)
+    assert sheet.move_to(run_id)
+    await pilot.press("e")
+    await pilot.pause()
+    await pilot.press("down")   # the load field, its text selected
+    await type_text(pilot, text)
+    await pilot.press("enter")
+    await settle(app, pilot)
+    assert isinstance(app.screen, WalkScreen)
+
+
+async def test_a_stored_run_redoes_only_the_rows_it_changed_and_shows_the_whole_rebuilds_sheet(
+        tmp_path):
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(400), encoding="utf-8")
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(100, 30)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        target = deepest_branch(app.session.job)
+        rows = sheet.rows
+        for keys, find, text in (((), "", "40A"), (("s",) * 10, "", "3A"),
+                                 (("slash",), target.from_, "25A")):
+            await pilot.press(*keys)   # as it is, sorted by total drop, then filtered too
+            if find:
+                await type_text(pilot, find)
+                await pilot.press("enter")
+            await pilot.pause()
+            assert sheet.sort_key == (None if not keys else "total")
+            before = {row.key: row for row in sheet.rows}
+            await _store_load(app, pilot, target.id, text)
+            assert sheet.rows is rows   # the rows were updated in place, not all made again
+            fresh = _fresh_sheet(app, sheet)
+            assert sheet.rows == fresh.rows
+            assert sheet.view == fresh.view and sheet.cursor_key == fresh.cursor_key
+            assert sheet._longest == fresh._longest
+            moved = {row.key for row in sheet.rows if row != before[row.key]}
+            assert target.id in moved and len(moved) > 1   # the feeders above it moved too
+        assert f'"{text[:-1]}' in path.read_text() or f"= {text[:-1]}" in path.read_text()
+
+
+async def test_a_save_that_fails_behind_the_editing_stays_in_the_title_and_is_said(tmp_path):
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(60), encoding="utf-8")
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(100, 30)) as pilot:
+        await opened(app, pilot)
+        theirs = path.read_text() + "\n"   # someone else saved the walk meanwhile
+        path.write_text(theirs)
+        target = deepest_branch(app.session.job)
+        await _store_load(app, pilot, target.id, "7A")
+        assert "NOT SAVED" in app.title
+        assert any("NOT SAVED" in str(n.message) and "changed on disk" in str(n.message)
+                   for n in app._notifications)
+        assert path.read_text() == theirs
+        sheet = app.screen.query_one(RunSheet)
+        assert sheet.move_to(target.id)   # the run is stored in the walk all the same
+        assert app.session.job.run(target.id).load.value == 7
