@@ -81,3 +81,48 @@ async def test_a_save_that_fails_behind_the_editing_stays_in_the_title_and_is_sa
         sheet = app.screen.query_one(RunSheet)
         assert sheet.move_to(target.id)   # the run is stored in the walk all the same
         assert app.session.job.run(target.id).load.value == 7
+
+
+async def test_a_walk_past_the_size_first_limit_shows_first_and_is_sized_behind(tmp_path,
+                                                                                 monkeypatch):
+    import gaugewalk.tui.app.app as app_module
+    from gaugewalk.tui.app.sheet.rawrows import SIZING
+
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(60), encoding="utf-8")
+    monkeypatch.setattr(app_module, "SIZE_BEFORE_SHOWING", 59)   # one run too many
+    shown_unsized = []
+    original = WalkScreen.on_mount
+
+    def on_mount(self) -> None:
+        original(self)
+        shown_unsized.append(self.query_one(RunSheet).rows[0].cells[-1] == SIZING)
+
+    monkeypatch.setattr(WalkScreen, "on_mount", on_mount)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(100, 30)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        assert shown_unsized == [True]   # the walk screen came up before the sizing
+        assert not app.session.busy
+        assert sheet.rows == all_rows(app.session)
+        assert all(row.cells[-1] != SIZING for row in sheet.rows)
+
+
+async def test_a_walk_within_the_limit_comes_up_sized(tmp_path, monkeypatch):
+    from gaugewalk.tui.app.sheet.rawrows import SIZING
+
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(60), encoding="utf-8")
+    first = []
+    original = WalkScreen.on_mount
+
+    def on_mount(self) -> None:
+        original(self)
+        first.append(self.query_one(RunSheet).rows[0].cells[-1])
+
+    monkeypatch.setattr(WalkScreen, "on_mount", on_mount)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(100, 30)) as pilot:
+        await opened(app, pilot)
+        assert len(first) == 1 and first[0] != SIZING

@@ -26,6 +26,11 @@ if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is 
     from gaugewalk.model.session.session import WalkSession
 
 
+SIZE_BEFORE_SHOWING = 20_000
+"""A walk of up to this many runs is sized before its screen shows (a few tenths of a second at
+most, while the runs as written are on screen); a bigger one shows first, sized behind [runs]."""
+
+
 def light_terminal() -> bool:
     """Guess a light terminal from ``COLORFGBG`` ("fg;bg", bg 7 or 15 is light)."""
     value = os.environ.get("COLORFGBG", "")
@@ -119,14 +124,24 @@ class WalkApp(App[int]):
             return
         session.busy = True
         said = session.take_lock()
+        # the runs as written are on screen meanwhile (raw_rows); a walk of up to
+        # SIZE_BEFORE_SHOWING runs is sized here first, so its sheet is built once, sized
+        size_first = len(session.job.runs) <= SIZE_BEFORE_SHOWING
+        if size_first:
+            from gaugewalk.tui.app.screens import walk  # noqa: F401  # off the event loop
+
+            try:
+                session.recompute()
+            finally:
+                session.busy = False
         self.call_from_thread(self._show, session)
         if said:
             self.call_from_thread(self.notify, said, severity="warning", timeout=12)
         comments = session.comment_warning()
         if comments:
             self.call_from_thread(self.notify, comments, severity="warning", timeout=15)
-        # size the walk once the runs are on screen, so the first paint does not wait for it
-        self.call_from_thread(self.call_after_refresh, self._size_walk, session)
+        if not size_first:  # sized once the walk screen is up: typing can start meanwhile
+            self.call_from_thread(self.call_after_refresh, self._size_walk, session)
 
     @work(thread=True, exclusive=True, group="size")
     def _size_walk(self, session: WalkSession) -> None:
