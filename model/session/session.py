@@ -495,6 +495,14 @@ class WalkSession:
         calls ``after_save`` on its own thread, and ``state`` says how it went."""
         self._saver = SaveBehind(self._write_behind, done)
 
+    def warm_save(self) -> None:
+        """Write each run's text once ahead of the first save (``dumps_walk`` keeping them in
+        the session's ``written``), so the first change saves as quickly as the next. Safe in
+        any thread: a save meanwhile writes its own walk whole, only without the texts."""
+        from gaugewalk.model.walkfile.write import dumps_walk
+
+        dumps_walk(self._job_at(self._snapshot("", None)), self._written)
+
     @property
     def saves_behind(self) -> bool:
         """True once ``save_behind`` was called."""

@@ -77,3 +77,27 @@ async def test_the_view_bar_counts_one_run_as_one_run(tmp_path):
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
         assert "1 run" in shown(app, "#view-bar") and "1 runs" not in shown(app, "#view-bar")
+
+
+async def test_a_sheet_line_drawn_at_once_is_the_line_cropped_and_padded(tmp_path):
+    from rich.segment import Segment
+    from textual.strip import Strip
+
+    from gaugewalk.tui.app.widgets.runsheet import format_line
+
+    app = new_app(write_walk(tmp_path, _many_runs(5)), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        width = sheet.size.width
+        for y in range(len(sheet.view) + 1):   # every row, and a blank line under them
+            line = sheet.render_line(y)
+            if y >= len(sheet.view):
+                assert line.text.strip() == ""
+                continue
+            row = sheet.rows[sheet.view[y]]
+            text = ("▶ " if y == sheet.cursor else "  ") + format_line(sheet.columns, row.cells)
+            style = line._segments[0].style   # cursor, flagged or plain: as render_line chose
+            slow = Strip([Segment(text, style)]).crop(0, width).extend_cell_length(
+                width, sheet.rich_style)
+            assert list(line) == list(slow) and line.cell_length == slow.cell_length == width

@@ -157,3 +157,17 @@ def test_a_change_that_is_not_one_run_in_place_says_every_row_may_have_changed(t
     version = session.version
     assert session.delete_run("R1") is None
     assert session.changed is None and session.version == version + 1
+
+
+def test_texts_made_ahead_of_the_first_save_give_the_same_file(tmp_path):
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(200), encoding="utf-8")
+    session = WalkSession.open(path)
+    session.save_behind()
+    session.warm_save()
+    assert len(session._written) == len(session.job.runs) + len(session.job.sources)
+    rid = next(r.id for r in session.job.runs if r.load is not None)
+    _edit_load(session, rid, 9.5)
+    assert session.settle(30) and session.state.saved
+    assert path.read_text(encoding="utf-8") == dumps_walk(session.job)
+    assert load_walk(path) == session.job

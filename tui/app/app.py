@@ -162,6 +162,11 @@ class WalkApp(App[int]):
     class SavedBehind(Message):
         """The session's writer thread finished a save (``WalkSession.save_behind``)."""
 
+    @work(thread=True, group="warm")
+    def _warm_save(self, session: WalkSession) -> None:
+        """Once the walk is on screen: the runs' texts made ahead of the first save."""
+        session.warm_save()
+
     def _saved_behind(self) -> None:
         """Called in the writer thread: the rest happens on the app's own (post_message is
         thread-safe and never waits, so a quit waiting for the writer cannot deadlock)."""
@@ -243,6 +248,8 @@ class WalkApp(App[int]):
 
         self.session = session
         session.save_behind(self._saved_behind)  # storing a run never waits for the disk
+        if not session.read_only:
+            self.call_after_refresh(self._warm_save, session)
         self.recent.remember(session.path)
         self.push_screen(WalkScreen(session))
         self.refresh_title()

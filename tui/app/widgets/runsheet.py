@@ -10,6 +10,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field, replace
 from typing import Callable, Sequence
 
+from rich.cells import cell_len
 from rich.segment import Segment
 from textual import events
 from textual.binding import Binding
@@ -309,6 +310,11 @@ class RunSheet(ScrollView, can_focus=True):
             style = base + self.get_component_rich_style("runsheet--flag")
         else:
             style = base
+        if scroll_x == 0:  # the usual case: one strip, not one cropped and one padded
+            n = cell_len(text)
+            if n <= width:
+                pad = [Segment(" " * (width - n), base)] if n < width else []
+                return Strip([Segment(text, style), *pad], width)
         strip = Strip([Segment(text, style)]).crop(scroll_x, scroll_x + width)
         return strip.extend_cell_length(width, base)
 
