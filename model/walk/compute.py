@@ -128,20 +128,22 @@ class JobResult:
         return (list(self._run_problems.get(run_id, ()))
                 + list(self._place_problems.get(run_id, ())))
 
-    def marks(self) -> tuple[dict[str, RunResult], dict[str, list[Problem]]]:
+    def _row_tables(self) -> tuple[dict, ...]:
+        """What a run's row in a sheet is made from, by run id: its result and its problems."""
+        return self.runs, self._run_problems, self._place_problems
+
+    def marks(self) -> tuple[dict, ...]:
         """What each run's result and problems are now, for ``changed_since`` after an update
         in place (``gaugewalk.model.walk.recompute``)."""
-        return dict(self.runs), dict(self._run_problems)
+        return tuple(dict(table) for table in self._row_tables())
 
-    def changed_since(self, marks: tuple[dict[str, RunResult], dict[str, list[Problem]]]
-                      ) -> set[str]:
+    def changed_since(self, marks: tuple[dict, ...]) -> set[str]:
         """The runs whose result or problems are other objects than in ``marks``: every update
         puts new ones in (never changes one in place), so the rest are as they were."""
-        runs, problems = marks
-        out = {k for k, v in self.runs.items() if runs.get(k) is not v}
-        out.update(runs.keys() - self.runs.keys())
-        out.update(k for k, v in self._run_problems.items() if problems.get(k) is not v)
-        out.update(problems.keys() - self._run_problems.keys())
+        out: set[str] = set()
+        for now, then in zip(self._row_tables(), marks, strict=True):
+            out.update(k for k, v in now.items() if then.get(k) is not v)
+            out.update(then.keys() - now.keys())
         return out
 
 
