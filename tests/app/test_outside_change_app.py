@@ -6,7 +6,7 @@ from __future__ import annotations
 
 from gaugewalk.model.walkfile.drafts import load_draft
 from gaugewalk.model.walkfile.read import load_walk
-from tests.support.app_helpers import new_app, opened, shown, type_text
+from tests.support.app_helpers import new_app, opened, settle, shown, type_text
 from tests.support.walks import SMALL_WALK, run_table, tables_text, write_walk
 
 
@@ -82,7 +82,7 @@ async def test_ctrl_s_after_a_clash_offers_to_take_the_change_in_and_then_saves(
         theirs = walk.read_text()
         app.session.set_job(app.session.job.job.model_copy(update={"name": "Bakery (ours)"}),
                             app.session.job.defaults)   # as the job settings store it
-        app.refresh_title()
+        await settle(app, pilot)   # the save, behind the editing, meets the clash
         assert "NOT SAVED: changed on disk (ctrl+s)" in app.title
         assert walk.read_text() == theirs
         await pilot.press("ctrl+s")

@@ -8,6 +8,7 @@ from bench.walks import deepest_branch
 from gaugewalk.tui.app.screens.walk import WalkScreen
 from gaugewalk.tui.app.sheet.rows import all_rows
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
+from gaugewalk.model.walkfile.write import dumps_walk
 from tests.support.app_helpers import new_app, opened, settle, type_text
 from tests.support.synthetic_walk import synthetic_walk_text
 
@@ -70,10 +71,13 @@ async def test_a_save_that_fails_behind_the_editing_stays_in_the_title_and_is_sa
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(100, 30)) as pilot:
         await opened(app, pilot)
-        theirs = path.read_text() + "\n"   # someone else saved the walk meanwhile
-        path.write_text(theirs)
         target = deepest_branch(app.session.job)
-        await _store_load(app, pilot, target.id, "7A")
+        other = app.session.job.model_copy(update={"runs": [
+            r.model_copy(update={"load": r.load.model_copy(update={"value": 9})})
+            if r.id == target.id else r for r in app.session.job.runs]})
+        theirs = dumps_walk(other)   # someone else changed the same run's load meanwhile
+        path.write_text(theirs)
+        await _store_load(app, pilot, target.id, "7A")   # both changed it: a clash
         assert "NOT SAVED" in app.title
         assert any("NOT SAVED" in str(n.message) and "changed on disk" in str(n.message)
                    for n in app._notifications)

@@ -178,10 +178,12 @@ class WalkApp(App[int]):
         s = self.session
         if s is None or s.writing:
             return  # a newer save is on its way; it will say how it went
-        version = s.version
         s.after_save()   # here, not in the writer: a change on disk is merged in on this thread
-        if s.version != version:   # the walk took in a change made on disk
-            self._computed()
+        from gaugewalk.tui.app.screens.walk import WalkScreen
+
+        for screen in self.screen_stack:   # a change on disk taken in: the sheet shows it
+            if isinstance(screen, WalkScreen) and screen.shown_version != s.version:
+                screen.reload()
         self.refresh_title()
         state = s.state
         if not state.saved:

@@ -98,6 +98,11 @@ class WalkScreen(Screen):
         return True
 
     # ----- refreshing -------------------------------------------------------------------
+    @property
+    def shown_version(self) -> int:
+        """The session's ``version`` the sheet shows."""
+        return self._shown
+
     def reload(self, focus: str | None = None) -> None:
         """Show the session's walk as it is now: after one change that says which runs it
         touched (``WalkSession.changed``), only their rows are made again; after any other,
