@@ -171,3 +171,60 @@ def test_texts_made_ahead_of_the_first_save_give_the_same_file(tmp_path):
     assert session.settle(30) and session.state.saved
     assert path.read_text(encoding="utf-8") == dumps_walk(session.job)
     assert load_walk(path) == session.job
+
+
+def test_a_change_on_disk_met_by_the_writer_is_merged_on_the_editing_thread_never_written_over(
+        tmp_path, monkeypatch):
+    import gaugewalk.model.session.outside as outside
+
+    path = write_walk(tmp_path)
+    session = WalkSession.open(path)
+    assert session.take_lock() is None
+    threads = []
+    merge = outside.merge_outside
+
+    def merge_here(*args, **kwargs):
+        threads.append(threading.current_thread())
+        return merge(*args, **kwargs)
+
+    monkeypatch.setattr(outside, "merge_outside", merge_here)
+    session.save_behind()
+    path.write_text(path.read_text().replace('length = "40"', 'length = "45"'))  # F1 re-measured
+    run = make_run("R9", "LP1", "Slicer", "20", load=(4, "A"), connection="LN")
+    assert session.put_run(run) is None
+    assert session.settle(10) and session.state.saved, session.state.message
+    assert threads == [threading.current_thread()]   # the merge ran here, not in the writer
+    on_disk = load_walk(path)
+    assert on_disk.run("F1").length == "45" and on_disk.run("R9") is not None   # both kept
+    assert session.job.run("F1").length == "45"      # the walk here took the change in
+    session.release_lock()
+
+
+def test_the_walk_is_not_looked_at_for_outside_changes_while_its_own_save_is_on_its_way(tmp_path):
+    path = write_walk(tmp_path)
+    session = WalkSession.open(path)
+    assert session.take_lock() is None
+    gate = threading.Event()
+    save = session.hold.save
+
+    def slow_save(job, **kwargs):
+        gate.wait(10)
+        return save(job, **kwargs)
+
+    session.hold.save = slow_save
+    session.save_behind()
+    run = make_run("R9", "LP1", "Slicer", "20", load=(4, "A"), connection="LN")
+    assert session.put_run(run) is None
+    path.write_text(path.read_text().replace('length = "40"', 'length = "45"'))  # F1 re-measured
+    assert session.saving and not session.changed_on_disk()   # left to the save on its way
+    gate.set()
+    assert session._saver.wait(10)
+    assert session.saving and not session.changed_on_disk()   # its clash not yet taken in here
+    session.after_save()                   # the writer met the change: merged in here, saved
+    assert not session.saving and session.state.saved, session.state.message
+    on_disk = load_walk(path)
+    assert on_disk.run("F1").length == "45" and on_disk.run("R9") is not None
+    assert not session.changed_on_disk()
+    path.write_text(path.read_text().replace('length = "45"', 'length = "47"'))
+    assert session.changed_on_disk()       # an outside change once nothing is on its way
+    session.release_lock()
