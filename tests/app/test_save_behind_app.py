@@ -5,10 +5,10 @@ stays said in the title and a notice."""
 from __future__ import annotations
 
 from bench.walks import deepest_branch
+from gaugewalk.model.walkfile.write import dumps_walk
 from gaugewalk.tui.app.screens.walk import WalkScreen
 from gaugewalk.tui.app.sheet.rows import all_rows
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
-from gaugewalk.model.walkfile.write import dumps_walk
 from tests.support.app_helpers import new_app, opened, settle, type_text
 from tests.support.synthetic_walk import synthetic_walk_text
 
