@@ -65,6 +65,7 @@ FIELDS: tuple[CardField, ...] = (
     CardField("size", "Size", "blank: picked"),
     CardField("material", "Material", "cu / al"),
     CardField("raceway", "Raceway", "EMT, PVC-40, ..."),
+    CardField("raceway_id", "Shared in", "raceway id; blank: own"),
     CardField("id", "Run id", ""),
     CardField("notes", "Notes", ""),
 )
@@ -97,6 +98,7 @@ def choices(session: WalkSession) -> dict[str, list[str]]:
         "kind": list(vocab.LOAD_KINDS),
         "circuit": list(vocab.CONNECTIONS),
         "material": list(vocab.MATERIALS),
+        "raceway_id": [r.id for r in session.job.raceways],
     }
 
 
@@ -245,6 +247,7 @@ def run_to_fields(run: Run) -> dict[str, str]:
         "material": run.material or "",
         "raceway": run.raceway or "",
         "place": (str(run.position) if run.position is not None else run.phase or ""),
+        "raceway_id": run.raceway_id or "",
         "id": run.id,
         "notes": shown_plain(run.notes),  # control characters made visible, never sent raw
     }
@@ -657,6 +660,27 @@ def _check_place(r: _Reading) -> None:
     r.got["phase"] = text
 
 
+def _check_raceway_id(r: _Reading) -> None:
+    """A shared raceway of the walk (``[[raceway]]``), shown with what is in it now."""
+    rid = r.v["raceway_id"].strip() or None
+    r.got["raceway_id"] = rid
+    if rid is None:
+        return
+    raceway = r.job.raceway(rid)
+    if raceway is None:
+        known = ", ".join(x.id for x in r.job.raceways)
+        r.errors["raceway_id"] = (f"no shared raceway '{rid}'; the walk has {known}" if known
+                                  else f"no shared raceway '{rid}'; add one with "
+                                  "'gaugewalk raceway'")
+        return
+    shared = r.form.session.result.raceways.get(rid) if r.form.session.result else None
+    if shared is not None and shared.trade_size:
+        r.hints["raceway_id"] = (f"{shared.trade_size} {shared.raceway}, {shared.fill_pct:.0f}% "
+                                 f"full, x{shared.adjustment:g}")
+    else:
+        r.hints["raceway_id"] = f"{raceway.length_ft:g} ft shared"
+
+
 def _check_id(r: _Reading) -> None:
     run_id = r.v["id"].strip()
     r.got["id"] = run_id
@@ -681,6 +705,7 @@ CHECKS: tuple[tuple[str, Callable[[_Reading], None]], ...] = (
     ("material", _check_material),
     ("raceway", _check_raceway),
     ("place", _check_place),
+    ("raceway_id", _check_raceway_id),
     ("id", _check_id),
 )
 """Each field's check, in an order where a check may use what the earlier ones read."""
@@ -693,8 +718,8 @@ def _run_data(r: _Reading) -> dict:
         "id": g["id"], "from": g["from"], "to": g["to"], "length": r.v["length"].strip(),
         "load": g["load"], "continuous": g["continuous"], "distributed": g["distributed"],
         "connection": g["connection"], "sets": g["sets"], "size": g["size"],
-        "material": g["material"], "raceway": g["raceway"], "notes": r.v["notes"].strip(),
-        "position": g["position"], "phase": g["phase"],
+        "material": g["material"], "raceway": g["raceway"], "raceway_id": g["raceway_id"],
+        "notes": r.v["notes"].strip(), "position": g["position"], "phase": g["phase"],
     }
 
 
@@ -1004,7 +1029,8 @@ class CardForm:
 _CARD_FIELD = {
     "from": "from", "to": "to", "length": "length", "load": "load", "load.value": "load",
     "load.unit": "load", "load.pf": "load", "load.kind": "kind", "connection": "circuit",
-    "sets": "sets", "size": "size", "material": "material", "raceway": "raceway", "id": "id",
+    "sets": "sets", "size": "size", "material": "material", "raceway": "raceway",
+    "raceway_id": "raceway_id", "id": "id",
     "continuous": "continuous", "distributed": "spread", "notes": "notes",
     **{f"load.{key}": "plate" for key in vocab.NAMEPLATE_KEYS},
 }

@@ -2,10 +2,11 @@
 
 Public API:
 
-- ``check_references(job, locator, file, skip_sources, skip_runs, failed_targets)``: duplicate
-  ids, dangling references, sources fed twice or not at all, loops of feeders, connections a
-  system cannot supply, feeders that do not bring their panel's system, branches without a load;
-  each a ``gaugewalk.model.walk.problems.Problem`` about the run or source.
+- ``check_references(job, locator, file, skip_sources, skip_runs, failed_targets,
+  skip_raceways)``: duplicate ids, dangling references (sources, shared raceways), sources fed
+  twice or not at all, loops of feeders, connections a system cannot supply, feeders that do not
+  bring their panel's system, branches without a load; each a
+  ``gaugewalk.model.walk.problems.Problem`` about the run, source or raceway.
 - ``default_connection(system_id, to_transformer)`` and ``connection_of(job, run)``.
 """
 
@@ -16,7 +17,7 @@ from collections.abc import Callable, Sequence
 from gaugewalk.model.engine.circuits import SYSTEMS, CircuitError, resolve_circuit
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.graph import SupplyGraph
-from gaugewalk.model.walk.job import Job, Run, Source
+from gaugewalk.model.walk.job import Job, Raceway, Run, Source
 from gaugewalk.model.walk.problems import Locator, Problem
 
 # -- references, cycles, systems ---------------------------------------------------------------
@@ -110,11 +111,12 @@ def check_references(
     skip_sources: set[str] = frozenset(),
     skip_runs: set[str] = frozenset(),
     failed_targets: set[str] = frozenset(),
+    skip_raceways: set[str] = frozenset(),
 ) -> list[Problem]:
     """Everything that needs more than one table: duplicate ids, a run from a source that does not
     exist, sources without a feeder or with two, a chain that loops, a connection the source's
     system cannot supply, a feeder that does not deliver its panel's system, a branch without a
-    load. ``skip_*`` are ids of tables that already failed, and ``failed_targets`` the ``to`` of
+    load, a shared raceway named that the walk does not have. ``skip_*`` are ids of tables that already failed, and ``failed_targets`` the ``to`` of
     runs that failed, so one mistake is reported once."""
     problems: list[Problem] = []
     source_index = {id(s): i for i, s in enumerate(job.sources)}
@@ -130,8 +132,17 @@ def check_references(
         line = locator.key_line("source", i, field) if field else locator.table_line("source", i)
         problems.append(Problem(file, line, "source", source.id, field, message))
 
-    tables: tuple[tuple[str, Sequence[Source | Run], Callable], ...] = (
-        ("source", job.sources, at_source), ("run", job.runs, at_run))
+    raceway_index = {id(r): i for i, r in enumerate(job.raceways)}
+
+    def at_raceway(raceway: Raceway, field: str | None, message: str) -> None:
+        i = raceway_index[id(raceway)]
+        line = (locator.key_line("raceway", i, field) if field
+                else locator.table_line("raceway", i))
+        problems.append(Problem(file, line, "raceway", raceway.id, field, message))
+
+    tables: tuple[tuple[str, Sequence[Source | Run | Raceway], Callable], ...] = (
+        ("source", job.sources, at_source), ("raceway", job.raceways, at_raceway),
+        ("run", job.runs, at_run))
     for table, items, at in tables:
         seen: dict[str, int] = {}
         for i, item in enumerate(items):
@@ -162,6 +173,12 @@ def check_references(
     for loop, closing in graph.feeder_loops():
         at_run(closing, "from", "the feeders go round in a loop: " + " <- ".join(loop)
                + "; one of them must come from another source")
+
+    raceway_ids = {r.id for r in job.raceways} | set(skip_raceways)
+    for r in job.runs:
+        if r.raceway_id is not None and r.raceway_id not in raceway_ids and r.id not in skip_runs:
+            at_run(r, "raceway_id", f"there is no shared raceway '{r.raceway_id}'; add it as a "
+                   "[[raceway]] table or correct the id")
 
     circuits: dict[tuple[str, str | None], object] = {}  # Circuit or the CircuitError
     for r in job.runs:

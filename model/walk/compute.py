@@ -10,8 +10,10 @@ Public API:
   {source id: [VA] it serves}, ``run_va`` {run id: [VA]}, ``lines`` {source id: ``Lines``, the
   phasor sums of its lines}, ``placements`` {run id: ``Placement``}, ``feeders`` {run id:
   ``FeederInfo``}, ``transformers`` {source id: ``TransformerInfo``}, ``loadings`` {source id:
-  ``Loading``}, ``problems`` (list of ``Problem``), ``ok``, ``run_problems(run_id)``; ``marks()`` and
-  ``changed_since(marks)``: the runs an update in place changed.
+  ``Loading``}, ``raceways`` {raceway id: ``SharedRaceway``} (shared raceways,
+  ``gaugewalk.model.walk.raceways``), ``problems`` (list of ``Problem``, per run, per chain and
+  per shared raceway), ``ok``, ``run_problems(run_id)``; ``marks()`` and ``changed_since(marks)``:
+  the runs an update in place changed.
 - ``FeederInfo``: what a feeder is sized for (``basis`` in words, ``amps``), its heaviest
   ``line`` and ``load_amps``, and the connected-load answer ``beside`` an equipment basis.
 - ``run_spec_for(job, run, upstream_drop_pct, *, result=None) -> RunSpec`` and
@@ -24,7 +26,9 @@ Rules: the supply graph (``gaugewalk.model.walk.graph``) is walked from the bott
 source's runs and sum its lines (``phases``, ``feeder_loads``; NEC 215.2(A)(1), 220.61), with the
 transformers (``transformers``: Table 450.3(B), 240.21(C)) and the ratings (``ratings``:
 408.30, 408.36); then from the top, each run sized by the engine (``gaugewalk.model.engine.sizing``)
-with the drop carried down (``chain``).
+with the drop carried down (``chain``). A run in a shared raceway is sized with the adjustment
+of NEC 310.15(C)(1) for every current-carrying conductor in it, and the raceway's fill is checked
+once every run is sized (``gaugewalk.model.walk.raceways``).
 """
 
 from __future__ import annotations
@@ -68,6 +72,12 @@ from gaugewalk.model.walk.motor_feeders import (
 )
 from gaugewalk.model.walk.phases import Placement
 from gaugewalk.model.walk.problems import Problem
+from gaugewalk.model.walk.raceways import (
+    SharedRaceway,
+    ccc_by_raceway,
+    raceway_ccc,
+    shared_raceways,
+)
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
 from gaugewalk.model.walk.vocabulary import LINE_NAMES
 
@@ -105,6 +115,7 @@ class JobResult:
     transformers: dict[str, TransformerInfo] = field(default_factory=dict)
     loadings: dict[str, Loading] = field(default_factory=dict)
     motor_groups: dict[str, MotorGroup] = field(default_factory=dict)
+    raceways: dict[str, SharedRaceway] = field(default_factory=dict)
     problems: list[Problem] = field(default_factory=list)
     # kept for recompute_run
     _specs: dict[str, RunSpec] = field(default_factory=dict, repr=False)
@@ -115,6 +126,7 @@ class JobResult:
     _place_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _sum_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _chain_problems: list[Problem] = field(default_factory=list, repr=False)
+    _raceway_problems: list[Problem] = field(default_factory=list, repr=False)
     _shape: tuple = field(default=(), repr=False)
     _walk: SupplyGraph | None = field(default=None, repr=False, compare=False)
 
@@ -163,7 +175,8 @@ def run_spec_for(
     for what its source's lines carry, read from ``result`` (the walk computed already) or
     summed here; a feeder's rules (a transformer's primary device, 240.21(C), the equipment
     basis) come from the same place. Raises ``LoadError`` or ``CircuitError`` for a run that
-    cannot be specified.
+    cannot be specified. A run in a shared raceway is adjusted for every current-carrying
+    conductor in it (NEC 310.15(C)(1)).
     """
     state = _state_for(job, result)
     if circuit is None:
@@ -175,8 +188,9 @@ def run_spec_for(
         is_feeder = job.source(run.to) is not None
     rule = state.feeder_rule(run, is_feeder)
     feed = state.result._feeds.get(run.to) if is_feeder else None
+    ccc = raceway_ccc(job, run.raceway_id) if run.raceway_id is not None else None
     return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feed, rule,
-                 _motors_fed(job, state.result, run, is_feeder))
+                 _motors_fed(job, state.result, run, is_feeder), ccc or None)
 
 
 def size_run(job: Job, run: Run, upstream_drop_pct: float,
@@ -239,7 +253,7 @@ def _motors_fed(job: Job, result: JobResult, run: Run, is_feeder: bool) -> Motor
 
 def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder: bool,
           feed: Feed | None, rule: FeederRule | None = None,
-          motors: MotorGroup | None = None) -> RunSpec:
+          motors: MotorGroup | None = None, ccc: int | None = None) -> RunSpec:
     d = job.defaults
     pf = d.pf
     continuous_amps = None
@@ -268,7 +282,7 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         max_drop = d.feeder_drop_pct if feeder else d.branch_drop_pct
     # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (the
     # larger part of this function's time): every field of RunSpec is set, in field order, those
-    # not given here to RunSpec's defaults (ccc, egc, egc_material, egc_bare, stranded).
+    # not given here to RunSpec's defaults (egc, egc_material, egc_bare, stranded).
     spec = _new_object(RunSpec)
     values = _SPEC_TEMPLATE.copy()
     values["circuit"] = circuit
@@ -302,6 +316,7 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         if rule.ocpd_a is not None:
             values["ocpd_a"] = rule.ocpd_a
         values["min_ampacity_a"] = rule.min_ampacity_a
+    values["ccc"] = ccc
     _set_attr(spec, "__dict__", values)
     return spec
 
@@ -323,6 +338,7 @@ class WalkState:
         self.job = walk.job if walk is not None else job
         self.result = result
         self._circuit_cache: dict[tuple[str, str], Circuit] = {}
+        self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
 
     def fail(self, run: Run, message: str, field_name: str | None = None) -> None:
         self.result._run_problems[run.id] = [Problem("", None, "run", run.id, field_name, message)]
@@ -496,13 +512,15 @@ class WalkState:
         feed = res._feeds.get(r.to) if is_feeder else None
         rule = self.feeder_rule(r, is_feeder) if is_feeder or _from_transformer(self, r) else None
         motors = _motors_fed(self.job, res, r, is_feeder)
+        ccc = self.shared_ccc.get(r.raceway_id) if r.raceway_id is not None else None
         try:
-            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule, motors)
+            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule, motors,
+                         ccc or None)
             result = evaluate(spec)
             beside = None
             if rule is not None and rule.beside:
                 beside = evaluate(_spec(self.job, r, upstream, circuit, is_feeder, feed,
-                                        None, motors))
+                                        None, motors, ccc or None))
         except (LoadError, CircuitError, ValueError) as exc:
             self.forget(r)
             self.fail(r, str(exc))
@@ -592,9 +610,19 @@ class WalkState:
                 found.append(Problem("", None, "source", sid, "main_a", why))
         res._chain_problems = found
 
+    def count_shared(self) -> None:
+        """Current-carrying conductors in each shared raceway, before any run is sized."""
+        self.shared_ccc = ccc_by_raceway(self.job, self.result._circuits)
+
+    def check_shared(self) -> None:
+        """Each shared raceway's fill, once every run is sized."""
+        res = self.result
+        res.raceways, res._raceway_problems = shared_raceways(self.job, res.runs,
+                                                              self.shared_ccc)
+
     def assemble_problems(self) -> None:
         res = self.result
-        problems = list(res._chain_problems)
+        problems = list(res._chain_problems) + res._raceway_problems
         position = self.walk.position
         runs = res._run_problems
         placed = res._place_problems
@@ -633,10 +661,12 @@ def _compute_job(job: Job) -> JobResult:
     state = WalkState(walk, result)
     state.resolve_circuits()
     state.sum_all()
+    state.count_shared()
     for sid in walk.order:
         upstream = result.source_drop_pct.setdefault(sid, 0.0)
         for r in walk.children[sid]:
             state.evaluate_run(r, upstream)
+    state.check_shared()
     state.chain_problems()
     state.assemble_problems()
     result._shape = walk.shape()

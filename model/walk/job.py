@@ -4,7 +4,8 @@ Public API (other modules code against these names):
 
 - ``Job``: ``schema`` (file format version), ``job`` (``JobHeader``), ``defaults`` (``Defaults``),
   ``sources`` (list of ``Source``, ``[[source]]`` in the file), ``runs`` (list of ``Run``,
-  ``[[run]]`` in the file). Lookups: ``job.source(id)``, ``job.run(id)``, ``job.is_feeder(run)``,
+  ``[[run]]`` in the file), ``raceways`` (list of ``Raceway``, ``[[raceway]]``). Lookups:
+  ``job.source(id)``, ``job.run(id)``, ``job.raceway(id)``, ``job.runs_in(raceway_id)``, ``job.is_feeder(run)``,
   ``job.feeder_of(source_id)``, ``job.runs_from(source_id)``, ``job.next_run_id(prefix)``,
   ``job.effective(run, name)`` (a per-run override or the job default).
 - ``JobHeader``: name, site, walked_on, walked_by, notes.
@@ -20,6 +21,10 @@ Public API (other modules code against these names):
   load (``Load``: value, unit, pf, kind and the nameplate values of its kind), continuous (None:
   as the kind says), distributed, connection, position, phase, sets, size, ocpd_a, basis,
   per-run overrides of the defaults (None: inherit), bends, measured_on, notes.
+- ``Raceway``: a raceway several runs share (``[[raceway]]`` in the file): id, type (None: the
+  job's raceway), size (trade size; None: sized for what is in it), length (its own route
+  length), bends, notes. A run names the one it is in with ``raceway_id``; the shared raceway is
+  worked out by ``gaugewalk.model.walk.raceways``.
 - ``SCHEMA_VERSION``, ``OVERRIDABLE`` (run fields that fall back to defaults). The words the
   fields accept are in ``gaugewalk.model.engine.vocabulary`` and ``gaugewalk.model.walk.vocabulary``.
 - ``new_walk(name=..., site=..., walked_by=..., walked_on=..., service_system=...) -> Job``.
@@ -81,7 +86,7 @@ from gaugewalk.tables.conductor.sizes import parse_size
 from gaugewalk.tables.equipment.horsepower import hp_text, parse_hp
 from gaugewalk.tables.equipment.motors import horsepowers
 from gaugewalk.tables.errors import TableLookupError
-from gaugewalk.tables.raceway.fill import parse_raceway
+from gaugewalk.tables.raceway.fill import TRADE_SIZES, parse_raceway, trade_sizes
 from gaugewalk.tables.raceway.install import PULL_EVERY_FT
 
 SCHEMA_VERSION = 1
@@ -456,6 +461,56 @@ class Source(_Strict):
             raise ValueError(str(exc)) from None
 
 
+def _trade_size(value: str | None) -> str | None:
+    """A trade size as NEC Ch. 9 Table 4 writes it (``1-1/4``; ``1 1/4`` and ``1-1/4"`` read)."""
+    if value is None:
+        return None
+    key = str(value).strip().replace('"', "").replace(" ", "-")
+    if key not in TRADE_SIZES:
+        raise ValueError(f"no trade size '{value}'; trade sizes are {', '.join(TRADE_SIZES)}")
+    return key
+
+
+class Raceway(_Strict):
+    """A raceway several runs share for part or all of their route: its fill is checked for
+    every conductor in it (NEC Ch. 9 Tables 1, 4, 5), every run in it is adjusted for the
+    current-carrying conductors in it (310.15(C)(1)), and the takeoff counts it once."""
+
+    id: str
+    """Short id the runs name in ``raceway_id``, e.g. ``HR-1``."""
+    type: RacewayName | None = None
+    """Raceway type (NEC Ch. 9 Table 4 names); None: the job default."""
+    size: Annotated[str | None, AfterValidator(_trade_size)] = None
+    """Trade size fixed by the user, e.g. ``1-1/4``; None: the smallest that holds what is in it."""
+    length: LengthText
+    """Its own route length, the part the runs share [ft unless a unit is given]."""
+    bends: int | None = Field(None, ge=0, le=100)
+    """90-degree bends along it (elbows and pull points for the takeoff)."""
+    notes: str = ""
+    """Where it goes."""
+
+    _length_ft: float = PrivateAttr(default=0.0)
+
+    @field_validator("id")
+    @classmethod
+    def _usable_id(cls, value: str) -> str:
+        return _check_id(value)
+
+    @model_validator(mode="after")
+    def _size_made(self) -> Raceway:
+        if self.type is not None and self.size is not None and \
+                self.size not in trade_sizes(self.type):
+            raise ValueError(f"{self.type} is not made in trade size {self.size}; its sizes are "
+                             f"{', '.join(trade_sizes(self.type))}")
+        self.__pydantic_private__["_length_ft"] = parse_length(self.length)
+        return self
+
+    @property
+    def length_ft(self) -> float:
+        """Route length of the shared raceway [ft], read from ``length``."""
+        return self.__pydantic_private__["_length_ft"]
+
+
 class Run(_Strict):
     """One run of conductors from a source to a panel (a feeder) or to a load (a branch)."""
 
@@ -511,7 +566,11 @@ class Run(_Strict):
     max_drop_pct: float | None = Field(None, gt=0.0, le=20.0)
     """Drop target for this run [%]; None: the job's branch or feeder target."""
     bends: int | None = Field(None, ge=0, le=100)
-    """90-degree bends along the route (elbows for the takeoff)."""
+    """90-degree bends along the route (elbows for the takeoff); in a shared raceway, those of
+    the run's own part."""
+    raceway_id: str | None = None
+    """Id of the shared raceway (``[[raceway]]``) the run is in, for that raceway's length; the
+    rest of its route is in a raceway of its own. None: its own raceway all the way."""
     measured_on: date | None = None
     """When the length was last measured."""
     notes: str = ""
@@ -538,6 +597,11 @@ class Run(_Strict):
         if refusal is not None:
             raise ValueError(refusal)
         return None if value == kind_continuous(kind, tank) else value
+
+    @field_validator("raceway_id")
+    @classmethod
+    def _raceway_is_id(cls, value: str | None) -> str | None:
+        return None if value is None else _check_id(value)
 
     @model_validator(mode="after")
     def _feet(self) -> Run:
@@ -599,6 +663,8 @@ with warnings.catch_warnings():
         """Service, switchboards, panels and transformers (``[[source]]``)."""
         runs: list[Run] = Field(default_factory=list, alias="run")
         """Every run walked (``[[run]]``)."""
+        raceways: list[Raceway] = Field(default_factory=list, alias="raceway")
+        """Raceways several runs share (``[[raceway]]``)."""
 
         _index_cache: tuple | None = PrivateAttr(default=None)
 
@@ -664,6 +730,14 @@ with warnings.catch_warnings():
                 self._index_cache = None
                 found = self._index()[1].get(run_id)
             return found
+
+        def raceway(self, raceway_id: str) -> Raceway | None:
+            """The shared raceway with this id, or None (a walk has few: no index)."""
+            return next((r for r in self.raceways if r.id == raceway_id), None)
+
+        def runs_in(self, raceway_id: str) -> list[Run]:
+            """Runs in the shared raceway ``raceway_id``, in file order."""
+            return [r for r in self.runs if r.raceway_id == raceway_id]
 
         def is_feeder(self, run: Run) -> bool:
             """True when the run ends at a source of this job (it feeds that source)."""

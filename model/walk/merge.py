@@ -3,8 +3,9 @@ and the runs typed in the app since it was read.
 
 Public API:
 
-- ``merge_jobs(a, b, prefer=None, base=None) -> MergeResult``: sources and runs matched by id,
-  the job header and the defaults key by key, every item accounted for in ``MergeResult.taken``.
+- ``merge_jobs(a, b, prefer=None, base=None) -> MergeResult``: sources, shared raceways and runs
+  matched by id, the job header and the defaults key by key, every item accounted for in
+  ``MergeResult.taken``.
 - ``Conflict(kind, id, fields)``: one id (or header/defaults key) both sides changed, each its
   own way; ``str()`` says how, in one line.
 
@@ -22,12 +23,13 @@ The rules, for each id (and each header or defaults key):
 - *Two runs that got the same id* (new on both sides: not in the base, or no base, and going
   between different ends, ``from`` and ``to``) are two runs: both are kept, B's renumbered to
   the next free id of its kind (``R7`` -> ``R31``), and ``taken["renumbered"]`` says so. Two
-  sources cannot be renumbered (runs name them): the same id new on both sides is a conflict.
+  sources or raceways cannot be renumbered (runs name them): the same id new on both sides is a
+  conflict.
 - ``prefer="a"`` or ``"b"`` settles only true conflicts, each listed in ``conflicts`` and in
   ``taken``; without it ``MergeResult.job`` is None while there are conflicts. Nothing is
-  dropped silently: every run and source of both sides is in ``taken``.
+  dropped silently: every run, source and raceway of both sides is in ``taken``.
 
-Order: A's sources and runs in A's order, then those only B has, in B's order.
+Order: A's sources, raceways and runs in A's order, then those only B has, in B's order.
 """
 
 from __future__ import annotations
@@ -50,14 +52,14 @@ TAKEN_KEYS = ("both", "a only", "b only", "changed in a", "changed in b", "delet
 class Conflict:
     """One id (or header/defaults key) both sides changed, each its own way."""
 
-    kind: str                    # "run", "source", "job", "defaults"
+    kind: str                    # "run", "source", "raceway", "job", "defaults"
     id: str                      # run or source id, or the key for job/defaults
     fields: tuple[tuple[str, object, object], ...]  # (field, value in A, value in B)
 
     def __str__(self) -> str:
         diffs = "; ".join(f"{name}: A has {_show(va)}, B has {_show(vb)}"
                           for name, va, vb in self.fields)
-        label = (f"{self.kind} {self.id}" if self.kind in ("run", "source")
+        label = (f"{self.kind} {self.id}" if self.kind in ("run", "source", "raceway")
                  else f"[{self.kind}] {self.id}")
         return f"{label} differs: {diffs}"
 
@@ -172,7 +174,7 @@ def merge_jobs(a: Job, b: Job, prefer: Side | None = None, base: Job | None = No
                 out[key] = value
         merged_parts[part] = type(getattr(a, part)).model_validate(out)
 
-    # -- sources and runs: by id -------------------------------------------------------------
+    # -- sources, raceways and runs: by id ---------------------------------------------------
     def items(kind: str, list_a, list_b, list_0, used: set[str]):
         by_a = {x.id: x for x in list_a}
         by_b = {x.id: x for x in list_b}
@@ -241,12 +243,15 @@ def merge_jobs(a: Job, b: Job, prefer: Side | None = None, base: Job | None = No
 
     sources = items("source", a.sources, b.sources, base.sources if base else None,
                     {s.id for s in (*a.sources, *b.sources)})
+    raceways = items("raceway", a.raceways, b.raceways, base.raceways if base else None,
+                     {w.id for w in (*a.raceways, *b.raceways)})
     run_ids = {r.id for r in (*a.runs, *b.runs, *(base.runs if base else ()))}
     runs = items("run", a.runs, b.runs, base.runs if base else None, run_ids)
     if conflicts and prefer is None:
         return MergeResult(None, conflicts, taken, renamed)
     job = Job(schema=max(a.schema, b.schema), job=merged_parts["job"],
-              defaults=merged_parts["defaults"], sources=sources, runs=runs)
+              defaults=merged_parts["defaults"], sources=sources, runs=runs,
+              raceways=raceways)
     return MergeResult(job, conflicts, taken, renamed)
 
 

@@ -25,9 +25,10 @@ from typing import Any
 
 from gaugewalk.model.walk.plain_text import shown
 
-ABOUT = ("file", "job", "defaults", "source", "run", "option")
+ABOUT = ("file", "job", "defaults", "source", "raceway", "run", "option")
 """What a problem can be about: the file as a whole, the ``[job]`` or ``[defaults]`` table, one
-``[[source]]`` or ``[[run]]`` (named by ``Problem.id``), or a command-line option."""
+``[[source]]``, ``[[raceway]]`` or ``[[run]]`` (named by ``Problem.id``), or a command-line
+option."""
 
 
 @dataclass(frozen=True)

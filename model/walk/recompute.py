@@ -6,7 +6,7 @@ while what its feeder carries changes, up to a feeder that gives its own load; t
 sized again, top-down (an edit of the feeder into a transformer, which sets the rules of
 everything on its secondary, computes the whole walk); then below every source whose bus drop changed, only the runs whose size
 could change (upsized for drop, with problems, or pushed over the total target); the rest have
-their total drop shifted. The result equals ``compute_job`` of the edited walk (tests compare
+their total drop shifted. A walk with shared raceways is computed whole. The result equals ``compute_job`` of the edited walk (tests compare
 them run by run).
 
 Public API:
@@ -34,12 +34,13 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
     feeders whose load changed; then, below every source whose drop changed, re-evaluates only
     the runs whose size could change (upsized for drop, with problems, or pushed over the total
     target) and shifts the total drop of the rest. Falls back to ``compute_job`` when runs or
-    sources were added, removed or re-pointed. Only ``run_id`` may have changed since
+    sources were added, removed or re-pointed, and on a walk with shared raceways (a run's
+    change moves the adjustment and fill of every run beside it). Only ``run_id`` may have changed since
     ``result`` was computed (edited in place or put in place of the run of the same id, as the
     app does).
     """
     run = job.run(run_id)
-    if run is None:
+    if run is None or job.raceways or result.raceways:
         return compute_job(job)
     walk = result._walk
     if not isinstance(walk, SupplyGraph) or not walk.fits(job, run, result._shape):

@@ -28,6 +28,11 @@ File layout (schema 1)::
     kind = "service"
     system = "480Y/277V 3ph 4w"
 
+    [[raceway]]         # shared by the runs that name it in raceway_id
+    id = "HR1"
+    type = "EMT"
+    length = "60+15"
+
     [[run]]
     id = "F1"
     from = "MDP"
@@ -47,7 +52,15 @@ from pathlib import Path
 from pydantic import BaseModel, ValidationError
 
 from gaugewalk.model.walk.checks import check_references
-from gaugewalk.model.walk.job import SCHEMA_VERSION, Defaults, Job, JobHeader, Run, Source
+from gaugewalk.model.walk.job import (
+    SCHEMA_VERSION,
+    Defaults,
+    Job,
+    JobHeader,
+    Raceway,
+    Run,
+    Source,
+)
 from gaugewalk.model.walk.problems import Locator, Problem, problems_from_errors
 from gaugewalk.model.walkfile.migrate import migrate
 from gaugewalk.model.walkfile.toml_parse import parse_toml
@@ -71,7 +84,7 @@ class WalkFileError(Exception):
 
 
 _TOML_LINE_RE = re.compile(r"\(at line (\d+), column (\d+)\)")
-_TOP_KEYS = ("schema", "job", "defaults", "source", "run")
+_TOP_KEYS = ("schema", "job", "defaults", "source", "raceway", "run")
 
 
 def _syntax_problem(exc: tomllib.TOMLDecodeError, file: str) -> Problem:
@@ -177,15 +190,17 @@ def _check_walk_text(text: str, path: str | os.PathLike) -> tuple[Job | None, li
         return None, [Problem(file, None, "file", None, "run", too_many(len(raw_runs)))]
     sources, source_positions, bad_sources = many("source", Source)
     runs, run_positions, bad_runs = many("run", Run)
+    raceways, raceway_positions, bad_raceways = many("raceway", Raceway)
 
     if header is None or defaults is None:
         return None, problems
     # every part was validated above; building the Job again would re-run each run's checks
     job = Job.model_construct(schema=data.get("schema", SCHEMA_VERSION), job=header,
-                              defaults=defaults, sources=sources, runs=runs)
+                              defaults=defaults, sources=sources, runs=runs, raceways=raceways)
     # cross-checks see only the tables that validated; map their positions back to the file
-    shifted = _Shifted(locator, source_positions, run_positions)
-    problems.extend(check_references(job, shifted, file, bad_sources, bad_runs, failed_targets))
+    shifted = _Shifted(locator, source_positions, run_positions, raceway_positions)
+    problems.extend(check_references(job, shifted, file, bad_sources, bad_runs, failed_targets,
+                                     bad_raceways))
     problems.sort(key=lambda p: (p.line is None, p.line or 0))
     return job, problems
 
@@ -214,10 +229,12 @@ class _LazyLocator(Locator):
 class _Shifted(Locator):
     """A Locator whose run/source indices count only the tables that validated."""
 
-    def __init__(self, base: Locator, source_positions: list[int], run_positions: list[int]):
+    def __init__(self, base: Locator, source_positions: list[int], run_positions: list[int],
+                 raceway_positions: list[int]):
         self._base = base
         self._sources = source_positions
         self._runs = run_positions
+        self._raceways = raceway_positions
 
     def _map(self, table: str, index: int | None) -> int | None:
         if index is None:
@@ -226,6 +243,8 @@ class _Shifted(Locator):
             return self._runs[index] if index < len(self._runs) else index
         if table == "source":
             return self._sources[index] if index < len(self._sources) else index
+        if table == "raceway":
+            return self._raceways[index] if index < len(self._raceways) else index
         return index
 
     def table_line(self, table: str, index: int | None = None) -> int | None:

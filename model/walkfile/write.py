@@ -238,6 +238,8 @@ def dumps_walk(job: Job, written: Written | None = None) -> str:
     if written is None:
         for source in job.sources:
             out += ["[[source]]", *_table(source), ""]
+        for raceway in job.raceways:
+            out += ["[[raceway]]", *_table(raceway), ""]
         for run in job.runs:
             out += ["[[run]]", *_table(run), ""]
         return "\n".join(out).rstrip("\n") + "\n"
@@ -245,7 +247,8 @@ def dumps_walk(job: Job, written: Written | None = None) -> str:
     parts = [head]
     kept: Written = {}
     listed: tuple[tuple[str, list[BaseModel]], ...] = (
-        ("[[source]]", list(job.sources)), ("[[run]]", list(job.runs)))
+        ("[[source]]", list(job.sources)), ("[[raceway]]", list(job.raceways)),
+        ("[[run]]", list(job.runs)))
     for heading, items in listed:
         for item in items:
             key = id(item)

@@ -104,5 +104,6 @@ def test_the_committed_json_schema_is_up_to_date():
 def test_the_schema_command_prints_the_schema_naming_the_file_keys(capsys):
     assert main(["schema"]) == 0
     schema = json.loads(capsys.readouterr().out)
-    assert set(schema["properties"]) == {"schema", "job", "defaults", "source", "run"}
+    assert set(schema["properties"]) == {"schema", "job", "defaults", "source", "raceway",
+                                         "run"}
     assert "from" in schema["$defs"]["Run"]["properties"]

@@ -452,3 +452,25 @@ def test_a_card_like_a_run_with_a_position_takes_the_next_position_its_poles_fit
     third.start()
     third.like(session.job.run("R2"))  # 7 and 9 taken now: 11 and 13
     assert third.values["place"] == "11"
+
+
+def test_the_card_puts_a_run_in_a_shared_raceway_and_sizes_it_with_its_neighbours(tmp_path):
+    from tests.support.walks import panel_walk, run_table, tables_text
+
+    # three 120 V circuits already in HR1 (6 CCC: hot and neutral of each, NEC 310.15(E));
+    # the card's run makes 8: NEC Table 310.15(C)(1) 7-9, 70 %
+    text = panel_walk("Shared card", *[
+        run_table(f"R{i}", "LP1", f"Lights {i}", "40", load=(10, "A"), connection="LN",
+                  raceway_id="HR1") for i in (1, 2, 3)]) + tables_text(
+        "raceway", [{"id": "HR1", "type": "EMT", "length": "30"}])
+    session = WalkSession.open(write_walk(tmp_path, text))
+    form = CardForm(session)
+    form.start()
+    form.type("raceway_id", "HR9")
+    assert "no shared raceway 'HR9'; the walk has HR1" in form.check().errors["raceway_id"]
+    checked = _typed(form, to="Lights 4", length="40", load="10A", raceway_id="HR1").check()
+    assert checked.errors == {}
+    assert checked.run.raceway_id == "HR1"
+    assert any("310.15(C)(1): 8 current-carrying conductors, factor 0.7" in n
+               for n in checked.result.notes)
+    assert "x0.8" in checked.hints["raceway_id"]  # what HR1 takes now: 6 CCC, 80 %

@@ -70,6 +70,8 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--max-drop", type=float, metavar="PCT",
                         help="drop target for this run [%%]")
     parser.add_argument("--bends", type=int, help="90-degree bends along the route")
+    parser.add_argument("--raceway-id", metavar="ID",
+                        help="the shared raceway ([[raceway]]) the run is in")
     parser.add_argument("--measured-on", metavar="YYYY-MM-DD", help="date the length was measured")
     parser.add_argument("--notes", default="", help="notes on the run")
 
@@ -85,6 +87,7 @@ def _run_data(args: argparse.Namespace, run_id: str) -> dict:
         "raceway": args.raceway, "terminal_temp": args.terminal_temp, "ambient_c": args.ambient,
         "max_drop_pct": args.max_drop, "bends": args.bends, "measured_on": args.measured_on,
         "position": args.position, "phase": args.phase,
+        "raceway_id": args.raceway_id,
     }
     data.update({k: v for k, v in options.items() if v is not None})
     if args.continuous is not None:

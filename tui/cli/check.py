@@ -48,7 +48,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             "load_kind": r.load.kind if r.load is not None else "general",
             "amps": None, "required_ampacity_a": None, "design_amps": None, "size": None,
             "sets": r.sets, "material": None, "ocpd_a": None,
-            "egc_size": None, "raceway": None, "raceway_size": None,
+            "egc_size": None, "raceway": None, "raceway_size": None, "raceway_id": r.raceway_id,
             "voltage_drop_pct": None, "total_drop_pct": None, "governed_by": None,
             "flc_a": None, "locked_rotor_a": None, "starting_drop_pct": None, "kind_rule": None,
             "ok": False, "problems": [p.message for p in result.run_problems(r.id)],
@@ -83,6 +83,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
                     "ocpd_a": beside.ocpd_a, "voltage_drop_pct": round(beside.voltage_drop_pct, 4)}
         runs.append(entry)
     sources = [source_entry(job, result, s.id) for s in job.sources]
+    raceways = [shared.to_dict() for shared in result.raceways.values()]
     failing = [e["id"] for e in runs if not e["ok"]]
     totals = [e["total_drop_pct"] for e in runs if e["total_drop_pct"] is not None]
     worst = max(runs, key=lambda e: e["total_drop_pct"] or -1.0, default=None)
@@ -93,6 +94,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         "sources": sources,
         "drop_through_transformers": job.defaults.drop_through_transformers,
         "drop_basis": drop_basis(job),
+        "raceways": raceways,
         "summary": {
             "runs": len(runs),
             "ok": len(runs) - len(failing),
@@ -141,6 +143,8 @@ def _table(path: str, job: Job, result: JobResult) -> str:
     title = f"{job.job.name or shown(path)}: {counts}"
     lines = [title, "", head, "-" * len(head)] + [line(row) for row in rows]
     lines.append("")
+    if result.raceways:
+        lines += [_shared_line(s) for s in result.raceways.values()] + [""]
     if result.problems:
         lines.append(f"{len(result.problems)} problem(s):")
         lines += [f"  {p.brief()}" for p in result.problems]
@@ -153,6 +157,14 @@ def _table(path: str, job: Job, result: JobResult) -> str:
         lines += [f"  {p.brief()}" for p in warnings]
     lines += ["", CAUTION]
     return "\n".join(lines)
+
+
+def _shared_line(s) -> str:
+    """One line per shared raceway: its size, fill and the adjustment its runs take."""
+    size = f"{s.trade_size} {s.raceway}" if s.trade_size else f"{s.raceway}, no size holds it"
+    return (f"raceway {s.id}: {size}, {len(s.runs)} runs, {s.conductors} conductors "
+            f"{s.fill_pct:.0f}% full (limit {s.fill_limit_pct:g}%), {s.ccc} current-carrying, "
+            f"adjustment {s.adjustment:g}")
 
 
 def run(args: argparse.Namespace) -> int:

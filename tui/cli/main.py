@@ -42,6 +42,8 @@ COMMANDS: tuple[Command, ...] = (
             "Add a run to a walk file (same length grammar as 'calc')."),
     Command("place", "gaugewalk.tui.cli.place",
             "Write the breaker positions the tool picked into the walk file."),
+    Command("raceway", "gaugewalk.tui.cli.raceway",
+            "List a walk's shared raceways (fill, adjustment), or add one that runs can share."),
     Command("check", "gaugewalk.tui.cli.check",
             "Check a walk file and compute every run (exit 0 all within limits, 1 not, "
             "2 invalid)."),

@@ -14,15 +14,16 @@ from gaugewalk.model.walk.takeoff.build import (
 from gaugewalk.model.walk.takeoff.footage import conductor_footage, phase_colours_for
 from gaugewalk.model.walk.takeoff.lines import (
     PRICED_FIELDS, ROW_FIELDS, Cut, FittingLine, OrderLine, Piece, PutUpCount, RacewayLine,
-    RunMaterial, SizeFootage, Takeoff, TakeoffError, TakeoffSettings, WireLine,
+    RunMaterial, SharedRacewayMaterial, SizeFootage, Takeoff, TakeoffError, TakeoffSettings,
+    WireLine,
 )
 from gaugewalk.model.walk.takeoff.order import spreadsheet_safe
 from gaugewalk.model.walk.takeoff.packing import order_putups, pack_cuts
 
 __all__ = [
     "COLOUR_SCHEMES", "PRICED_FIELDS", "ROW_FIELDS", "Cut", "FittingLine", "OrderLine", "Piece",
-    "PutUpCount", "RacewayLine", "RunMaterial", "SizeFootage", "Takeoff", "TakeoffError",
-    "TakeoffSettings", "WireLine", "build_takeoff", "conductor_footage", "materials_from_job",
+    "PutUpCount", "RacewayLine", "RunMaterial", "SharedRacewayMaterial", "SizeFootage", "Takeoff",
+    "TakeoffError", "TakeoffSettings", "WireLine", "build_takeoff", "conductor_footage", "materials_from_job",
     "order_putups", "pack_cuts", "phase_colours_for", "scheme_for_source_system", "settings_for",
     "spreadsheet_safe", "takeoff_from_runs",
 ]

@@ -16,7 +16,7 @@ from gaugewalk.model.walk.takeoff.footage import (
     FUNCTION_ORDER, phase_colours_for, wire_footage,
 )
 from gaugewalk.model.walk.takeoff.lines import (
-    RunMaterial, Takeoff, TakeoffError, TakeoffSettings, WireLine,
+    RunMaterial, SharedRacewayMaterial, Takeoff, TakeoffError, TakeoffSettings, WireLine,
 )
 from gaugewalk.model.walk.takeoff.order import order_lines
 from gaugewalk.model.walk.takeoff.packing import EXACT_MAX_CUTS, pack_cuts
@@ -30,8 +30,10 @@ PARALLEL_RACEWAY_RULE = "NEC 310.10(G)(4)"
 LARGE_MARKING_RULE = "NEC 200.6(B), 250.119(A), 210.5(C), 215.12(C)"
 
 
-def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = TakeoffSettings()) -> Takeoff:
-    """The takeoff of the given runs: the pure core of ``build_takeoff``."""
+def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = TakeoffSettings(),
+                      shared: Iterable[SharedRacewayMaterial] = ()) -> Takeoff:
+    """The takeoff of the given runs and shared raceways: the pure core of ``build_takeoff``."""
+    shared = tuple(shared)
     runs = list(runs)
     wire_net, wire_cuts = wire_footage(runs, settings.slack_per_end_ft, settings.waste_pct)
     first_seen = {key: i for i, key in enumerate(wire_net)}  # phase colours stay in A, B, C order
@@ -58,11 +60,11 @@ def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = T
             tuple(dict.fromkeys(c.run_id for c in cuts)), cuts, packing.pieces,
             packing.lower_bound_count, packing.lower_bound_offcut_ft, packing.method,
         ))
-    race = count_raceway(runs, settings)
+    race = count_raceway(runs, settings, shared)
     return Takeoff(
         tuple(wire_lines), race.raceway_lines, race.fitting_lines,
         _assumptions(settings, race.families, any(r.sets > 1 for r in runs),
-                     any(r.egc_size for r in runs), wire_lines),
+                     any(r.egc_size for r in runs), wire_lines, bool(shared)),
         tuple(notes + race.warnings), settings,
         order_lines(tuple(wire_lines), race.raceway_lines, race.fitting_lines),
     )
@@ -79,7 +81,8 @@ def _size_span(sizes: tuple[str, ...]) -> str:
 
 
 def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.InstallRule],
-                 parallel: bool, any_egc: bool, wire_lines: list[WireLine]) -> tuple[str, ...]:
+                 parallel: bool, any_egc: bool, wire_lines: list[WireLine],
+                 shared: bool = False) -> tuple[str, ...]:
     out = [
         f"Conductor length per run = (route length + {settings.slack_per_end_ft:g} ft slack at each "
         f"end) x conductors x parallel sets; slack per end is the job's setting (common practice).",
@@ -116,6 +119,12 @@ def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.
             "Raceway length = route length, one raceway per parallel set "
             f"({PARALLEL_RACEWAY_RULE}); no allowance for offsets or elbows' own length."
         )
+        if shared:
+            out.append(
+                "Shared raceways: each counted once, for its own length, with its own bends, "
+                "fittings and pull points; a run in one has a raceway of its own only for the "
+                "rest of its route (its length less the shared raceway's), and its recorded "
+                "bends are taken to be on that part.")
         out.append(
             f"Connectors: {settings.connectors_per_end} at each end of each raceway "
             "(the termination and one more along the way; takeoff assumption)."
@@ -223,11 +232,27 @@ def materials_from_job(job, job_result) -> tuple[list[RunMaterial], list[str], t
             raceway=result.raceway,
             raceway_size=result.raceway_size,
             bends=run.bends or 0,
+            raceway_ft=_own_raceway_ft(run, job_result),
         ))
     sources = tuple(
         f"{s.label}: {'; '.join(s.sources())}" for s in sorted(schemes.values(), key=lambda s: s.key)
     )
     return materials, left_out, sources
+
+
+def _own_raceway_ft(run, job_result) -> float | None:
+    """The part of a run's route in a raceway of its own [ft]: its length less the shared
+    raceway's it is in; None when it is in none."""
+    shared = job_result.raceways.get(run.raceway_id) if run.raceway_id is not None else None
+    if shared is None:
+        return None
+    return max(0.0, run.length_ft - shared.length_ft)
+
+
+def shared_from_job(job_result) -> list[SharedRacewayMaterial]:
+    """One ``SharedRacewayMaterial`` per shared raceway of a computed walk."""
+    return [SharedRacewayMaterial(s.id, s.raceway, s.trade_size, s.length_ft, s.bends, s.runs)
+            for s in job_result.raceways.values()]
 
 
 def build_takeoff(job, job_result) -> Takeoff:
@@ -237,7 +262,7 @@ def build_takeoff(job, job_result) -> Takeoff:
     settings = settings_for(job)
     materials, left_out, scheme_sources = materials_from_job(job, job_result)
     settings = dataclasses.replace(settings, scheme_sources=scheme_sources)
-    takeoff = takeoff_from_runs(materials, settings)
+    takeoff = takeoff_from_runs(materials, settings, shared_from_job(job_result))
     if left_out:
         takeoff = dataclasses.replace(takeoff, warnings=tuple(left_out) + takeoff.warnings)
     return takeoff

@@ -43,10 +43,29 @@ class RunMaterial:
     raceway: str | None = None          # raceway type; None: not in raceway
     raceway_size: str | None = None     # trade size; None: nothing fits
     bends: int = 0                      # 90-degree bends along the route
+    raceway_ft: float | None = None     # [ft] its own raceway (the route less a shared
+                                        # raceway's length); None: the whole route
 
     @property
     def hots(self) -> int:
         return len(self.phase_colours)
+
+    @property
+    def own_raceway_ft(self) -> float:
+        """Length of the run's own raceway [ft]: the route, less the part in a shared one."""
+        return self.length_ft if self.raceway_ft is None else self.raceway_ft
+
+
+@dataclass(frozen=True)
+class SharedRacewayMaterial:
+    """What the takeoff needs from one shared raceway: counted once, for its own length."""
+
+    id: str
+    raceway: str                        # raceway type
+    raceway_size: str | None            # trade size; None: nothing holds its conductors
+    length_ft: float                    # [ft] its own route length
+    bends: int = 0                      # 90-degree bends along it
+    runs: tuple[str, ...] = ()          # ids of the runs in it
 
 
 @dataclass(frozen=True)
@@ -138,6 +157,7 @@ class RacewayLine:
     stick_ft: float | None
     basis: str
     runs: tuple[str, ...]
+    id: str | None = None           # the shared raceway's id; None: runs' own raceways
 
 
 @dataclass(frozen=True)
@@ -250,7 +270,8 @@ class Takeoff:
             "wire": [wire(w) for w in self.wire_lines],
             "raceway": [
                 {"raceway": r.raceway, "trade_size": r.trade_size, "length_ft": r.length_ft,
-                 "sticks": r.sticks, "stick_ft": r.stick_ft, "basis": r.basis, "runs": list(r.runs)}
+                 "sticks": r.sticks, "stick_ft": r.stick_ft, "basis": r.basis, "runs": list(r.runs),
+                 "id": r.id}
                 for r in self.raceway_lines
             ],
             "fittings": [
