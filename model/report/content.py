@@ -8,11 +8,14 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
+from gaugewalk.model.engine.contract import Circuit, RunResult
+from gaugewalk.model.report.oneline import Bus, one_line
+from gaugewalk.model.walk.checks import connection_of
 from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.compute import JobResult
 from gaugewalk.model.walk.job import Job, Run
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
-from gaugewalk.model.engine.contract import RunResult
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
 from gaugewalk.tables.order.putups import CUT_LABEL
 
@@ -23,10 +26,15 @@ CAUTION = (
 
 MATERIAL_NAMES = {"cu": "copper", "al": "aluminum"}
 
-#: Columns of the per-run table, in order.
+#: Columns of the per-run table, in order (the problems follow each run on a line of their own).
 RUN_COLUMNS: tuple[str, ...] = (
-    "Run", "From", "To", "Length [ft]", "Load", "Size", "Drop [%]", "Total drop [%]", "EGC",
-    "Raceway", "Governed by", "Problems",
+    "Run", "From", "To", "Circuit", "Breaker [A]", "Load", "Length [ft]", "Size", "EGC",
+    "Raceway", "Drop [%]", "Total drop [%]", "Governed by",
+)
+#: Columns of the list of shared raceways, in order.
+SHARED_COLUMNS: tuple[str, ...] = (
+    "Shared raceway", "Trade size", "Length [ft]", "Runs", "Conductors", "Fill [%]",
+    "Current-carrying", "Adjustment",
 )
 
 #: Columns of the equipment table: each run whose load is of a kind its article sizes.
@@ -44,6 +52,8 @@ class ReportRun:
     to: str
     length_ft: str          # e.g. "85.0"
     length_typed: str       # what the walker typed, e.g. "85+12+2*6"
+    circuit: str            # voltage and poles, e.g. "120 V 1P+N", "208 V 3P"
+    breaker: str            # the device [A], e.g. "20"
     load: str               # e.g. "16 A", "4.5 kVA", "feeder: 123.4 A"
     size: str               # e.g. "3/0 AWG Cu", "2 x 3/0 AWG Cu"
     drop_pct: str
@@ -54,10 +64,10 @@ class ReportRun:
     problems: tuple[str, ...]
 
     def cells(self) -> tuple[str, ...]:
-        """The row's cells in ``RUN_COLUMNS`` order (problems joined by "; ")."""
-        return (self.run_id, self.from_, self.to, self.length_ft, self.load, self.size,
-                self.drop_pct, self.total_drop_pct, self.egc, self.raceway, self.governed_by,
-                "; ".join(self.problems))
+        """The row's cells in ``RUN_COLUMNS`` order (``problems`` apart)."""
+        return (self.run_id, self.from_, self.to, self.circuit, self.breaker, self.load,
+                self.length_ft, self.size, self.egc, self.raceway, self.drop_pct,
+                self.total_drop_pct, self.governed_by)
 
 
 @dataclass(frozen=True)
@@ -67,6 +77,8 @@ class Report:
     caution: str
     defaults: tuple[tuple[str, str], ...]       # (label, value with unit)
     runs: tuple[ReportRun, ...]
+    one_line: tuple[Bus, ...]                   # the supply tree, depth first
+    shared: tuple[tuple[str, ...], ...]         # rows in SHARED_COLUMNS order
     summary: tuple[tuple[str, str], ...]        # (label, value): runs, runs with problems...
     footage: tuple[SizeFootage, ...]
     takeoff: Takeoff
@@ -129,6 +141,34 @@ def size_text(result: RunResult) -> str:
     return f"{result.sets} x {base}" if result.sets > 1 else base
 
 
+def circuit_text(circuit: Circuit | None) -> str:
+    """Voltage and poles: ``120 V 1P+N``, ``208 V 3P``; "" when the circuit is not known."""
+    if circuit is None:
+        return ""
+    return f"{circuit.volts:g} V {circuit.hots}P" + ("+N" if circuit.neutral else "")
+
+
+def _circuit_of(job: Job, run: Run) -> Circuit | None:
+    source = job.source(run.from_)
+    connection = connection_of(job, run)
+    if source is None or connection is None:
+        return None
+    try:
+        return resolve_circuit(source.system, connection)
+    except CircuitError:
+        return None
+
+
+def _shared(job_result) -> tuple[tuple[str, ...], ...]:
+    if job_result is None:
+        return ()
+    return tuple(
+        (f"{s.id} ({s.raceway})", s.trade_size or "none holds them", _num(s.length_ft),
+         ", ".join(s.runs), str(s.conductors),
+         f"{s.fill_pct:.0f} of {s.fill_limit_pct:g}", str(s.ccc), f"{s.adjustment:g}")
+        for s in job_result.raceways.values())
+
+
 def raceway_text(result: RunResult) -> str:
     if result.raceway_size is None:
         return f"{result.raceway}: no size fits"
@@ -168,8 +208,8 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
                  file_name: str = "", run_errors: dict[str, str] | None = None,
                  job_result: JobResult | None = None) -> Report:
     """The report of ``job``: ``results`` maps run id to its result (None: not sized, with the
-    reason in ``run_errors``); with the whole ``job_result``, the sources list and the panel
-    schedules too."""
+    reason in ``run_errors``); with the whole ``job_result``, the one-line diagram, the sources
+    list, the panel schedules and the shared raceways too."""
     run_errors = run_errors or {}
     h = job.job
     header = [("Job", h.name or "(no name)")]
@@ -189,11 +229,12 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
     failing = 0
     for run in job.runs:
         result = results.get(run.id)
+        circuit = circuit_text(_circuit_of(job, run))
         if result is None:
             failing += 1
             rows.append(ReportRun(
-                run.id, run.from_, run.to, _num(run.length_ft), run.length, load_text(run, None),
-                "", "", "", "", "", "not sized",
+                run.id, run.from_, run.to, _num(run.length_ft), run.length, circuit,
+                str(run.ocpd_a or ""), load_text(run, None), "", "", "", "", "", "not sized",
                 (run_errors.get(run.id, "could not be sized"),),
             ))
             continue
@@ -202,9 +243,12 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         if result.load_kind != "general":
             equipment_rows.append(equipment_row(run, result))
         rows.append(ReportRun(
-            run.id, run.from_, run.to, _num(run.length_ft), run.length, load_text(run, result),
-            size_text(result), _num(result.voltage_drop_pct, 2), _num(result.total_drop_pct, 2),
-            result.egc_size or "none", raceway_text(result), result.governed_by,
+            run.id, run.from_, run.to, _num(run.length_ft), run.length, circuit,
+            str(result.ocpd_a), load_text(run, result), size_text(result),
+            _num(result.voltage_drop_pct, 2), _num(result.total_drop_pct, 2),
+            result.egc_size or "none",
+            raceway_text(result) + (f", in {run.raceway_id}" if run.raceway_id else ""),
+            result.governed_by,
             tuple(result.problems),
         ))
 
@@ -216,6 +260,7 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         ("Offcut left on boxes and reels [ft]",
          str(sum(w.left_over_ft for w in takeoff.wire_lines))),
     )
+    buses = one_line(job, job_result) if job_result is not None else ()
     return Report(
         title=f"Site walk report: {h.name}" if h.name else "Site walk report",
         header=tuple(header),
@@ -225,6 +270,8 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
               f"{job.defaults.starting_drop_pct:g} (common practice: 10 to 15)"),)
             if any(r[1] == "motor" for r in equipment_rows) else ()),
         runs=tuple(rows),
+        one_line=buses,
+        shared=_shared(job_result),
         summary=summary,
         footage=takeoff.footage_by_size(),
         takeoff=takeoff,
@@ -336,10 +383,10 @@ def wire_table_of(t: Takeoff):
 
 
 def raceway_table_of(t: Takeoff):
-    """The raceway lines as ``(columns, rows)`` of text."""
+    """The raceway lines as ``(columns, rows)`` of text; a shared raceway is named by its id."""
     columns = ("Raceway", "Trade size", "Length [ft]", "Lengths", "Basis")
     rows = tuple(
-        (r.raceway, r.trade_size, _num(r.length_ft),
+        (r.raceway if r.id is None else f"{r.raceway} shared {r.id}", r.trade_size, _num(r.length_ft),
          "coils" if r.sticks is None else f"{r.sticks} x {r.stick_ft:g} ft", r.basis)
         for r in t.raceway_lines
     )

@@ -81,8 +81,18 @@ def page(tmp_path_factory):
 
 
 def _rows(parsed: _Page, label: str) -> dict[str, dict[str, str]]:
+    """Rows by their first cell; a row of one cell under a row (its problems) is that row's
+    "Problems" ("" when it has none)."""
     header, *body = parsed.tables[label]
-    return {row[0]: dict(zip(header, row, strict=True)) for row in body} if header else {}
+    out: dict[str, dict[str, str]] = {}
+    last = None
+    for row in body:
+        if len(row) == 1 and last is not None:
+            last["Problems"] = row[0].removeprefix("Problems: ")
+            continue
+        last = dict(zip(header, row, strict=True), Problems="")
+        out[row[0]] = last
+    return out
 
 
 def test_html_report_shows_the_caution_at_top_and_bottom(page):
@@ -136,12 +146,51 @@ def test_html_material_list_has_the_hand_worked_quantities(page):
 
 def test_html_has_a_bar_per_size_and_print_styles_and_fetches_nothing(page):
     html, parsed = page
-    assert parsed.tags.count("svg") == 1 and parsed.tags.count("rect") == 3
+    chart = html[html.index("<h2>Conductor footage by size</h2>"):]
+    chart = chart[:chart.index("</svg>")]
+    assert parsed.tags.count("svg") == 2 and chart.count("<rect") == 3
     assert "@media print" in "".join(parsed.styles)
     for tag in ("script", "link", "img", "iframe"):
         assert tag not in parsed.tags
     assert not any(name in ("src", "href") for name, _ in parsed.attrs)
     assert "http" not in html and "url(" not in html and "@import" not in html
+
+
+def test_the_one_line_diagram_names_every_source_feeder_and_bus_drop(page):
+    html, _ = page
+    svg = html[html.index("<svg class=\"oneline\""):]
+    svg = svg[:svg.index("</svg>")]
+    assert "MSB service" in svg and "LP1 panel" in svg
+    # the feeder with its conductors, length and device; the drop at LP1's bus is F1's 1.64 %
+    # (worked by hand in test_html_runs_table_matches_hand_drop_arithmetic) and B1 is the worst
+    # branch at 4.42 %
+    assert "via F1: 2 x 3/0 AWG Cu, 150 ft, 400 A" in svg
+    assert "drop at bus 1.64%; worst branch B1: 4.42%" in svg
+
+
+def test_the_runs_table_gives_each_runs_circuit_and_breaker(page):
+    _, parsed = page
+    runs = _rows(parsed, "Runs")
+    assert (runs["F1"]["Circuit"], runs["F1"]["Breaker [A]"]) == ("208 V 3P+N", "400")
+    assert (runs["B1"]["Circuit"], runs["B1"]["Breaker [A]"]) == ("120 V 1P+N", "20")
+
+
+def test_a_walk_with_a_shared_raceway_lists_it_with_its_fill_and_adjustment(tmp_path):
+    walk = tmp_path / "shared.toml"
+    text = WALK.read_text(encoding="utf-8").replace(
+        'connection = "LN"', 'connection = "LN"\nraceway_id = "HR1"')
+    walk.write_text(text + '\n[[raceway]]\nid = "HR1"\nlength = "30"\n', encoding="utf-8")
+    out = tmp_path / "r.html"
+    assert gaugewalk(cmd_report, [str(walk), "-o", str(out)]) == 0
+    parsed = _Page()
+    parsed.feed(out.read_text(encoding="utf-8"))
+    shared = _rows(parsed, "Shared raceways")["HR1 (EMT)"]
+    # B1 and B2, 120 V line-to-neutral: hot and neutral count (NEC 310.15(E)): 4 CCC, 80 %
+    # (Table 310.15(C)(1)); 6 conductors of 12 AWG THHN, 6 x 0.0133 = 0.0798 in2 (Ch. 9 Table 5)
+    # in 1/2 EMT, 0.304 in2 (Table 4): 26 % of the 40 % allowed (Table 1)
+    assert shared["Runs"] == "B1, B2" and shared["Current-carrying"] == "4"
+    assert shared["Adjustment"] == "0.8" and shared["Trade size"] == "1/2"
+    assert shared["Fill [%]"] == "26 of 40"
 
 
 def test_html_lists_defaults_and_assumptions(page):
@@ -190,10 +239,12 @@ def test_markdown_report_has_the_same_sections(tmp_path):
     assert rc == 0
     md = out.read_text(encoding="utf-8")
     assert md.count(CAUTION) == 2
-    for heading in ("## Defaults used", "## Runs", "## Sources", "## Panel schedules",
-                    "## Conductor footage by size", "## Material list", "## Takeoff assumptions"):
+    for heading in ("## Defaults used", "## One-line diagram", "## Runs", "## Sources",
+                    "## Panel schedules", "## Conductor footage by size", "## Material list",
+                    "## Takeoff assumptions"):
         assert heading in md
-    assert "| F1 | MSB | LP1 | 150.0 | 300 A | 2 x 3/0 AWG Cu | 1.64 | 1.64 |" in md
+    assert ("| F1 | MSB | LP1 | 208 V 3P+N | 400 | 300 A | 150.0 | 2 x 3/0 AWG Cu | 3 AWG | "
+            "PVC-40 2 (2 raceways) | 1.64 | 1.64 |") in md
     check_golden("report_walk.md", md)
 
 

@@ -1,14 +1,16 @@
-"""The report as one self-contained HTML page: inline styles with print rules, an inline SVG bar
-chart, nothing fetched from the network. Every piece of user text is escaped, its control
-characters shown as ``\x1b`` (``gaugewalk.model.walk.plain_text``)."""
+"""The report as one self-contained HTML page: inline styles with print rules (portrait letter
+or A4: every table fits the page width, sizes never broken across lines), an inline SVG one-line
+diagram and bar chart, nothing fetched from the network. Every piece of user text is escaped,
+its control characters shown as ``\x1b`` (``gaugewalk.model.walk.plain_text``)."""
 
 from __future__ import annotations
 
 import html
 from collections.abc import Set as AbstractSet
 
-from gaugewalk.model.report.content import RUN_COLUMNS, Report
+from gaugewalk.model.report.content import RUN_COLUMNS, SHARED_COLUMNS, Report
 from gaugewalk.model.walk.plain_text import shown
+from gaugewalk.tui.report.oneline_svg import one_line_svg
 
 
 def escape(text: str) -> str:
@@ -20,18 +22,22 @@ body { font-family: system-ui, sans-serif; font-size: 13px; color: #111; margin:
 h1 { font-size: 1.5em; margin: 0 0 .4em; }
 h2 { font-size: 1.15em; margin: 1.4em 0 .4em; border-bottom: 1px solid #999; }
 table { border-collapse: collapse; margin: .3em 0 1em; }
-th, td { border: 1px solid #bbb; padding: 2px 6px; text-align: left; vertical-align: top; }
-th { background: #eee; }
-td.num { text-align: right; font-variant-numeric: tabular-nums; }
+th, td { border: 1px solid #bbb; padding: 2px 4px; text-align: left; vertical-align: top;
+         overflow-wrap: anywhere; }
+th { background: #eee; overflow-wrap: normal; }
+td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+td.nw { white-space: nowrap; }
 tr.problem td { background: #fde8e8; }
+tr.why td { font-size: .92em; }
 .caution { border: 2px solid #a00; padding: .5em .8em; font-weight: bold; }
 dl.header { display: grid; grid-template-columns: max-content auto; gap: 2px 1em; }
 dl.header dt { font-weight: bold; }
 dl.header dd { margin: 0; }
 svg text { font-family: system-ui, sans-serif; font-size: 12px; }
 @media print {
-  @page { size: landscape; margin: 12mm; }
-  body { margin: 0; font-size: 10px; }
+  @page { size: portrait; margin: 12mm; }
+  body { margin: 0; font-size: 8.5px; }
+  svg text { font-size: 11px; }
   h2 { break-after: avoid; }
   thead { display: table-header-group; }
   tr, .caution, svg { break-inside: avoid; }
@@ -40,19 +46,32 @@ svg text { font-family: system-ui, sans-serif; font-size: 12px; }
 """.strip()
 
 _NUMERIC = {"Length [ft]", "Drop [%]", "Total drop [%]", "Net [ft]", "With waste [ft]",
-            "Cuts [ft]", "Offcut [ft]", "Count", "Quantity"}
+            "Cuts [ft]", "Offcut [ft]", "Count", "Quantity", "Breaker [A]", "Serves [kVA]",
+            "Drop at bus [%]", "Conductors", "Current-carrying", "Adjustment"}
+_NO_BREAK = {"Size", "EGC", "Raceway", "Trade size", "Circuit", "Rating", "Insulation", "System"}
+"""Columns whose cells are never broken across lines (``3/0 AWG``, ``EMT 1-1/4``)."""
 
 
-def _table(columns, rows, *, problem_rows: AbstractSet[int] = frozenset(), label: str = "") -> str:
+def _cell(column: str, value: str) -> str:
+    if column in _NUMERIC:
+        return f"<td class=\"num\">{escape(value)}</td>"
+    if column in _NO_BREAK:
+        return f"<td class=\"nw\">{escape(value)}</td>"
+    return f"<td>{escape(value)}</td>"
+
+
+def _table(columns, rows, *, problem_rows: AbstractSet[int] = frozenset(), label: str = "",
+           why: dict[int, str] | None = None) -> str:
+    """A table; ``why`` gives a row a line of its own under it (a run's problems)."""
     head = "".join(f"<th scope=\"col\">{escape(c)}</th>" for c in columns)
     body = []
     for i, row in enumerate(rows):
-        cells = "".join(
-            f"<td class=\"num\">{escape(v)}</td>" if c in _NUMERIC else f"<td>{escape(v)}</td>"
-            for c, v in zip(columns, row, strict=True)
-        )
+        cells = "".join(_cell(c, v) for c, v in zip(columns, row, strict=True))
         cls = " class=\"problem\"" if i in problem_rows else ""
         body.append(f"<tr{cls}>{cells}</tr>")
+        if why and i in why:
+            body.append(f"<tr class=\"problem why\"><td colspan=\"{len(columns)}\">"
+                        f"{escape(why[i])}</td></tr>")
     if not rows:
         body.append(f"<tr><td colspan=\"{len(columns)}\">none</td></tr>")
     aria = f" aria-label=\"{escape(label)}\"" if label else ""
@@ -115,10 +134,19 @@ def render_html(report: Report) -> str:
     out.append("<h2>Defaults used</h2>")
     out.append(_table(("Setting", "Value"), report.defaults, label="Defaults used"))
 
+    if report.one_line:
+        out.append("<h2>One-line diagram</h2>")
+        out.append(one_line_svg(report.one_line))
+
     out.append("<h2>Runs</h2>")
     problem_rows = {i for i, r in enumerate(report.runs) if r.problems}
+    why = {i: "Problems: " + "; ".join(r.problems) for i, r in enumerate(report.runs)
+           if r.problems}
     out.append(_table(RUN_COLUMNS, [r.cells() for r in report.runs],
-                      problem_rows=problem_rows, label="Runs"))
+                      problem_rows=problem_rows, label="Runs", why=why))
+    if report.shared:
+        out.append("<h2>Shared raceways</h2>")
+        out.append(_table(SHARED_COLUMNS, report.shared, label="Shared raceways"))
     if report.equipment_table[1]:
         out.append("<h2>Equipment by its article</h2>")
         out.append(_table(*report.equipment_table, label="Equipment by its article"))

@@ -6,7 +6,8 @@ and its control characters are shown as ``\x1b`` (``gaugewalk.model.walk.plain_t
 
 from __future__ import annotations
 
-from gaugewalk.model.report.content import RUN_COLUMNS, Report
+from gaugewalk.model.report.content import RUN_COLUMNS, SHARED_COLUMNS, Report
+from gaugewalk.model.report.oneline import one_line_text
 from gaugewalk.model.walk.plain_text import shown
 
 _SPECIAL = "\\`*_[]|#<>"
@@ -66,7 +67,15 @@ def render_md(report: Report) -> str:
     out += ["", f"> **Caution:** {md_escape(report.caution)}", ""]
     out += ["## Summary", ""] + _table(("Item", "Value"), report.summary) + [""]
     out += ["## Defaults used", ""] + _table(("Setting", "Value"), report.defaults) + [""]
-    out += ["## Runs", ""] + _table(RUN_COLUMNS, [r.cells() for r in report.runs]) + [""]
+    if report.one_line:
+        out += ["## One-line diagram", "", "```"]
+        out += [shown(line).replace("`", "'") for line in one_line_text(report.one_line)]
+        out += ["```", ""]
+    out += ["## Runs", ""] + _table(RUN_COLUMNS + ("Problems",),
+                                    [r.cells() + ("; ".join(r.problems),) for r in report.runs])
+    out += [""]
+    if report.shared:
+        out += ["## Shared raceways", ""] + _table(SHARED_COLUMNS, report.shared) + [""]
     if report.equipment_table[1]:
         out += ["## Equipment by its article", ""] + _table(*report.equipment_table) + [""]
     if report.sources_table[0]:
