@@ -21,7 +21,7 @@ def _generator():
 
 @pytest.mark.parametrize("name, least, most", [
     ("retail_fitout.toml", 35, 60), ("farm_workshop.toml", 15, 30),
-    ("warehouse_dc2.toml", 300, 1000),
+    ("warehouse_dc2.toml", 300, 1000), ("office_home_runs.toml", 30, 30),
 ])
 def test_each_sample_loads_and_saves_back_to_the_same_bytes(name, least, most):
     path = SAMPLES / name
@@ -65,3 +65,19 @@ def test_the_retail_sample_passes_and_the_farm_has_only_its_documented_problem()
     assert {p.where for p in result.problems} == {"run SVC-YARD"}
     assert "SVC-YARD" in farm.job.notes
     assert farm.run("F-SHOP").material == "al"
+
+
+def test_the_office_runs_its_home_runs_in_five_shared_raceways_counted_once():
+    from gaugewalk.model.walk.takeoff import build_takeoff
+
+    job = load_walk(SAMPLES / "office_home_runs.toml")
+    result = compute_job(job)
+    assert result.ok, [str(p) for p in result.problems][:5]
+    assert sorted(result.raceways) == ["HR1", "HR2", "HR3", "HR4", "HR5"]
+    # 120 V line-to-neutral circuits: hot and neutral count (NEC 310.15(E)); 5 or 6 circuits,
+    # 10 or 12 CCC: 50 % by NEC Table 310.15(C)(1) (10-20)
+    assert {s.adjustment for s in result.raceways.values()} == {0.5}
+    shared = [r for r in build_takeoff(job, result).raceway_lines if r.id is not None]
+    assert {r.id: r.length_ft for r in shared} == {
+        "HR1": 55.0, "HR2": 60.0, "HR3": 50.0, "HR4": 65.0, "HR5": 45.0}
+    assert len(shared) == 5
