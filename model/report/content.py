@@ -14,7 +14,7 @@ from gaugewalk.model.report.oneline import Bus, one_line
 from gaugewalk.model.walk.checks import connection_of
 from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.compute import JobResult
-from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
 from gaugewalk.tables.order.putups import CUT_LABEL
@@ -247,7 +247,7 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
             str(result.ocpd_a), load_text(run, result), size_text(result),
             _num(result.voltage_drop_pct, 2), _num(result.total_drop_pct, 2),
             result.egc_size or "none",
-            raceway_text(result) + (f", in {run.raceway_id}" if run.raceway_id else ""),
+            raceway_text(result) + "".join(f", in {rid}" for rid in shared_ids(run)),
             result.governed_by,
             tuple(result.problems),
         ))

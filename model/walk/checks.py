@@ -176,9 +176,15 @@ def check_references(
 
     raceway_ids = {r.id for r in job.raceways} | set(skip_raceways)
     for r in job.runs:
-        if r.raceway_id is not None and r.raceway_id not in raceway_ids and r.id not in skip_runs:
+        if (r.raceway_id is None and not r.segments) or r.id in skip_runs:
+            continue
+        if r.raceway_id is not None and r.raceway_id not in raceway_ids:
             at_run(r, "raceway_id", f"there is no shared raceway '{r.raceway_id}'; add it as a "
                    "[[raceway]] table or correct the id")
+        for n, seg in enumerate(r.segments, start=1):
+            if seg.raceway_id is not None and seg.raceway_id not in raceway_ids:
+                at_run(r, "segments", f"segment {n}: there is no shared raceway "
+                       f"'{seg.raceway_id}'; add it as a [[raceway]] table or correct the id")
 
     circuits: dict[tuple[str, str | None], object] = {}  # Circuit or the CircuitError
     for r in job.runs:

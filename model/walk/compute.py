@@ -62,7 +62,7 @@ from gaugewalk.model.walk.feeder_loads import (
     sum_source,
 )
 from gaugewalk.model.walk.graph import SupplyGraph
-from gaugewalk.model.walk.job import Job, Run
+from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.motor_feeders import (
     MotorGroup,
     device_limit,
@@ -75,6 +75,7 @@ from gaugewalk.model.walk.problems import Problem
 from gaugewalk.model.walk.raceways import (
     SharedRaceway,
     ccc_by_raceway,
+    ccc_for_run,
     raceway_ccc,
     shared_raceways,
 )
@@ -188,9 +189,10 @@ def run_spec_for(
         is_feeder = job.source(run.to) is not None
     rule = state.feeder_rule(run, is_feeder)
     feed = state.result._feeds.get(run.to) if is_feeder else None
-    ccc = raceway_ccc(job, run.raceway_id) if run.raceway_id is not None else None
+    counts = [raceway_ccc(job, rid) for rid in shared_ids(run)]
+    ccc = max((c for c in counts if c), default=None)
     return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feed, rule,
-                 _motors_fed(job, state.result, run, is_feeder), ccc or None)
+                 _motors_fed(job, state.result, run, is_feeder), ccc)
 
 
 def size_run(job: Job, run: Run, upstream_drop_pct: float,
@@ -512,15 +514,14 @@ class WalkState:
         feed = res._feeds.get(r.to) if is_feeder else None
         rule = self.feeder_rule(r, is_feeder) if is_feeder or _from_transformer(self, r) else None
         motors = _motors_fed(self.job, res, r, is_feeder)
-        ccc = self.shared_ccc.get(r.raceway_id) if r.raceway_id is not None else None
+        ccc = ccc_for_run(r, self.shared_ccc) if self.shared_ccc else None
         try:
-            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule, motors,
-                         ccc or None)
+            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule, motors, ccc)
             result = evaluate(spec)
             beside = None
             if rule is not None and rule.beside:
                 beside = evaluate(_spec(self.job, r, upstream, circuit, is_feeder, feed,
-                                        None, motors, ccc or None))
+                                        None, motors, ccc))
         except (LoadError, CircuitError, ValueError) as exc:
             self.forget(r)
             self.fail(r, str(exc))

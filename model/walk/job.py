@@ -5,7 +5,8 @@ Public API (other modules code against these names):
 - ``Job``: ``schema`` (file format version), ``job`` (``JobHeader``), ``defaults`` (``Defaults``),
   ``sources`` (list of ``Source``, ``[[source]]`` in the file), ``runs`` (list of ``Run``,
   ``[[run]]`` in the file), ``raceways`` (list of ``Raceway``, ``[[raceway]]``). Lookups:
-  ``job.source(id)``, ``job.run(id)``, ``job.raceway(id)``, ``job.runs_in(raceway_id)``, ``job.is_feeder(run)``,
+  ``job.source(id)``, ``job.run(id)``, ``job.raceway(id)``, ``job.runs_in(raceway_id)``,
+  ``job.is_feeder(run)``,
   ``job.feeder_of(source_id)``, ``job.runs_from(source_id)``, ``job.next_run_id(prefix)``,
   ``job.effective(run, name)`` (a per-run override or the job default).
 - ``JobHeader``: name, site, walked_on, walked_by, notes.
@@ -23,8 +24,9 @@ Public API (other modules code against these names):
   per-run overrides of the defaults (None: inherit), bends, measured_on, notes.
 - ``Raceway``: a raceway several runs share (``[[raceway]]`` in the file): id, type (None: the
   job's raceway), size (trade size; None: sized for what is in it), length (its own route
-  length), bends, notes. A run names the one it is in with ``raceway_id``; the shared raceway is
-  worked out by ``gaugewalk.model.walk.raceways``.
+  length), bends, notes. A run names the one it is in with ``raceway_id`` (for the raceway's
+  length), or a segment does (for the segment's length); ``shared_ids(run)`` lists them. The
+  shared raceway is worked out by ``gaugewalk.model.walk.raceways``.
 - ``SCHEMA_VERSION``, ``OVERRIDABLE`` (run fields that fall back to defaults). The words the
   fields accept are in ``gaugewalk.model.engine.vocabulary`` and ``gaugewalk.model.walk.vocabulary``.
 - ``new_walk(name=..., site=..., walked_by=..., walked_on=..., service_system=...) -> Job``.
@@ -368,6 +370,13 @@ class Segment(_Strict):
     """Length as typed (same grammar as the run's length)."""
     note: OneLine = ""
     """Where this stretch goes."""
+    raceway_id: str | None = None
+    """Id of the shared raceway (``[[raceway]]``) this stretch runs in; None: the run's own."""
+
+    @field_validator("raceway_id")
+    @classmethod
+    def _raceway_is_id(cls, value: str | None) -> str | None:
+        return None if value is None else _check_id(value)
 
 
 def _length_text(value):
@@ -570,7 +579,8 @@ class Run(_Strict):
     the run's own part."""
     raceway_id: str | None = None
     """Id of the shared raceway (``[[raceway]]``) the run is in, for that raceway's length; the
-    rest of its route is in a raceway of its own. None: its own raceway all the way."""
+    rest of its route is in a raceway of its own (or in the shared raceways its segments name).
+    None: its own raceway all the way, but for segments that name one."""
     measured_on: date | None = None
     """When the length was last measured."""
     notes: str = ""
@@ -619,6 +629,16 @@ class Run(_Strict):
     def length_ft(self) -> float:
         """One-way route length [ft], read from ``length``."""
         return self.__pydantic_private__["_length_ft"]  # direct: this is read in hot loops
+
+
+def shared_ids(run: Run) -> tuple[str, ...]:
+    """Ids of the shared raceways a run is in: its own ``raceway_id``, then those its segments
+    name, each once."""
+    if not run.segments:
+        return (run.raceway_id,) if run.raceway_id is not None else ()
+    ids = [run.raceway_id] if run.raceway_id is not None else []
+    ids += [s.raceway_id for s in run.segments if s.raceway_id is not None]
+    return tuple(dict.fromkeys(ids))
 
 
 def _run_private_init(self: Run, context, /) -> None:
@@ -736,8 +756,9 @@ with warnings.catch_warnings():
             return next((r for r in self.raceways if r.id == raceway_id), None)
 
         def runs_in(self, raceway_id: str) -> list[Run]:
-            """Runs in the shared raceway ``raceway_id``, in file order."""
-            return [r for r in self.runs if r.raceway_id == raceway_id]
+            """Runs in the shared raceway ``raceway_id`` (by the run or one of its segments), in
+            file order."""
+            return [r for r in self.runs if raceway_id in shared_ids(r)]
 
         def is_feeder(self, run: Run) -> bool:
             """True when the run ends at a source of this job (it feeds that source)."""

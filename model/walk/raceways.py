@@ -14,8 +14,12 @@ adjustment every run in it takes, and its fill for every conductor in it.
 Each run keeps its own EGC (250.122(C) would allow one for all, sized for the largest device;
 the takeoff and the fill count one per run, the larger figure).
 
+A run is in a shared raceway by its ``raceway_id`` (for the raceway's length) or by a segment's
+(for the segment's length); in several, it takes the adjustment of the fullest.
+
 Public API: ``SharedRaceway`` (one raceway's answer, ``to_dict()``);
-``ccc_by_raceway(job, circuits)``, ``run_ccc(circuit, sets)``, ``raceway_ccc(job, raceway_id)``;
+``ccc_by_raceway(job, circuits)``, ``run_ccc(circuit, sets)``, ``raceway_ccc(job, raceway_id)``,
+``ccc_for_run(run, by_raceway)``, ``own_raceway_ft(run, raceways)``;
 ``shared_raceways(job, runs) -> (dict of SharedRaceway by id, list of Problem)``.
 """
 
@@ -28,7 +32,8 @@ from gaugewalk.model.engine.circuits import CircuitError, current_carrying_condu
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.sizing.raceway import resolve_raceway
 from gaugewalk.model.walk.checks import connection_of
-from gaugewalk.model.walk.job import Job, Raceway
+from gaugewalk.model.walk.job import parse_length
+from gaugewalk.model.walk.job import Job, Raceway, Run, shared_ids
 from gaugewalk.model.walk.problems import Problem
 from gaugewalk.tables.conductor.ampacity import ccc_factor
 from gaugewalk.tables.errors import TableLookupError
@@ -81,12 +86,37 @@ def ccc_by_raceway(job: Job, circuits: dict[str, Circuit]) -> dict[str, int]:
         return {}
     out = {r.id: 0 for r in job.raceways}
     for run in job.runs:
-        rid = run.raceway_id
-        if rid is not None and rid in out:
-            circuit = circuits.get(run.id)
-            if circuit is not None:
+        if run.raceway_id is None and not run.segments:
+            continue
+        circuit = circuits.get(run.id)
+        if circuit is None:
+            continue
+        for rid in shared_ids(run):
+            if rid in out:
                 out[rid] += run_ccc(circuit, run.sets)
     return out
+
+
+def ccc_for_run(run: Run, by_raceway: dict[str, int]) -> int | None:
+    """The current-carrying conductors a run is adjusted for: those of the fullest shared
+    raceway it is in (NEC 310.15(C)(1) applies over the whole run); None when it is in none."""
+    if run.raceway_id is None and not run.segments:
+        return None
+    counts = [by_raceway[rid] for rid in shared_ids(run) if by_raceway.get(rid)]
+    return max(counts) if counts else None
+
+
+def own_raceway_ft(run: Run, lengths: dict[str, float]) -> float | None:
+    """The part of a run's route in a raceway of its own [ft]: its length less the shared
+    raceway its ``raceway_id`` names (``lengths`` by id [ft]) and less its segments in shared
+    raceways; None when it is in none."""
+    ids = shared_ids(run)
+    if not ids:
+        return None
+    shared = lengths.get(run.raceway_id, 0.0) if run.raceway_id is not None else 0.0
+    shared += sum(parse_length(s.length) for s in run.segments
+                  if s.raceway_id is not None and s.raceway_id != run.raceway_id)
+    return max(0.0, run.length_ft - shared)
 
 
 def raceway_ccc(job: Job, raceway_id: str) -> int | None:
@@ -95,7 +125,7 @@ def raceway_ccc(job: Job, raceway_id: str) -> int | None:
     if job.raceway(raceway_id) is None:
         return None
     total = 0
-    for run in job.runs_in(raceway_id):
+    for run in job.runs_in(raceway_id):  # by the run or a segment
         source = job.source(run.from_)
         if source is None:
             continue
@@ -120,8 +150,9 @@ def shared_raceways(job: Job, results: dict[str, RunResult],
     problems: list[Problem] = []
     members: dict[str, list] = {r.id: [] for r in job.raceways}
     for run in job.runs:
-        if run.raceway_id in members:
-            members[run.raceway_id].append(run)
+        for rid in shared_ids(run):
+            if rid in members:
+                members[rid].append(run)
     for raceway in job.raceways:
         if raceway.id in out:  # a repeated id is a problem of the file; the first counts
             continue

@@ -217,3 +217,43 @@ def test_a_shared_raceways_bends_give_its_elbows_and_pull_points():
     # five quarter bends are 450 degrees: over the 360 of NEC 358.26, one pull point between
     assert fittings[("conduit body", trade)] == 1
     assert any(w.startswith("raceway HR1: 5 bends") for w in takeoff.warnings)
+
+
+# -- a segment in a shared raceway ---------------------------------------------------------------
+
+def test_a_segment_puts_part_of_a_run_in_a_shared_raceway_and_the_fullest_one_adjusts_it():
+    segments = [{"length": "20", "note": "down the wall", "raceway_id": "HR2"},
+                {"length": "50", "note": "home along the corridor", "raceway_id": "HR1"}]
+    runs = [run_table(f"R{i}", "LP1", f"Desk {i}", "60", load=(10, "A"), connection="LN",
+                      raceway_id="HR1") for i in (1, 2, 3)]
+    runs.append(run_table("R4", "LP1", "Copier", "75", load=(12, "A"), connection="LN",
+                          segments=segments[:1] + [{"length": "5"}] + segments[1:]))
+    text = shared_walk(runs, {"length": "50"}) + tables_text(
+        "raceway", [{"id": "HR2", "type": "EMT", "length": "20"}])
+    job = loads_walk(text)
+    result = compute_job(job)
+    # HR1: four 120 V circuits, hot and neutral each (NEC 310.15(E)): 8 CCC, 70 %
+    # (Table 310.15(C)(1)); HR2 holds R4 alone: 2 CCC, no adjustment
+    assert result.raceways["HR1"].runs == ("R1", "R2", "R3", "R4")
+    assert (result.raceways["HR1"].ccc, result.raceways["HR2"].ccc) == (8, 2)
+    assert any("310.15(C)(1): 8 current-carrying conductors, factor 0.7" in n
+               for n in result.runs["R4"].notes)
+    from gaugewalk.model.walk.takeoff import build_takeoff
+
+    takeoff = build_takeoff(job, result)
+    lengths = {r.id: r.length_ft for r in takeoff.raceway_lines if r.id}
+    assert lengths == {"HR1": 50.0, "HR2": 20.0}
+    from gaugewalk.model.walk.raceways import own_raceway_ft
+
+    # R4's own raceway is only the 5 ft between its two shared stretches (75 - 20 - 50); the
+    # others' the 10 ft past HR1 (60 - 50)
+    assert own_raceway_ft(job.run("R4"), {"HR1": 50.0, "HR2": 20.0}) == 5.0
+    assert own_raceway_ft(job.run("R1"), {"HR1": 50.0, "HR2": 20.0}) == 10.0
+
+
+def test_a_segment_naming_a_raceway_the_walk_lacks_is_named():
+    runs = [run_table("R1", "LP1", "Desk", "60", load=(10, "A"),
+                      segments=[{"length": "60", "raceway_id": "HR8"}])]
+    _, problems = check_walk_text(shared_walk(runs), "shop.toml")
+    assert [(p.id, p.field) for p in problems] == [("R1", "segments")]
+    assert "segment 1: there is no shared raceway 'HR8'" in problems[0].message

@@ -241,12 +241,13 @@ def materials_from_job(job, job_result) -> tuple[list[RunMaterial], list[str], t
 
 
 def _own_raceway_ft(run, job_result) -> float | None:
-    """The part of a run's route in a raceway of its own [ft]: its length less the shared
-    raceway's it is in; None when it is in none."""
-    shared = job_result.raceways.get(run.raceway_id) if run.raceway_id is not None else None
-    if shared is None:
+    """The part of a run's route in a raceway of its own [ft] (``raceways.own_raceway_ft``);
+    None when it is in no shared raceway."""
+    if not job_result.raceways:
         return None
-    return max(0.0, run.length_ft - shared.length_ft)
+    from gaugewalk.model.walk.raceways import own_raceway_ft
+
+    return own_raceway_ft(run, {k: v.length_ft for k, v in job_result.raceways.items()})
 
 
 def shared_from_job(job_result) -> list[SharedRacewayMaterial]:
