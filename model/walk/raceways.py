@@ -148,6 +148,8 @@ def shared_raceways(job: Job, results: dict[str, RunResult],
     raceway (an overfilled fixed size, nothing that holds them, a run left unsized)."""
     out: dict[str, SharedRaceway] = {}
     problems: list[Problem] = []
+    if not job.raceways:  # the usual walk: nothing to go through its runs for
+        return out, problems
     members: dict[str, list] = {r.id: [] for r in job.raceways}
     for run in job.runs:
         for rid in shared_ids(run):
