@@ -138,8 +138,9 @@ def test_html_material_list_has_the_hand_worked_quantities(page):
             for r in blue] == [("308.0", "340", "340 ft cut to length", "0", "1 (1)")]
     fittings = {(r[0], r[1]): r[3] for r in parsed.tables["Fittings"][1:]}
     assert fittings["support", "PVC-40"] == "60"     # NEC Table 352.30
-    # offcut: 3 boxes x (500 - 120) = 1,140 ft; the cut lengths leave none
-    assert dict(parsed.tables["Summary"][1:])["Offcut left on boxes and reels [ft]"] == "1140"
+    # offcut: white and green 2 boxes x (500 - 120) = 760 ft, B1's black hot (500 - 71) 429 ft,
+    # B2's red hot on line B (500 - 49) 451 ft: 1,640 ft; the cut lengths leave none
+    assert dict(parsed.tables["Summary"][1:])["Offcut left on boxes and reels [ft]"] == "1640"
     footage = {r[1]: r[3] for r in parsed.tables["Conductor footage by size"][1:]}
     assert footage == {"12 AWG": "360", "3 AWG": "340", "3/0 AWG": "1360"}
 

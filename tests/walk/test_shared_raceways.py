@@ -188,9 +188,11 @@ def test_the_takeoff_counts_a_shared_raceway_once_for_its_own_length():
     assert sum(r.length_ft for r in own) == pytest.approx(9 * 10.0 + 40.0)
     data = takeoff.to_dict()
     assert [r["id"] for r in data["raceway"] if r["id"]] == ["HR1"]
-    # the conductors still run the whole route: 70 ft + 2 x 2 ft slack, per conductor
-    black = next(w for w in takeoff.wire_lines if w.function == "phase")
-    assert black.net_ft == pytest.approx(9 * 74.0)
+    # the conductors still run the whole route: 70 ft + 2 x 2 ft slack, per conductor; the nine
+    # hots are placed three to a line, black, red and blue (common practice colours)
+    hots = [w for w in takeoff.wire_lines if w.function == "phase" and "F1" not in w.runs]
+    assert sum(w.net_ft for w in hots) == pytest.approx(9 * 74.0)
+    assert sorted(len(w.runs) for w in hots) == [3, 3, 3]
 
 
 def test_runs_wholly_in_a_shared_raceway_have_no_raceway_of_their_own():
@@ -257,3 +259,27 @@ def test_a_segment_naming_a_raceway_the_walk_lacks_is_named():
     _, problems = check_walk_text(shared_walk(runs), "shop.toml")
     assert [(p.id, p.field) for p in problems] == [("R1", "segments")]
     assert "segment 1: there is no shared raceway 'HR8'" in problems[0].message
+
+
+# -- colours from phases -------------------------------------------------------------------------
+
+def test_each_conductors_colour_follows_the_line_its_run_lands_on():
+    from gaugewalk.model.walk.takeoff import build_takeoff
+
+    # 208Y/120 V panel, one-pole circuits at positions 1, 3, 5 and 2: rows A, B, C, so 1 and 2
+    # on A, 3 on B, 5 on C (the usual panelboard numbering, common practice); colours
+    # black/red/blue for A/B/C on 208Y/120 V (common practice, gaugewalk.tables.order.colours)
+    runs = [run_table(rid, "LP1", f"Desk {rid}", length, load=(8, "A"), connection="LN",
+                      position=position)
+            for rid, length, position in (("R1", "50", 1), ("R2", "60", 3), ("R3", "70", 5),
+                                          ("R4", "40", 2))]
+    job = loads_walk(panel_walk("Phased", *runs))
+    result = compute_job(job)
+    takeoff = build_takeoff(job, result)
+    branch = [w for w in takeoff.wire_lines if w.function == "phase" and "F1" not in w.runs]
+    assert {w.colour: w.runs for w in branch} == {
+        "black": ("R1", "R4"), "red": ("R2",), "blue": ("R3",)}
+    # footage per colour: (route + 2 x 2 ft slack) per conductor (the job's slack, common practice)
+    net = {w.colour: w.net_ft for w in branch}
+    assert net == {"black": (50 + 4) + (40 + 4), "red": 60 + 4, "blue": 70 + 4}
+    assert any("follow the line each conductor lands on" in a for a in takeoff.assumptions)

@@ -112,13 +112,14 @@ def test_json_keeps_the_wire_keys_and_adds_cuts_pieces_bounds_and_the_order(caps
         pieces = {p["piece"] for p in w["pieces"]}
         assert all(c["piece"] in pieces and c["run"] in w["runs"] for c in w["cuts"])
         assert sum(c["ft"] for c in w["cuts"]) == w["with_waste_ft"]
-    [black] = [w for w in data["wire"] if w["size"] == "12 AWG" and w["colour"] == "black"]
-    # B1 (60 + 4) x 1.10 -> 71, B2 (40 + 4) x 1.10 -> 49, both off box 1
-    assert black["cuts"] == [{"run": "B1", "set": 1, "ft": 71, "piece": 1},
+    # the neutral: B1 (60 + 4) x 1.10 -> 71, B2 (40 + 4) x 1.10 -> 49, both off box 1 (their hots
+    # are on lines A and B, black and red, a line each)
+    [white] = [w for w in data["wire"] if w["size"] == "12 AWG" and w["colour"] == "white"]
+    assert white["cuts"] == [{"run": "B1", "set": 1, "ft": 71, "piece": 1},
                              {"run": "B2", "set": 1, "ft": 49, "piece": 1}]
-    assert black["pieces"] == [{"piece": 1, "put_up": "500 ft box", "length_ft": 500,
+    assert white["pieces"] == [{"piece": 1, "put_up": "500 ft box", "length_ft": 500,
                                 "used_ft": 120, "offcut_ft": 380, "cut_to_length": False}]
-    assert black["lower_bound_count"] == 1
+    assert white["lower_bound_count"] == 1
     assert any(f["item"] == "conduit body" for f in data["fittings"])
     assert {"item", "description", "quantity", "unit"} <= set(data["order"][0])
     assert "total_cost" not in data and "unpriced" not in data

@@ -43,11 +43,13 @@ def test_walk_takeoff_worked_by_hand(computed):
     wire = {(w.size, w.function, w.colour): (w.net_ft, w.with_waste_ft, w.order_ft, w.left_over_ft)
             for w in takeoff.wire_lines}
     assert wire == {
-        # B1 (60 + 2 + 2) + B2 (40 + 2 + 2) = 108 ft per conductor; 120 V circuits: one hot
-        # (black, phase A; common practice), white neutral (NEC 200.6(A)), green EGC (NEC 250.119)
-        # cuts with 10 % waste: 64 x 1.1 = 70.4 -> 71, 44 x 1.1 = 48.4 -> 49; 120 ft on one
-        # 500 ft box, 380 ft over
-        ("12 AWG", "phase", "black"): (108.0, 120, 500, 380),
+        # B1 (60 + 2 + 2) + B2 (40 + 2 + 2) = 108 ft per conductor; 120 V circuits: one hot,
+        # white neutral (NEC 200.6(A)), green EGC (NEC 250.119); cuts with 10 % waste:
+        # 64 x 1.1 = 70.4 -> 71, 44 x 1.1 = 48.4 -> 49. The hots take the colour of the line the
+        # tool places them on to balance LP1: B1 (16 A) on A, black; B2 (10 A) on B, red
+        # (common practice colours): a 500 ft box each, 429 and 451 ft over
+        ("12 AWG", "phase", "black"): (64.0, 71, 500, 429),
+        ("12 AWG", "phase", "red"): (44.0, 49, 500, 451),
         ("12 AWG", "neutral", "white"): (108.0, 120, 500, 380),
         ("12 AWG", "EGC", "green"): (108.0, 120, 500, 380),
         # F1 "120+30" = 150 ft; (150 + 4) x 2 sets = 308 ft per conductor; a cut per set of
@@ -166,8 +168,10 @@ def test_put_ups_the_job_lists_are_the_ones_ordered(tmp_path):
     takeoff = build_takeoff(job, compute_job(job))
     order = {(w.size, w.colour): ([(p.label, p.count) for p in w.order], w.left_over_ft)
              for w in takeoff.wire_lines}
-    # 12 AWG: cuts 71 + 49 = 120 ft -> one 250 ft coil, 130 ft over
-    assert order["12 AWG", "black"] == ([("250 ft coil", 1)], 130)
+    # 12 AWG: B1's hot (black, line A) 71 ft and B2's (red, line B) 49 ft: one 250 ft coil
+    # each, 179 and 201 ft over
+    assert order["12 AWG", "black"] == ([("250 ft coil", 1)], 179)
+    assert order["12 AWG", "red"] == ([("250 ft coil", 1)], 201)
     # 3 AWG, cuts 170 + 170: one on a 250 ft coil (80 ft over), the other, shorter than the
     # coil, cut to length (3 AWG is cut by the supplier, common practice)
     assert order["3 AWG", "green"] == ([("250 ft coil", 1), ("cut to length", 1)], 80)

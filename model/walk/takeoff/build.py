@@ -13,7 +13,7 @@ from typing import Iterable
 
 from gaugewalk.model.walk.takeoff.fittings import count_raceway
 from gaugewalk.model.walk.takeoff.footage import (
-    FUNCTION_ORDER, phase_colours_for, wire_footage,
+    FUNCTION_ORDER, colours_of_lines, phase_colours_for, wire_footage,
 )
 from gaugewalk.model.walk.takeoff.lines import (
     RunMaterial, SharedRacewayMaterial, Takeoff, TakeoffError, TakeoffSettings, WireLine,
@@ -103,8 +103,9 @@ def _assumptions(settings: TakeoffSettings, families: dict[str, raceway_install.
         "Put-up lengths: "
         + (PUTUP_SOURCE if settings.putups == DEFAULT_PUTUPS else "as the job lists them")
         + ": " + "; ".join(f"{p.label} ({_size_span(p.sizes)})" for p in settings.putups) + ".",
-        "Phase colours are assigned in phase order A, B, C per circuit; balance them against the "
-        "panel schedule.",
+        "Phase colours follow the line each conductor lands on in its source (the run's position "
+        "or phase as walked, else as placed to balance the lines), so the footage per colour is "
+        "what will be pulled; a run not placed takes A, B, C in order.",
     ]
     out += [f"Colour: {source}." for source in settings.scheme_sources]
     if any(size_index(w.size) >= size_index("4 AWG") for w in wire_lines):
@@ -193,6 +194,7 @@ def materials_from_job(job, job_result) -> tuple[list[RunMaterial], list[str], t
     schemes: dict[str, colour_table.ColourScheme] = {}
     system_of = {s.id: s.system for s in reversed(job.sources)}  # the first source of an id wins
     scheme_of: dict[str, colour_table.ColourScheme | str] = {}   # by system: scheme or why none
+    placements = job_result.placements  # run id -> the lines it lands on in its source
     for run in job.runs:
         result = job_result.runs.get(run.id)
         if result is None:
@@ -212,9 +214,14 @@ def materials_from_job(job, job_result) -> tuple[list[RunMaterial], list[str], t
         per_set = result.conductors or {}
         has_neutral = bool(per_set.get("neutral")) and result.neutral_size is not None
         has_egc = bool(per_set.get("egc")) and result.egc_size is not None
+        hots = int(per_set.get("hot", 0))
+        placed = placements.get(run.id)
         try:
-            phases = phase_colours_for(scheme, int(per_set.get("hot", 0)), has_neutral)
-        except TakeoffError as exc:
+            if placed is not None and len(placed.lines) == hots:
+                phases = colours_of_lines(scheme, placed.lines)  # the lines it lands on
+            else:
+                phases = phase_colours_for(scheme, hots, has_neutral)
+        except (TakeoffError, ValueError) as exc:
             left_out.append(f"run {run.id}: {exc}")
             continue
         materials.append(RunMaterial(

@@ -47,6 +47,12 @@ def phase_colours_for(scheme: colour_table.ColourScheme, hots: int, neutral: boo
     return tuple(scheme.phases[i] for i in order[:hots])
 
 
+def colours_of_lines(scheme: colour_table.ColourScheme, lines: tuple[int, ...]) -> tuple[str, ...]:
+    """Colours of a circuit's ungrounded conductors by the lines they land on in the source
+    (0 = A, 1 = B, 2 = C), in pole order: the phase each conductor is, its colour in the scheme."""
+    return tuple(scheme.phase_colour(k) for k in lines)
+
+
 def conductors_of(run: RunMaterial) -> list[tuple[WireKey, int]]:
     """The conductors of one set of ``run``: (line key, count) for each."""
     out: list[tuple[WireKey, int]] = []
