@@ -48,7 +48,8 @@ svg text { font-family: system-ui, sans-serif; font-size: 12px; }
 _NUMERIC = {"Length [ft]", "Drop [%]", "Total drop [%]", "Net [ft]", "With waste [ft]",
             "Cuts [ft]", "Offcut [ft]", "Count", "Quantity", "Breaker [A]", "Serves [kVA]",
             "Drop at bus [%]", "Conductors", "Current-carrying", "Adjustment"}
-_NO_BREAK = {"Size", "EGC", "Raceway", "Trade size", "Circuit", "Rating", "Insulation", "System"}
+_NO_BREAK = {"Size", "EGC", "Raceway", "Trade size", "Circuit", "Rating", "Insulation", "System",
+             "Kind"}
 """Columns whose cells are never broken across lines (``3/0 AWG``, ``EMT 1-1/4``)."""
 
 
