@@ -1,12 +1,12 @@
 """``gaugewalk merge A B -o OUT [--base BASE] [--prefer a|b]``: merge two walks of one job.
 
-Runs and sources are matched by id (``gaugewalk.model.walk.merge`` has the rules). With the
-version both walks started from (``--base``, or found in git: see below) a change made on one
-side only is taken; without it an item on one side only is kept, and only a dated re-measure
+Runs, sources and shared raceways are matched by id (``gaugewalk.model.walk.merge`` has the rules).
+With the version both walks started from (``--base``, or found in git: see below) a change made on
+one side only is taken; without it an item on one side only is kept, and only a dated re-measure
 tells which side changed a run. Two new runs that got the same id are both kept, B's renumbered,
-and the output says so. A true conflict (both sides changed one thing, each its own way) stops
-the merge, all of them listed, unless ``--prefer`` picks a side for them. An existing OUT is kept
-as ``OUT~``.
+and the output says so. A true conflict (both sides changed one thing, each its own way) stops the
+merge, all of them listed, unless ``--prefer`` picks a side for them. An existing OUT is kept as
+``OUT~``.
 
 A walk may be named as git names a file in a commit, ``REV:PATH`` (``main:walk.toml``,
 ``:2:walk.toml``, a stage while git reports a conflict). When one of A and B is named that way
@@ -42,7 +42,8 @@ from gaugewalk.tui.cli.common import (
 )
 
 NAME = "merge"
-HELP = "Merge two walk files by run and source id; conflicts stop the merge unless --prefer."
+HELP = ("Merge two walk files by run, source and raceway id; conflicts stop the merge unless "
+        "--prefer.")
 
 DRIVER = "gaugewalk"
 """The name of the merge driver in git's configuration and ``.gitattributes``."""
