@@ -196,3 +196,37 @@ def test_every_run_of_both_sides_is_accounted_for_and_no_new_run_is_lost(
     for to in (*new_a, *new_b):
         assert (to, "25") in kept, (to, merged.taken)
     assert loads_walk(dumps_walk(merged.job)) == merged.job
+
+
+# -- shared raceways ------------------------------------------------------------------------------
+
+def _with_raceways(*raceways: tuple[str, str], **extra_keys):
+    """The start walk with a ``[[raceway]]`` for each (id, length); ``extra_keys`` as ``_walk``."""
+    tables = "".join(f'\n[[raceway]]\nid = "{rid}"\nlength = "{length}"\n'
+                     for rid, length in raceways)
+    return loads_walk(_walk(START, **extra_keys) + tables)
+
+
+def test_shared_raceways_merge_three_way_like_runs():
+    base = _with_raceways(("HR1", "60"), ("HR9", "20"))
+    a = _with_raceways(("HR1", "75"), ("HR2", "30"))                      # HR1 re-measured
+    b = _with_raceways(("HR1", "60"), R2={"raceway_id": "HR1"})          # R2 joins HR1
+    merged = merge_jobs(a, b, base=base)
+    assert merged.ok and not merged.conflicts
+    assert [(w.id, w.length) for w in merged.job.raceways] == [("HR1", "75"), ("HR2", "30")]
+    assert merged.job.run("R2").raceway_id == "HR1"
+    assert "raceway HR1" in merged.taken["changed in a"]
+    assert "raceway HR2" in merged.taken["a only"]
+    assert merged.taken["deleted in both"] == ["raceway HR9"]
+
+
+def test_a_shared_raceway_changed_on_both_sides_is_a_conflict_never_renumbered():
+    base = _with_raceways(("HR1", "60"))
+    a = _with_raceways(("HR1", "75"))
+    b = _with_raceways(("HR1", "90"))
+    merged = merge_jobs(a, b, base=base)
+    assert merged.job is None
+    assert [str(c) for c in merged.conflicts] == [
+        "raceway HR1 differs: length: A has '75', B has '90'"]
+    assert not merged.taken["renumbered"]
+    assert [w.length for w in merge_jobs(a, b, prefer="b", base=base).job.raceways] == ["90"]
