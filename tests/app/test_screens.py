@@ -325,7 +325,10 @@ async def test_a_walk_held_by_another_gaugewalk_opens_read_only_and_is_not_writt
     assert path.read_bytes() == before
 
 
-async def test_a_walk_changed_on_disk_by_someone_else_is_not_overwritten(tmp_path):
+async def test_a_walk_changed_on_disk_by_someone_else_is_not_overwritten(tmp_path, monkeypatch):
+    # the clash is on saving the delete: the screen's look at the disk every few seconds must
+    # not take the change in first, whenever a busy machine lets its timer fire
+    monkeypatch.setattr("gaugewalk.tui.app.screens.walk.DISK_LOOK_S", 3600.0)
     path = write_walk(tmp_path)
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
