@@ -43,12 +43,14 @@ COMMANDS: tuple[Command, ...] = (
     Command("place", "gaugewalk.tui.cli.place",
             "Write the breaker positions the tool picked into the walk file."),
     Command("raceway", "gaugewalk.tui.cli.raceway",
-            "List a walk's shared raceways (fill, adjustment), or add one that runs can share."),
+            "List a walk's shared raceways (fill, adjustment), or add one that runs can "
+            "share."),
     Command("check", "gaugewalk.tui.cli.check",
             "Check a walk file and compute every run (exit 0 all within limits, 1 not, "
             "2 invalid)."),
     Command("merge", "gaugewalk.tui.cli.merge",
-            "Merge two walk files by run and source id; conflicts stop the merge unless --prefer."),
+            "Merge two walk files by run, source and raceway id; conflicts stop the merge unless "
+            "--prefer."),
     Command("unlock", "gaugewalk.tui.cli.unlock",
             "Clear a walk's stale or broken lock (never one a running gaugewalk holds)."),
     Command("schema", "gaugewalk.tui.cli.schema",
