@@ -44,6 +44,7 @@ from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
+from gaugewalk.model.walk.demand import DemandStep, apply_demand
 from gaugewalk.model.walk.equipment import load_facts
 from gaugewalk.model.walk.ratings import (
     FeederRule,
@@ -98,6 +99,7 @@ class FeederInfo:
     line: str | None
     beside: RunResult | None = None
     max_ocpd_a: float | None = None   # NEC 430.62(A) for a feeder supplying motors
+    demand: tuple[DemandStep, ...] = ()   # demand factors taken (Defaults.demand)
 
 
 @dataclass
@@ -383,7 +385,8 @@ class WalkState:
         """Place and sum one source's runs; its transformer and loading; what its feeder
         carries. Returns True when that changed."""
         res, walk = self.result, self.walk
-        outcome, lines = sum_source(walk, sid, res._circuits, res._own, res._feeds)
+        outcome, lines = sum_source(walk, sid, res._circuits, res._own, res._feeds,
+                                    self.job.defaults.demand == "nec-220")
         res.lines[sid] = lines
         res.connected_va[sid] = lines.load.va
         children = walk.children[sid]
@@ -513,6 +516,10 @@ class WalkState:
         is_feeder = self.walk.feeder.get(r.to) is r
         feed = res._feeds.get(r.to) if is_feeder else None
         rule = self.feeder_rule(r, is_feeder) if is_feeder or _from_transformer(self, r) else None
+        steps: tuple[DemandStep, ...] = ()
+        if (feed is not None and feed.kinds and r.load is None
+                and self.walk.sources[r.to].kind != "transformer"):
+            feed, steps = apply_demand(feed)   # Defaults.demand: NEC 220.44, 220.60
         motors = _motors_fed(self.job, res, r, is_feeder)
         ccc = ccc_for_run(r, self.shared_ccc) if self.shared_ccc else None
         try:
@@ -527,6 +534,8 @@ class WalkState:
             self.fail(r, str(exc))
             return
         result = _with_rule(result, rule)
+        if steps:
+            result = replace(result, notes=result.notes + tuple(s.text for s in steps))
         if r.connection is None and not is_feeder:
             note = unstated_circuit_note(self.job, r)
             if note is not None:
@@ -543,7 +552,8 @@ class WalkState:
                              problems=result.problems + problems)
         res._specs[r.id] = spec
         if is_feeder:
-            res.feeders[r.id] = self.feeder_info(r, spec, feed, rule, beside, motors, limit)
+            info = self.feeder_info(r, spec, feed, rule, beside, motors, limit)
+            res.feeders[r.id] = replace(info, demand=steps) if steps else info
         self.store(r, result, is_feeder, spec)
 
     def feeder_info(self, r: Run, spec: RunSpec, feed: Feed | None, rule: FeederRule | None,

@@ -179,6 +179,9 @@ class Lines:
     continuous: tuple[complex, ...]
     load: FeederLoad
     has_neutral: bool
+    kinds: tuple[tuple[str, Lines], ...] = ()
+    """The part of the sums from the loads of each demand group (``DEMAND_GROUPS``), below
+    this source too; only when asked for (``sum_source(..., groups=True)``)."""
 
     @property
     def phase_amps(self) -> tuple[float, ...]:
@@ -222,6 +225,8 @@ class Feed:
     continuous: tuple[complex, ...]
     frame: str
     load: FeederLoad
+    kinds: tuple[tuple[str, Feed], ...] = ()
+    """The part of it from each demand group's loads (``Lines.kinds``), in the same frame."""
 
     def heaviest(self) -> tuple[int, float, float, float]:
         """(line, design [A], load current [A], continuous current [A]) of the feeder's
@@ -262,7 +267,16 @@ class _FeedShare:
 def feed_of(source: Source, lines: Lines, primary: Circuit | None) -> tuple[Feed, str | None]:
     """What the feeder of ``source`` carries, given its line sums and (for a transformer) the
     circuit of the feeder into its primary; with a sentence when the transformer's windings
-    cannot be worked out from the walk (its load is then taken as balanced on the primary)."""
+    cannot be worked out from the walk (its load is then taken as balanced on the primary).
+    Each demand group's part is carried the same way."""
+    feed, why = _feed_of(source, lines, primary)
+    if not lines.kinds:
+        return feed, why
+    kinds = tuple((g, _feed_of(source, part, primary)[0]) for g, part in lines.kinds)
+    return Feed(feed.total, feed.continuous, feed.frame, feed.load, kinds), why
+
+
+def _feed_of(source: Source, lines: Lines, primary: Circuit | None) -> tuple[Feed, str | None]:
     if source.kind != "transformer" or primary is None:
         return Feed(lines.total, lines.continuous, "lines", lines.load), None
     system = SYSTEMS[source.system]
@@ -307,11 +321,12 @@ def _delta_wye(x: tuple[complex, ...], e: complex) -> tuple[complex, ...]:
 
 
 def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circuit],
-               own: Mapping[str, OwnLoad | None], feeds: Mapping[str, Feed]
-               ) -> tuple[PlaceOutcome, Lines]:
+               own: Mapping[str, OwnLoad | None], feeds: Mapping[str, Feed],
+               groups: bool = False) -> tuple[PlaceOutcome, Lines]:
     """Place the runs of ``source_id`` and sum their currents line by line: each run's own load
     (``own``, from its circuit in ``circuits``), or for a feeder without one what its source
-    carries (``feeds``). A run without a circuit or a load adds nothing."""
+    carries (``feeds``). A run without a circuit or a load adds nothing. ``groups``: the sums
+    of each demand group too (``Lines.kinds``), for the demand factors of NEC Article 220."""
     source = graph.sources[source_id]
     u = line_phasors(source.system)
     n = len(u)
@@ -354,8 +369,58 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size, mags,
                                mine is not None and poles == n, per_line))
     outcome = place(items, n, source.spaces)
+    has_neutral = SYSTEMS[source.system].has_neutral
+    kinds = _group_sums(graph, source_id, items, outcome, own, feeds, u, has_neutral) if groups else ()
     lines = Lines(tuple(outcome.total), tuple(outcome.continuous), feeder_load(va, cva, watts),
-                  SYSTEMS[source.system].has_neutral)
+                  has_neutral, kinds)
     return outcome, lines
+
+
+DEMAND_GROUPS = {"receptacle": "receptacle", "heater": "heating", "hvac": "cooling"}
+"""The load kinds a demand factor reads, and the group each falls in: receptacles (NEC 220.44),
+fixed space heating and air conditioning (the noncoincident loads of NEC 220.60; HVAC
+equipment taken as cooling)."""
+
+
+def _group_sums(graph: SupplyGraph, source_id: str, items: list[PlaceItem],
+                outcome: PlaceOutcome, own: Mapping[str, OwnLoad | None],
+                feeds: Mapping[str, Feed], u: tuple[complex, ...], has_neutral: bool
+                ) -> tuple[tuple[str, Lines], ...]:
+    """Each demand group's part of the placed sums: the runs of its kinds, and the parts the
+    feeders carry up from the sources below."""
+    n = len(u)
+    sums: dict[str, tuple[list[complex], list[complex], list[float]]] = {}
+    runs = {r.id: r for r in graph.children[source_id]}
+
+    def add_to(group: str, share, load: FeederLoad) -> None:
+        t, c, v = sums.setdefault(group, ([0j] * n, [0j] * n, [0.0, 0.0, 0.0]))
+        for k, dt, dc in share:
+            t[k] += dt
+            c[k] += dc
+        v[0] += load.va
+        v[1] += load.continuous_va
+        v[2] += load.watts
+
+    for it in items:
+        placed = outcome.placements.get(it.key)
+        if placed is None or not placed.lines:
+            continue
+        r = runs[it.key]
+        mine = own.get(r.id)
+        if mine is not None:
+            group = DEMAND_GROUPS.get(r.load.kind) if r.load is not None else None
+            if group is None:
+                continue
+            if it.share is not None:
+                share = it.share(placed.lines)
+            else:
+                t, c = it.per_line[placed.lines[0]]
+                share = ((placed.lines[0], t, c),)
+            add_to(group, share, mine.load)
+            continue
+        for group, part in feeds[r.to].kinds:
+            add_to(group, _FeedShare(u, part)(placed.lines), part.load)
+    return tuple((g, Lines(tuple(t), tuple(c), feeder_load(*v), has_neutral))
+                 for g, (t, c, v) in sums.items())
 
 

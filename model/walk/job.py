@@ -78,6 +78,7 @@ from gaugewalk.model.engine.vocabulary import (
 from gaugewalk.model.walk.plain_text import no_control
 from gaugewalk.model.walk.vocabulary import (
     MAX_POSITION,
+    Demand,
     FeederBasis,
     Phase,
     Protection,
@@ -252,6 +253,10 @@ class Defaults(_Strict):
     """What a feeder is sized for: ``load`` (the heaviest line of what it serves, NEC
     215.2(A)(1)) or ``equipment`` (the main device, else the bus rating, of the panel it feeds;
     common practice); a feeder's ``basis`` overrides it."""
+    demand: Demand = "connected"
+    """The load a feeder is sized for: ``connected`` (every load at 100 %) or ``nec-220``
+    (receptacles below it per NEC 220.44, and of heating and cooling below it only the larger,
+    NEC 220.60; each application in the feeder's notes). A feeder given its own load keeps it."""
 
 
 

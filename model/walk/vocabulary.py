@@ -12,6 +12,9 @@ Public API:
   up to 84 spaces; a switchboard's distribution sections more).
 - ``FeederBasis``, ``FEEDER_BASES``: what a feeder is sized for: the ``load`` it serves, or the
   ``equipment`` it feeds (its main device or bus rating; common practice).
+- ``Demand``, ``DEMANDS``: the load a feeder is sized for: the ``connected`` load, or with the
+  demand factors of NEC Article 220 (``nec-220``: 220.44 receptacles, 220.60 noncoincident
+  heating and cooling).
 - ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
   ``primary`` only, or on the primary and the secondary (``both``).
 """
@@ -39,6 +42,13 @@ FEEDER_BASES: dict[FeederBasis, str] = {
     "equipment": "the equipment it feeds: its main device, else its bus rating (common practice)",
 }
 
+Demand = Literal["connected", "nec-220"]
+DEMANDS: dict[Demand, str] = {
+    "connected": "the connected load (no demand factors)",
+    "nec-220": "with demand factors: receptacles per NEC 220.44, noncoincident heating and "
+               "cooling per NEC 220.60",
+}
+
 Protection = Literal["primary", "both"]
 PROTECTIONS: dict[Protection, str] = {
     "primary": "primary only (NEC Table 450.3(B), primary 125 %)",
@@ -46,6 +56,6 @@ PROTECTIONS: dict[Protection, str] = {
 }
 
 for _literal, _values in ((Phase, PHASES), (FeederBasis, FEEDER_BASES),
-                          (Protection, PROTECTIONS)):
+                          (Demand, DEMANDS), (Protection, PROTECTIONS)):
     if get_args(_literal) != tuple(_values):  # keep each Literal and its table in step
         raise TypeError(f"{_literal} and its table differ: {tuple(_values)}")
