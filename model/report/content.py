@@ -16,6 +16,7 @@ from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.compute import JobResult
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
+from gaugewalk.model.walk.vocabulary import DEMANDS
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
 from gaugewalk.tables.order.putups import CUT_LABEL
 
@@ -196,6 +197,7 @@ def _defaults(job: Job) -> tuple[tuple[str, str], ...]:
         ("Feeder basis", {"load": "the load served, heaviest line (NEC 215.2(A)(1))",
                           "equipment": "the main or bus rating of the equipment fed "
                                        "(common practice)"}[d.feeder_basis]),
+        ("Feeder load", DEMANDS[d.demand]),
         ("Slack per end [ft]", f"{d.slack_per_end_ft:g}"),
         ("Waste allowance [%]", f"{d.waste_pct:g}"),
         ("Colour scheme", d.colour_scheme),
@@ -352,6 +354,9 @@ def schedules_of(job: Job, result: JobResult) -> tuple[ReportSchedule, ...]:
             ratings.append(f"loaded {sch.utilisation_pct:.0f} % (heaviest line's design "
                            "current, NEC 215.2(A)(1))")
         notes.append("; ".join(ratings))
+        fed = result.feeders.get(sch.feeder) if sch.feeder is not None else None
+        if fed is not None:   # the demand factors its feeder took (Defaults.demand)
+            notes.extend(f"feeder {sch.feeder}: {step.text}" for step in fed.demand)
         notes.append(f"{sch.spaces} spaces" if sch.spaces is not None else
                      "spaces not given: positions are not checked against the end of the panel")
         notes.append("VA split equally over a circuit's poles (common practice)")

@@ -525,3 +525,33 @@ async def test_the_card_takes_a_motor_by_horsepower_and_an_hvac_nameplate(tmp_pa
     runs = {r["to"]: r for r in tomllib.loads(path.read_text())["run"]}
     assert runs["Pump"]["load"] == {"value": 10, "unit": "hp", "kind": "motor"}
     assert runs["RTU-1"]["load"] == {"kind": "hvac", "mca": 28, "mocp": 45}
+
+
+async def test_job_settings_take_demand_factors_and_refuse_an_unknown_word(tmp_path):
+    receptacles = [run_table(f"R{i}", "LP1", f"Receptacles {i}", "40", connection="LN",
+                             load={"value": 1440, "unit": "VA", "kind": "receptacle"})
+                   for i in range(30)]
+    path = write_walk(tmp_path, walk_text(
+        "demand", sources=[source_table("SVC", "service"), source_table("LP1", "panel")],
+        runs=[run_table("F1", "SVC", "LP1", "20"), *receptacles]))
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        for word in ("coincident", "nec-220"):
+            if not app.screen.query("#s-demand"):
+                await pilot.press("j")
+            field = app.screen.query_one("#s-demand")
+            assert field.value in ("connected", "coincident")
+            field.focus()
+            await pilot.press("ctrl+a", "ctrl+k")
+            await type_text(pilot, word)
+            await pilot.press("enter")
+            await pilot.pause()
+            if word == "coincident":
+                assert "Not stored" in shown(app, "#job-msg")
+                assert "Feeder load" in shown(app, "#job-msg")
+                assert "demand" not in tomllib.loads(path.read_text()).get("defaults", {})
+        assert isinstance(app.screen, WalkScreen)
+        assert tomllib.loads(path.read_text())["defaults"]["demand"] == "nec-220"
+        # NEC 2023 Table 220.44: 43.2 kVA of receptacles count 26.6 kVA: 73.9 A a line on F1
+        assert app.session.result_for("F1").amps == pytest.approx(26_600 / 3 / 120)

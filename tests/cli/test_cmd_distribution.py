@@ -157,3 +157,35 @@ def test_check_json_keeps_the_connected_load_answer_beside_an_equipment_basis(tm
     assert "200 A main" in f1["basis"]
     # beside it, the 16 A it serves: a 20 A device (240.6(A))
     assert f1["load_answer"]["ocpd_a"] == 20 and f1["load_answer"]["amps"] == 16
+
+
+def test_check_json_lists_each_demand_factor_a_feeder_takes(tmp_path, capsys):
+    receptacles = [run_table(f"R{i}", "LP1", f"Receptacles {i}", "40", connection="LN",
+                             load={"value": 1440, "unit": "VA", "kind": "receptacle"})
+                   for i in range(30)]
+    heat_and_cool = [
+        run_table("H1", "LP1", "Unit heaters", "40", connection="3P",
+                  load={"value": 10, "unit": "kW", "kind": "heater"}),
+        run_table("RTU1", "LP1", "Rooftop unit", "60", connection="3P",
+                  load={"value": 8, "unit": "kW", "kind": "hvac", "pf": 1.0, "mca": 28,
+                        "mocp": 40})]
+    sources = [source_table("SVC", "service"), source_table("LP1", "panel")]
+    runs = [run_table("F1", "SVC", "LP1", "20"), *receptacles, *heat_and_cool]
+    path = write_walk(tmp_path, walk_text("job", defaults={"demand": "nec-220"},
+                                          sources=sources, runs=runs))
+    data = _check_json(path, capsys)
+    assert data["demand"] == "nec-220"
+    f1 = next(r for r in data["runs"] if r["id"] == "F1")
+    steps = {s["section"]: s for s in f1["demand"]}
+    # NEC 2023 Table 220.44: 43.2 kVA -> 10 + 0.5 x 33.2 = 26.6 kVA
+    assert (steps["NEC 220.44"]["connected_va"], steps["NEC 220.44"]["demand_va"]) == (
+        43_200.0, 26_600.0)
+    # NEC 2023 220.60: 8 kW of cooling against 10 kW of heating: the cooling is left out
+    assert steps["NEC 220.60"]["group"] == "cooling" and "left out" in steps["NEC 220.60"]["note"]
+    # per line: 26,600 / 3 / 120 V of receptacles + 10,000 / (sqrt 3 x 208) of heaters
+    assert f1["load_amps"] == pytest.approx(26_600 / 3 / 120 + 10_000 / (SQRT3 * 208), abs=1e-3)
+    assert next(r for r in data["runs"] if r["id"] == "R1")["demand"] is None
+    connected = write_walk(tmp_path, walk_text("job", sources=sources, runs=runs), "old.toml")
+    old = _check_json(connected, capsys)
+    assert old["demand"] == "connected"
+    assert next(r for r in old["runs"] if r["id"] == "F1")["demand"] == []

@@ -13,6 +13,7 @@ from gaugewalk.tui.cli import report as cmd_report
 from gaugewalk.tui.cli.main import CAUTION
 from tests.support.golden import TAKEOFF_WALK as WALK
 from tests.support.golden import check_golden, gaugewalk
+from tests.support.walks import run_table, source_table, walk_text, write_walk
 
 
 class _Page(HTMLParser):
@@ -314,3 +315,20 @@ def test_a_new_report_gets_ordinary_file_permissions(tmp_path):
     umask = os.umask(0)
     os.umask(umask)
     assert out.stat().st_mode & 0o777 == 0o666 & ~umask
+
+
+def test_the_report_names_each_demand_factor_under_the_panel_its_feeder_feeds(tmp_path):
+    receptacles = [run_table(f"R{i}", "LP1", f"Receptacles {i}", "40", connection="LN",
+                             load={"value": 1440, "unit": "VA", "kind": "receptacle"})
+                   for i in range(30)]
+    walk = write_walk(tmp_path, walk_text(
+        "demand", defaults={"demand": "nec-220"},
+        sources=[source_table("SVC", "service"), source_table("LP1", "panel")],
+        runs=[run_table("F1", "SVC", "LP1", "20"), *receptacles]))
+    out = tmp_path / "walk.md"
+    assert gaugewalk(cmd_report, [str(walk), "-o", str(out)]) == 0
+    md = out.read_text(encoding="utf-8")
+    assert "| Feeder load | with demand factors: receptacles per NEC 220.44" in md
+    # NEC 2023 Table 220.44: 43.2 kVA -> 10 + 0.5 x 33.2 = 26.6 kVA
+    assert ("- feeder F1: NEC 220.44 (Table 220.44): receptacle loads 43.2 kVA, the first 10 kVA "
+            "at 100 % and the remaining 33.2 kVA at 50 %: 26.6 kVA counted") in md

@@ -55,6 +55,9 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         }
         feeder = result.feeders.get(r.id)
         entry["basis"] = feeder.basis if feeder is not None else None
+        entry["demand"] = None if feeder is None else [   # Defaults.demand: NEC 220.44, 220.60
+            {"section": s.section, "group": s.group, "connected_va": round(s.connected_va, 1),
+             "demand_va": round(s.demand_va, 1), "note": s.text} for s in feeder.demand]
         placed = result.placements.get(r.id)
         entry["position"] = list(placed.positions) if placed is not None else None
         entry["phase"] = placed.phase if placed is not None else None
@@ -95,6 +98,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         "drop_through_transformers": job.defaults.drop_through_transformers,
         "drop_basis": drop_basis(job),
         "raceways": raceways,
+        "demand": job.defaults.demand,
         "summary": {
             "runs": len(runs),
             "ok": len(runs) - len(failing),

@@ -11,6 +11,7 @@ from textual.widgets import Footer, Header, Input, Label, Static
 
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Defaults, JobHeader
+from gaugewalk.model.walk.vocabulary import DEMANDS
 from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.model.session.session import WalkSession
@@ -30,6 +31,7 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
     ("total_drop_pct", "Total drop %", "215.2 note: 5"),
     ("min_size", "Smallest size", "e.g. 12 (job spec); blank: rules"),
     ("method", "Drop method", "ac, kfactor or dc"),
+    ("demand", "Feeder load", vocab.or_words(DEMANDS) + ": NEC 220.44, 220.60"),
     ("pf", "Power factor", "for loads without one"),
     ("conductor_temp_c", "Conductor °C", "for resistance, Ch. 9 Table 8"),
     ("slack_per_end_ft", "Slack/end ft", "for the takeoff"),
@@ -89,7 +91,7 @@ class JobSettingsScreen(TypedInOrder, Screen):
             elif text == "" and key in ("terminal_temp", "min_size"):
                 defaults[key] = None
             elif text != "":
-                text_keys = ("material", "insulation", "raceway", "method", "min_size")
+                text_keys = ("material", "insulation", "raceway", "method", "min_size", "demand")
                 defaults[key] = text if key in text_keys else _number(text)
         return header, defaults
 
