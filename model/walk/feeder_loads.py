@@ -34,8 +34,10 @@ Public API:
   ``has_neutral``) with ``phase_amps``, ``design``, ``heaviest()`` and ``neutral_amps``.
 - ``Feed``: what a source's feeder carries (``total``, ``continuous``, ``frame``), with
   ``heaviest()``; ``feed_of(source, lines, primary)``.
-- ``sum_source(graph, source_id, circuits, own, feeds) -> (PlaceOutcome, Lines)``: one source
-  placed and summed from its runs' own loads and the feeds of the sources it feeds.
+- ``sum_source(graph, source_id, circuits, own, feeds, groups=False) -> (PlaceOutcome, Lines)``:
+  one source placed and summed from its runs' own loads and the feeds of the sources it feeds;
+  with ``groups``, each demand group's part too (``DEMAND_GROUPS``: receptacles, heating,
+  cooling; ``Lines.kinds``, ``Feed.kinds``), for ``gaugewalk.model.walk.demand``.
 """
 
 from __future__ import annotations
@@ -331,6 +333,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
     u = line_phasors(source.system)
     n = len(u)
     items: list[PlaceItem] = []
+    whose: list[tuple[Run, OwnLoad | None]] = []   # each item's run and own load
     va = cva = watts = 0.0
     feeder = graph.feeder
     for r in graph.children[source_id]:
@@ -366,11 +369,12 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         cva += load.continuous_va
         watts += load.watts
         poles = min(circuit.hots, n) if n > 1 else 1
+        whose.append((r, mine))
         items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size, mags,
                                mine is not None and poles == n, per_line))
     outcome = place(items, n, source.spaces)
     has_neutral = SYSTEMS[source.system].has_neutral
-    kinds = _group_sums(graph, source_id, items, outcome, own, feeds, u, has_neutral) if groups else ()
+    kinds = _group_sums(items, whose, outcome, feeds, u, has_neutral) if groups else ()
     lines = Lines(tuple(outcome.total), tuple(outcome.continuous), feeder_load(va, cva, watts),
                   has_neutral, kinds)
     return outcome, lines
@@ -382,15 +386,13 @@ fixed space heating and air conditioning (the noncoincident loads of NEC 220.60;
 equipment taken as cooling)."""
 
 
-def _group_sums(graph: SupplyGraph, source_id: str, items: list[PlaceItem],
-                outcome: PlaceOutcome, own: Mapping[str, OwnLoad | None],
-                feeds: Mapping[str, Feed], u: tuple[complex, ...], has_neutral: bool
-                ) -> tuple[tuple[str, Lines], ...]:
+def _group_sums(items: list[PlaceItem], whose: list[tuple[Run, OwnLoad | None]],
+                outcome: PlaceOutcome, feeds: Mapping[str, Feed], u: tuple[complex, ...],
+                has_neutral: bool) -> tuple[tuple[str, Lines], ...]:
     """Each demand group's part of the placed sums: the runs of its kinds, and the parts the
     feeders carry up from the sources below."""
     n = len(u)
     sums: dict[str, tuple[list[complex], list[complex], list[float]]] = {}
-    runs = {r.id: r for r in graph.children[source_id]}
 
     def add_to(group: str, share, load: FeederLoad) -> None:
         t, c, v = sums.setdefault(group, ([0j] * n, [0j] * n, [0.0, 0.0, 0.0]))
@@ -401,12 +403,10 @@ def _group_sums(graph: SupplyGraph, source_id: str, items: list[PlaceItem],
         v[1] += load.continuous_va
         v[2] += load.watts
 
-    for it in items:
+    for it, (r, mine) in zip(items, whose, strict=True):
         placed = outcome.placements.get(it.key)
         if placed is None or not placed.lines:
             continue
-        r = runs[it.key]
-        mine = own.get(r.id)
         if mine is not None:
             group = DEMAND_GROUPS.get(r.load.kind) if r.load is not None else None
             if group is None:
@@ -418,7 +418,8 @@ def _group_sums(graph: SupplyGraph, source_id: str, items: list[PlaceItem],
                 share = ((placed.lines[0], t, c),)
             add_to(group, share, mine.load)
             continue
-        for group, part in feeds[r.to].kinds:
+        fed = feeds.get(r.to)
+        for group, part in fed.kinds if fed is not None else ():
             add_to(group, _FeedShare(u, part)(placed.lines), part.load)
     return tuple((g, Lines(tuple(t), tuple(c), feeder_load(*v), has_neutral))
                  for g, (t, c, v) in sums.items())
