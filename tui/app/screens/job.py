@@ -31,7 +31,7 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
     ("total_drop_pct", "Total drop %", "215.2 note: 5"),
     ("min_size", "Smallest size", "e.g. 12 (job spec); blank: rules"),
     ("method", "Drop method", "ac, kfactor or dc"),
-    ("demand", "Feeder load", vocab.or_words(DEMANDS) + ": NEC 220.44, 220.60"),
+    ("demand", "Feeder load", vocab.or_words(DEMANDS) + " (220.44, 220.60)"),
     ("pf", "Power factor", "for loads without one"),
     ("conductor_temp_c", "Conductor °C", "for resistance, Ch. 9 Table 8"),
     ("slack_per_end_ft", "Slack/end ft", "for the takeoff"),
