@@ -12,12 +12,12 @@ from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.report.oneline import Bus, one_line
 from gaugewalk.model.walk.checks import connection_of
-from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.compute import JobResult
+from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
-from gaugewalk.model.walk.vocabulary import DEMANDS
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
+from gaugewalk.model.walk.vocabulary import DEMANDS
 from gaugewalk.tables.order.putups import CUT_LABEL
 
 CAUTION = (

@@ -24,6 +24,7 @@ from dataclasses import dataclass, field
 from datetime import date
 from typing import Callable, Iterable
 
+from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.lengths import LengthError, parse_length
 from gaugewalk.model.engine.loads import LoadError, parse_load
@@ -31,7 +32,6 @@ from gaugewalk.model.session.card_source import EXAMPLE as SOURCE_EXAMPLE
 from gaugewalk.model.session.card_source import new_source_from
 from gaugewalk.model.session.card_steps import next_position, step_name
 from gaugewalk.model.session.session import WalkSession, fmt_ft
-from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.walk.job import Load, Run, Source
 from gaugewalk.model.walk.plain_text import shown as shown_plain
 from gaugewalk.model.walk.plausible import long_length

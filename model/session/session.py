@@ -758,7 +758,6 @@ class WalkSession:
         """Hold the walk for writing. When someone else holds it the walk opens read-only;
         returns a sentence to show (who holds it, or a stale lock that was cleared), else None."""
         from gaugewalk.model.walkfile.lock import LockError, WalkLocked
-
         from gaugewalk.model.walkfile.write import read_only_reason
 
         self.lock_refusal = None

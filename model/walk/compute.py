@@ -46,13 +46,6 @@ from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
 from gaugewalk.model.walk.demand import DemandStep, apply_demand
 from gaugewalk.model.walk.equipment import load_facts
-from gaugewalk.model.walk.ratings import (
-    FeederRule,
-    Loading,
-    equipment_rule,
-    loading,
-    lugs_problem,
-)
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
     Feed,
@@ -79,6 +72,13 @@ from gaugewalk.model.walk.raceways import (
     ccc_for_run,
     raceway_ccc,
     shared_raceways,
+)
+from gaugewalk.model.walk.ratings import (
+    FeederRule,
+    Loading,
+    equipment_rule,
+    loading,
+    lugs_problem,
 )
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
 from gaugewalk.model.walk.vocabulary import LINE_NAMES

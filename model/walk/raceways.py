@@ -27,13 +27,15 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 
-from gaugewalk.model.engine.circuits import CircuitError, current_carrying_conductors, \
-    resolve_circuit
+from gaugewalk.model.engine.circuits import (
+    CircuitError,
+    current_carrying_conductors,
+    resolve_circuit,
+)
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.sizing.raceway import resolve_raceway
 from gaugewalk.model.walk.checks import connection_of
-from gaugewalk.model.walk.job import parse_length
-from gaugewalk.model.walk.job import Job, Raceway, Run, shared_ids
+from gaugewalk.model.walk.job import Job, Raceway, Run, parse_length, shared_ids
 from gaugewalk.model.walk.problems import Problem
 from gaugewalk.tables.conductor.ampacity import ccc_factor
 from gaugewalk.tables.errors import TableLookupError

@@ -114,8 +114,8 @@ class WalkApp(App[int]):
 
     @work(thread=True, exclusive=True, group="open")
     def _load(self, path: str) -> None:
-        from gaugewalk.model.walkfile.read import WalkFileError
         from gaugewalk.model.session.session import WalkSession
+        from gaugewalk.model.walkfile.read import WalkFileError
 
         try:
             session = WalkSession.open(path, compute=False)

@@ -8,13 +8,29 @@ and ``build`` (the takeoff of a computed walk). Build one with ``build_takeoff(j
 """
 
 from gaugewalk.model.walk.takeoff.build import (
-    COLOUR_SCHEMES, build_takeoff, materials_from_job, scheme_for_source_system, settings_for,
+    COLOUR_SCHEMES,
+    build_takeoff,
+    materials_from_job,
+    scheme_for_source_system,
+    settings_for,
     takeoff_from_runs,
 )
 from gaugewalk.model.walk.takeoff.footage import conductor_footage, phase_colours_for
 from gaugewalk.model.walk.takeoff.lines import (
-    PRICED_FIELDS, ROW_FIELDS, Cut, FittingLine, OrderLine, Piece, PutUpCount, RacewayLine,
-    RunMaterial, SharedRacewayMaterial, SizeFootage, Takeoff, TakeoffError, TakeoffSettings,
+    PRICED_FIELDS,
+    ROW_FIELDS,
+    Cut,
+    FittingLine,
+    OrderLine,
+    Piece,
+    PutUpCount,
+    RacewayLine,
+    RunMaterial,
+    SharedRacewayMaterial,
+    SizeFootage,
+    Takeoff,
+    TakeoffError,
+    TakeoffSettings,
     WireLine,
 )
 from gaugewalk.model.walk.takeoff.order import spreadsheet_safe

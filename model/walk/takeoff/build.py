@@ -13,24 +13,35 @@ from typing import Iterable
 
 from gaugewalk.model.walk.takeoff.fittings import count_raceway
 from gaugewalk.model.walk.takeoff.footage import (
-    FUNCTION_ORDER, colours_of_lines, phase_colours_for, wire_footage,
+    FUNCTION_ORDER,
+    colours_of_lines,
+    phase_colours_for,
+    wire_footage,
 )
 from gaugewalk.model.walk.takeoff.lines import (
-    RunMaterial, SharedRacewayMaterial, Takeoff, TakeoffError, TakeoffSettings, WireLine,
+    RunMaterial,
+    SharedRacewayMaterial,
+    Takeoff,
+    TakeoffError,
+    TakeoffSettings,
+    WireLine,
 )
 from gaugewalk.model.walk.takeoff.order import order_lines
 from gaugewalk.model.walk.takeoff.packing import EXACT_MAX_CUTS, pack_cuts
 from gaugewalk.tables.conductor.sizes import size_index
 from gaugewalk.tables.order import colours as colour_table
-from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, SOURCE as PUTUP_SOURCE, PutUp, putups_for
+from gaugewalk.tables.order.putups import DEFAULT_PUTUPS, PutUp, putups_for
+from gaugewalk.tables.order.putups import SOURCE as PUTUP_SOURCE
 from gaugewalk.tables.raceway import install as raceway_install
 
 EGC_PARALLEL_RULE = "NEC 250.122(F)"
 PARALLEL_RACEWAY_RULE = "NEC 310.10(G)(4)"
 LARGE_MARKING_RULE = "NEC 200.6(B), 250.119(A), 210.5(C), 215.12(C)"
+DEFAULT_SETTINGS = TakeoffSettings()
+"""The job defaults of a takeoff (one shared instance, read only)."""
 
 
-def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = TakeoffSettings(),
+def takeoff_from_runs(runs: Iterable[RunMaterial], settings: TakeoffSettings = DEFAULT_SETTINGS,
                       shared: Iterable[SharedRacewayMaterial] = ()) -> Takeoff:
     """The takeoff of the given runs and shared raceways: the pure core of ``build_takeoff``."""
     shared = tuple(shared)

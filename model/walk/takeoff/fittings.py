@@ -15,7 +15,11 @@ from functools import lru_cache
 from typing import Sequence
 
 from gaugewalk.model.walk.takeoff.lines import (
-    FittingLine, RacewayLine, RunMaterial, SharedRacewayMaterial, TakeoffSettings,
+    FittingLine,
+    RacewayLine,
+    RunMaterial,
+    SharedRacewayMaterial,
+    TakeoffSettings,
 )
 from gaugewalk.tables.raceway import install as raceway_install
 

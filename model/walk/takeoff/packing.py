@@ -108,7 +108,7 @@ def order_putups(need_ft: int, putups: Sequence[PutUp]) -> tuple[tuple[PutUpCoun
     ]
     best: tuple | None = None
     for counts in itertools.product(*bounds):
-        got = sum(c * p.length_ft for c, p in zip(counts, shorter))
+        got = sum(c * p.length_ft for c, p in zip(counts, shorter, strict=True))
         n_long = max(0, math.ceil((need_ft - got) / longest.length_ft))
         total = got + n_long * longest.length_ft
         key = (total - need_ft, sum(counts) + n_long, tuple(reversed(counts)))
@@ -118,7 +118,7 @@ def order_putups(need_ft: int, putups: Sequence[PutUp]) -> tuple[tuple[PutUpCoun
     _, counts, total = best
     chosen = tuple(
         PutUpCount(p.label, p.length_ft, c)
-        for p, c in sorted(zip(usable, counts), key=lambda pc: -pc[0].length_ft)
+        for p, c in sorted(zip(usable, counts, strict=True), key=lambda pc: -pc[0].length_ft)
         if c
     )
     return chosen, total
@@ -246,7 +246,7 @@ def _choice_search(sizes: list[int], lengths: list[int], cut_cap: int, bins: _Bi
         if work > WORK_BUDGET:
             complete = False
             break
-        caps = [length for length, c in zip(lengths, counts) for _ in range(c)]
+        caps = [length for length, c in zip(lengths, counts, strict=False) for _ in range(c)]
         work += n
         assign, left = _best_fit(sizes, caps, cut_cap)
         if exact and (assign is None or left):
@@ -334,7 +334,7 @@ def _choices(sizes: list[int], lengths: list[int], cut_cap: int, best_offcut: in
         bounds.append(bound)
     out = []
     for counts in _bounded_products(bounds, lengths[:-1], ceiling):
-        got = sum(c * length for c, length in zip(counts, lengths))
+        got = sum(c * length for c, length in zip(counts, lengths, strict=False))  # all but the longest
         first = max(0, math.ceil((total - cut_cap - got) / longest))
         for n_long in range(first, min(n, (ceiling - got) // longest) + 1):
             cap = got + n_long * longest

@@ -8,7 +8,6 @@ next one; a run with an invalid field is not stored.
 
 from __future__ import annotations
 
-from gaugewalk.tui.app.plain import escape
 from textual import on
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
@@ -18,13 +17,23 @@ from textual.widget import Widget
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from gaugewalk.model.session.card_form import (
-    FIELD_KEYS, FIELDS, LOAD_KEYS, MAIN_KEYS, CardCheck, CardForm, choices, complete, label,
-    placeholder, shown,
+    FIELD_KEYS,
+    FIELDS,
+    LOAD_KEYS,
+    MAIN_KEYS,
+    CardCheck,
+    CardForm,
+    choices,
+    complete,
+    label,
+    placeholder,
+    shown,
 )
 from gaugewalk.model.session.card_source import GRAMMAR as SOURCE_GRAMMAR
 from gaugewalk.model.session.session import WalkSession
 from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
+from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.sheet.rows import size_text
 
 

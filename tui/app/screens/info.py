@@ -4,7 +4,6 @@ from __future__ import annotations
 
 import textwrap
 
-from gaugewalk.tui.app.plain import escape
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Vertical, VerticalScroll
@@ -12,6 +11,7 @@ from textual.screen import ModalScreen
 from textual.widgets import Static
 
 from gaugewalk.tui.app.keys import bindings_for, guide_rows
+from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.cli.main import CAUTION
 
 ABOUT_TEXT = (

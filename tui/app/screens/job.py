@@ -3,18 +3,18 @@ every run and says what moved."""
 
 from __future__ import annotations
 
-from gaugewalk.tui.app.plain import escape
 from textual.app import ComposeResult
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from gaugewalk.model.engine import vocabulary as vocab
+from gaugewalk.model.session.session import WalkSession
 from gaugewalk.model.walk.job import Defaults, JobHeader
 from gaugewalk.model.walk.vocabulary import DEMANDS
 from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
-from gaugewalk.model.session.session import WalkSession
+from gaugewalk.tui.app.plain import escape
 
 # (field, label, help); header fields are prefixed "job."
 SETTINGS: tuple[tuple[str, str, str], ...] = (

@@ -6,7 +6,6 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from gaugewalk.tui.app.plain import escape
 from textual import on
 from textual.app import ComposeResult
 from textual.containers import Vertical
@@ -16,6 +15,7 @@ from textual.widgets.option_list import Option
 
 from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
+from gaugewalk.tui.app.plain import escape
 
 NEW = "\x00new"
 
@@ -150,8 +150,8 @@ class NewWalkScreen(TypedInOrder, Screen[dict | None]):
 
     def action_create(self) -> None:
         """Enter: create the walk with these answers, or say which one is wrong."""
-        from gaugewalk.model.walk.job import Source
         from gaugewalk.model.engine.circuits import CircuitError, parse_system
+        from gaugewalk.model.walk.job import Source
 
         msg = self.query_one("#start-msg", Static)
         try:

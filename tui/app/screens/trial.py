@@ -3,18 +3,18 @@ feeder, see what it does to that run and to everything downstream, then keep it 
 
 from __future__ import annotations
 
-from gaugewalk.tui.app.plain import escape
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
 from textual.widgets import Footer, Header, Input, Label, Static
 
 from gaugewalk.model.engine import vocabulary as vocab
-from gaugewalk.model.walk.job import Run
-from gaugewalk.tui.app.keys import bindings_for
-from gaugewalk.tui.app.sheet.rows import size_text
-from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.model.session.session import WalkSession, fmt_pct
+from gaugewalk.model.walk.job import Run
+from gaugewalk.tui.app.keyorder import TypedInOrder
+from gaugewalk.tui.app.keys import bindings_for
+from gaugewalk.tui.app.plain import escape
+from gaugewalk.tui.app.sheet.rows import size_text
 
 TRIAL_FIELDS = (
     ("material", "Material", vocab.or_words(vocab.MATERIALS)),

@@ -2,18 +2,18 @@
 
 from __future__ import annotations
 
-from gaugewalk.tui.app.plain import escape
 from textual import on
 from textual.app import ComposeResult
 from textual.containers import ScrollableContainer, Vertical
 from textual.screen import Screen
 from textual.widgets import ContentSwitcher, Footer, Header, Input, Static
 
+from gaugewalk.model.session.session import WalkSession
 from gaugewalk.tui.app.keys import bindings_for
+from gaugewalk.tui.app.plain import escape
+from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
 from gaugewalk.tui.app.sheet.rows import all_rows, changed_rows, detail_lines
-from gaugewalk.model.session.session import WalkSession
-from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
 from gaugewalk.tui.app.widgets.views import SupplyTree, boards_text, footage_text
 

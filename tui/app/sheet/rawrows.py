@@ -18,7 +18,10 @@ SIZING = "… sizing"
 
 
 def _feet(text: object) -> str:
-    from gaugewalk.model.engine.lengths import LengthError, parse_length  # stdlib only, quick to import
+    from gaugewalk.model.engine.lengths import (  # stdlib only, quick to import
+        LengthError,
+        parse_length,
+    )
 
     try:
         ft = parse_length(str(text))

@@ -9,7 +9,13 @@ from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.contract import RunResult
 from gaugewalk.model.session.card_form import circuit_words
 from gaugewalk.model.session.session import (
-    STATUS_AMPS, STATUS_DROP, STATUS_ERROR, STATUS_OK, STATUS_TOTAL, WalkSession, fmt_ft,
+    STATUS_AMPS,
+    STATUS_DROP,
+    STATUS_ERROR,
+    STATUS_OK,
+    STATUS_TOTAL,
+    WalkSession,
+    fmt_ft,
 )
 from gaugewalk.model.walk.checks import connection_of, default_connection
 from gaugewalk.model.walk.equipment import load_short
@@ -18,7 +24,6 @@ from gaugewalk.model.walk.plausible import long_length
 from gaugewalk.tables.conductor.sizes import size_index
 from gaugewalk.tables.equipment.horsepower import hp_text
 from gaugewalk.tui.app.widgets.runsheet import SheetRow
-
 
 
 def load_text(run: Run) -> str:

@@ -58,7 +58,7 @@ def _fit(text: str, width: int, right: bool) -> str:
 
 def format_line(columns: Sequence[SheetColumn], cells: Sequence[str]) -> str:
     """Cells fitted to their columns, separated by one space."""
-    return " ".join(_fit(c, col.width, col.right) for col, c in zip(columns, cells))
+    return " ".join(_fit(c, col.width, col.right) for col, c in zip(columns, cells, strict=False))
 
 
 def line_width(columns: Sequence[SheetColumn]) -> int:

@@ -11,14 +11,14 @@ report's own text), with the sources' ratings and loading above them.
 
 from __future__ import annotations
 
-from gaugewalk.tui.app.plain import escape
 from rich.text import Text
 from textual.widgets import Tree
 
+from gaugewalk.model.session.session import WalkSession, fmt_ft, fmt_pct
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Run, Source
+from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.sheet.rows import size_text
-from gaugewalk.model.session.session import WalkSession, fmt_ft, fmt_pct
 
 _EIGHTHS = " ▏▎▍▌▋▊▉"
 
