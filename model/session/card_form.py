@@ -71,8 +71,10 @@ FIELDS: tuple[CardField, ...] = (
 )
 FIELD_KEYS = tuple(f.key for f in FIELDS)
 MAIN_KEYS = tuple(f.key for f in FIELDS if f.main)
-COPIED_FROM_PREVIOUS = ("circuit", "continuous", "material", "raceway")
-"""Fields a new card copies from the last branch run from the same source."""
+COPIED_FROM_PREVIOUS = ("circuit", "continuous")
+"""Fields a new card copies from the last branch run from the same source. Material and raceway
+are not copied: a fresh card shows the job's (a PVC-40 typed for one underground run must not ride
+unseen below the line into the next); ctrl+r copies everything of the last run."""
 FOLLOWING = (*COPIED_FROM_PREVIOUS, "id", "kind")
 """Fields the form fills in for the person, and keeps filling while they are not typed in."""
 LOAD_KEYS = ("load", "kind", "plate")

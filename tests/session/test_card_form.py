@@ -7,7 +7,7 @@ import pytest
 
 from gaugewalk.model.session.card_form import FIELD_KEYS, CardForm, complete
 from gaugewalk.model.session.session import WalkSession
-from tests.support.walks import write_walk
+from tests.support.walks import panel_walk, run_table, write_walk
 
 
 @pytest.fixture
@@ -432,7 +432,6 @@ def test_a_card_made_like_the_last_run_keeps_what_was_typed_on_it_first(session)
 
 
 def test_a_card_like_a_run_with_a_position_takes_the_next_position_its_poles_fit(tmp_path):
-    from tests.support.walks import panel_walk, run_table
 
     text = panel_walk("Positions", run_table("R1", "LP1", "Row 1", "40", load=(8, "A"),
                                              connection="LN", position=1),
@@ -474,3 +473,17 @@ def test_the_card_puts_a_run_in_a_shared_raceway_and_sizes_it_with_its_neighbour
     assert any("310.15(C)(1): 8 current-carrying conductors, factor 0.7" in n
                for n in checked.result.notes)
     assert "x0.8" in checked.hints["raceway_id"]  # what HR1 takes now: 6 CCC, 80 %
+
+
+def test_a_fresh_card_shows_the_jobs_raceway_not_the_last_runs_but_ctrl_r_copies_it(tmp_path):
+    # issue 13: a default never misleads; a raceway typed for one run (PVC-40 underground) must
+    # not ride unseen below the line into the next card, while "like the last" copies it
+    from tests.support.walks import panel_walk, run_table
+    path = write_walk(tmp_path, panel_walk("Ferry terminal", run_table(
+        "R1", "LP1", "Bollard light 1", "140", load=(2, "A"), connection="LN",
+        raceway="PVC-40", material="al")))
+    form = CardForm(WalkSession.open(path))
+    form.start()
+    assert (form.values["raceway"], form.values["material"]) == ("", "")
+    form.like(form.session.job.run("R1"))
+    assert (form.values["raceway"], form.values["material"]) == ("PVC-40", "al")
