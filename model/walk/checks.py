@@ -66,18 +66,13 @@ def branch_circuit_for_kind(system_id: str, kind: str = "general",
     return "LN"
 
 
-def unstated_circuit_note(job: Job, run: Run) -> str | None:
-    """A branch run with no connection in the walk is computed on every hot and the neutral
-    of its source (the file's default, ``default_connection``); where that source offers more
-    than one circuit, say so rather than pass it silently."""
-    if run.connection is not None or job.is_feeder(run):
+def unstated_circuit_note(system_id: str, taken: str) -> str | None:
+    """What to say of a branch run whose walk states no connection and which was computed as
+    ``taken`` (``default_connection``): nothing on a one-hot system, which offers one circuit."""
+    if SYSTEMS[system_id].hots == 1:
         return None
-    source = job.source(run.from_)
-    if source is None or source.system not in SYSTEMS or SYSTEMS[source.system].hots == 1:
-        return None
-    taken = default_connection(source.system)
-    return (f"circuit not stated in the walk: computed as {taken} (every hot and the neutral "
-            f"of {source.id}); state the run's connection if the load is wired otherwise")
+    return (f"circuit not stated in the walk: computed as {taken} (every hot and the neutral of "
+            "its source); state the run's connection if the load is wired otherwise")
 
 
 def connection_of(job: Job, run: Run) -> str | None:

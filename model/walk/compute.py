@@ -341,7 +341,7 @@ class WalkState:
         self.walk = walk   # None: a state that only reads ``result`` (``run_spec_for``)
         self.job = walk.job if walk is not None else job
         self.result = result
-        self._circuit_cache: dict[tuple[str, str], Circuit] = {}
+        self._circuit_cache: dict[tuple[str, str, bool], Circuit] = {}
         self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
 
     def fail(self, run: Run, message: str, field_name: str | None = None) -> None:
@@ -351,10 +351,12 @@ class WalkState:
         sources = self.walk.sources
         source = sources[run.from_]
         conn = run.connection
+        unstated = False
         if conn is None:
             target = sources.get(run.to)
             conn = default_connection(source.system, target is not None and target.kind == "transformer")
-        key = (source.system, conn)
+            unstated = target is None  # a branch run: its circuit was the walker's to state
+        key = (source.system, conn, unstated)
         c = self._circuit_cache.get(key)
         if c is None:
             try:
@@ -364,6 +366,9 @@ class WalkState:
                 self.result._circuits.pop(run.id, None)
                 self.result._own[run.id] = None
                 return None
+            note = unstated_circuit_note(source.system, conn) if unstated else None
+            if note is not None:
+                c = replace(c, notes=(note, *c.notes))
             self._circuit_cache[key] = c
         self.result._circuits[run.id] = c
         self.result._own[run.id] = (own_load(run, c, self.job.defaults.pf)
@@ -536,10 +541,6 @@ class WalkState:
         result = _with_rule(result, rule)
         if steps:
             result = replace(result, notes=result.notes + tuple(s.text for s in steps))
-        if r.connection is None and not is_feeder:
-            note = unstated_circuit_note(self.job, r)
-            if note is not None:
-                result = replace(result, notes=(note, *result.notes))
         limit = None
         if motors is not None:
             limit = device_limit(motors, result.design_amps)

@@ -76,11 +76,18 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--notes", default="", help="notes on the run")
 
 
-def _run_data(args: argparse.Namespace, run_id: str) -> dict:
+def _run_data(args: argparse.Namespace, run_id: str, usual_circuit_on: str | None) -> dict:
+    """The run's table as ``add`` writes it; a branch run that states no connection gets the
+    usual circuit for its kind of load on ``usual_circuit_on`` (its source's system)."""
     data: dict = {"id": run_id, "from": args.from_, "to": args.to, "length": args.length}
     load = load_table(args)
     if load is not None:
         data["load"] = load
+    if usual_circuit_on is not None:
+        load = load or {}
+        hp = load.get("value") if load.get("unit") == "hp" else None
+        data["connection"] = branch_circuit_for_kind(usual_circuit_on, load.get("kind", "general"),
+                                                     hp)
     options = {
         "connection": args.connection, "sets": args.sets, "size": args.size,
         "ocpd_a": args.ocpd, "material": args.material, "insulation": args.insulation,
@@ -112,19 +119,16 @@ def run(args: argparse.Namespace) -> int:
     if refusal is not None:
         print(f"{args.file}: {refusal}", file=sys.stderr)
         return EXIT_INVALID
-    stated_circuit = args.connection is not None
     source = job.source(args.from_)
-    if not stated_circuit and source is not None and job.source(args.to) is None:
-        load = load_table(args) or {}
-        hp = load.get("value") if load.get("unit") == "hp" else None
-        args.connection = branch_circuit_for_kind(source.system, load.get("kind", "general"), hp)
+    usual_circuit_on = (source.system if args.connection is None and source is not None
+                        and job.source(args.to) is None else None)
     run_id = args.run_id or job.next_run_id("R")
     if job.run(run_id) is not None:
         print(f"{args.file}, run {run_id}: that id is already used; choose another with --id",
               file=sys.stderr)
         return EXIT_INVALID
     try:
-        new = Run.model_validate(_run_data(args, run_id))
+        new = Run.model_validate(_run_data(args, run_id, usual_circuit_on))
     except ValidationError as exc:
         print_problems(problems_from_errors(exc.errors(), "run", None, Locator(), args.file,
                                             run_id))
@@ -155,8 +159,8 @@ def run(args: argparse.Namespace) -> int:
         if problem.field in ("position", "phase"):
             summary += f"; {problem.message}"
     print(summary)
-    if not stated_circuit and new.connection is not None and source is not None:
-        words = circuit_words(resolve_circuit(source.system, new.connection))
+    if usual_circuit_on is not None and new.connection is not None:
+        words = circuit_words(resolve_circuit(usual_circuit_on, new.connection))
         print(f"  circuit {new.connection}: {words}, the usual for this kind of load; "
               "give --connection if it is wired otherwise")
     warning = long_length(new.length_ft, job.defaults)
