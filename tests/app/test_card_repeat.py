@@ -6,7 +6,7 @@ from __future__ import annotations
 import tomllib
 
 from gaugewalk.tui.app.screens.card import RunCard
-from tests.support.app_helpers import burst, new_app, opened, type_text
+from tests.support.app_helpers import new_app, opened, type_keys, type_text
 from tests.support.walks import write_walk
 
 # three light rows: the first typed in full, the second with ctrl+r and its length, the third
@@ -29,12 +29,7 @@ async def _record(tmp_path, name: str, fast: bool) -> list[tuple]:
     app = new_app(path, folder / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
-        if fast:
-            await burst(app, pilot, KEYS)
-        else:
-            for key in KEYS:
-                await pilot.press(key)
-                await pilot.pause()
+        await type_keys(app, pilot, KEYS, fast=fast)
     runs = tomllib.loads(path.read_text())["run"][2:]
     return [(r["id"], r["to"], r["length"], r["load"], r.get("continuous", False)) for r in runs]
 

@@ -9,7 +9,7 @@ import pytest
 
 from gaugewalk.tui.app.recent import RecentWalks
 from gaugewalk.tui.app.screens.walk import WalkScreen
-from tests.support.app_helpers import burst, new_app, opened, settle
+from tests.support.app_helpers import burst, new_app, opened, settle, type_keys
 
 # n: a new walk; its file; Enter; the job's name over the proposed one, Tab, the service id,
 # Tab, the system (each answer is selected on entering it, so typing replaces it), Enter
@@ -25,12 +25,7 @@ async def test_a_new_walk_typed_from_the_first_screen_is_made_as_typed(tmp_path,
     app = new_app(None, config)
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(app, pilot)
-        if fast:
-            await burst(app, pilot, KEYS)
-        else:
-            for key in KEYS:
-                await pilot.press(key)
-                await pilot.pause()
+        await type_keys(app, pilot, KEYS, fast=fast)
         await opened(app, pilot)
         assert isinstance(app.screen, WalkScreen)
     data = tomllib.loads((tmp_path / "yard-shed.toml").read_text())

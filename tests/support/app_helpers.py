@@ -103,3 +103,14 @@ async def burst(app, pilot, keys) -> None:
     await pilot.pause(0.3)
     await app.workers.wait_for_complete()
     await pilot.pause()
+
+
+async def type_keys(app, pilot, keys, *, fast: bool) -> None:
+    """Type ``keys`` in one burst (``fast``) or as a slow typist does, each handled before the
+    next; the burst tests compare what the two store."""
+    if fast:
+        await burst(app, pilot, keys)
+        return
+    for key in keys:
+        await pilot.press(key)
+        await pilot.pause()
