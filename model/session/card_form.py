@@ -8,7 +8,7 @@ run (``_run_data``).
 
 Public API:
 
-- ``FIELDS``, ``FIELD_KEYS``, ``label(key)``; ``choices(session)``: what each field completes from.
+- ``FIELDS``, ``FIELD_KEYS``, ``MAIN_KEYS``, ``FIRST_MORE``, ``label(key)``; ``choices(session)``: what each field completes from.
 - ``CardForm(session, run_id=None)``: ``start()`` (fills the fields, says where typing starts),
   ``type(key, text)`` (the person typed; returns the fields the form filled in on their behalf),
   ``check(store_tried=False) -> CardCheck``, ``next_card(run, new_source)`` after a store;
@@ -54,13 +54,13 @@ FIELDS: tuple[CardField, ...] = (
     CardField("to", "To", "load or panel", True),
     CardField("length", "Length", "e.g. 85+12+2*6", True),
     CardField("load", "Load", "16A, 5kW 208V, 10hp", True),
+    CardField("continuous", "Continuous", "yes / no"),
+    CardField("spread", "Spread", "no: load at the end"),
     CardField("panel", "New panel", SOURCE_EXAMPLE),
     CardField("circuit", "Circuit", "LN LL LLN MW 3P"),
     CardField("kind", "Kind", "general, motor, hvac…"),
     CardField("plate", "Nameplate", "as the kind needs"),
     CardField("place", "Position", "breaker no. or phase"),
-    CardField("continuous", "Continuous", "yes / no"),
-    CardField("spread", "Spread", "no: load at the end"),
     CardField("sets", "Sets", "1"),
     CardField("size", "Size", "blank: picked"),
     CardField("material", "Material", "cu / al"),
@@ -71,6 +71,10 @@ FIELDS: tuple[CardField, ...] = (
 )
 FIELD_KEYS = tuple(f.key for f in FIELDS)
 MAIN_KEYS = tuple(f.key for f in FIELDS if f.main)
+FIRST_MORE = next(f.key for f in FIELDS if not f.main)
+"""The first of the other fields, below the main ones: Continuous, then Spread, properties of the
+load typed next to it (one and two Downs from Load); ctrl+o goes to New panel, which To's hint
+names."""
 COPIED_FROM_PREVIOUS = ("circuit", "continuous")
 """Fields a new card copies from the last branch run from the same source. Material and raceway
 are not copied: a fresh card shows the job's (a PVC-40 typed for one underground run must not ride

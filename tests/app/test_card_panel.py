@@ -21,7 +21,8 @@ async def test_a_switchboard_with_its_rating_is_declared_in_one_field(tmp_path):
         await type_text(pilot, "SWB-2")
         await pilot.press("tab")
         await type_text(pilot, "60")
-        await pilot.press("tab", "tab")  # past the load: a feeder sums what its panel serves
+        await pilot.press("tab", "ctrl+o")  # past the load (a feeder sums what its panel
+        # serves) to New panel, which To's hint names
         card = app.screen
         assert card.focused.id == "f-panel"
         assert ORDER in str(card.query_one("#card-msg").render())  # the grammar, while empty

@@ -11,8 +11,7 @@ from tests.support.walks import write_walk
 
 # three light rows: the first typed in full, the second with ctrl+r and its length, the third
 # with Tab taking the stepped name in To
-KEYS = (["n", *"Row 1", "tab", *"40", "tab", *"8A", "ctrl+o", "down", "down", "down", "down", "y",
-         "enter"]
+KEYS = (["n", *"Row 1", "tab", *"40", "tab", *"8A", "down", "y", "enter"]  # Continuous below Load
         + ["ctrl+r", *"55", "enter"]
         + ["tab", *"70", "tab", *"9A", "enter", "escape"])
 EXPECTED = [

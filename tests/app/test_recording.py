@@ -209,7 +209,8 @@ async def test_a_new_panel_can_be_declared_on_the_spot_from_the_run_card(tmp_pat
         await type_text(pilot, "LP2")
         await pilot.press("tab")
         await type_text(pilot, "120")
-        await pilot.press("tab", "tab")  # past the load: a feeder sums what its panel serves
+        await pilot.press("tab", "ctrl+o")  # past the load (a feeder sums what its panel
+        # serves) to New panel, which To's hint names
         await type_text(pilot, "208Y/120")
         await pilot.press("enter")
         await pilot.pause()

@@ -19,6 +19,7 @@ from textual.widgets import Footer, Header, Input, Label, Static
 from gaugewalk.model.session.card_form import (
     FIELD_KEYS,
     FIELDS,
+    FIRST_MORE,
     LOAD_KEYS,
     MAIN_KEYS,
     CardCheck,
@@ -96,7 +97,7 @@ class RunCard(TypedInOrder, Screen):
         with Horizontal(id="card-body"):
             with Vertical(id="card-fields"):
                 for f in FIELDS:
-                    if f.key == "panel":
+                    if f.key == FIRST_MORE:
                         yield Static("─ more (ctrl+o) ─", classes="card-rule")
                     with Horizontal(classes="card-row" + (" card-main" if f.main else ""),
                                     id=f"row-{f.key}"):
