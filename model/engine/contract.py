@@ -1,5 +1,8 @@
 """What one run's calculation takes (``RunSpec``) and gives back (``RunResult``).
 
+``with_fields(obj, **changes)``: ``dataclasses.replace`` for these frozen shapes, without their
+``__init__``.
+
 These two shapes are the contract between the engine (``gaugewalk.model.engine.sizing.evaluate``) and everything
 that consumes it: the walk file's job computation, the app, the takeoff, the reports and
 ``gaugewalk calc --json``. Units are in the field names or comments: [A], [V], [ft], [%], [C].
@@ -8,7 +11,7 @@ that consumes it: the walk file's job computation, the app, the takeoff, the rep
 from __future__ import annotations
 
 from dataclasses import asdict, dataclass, field
-from typing import Literal
+from typing import Literal, TypeVar
 
 from gaugewalk.model.engine.vocabulary import (
     LoadKind,
@@ -156,3 +159,23 @@ class RunResult:
         data["problems"] = list(self.problems)
         data["notes"] = list(self.notes)
         return data
+
+
+_T = TypeVar("_T")
+_new_object = object.__new__
+_set_attr = object.__setattr__
+
+
+def with_fields(obj: _T, **changes: object) -> _T:
+    """A copy of a frozen dataclass of this module (none has ``__post_init__``, slots or cached
+    properties) with ``changes`` set: ``dataclasses.replace`` without the per-field
+    ``object.__setattr__`` of a frozen ``__init__`` (ten times its cost on ``RunSpec``). Every
+    name must be a field."""
+    values = obj.__dict__.copy()
+    for name in changes:
+        if name not in values:
+            raise TypeError(f"{type(obj).__name__} has no field {name!r}")
+    values.update(changes)
+    copy = _new_object(type(obj))
+    _set_attr(copy, "__dict__", values)
+    return copy

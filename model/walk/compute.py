@@ -38,7 +38,7 @@ import math
 from dataclasses import MISSING, dataclass, field, fields, replace
 
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
-from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec
+from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fields
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
@@ -329,8 +329,8 @@ def _with_rule(result: RunResult, rule: FeederRule | None) -> RunResult:
     """The result with the notes and problems of the feeder rule it was sized by."""
     if rule is None or not (rule.notes or rule.problems):
         return result
-    return replace(result, notes=result.notes + rule.notes,
-                   problems=result.problems + rule.problems)
+    return with_fields(result, notes=result.notes + rule.notes,
+                       problems=result.problems + rule.problems)
 
 
 class WalkState:
@@ -540,7 +540,7 @@ class WalkState:
             return
         result = _with_rule(result, rule)
         if steps:
-            result = replace(result, notes=result.notes + tuple(s.text for s in steps))
+            result = with_fields(result, notes=result.notes + tuple(s.text for s in steps))
         limit = None
         if motors is not None:
             limit = device_limit(motors, result.design_amps)
@@ -549,8 +549,8 @@ class WalkState:
             problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "
                          f"{limit:.0f} A it permits for the motors it supplies",)
                         if motors.only_motors and result.ocpd_a > limit + _EPS else ())
-            result = replace(result, notes=result.notes + notes,
-                             problems=result.problems + problems)
+            result = with_fields(result, notes=result.notes + notes,
+                                 problems=result.problems + problems)
         res._specs[r.id] = spec
         if is_feeder:
             info = self.feeder_info(r, spec, feed, rule, beside, motors, limit)

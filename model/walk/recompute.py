@@ -18,8 +18,7 @@ Public API:
 
 from __future__ import annotations
 
-from dataclasses import replace
-
+from gaugewalk.model.engine.contract import with_fields
 from gaugewalk.model.walk.compute import JobResult, WalkState, compute_job
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run
@@ -106,9 +105,9 @@ def _refresh_below(state: WalkState, dirty: list[str], skip: set[str]) -> None:
                 margins = dict(old.margins)
                 if "total_drop_pct" in margins:
                     margins["total_drop_pct"] = spec.max_total_drop_pct - total
-                spec = replace(spec, upstream_drop_pct=upstream)
+                spec = with_fields(spec, upstream_drop_pct=upstream)
                 result._specs[r.id] = spec
-                state.store(r, replace(old, total_drop_pct=total, margins=margins),
+                state.store(r, with_fields(old, total_drop_pct=total, margins=margins),
                             is_feeder, spec)
             else:
                 state.evaluate_run(r, upstream)

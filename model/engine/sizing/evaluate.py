@@ -11,11 +11,11 @@ is cached, so thousands of runs evaluate quickly.
 from __future__ import annotations
 
 import math
-from dataclasses import MISSING, fields, replace
+from dataclasses import MISSING, fields
 from functools import lru_cache
 
 from gaugewalk.model.engine.circuits import current_carrying_conductors
-from gaugewalk.model.engine.contract import Equipment, RunResult, RunSpec
+from gaugewalk.model.engine.contract import Equipment, RunResult, RunSpec, with_fields
 from gaugewalk.model.engine.drop import (
     INTERPOLATED_SIZES,
     drop_length_ft,
@@ -32,7 +32,7 @@ from gaugewalk.model.engine.sizing.currents import (
 from gaugewalk.model.engine.sizing.egc import egc_for
 from gaugewalk.model.engine.sizing.kinds import STARTING_PF, locked_rotor, rule_for
 from gaugewalk.model.engine.sizing.neutral import neutral_for
-from gaugewalk.model.engine.sizing.pick import pick_conductor, size_problems
+from gaugewalk.model.engine.sizing.pick import drop_limit, pick_conductor, size_problems
 from gaugewalk.model.engine.sizing.raceway import raceway_fill
 from gaugewalk.model.engine.sizing.spec import SizingError, check_spec
 from gaugewalk.model.engine.sizing.text import amps_text, pct_text
@@ -292,15 +292,29 @@ def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
     return lra, pct
 
 
-def _parallel_hint(spec: RunSpec) -> str:
-    """'; 3 sets in parallel would' when more sets make the run work."""
+def _parallel_hint(spec: RunSpec, z: tuple[float | None, ...]) -> str:
+    """'; 3 sets in parallel would' when more sets make the run work. ``z``: the impedance
+    column of the run [ohm/kft] (the same for any number of sets)."""
     if spec.size is not None:
         return ""
     if spec.upstream_drop_pct >= spec.max_total_drop_pct:
         return ""  # the drop up to the source takes the whole total target: no sets would do
+    # A number of sets whose drop on the lowest impedance of the column is over the limit
+    # cannot be picked (``pick_conductor`` asks the drop of the size it picks to be within the
+    # limit), so its evaluation is not ok; it is left out. Such an evaluation raises only where
+    # the run's own does after this hint (the device's EGC, the column's last size), so the
+    # hint is the same as evaluating every number of sets.
+    z_min = min(v for v in z if v is not None)
+    circuit = spec.circuit
+    amps, length = float(spec.amps), drop_length_ft(spec.length_ft, spec.distributed)
+    pct_per_volt = 100.0 / circuit.volts
+    limit = drop_limit(spec)
     for sets in range(spec.sets + 1, 13):
+        if (drop_volts(circuit.drop_factor, amps, 1.0, length, sets) * z_min * pct_per_volt
+                > limit):
+            continue
         try:
-            r = _evaluate(replace(spec, sets=sets), hint=False)
+            r = _evaluate(with_fields(spec, sets=sets), hint=False)
         except (TableLookupError, SizingError):
             return ""
         if r.ok:

@@ -18,7 +18,7 @@ every rule it fails named.
 
 Public API: ``pick_conductor`` (returns ``Pick``: the size index, what governed it, the
 smallest size index meeting rule 1, rules 1-2, rules 1-4, and the 240.4(D) limit of the size
-[A]); ``size_problems``; ``floor_index``.
+[A]); ``drop_limit`` (rule 3's limit [%]); ``size_problems``; ``floor_index``.
 """
 
 from __future__ import annotations
@@ -53,14 +53,21 @@ def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
     return 0 if size_index(size) < size_index(sizes[0]) else len(sizes)
 
 
+def drop_limit(spec: RunSpec) -> float:
+    """The largest drop a size may have to be picked [%]: the run's target and what the total
+    target leaves after the drop up to its source (rule 3), the smaller, with a tolerance."""
+    return min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct) + _EPS
+
+
 def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float, amps: float,
                    ocpd: int, volts_per_ohm_kft: float, pct_per_volt: float,
-                   hint: Callable[[RunSpec], str] | None, notes: list[str],
+                   hint: Callable[[RunSpec, tuple[float | None, ...]], str] | None, notes: list[str],
                    problems: list[str], protect: tuple[float, ...] | None = None,
                    small_rule: bool = True) -> Pick:
     """The phase conductor of the run: the size the user fixed (``spec.size``), else the
     smallest meeting rules 1 to 4, else (nothing meets them all) the largest the drop method
-    covers, with a problem saying so and ``hint(spec)`` (how many sets in parallel would).
+    covers, with a problem saying so and ``hint(spec, z)`` (how many sets in parallel would;
+    ``z`` the impedance column).
     ``st`` is the installation's columns (``columns.setting``); ``amps`` what the conductors
     must carry after the corrections [A] (the load, or what the load's kind asks).
     ``volts_per_ohm_kft`` is the run's drop per ohm/kft of conductor impedance [V] and
@@ -73,7 +80,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
     mat = MAT[material]
     sizes = tab.sizes
     floor_i = floor_index(spec.min_size, sizes)
-    limit = min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct) + _EPS
+    limit = drop_limit(spec)
     # rules 1-4: the smallest size with ampacity, then protected by the device, then within
     # the drop limit and the floor
     min_amp_i = ocpd_i = pick_i = None
@@ -126,7 +133,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
         governed_by = "voltage drop" if ocpd_i is not None else "ampacity"
         problems.append(
             f"no single {mat} size up to {sizes[i]} meets the ampacity, device and voltage-drop "
-            f"limits with {sets} set{'s' if sets > 1 else ''}{hint(spec) if hint else ''}")
+            f"limits with {sets} set{'s' if sets > 1 else ''}{hint(spec, z) if hint else ''}")
 
     if mina is not None and (spec.size is not None or pick_i is None) \
             and cols.allowable_total[i] + _EPS < mina:
