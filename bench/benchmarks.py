@@ -4,6 +4,8 @@ the test suite.
     python -m bench.benchmarks --runs 5000            # the table, PASS/MISS beside each target
     python -m bench.benchmarks --runs 5000 --json     # ... and one JSON object on the last line
     python -m bench.benchmarks --scaling              # cost per run at 500, 5,000, 50,000 runs
+    python -m bench.benchmarks --runs 5000 --scale 50000   # ... and the model's cost per run at
+                                                           # 50,000 against 5,000 (a few minutes)
 
 Every target divides a figure by a baseline taken in the same run on the same machine (a bare
 interpreter, a bare Textual app, ``tomllib`` parsing the same walk, ``tomli_w`` writing it, one
@@ -69,6 +71,8 @@ LINEAR_SLACK = 1.5
 per run at 5,000."""
 SCALED = ("open_ms", "tomllib_ms", "recompute_ms", "save_ms", "tomli_w_ms", "edit_ms",
           "app_edit_ms", "first_paint_s", "sized_paint_s", "peak_mb")
+MODEL_SCALED = ("open_ms", "tomllib_ms", "recompute_ms", "save_ms", "tomli_w_ms", "edit_ms")
+"""The figures ``--scale`` measures at its size (and the peak memory of the model)."""
 JSON_KEYS = (("open_ratio", "save_ratio", "edit_ms", "recompute_ms", "start_ratio",
               "first_paint_s", "peak_mb", "app_edit_ms", "start_sized_s", "sized_paint_s")
              + tuple(t.key for t in TARGETS))
@@ -155,6 +159,30 @@ def measure(n: int, repeat: int, starts: int, app: bool, stores: int, whole: boo
     return out
 
 
+def model_scale(at: dict, n: int, repeat: int, tmp: Path, log) -> tuple[str, dict]:
+    """The model figures at ``n`` runs (the core, memory and tracemalloc steps, as ``measure``
+    takes them) beside those of ``at``: the table of cost per run and, for the JSON line,
+    ``{"runs", "growth" {figure: cost per run at n / at at's size}, "linear" {figure: PASS},
+    "passed"}``. Memory is the model's resident set at both sizes (``at``'s peak may be the
+    app's)."""
+    from bench.report import scaling_table
+    from bench.walks import synthetic_file
+
+    path = synthetic_file(tmp, n)
+    log(f"  {n:,} runs: {path.stat().st_size / 1024:,.0f} KiB file; the model...")
+    big: dict = {"runs": n}
+    big.update(_child("core", "--file", str(path), "--repeat", str(max(2, repeat // 3))))
+    big.update(_child("memory", "--file", str(path)))
+    big["peak_mb"] = big["model_rss_mb"]
+    ratios(big)
+    small = {key: at[key] for key in MODEL_SCALED if key in at}
+    small.update(runs=at["runs"], peak_mb=at["model_rss_mb"])
+    text, verdicts = scaling_table([small, big], LINEAR_SLACK, ref_runs=at["runs"])
+    growth = {key: (big[key] / n) / (small[key] / at["runs"]) for key in verdicts}
+    return text, {"runs": n, "growth": growth, "linear": verdicts,
+                  "passed": all(verdicts.values()), "figures": big}
+
+
 def _cpu() -> str:
     try:
         for line in Path("/proc/cpuinfo").read_text().splitlines():
@@ -180,6 +208,10 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--stores", type=int, default=4,
                         help="runs stored from the run card per app process")
     parser.add_argument("--no-app", action="store_true", help="skip the app figures")
+    parser.add_argument("--scale", type=int, metavar="N",
+                        help="also measure the model figures (open, recompute, edit, save, memory) "
+                             "at N runs and print their cost per run against --runs, PASS within "
+                             f"{LINEAR_SLACK:g}x")
     parser.add_argument("--child", help=argparse.SUPPRESS)
     parser.add_argument("--file", help=argparse.SUPPRESS)
     parser.add_argument("--config", help=argparse.SUPPRESS)
@@ -196,6 +228,8 @@ def main(argv: list[str] | None = None) -> int:
 
     if args.runs < 1:
         parser.error("--runs must be at least 1")
+    if args.scale is not None and (args.scaling or args.scale <= args.runs):
+        parser.error("--scale takes a number of runs above --runs, without --scaling")
     from bench.report import scaling_table, table
 
     def log(text: str) -> None:
@@ -224,6 +258,11 @@ def main(argv: list[str] | None = None) -> int:
             summary = measure(args.runs, args.repeat, args.starts, not args.no_app, args.stores,
                               True, tmp, log)
             print(table(summary, TARGETS))
+            if args.scale:
+                text, scale = model_scale(summary, args.scale, args.repeat,
+                                          Path(tempfile.mkdtemp(dir=tmp)), log)
+                print(text)
+                summary["scale"] = scale
     took = time.perf_counter() - began
     print(f"(the benchmark took {took / 60:.1f} min on this machine)")
     summary.update(
