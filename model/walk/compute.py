@@ -84,6 +84,7 @@ from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, t
 from gaugewalk.model.walk.vocabulary import LINE_NAMES
 
 _EPS = 1e-9
+_GONE = object()
 
 
 @dataclass(frozen=True)
@@ -131,6 +132,8 @@ class JobResult:
     _chain_problems: list[Problem] = field(default_factory=list, repr=False)
     _raceway_problems: list[Problem] = field(default_factory=list, repr=False)
     _shape: tuple = field(default=(), repr=False)
+    _touched: set[str] | None = field(default=None, repr=False, compare=False)
+    """The runs whose rows the last update in place wrote (``recompute_run``); None: any."""
     _walk: SupplyGraph | None = field(default=None, repr=False, compare=False)
 
     @property
@@ -154,9 +157,14 @@ class JobResult:
 
     def changed_since(self, marks: tuple[dict, ...]) -> set[str]:
         """The runs whose result or problems are other objects than in ``marks``: every update
-        puts new ones in (never changes one in place), so the rest are as they were."""
+        puts new ones in (never changes one in place), so the rest are as they were. After an
+        update in place, only the runs it wrote (``_touched``) are looked at."""
         out: set[str] = set()
+        among = self._touched
         for now, then in zip(self._row_tables(), marks, strict=True):
+            if among is not None:
+                out.update(k for k in among if now.get(k, _GONE) is not then.get(k, _GONE))
+                continue
             out.update(k for k, v in now.items() if then.get(k) is not v)
             out.update(then.keys() - now.keys())
         return out

@@ -53,12 +53,17 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
     if target is not None and target.kind == "transformer" and walk.feeder.get(run.to) is run:
         return compute_job(job)  # its device and circuit set the transformer's rules below it
     state = WalkState(walk, result)
+    # every run whose rows this update writes: the run, the runs of each source placed again
+    # and of each source whose drop is carried down (``JobResult.changed_since`` looks at them)
+    touched = {run.id}
+    result._touched = touched
     if state.resolve_circuit(run) is None:
         state.forget(run)
     # the run's source and the sources above it, while what their feeders carry changes
     chain: list[Run] = []
     sid = run.from_
     changed = state.sum_source(sid)
+    touched.update(r.id for r in walk.children[sid])
     while changed:
         f = walk.feeder.get(sid)
         if f is None or f.load is not None or f.from_ not in result.lines:
@@ -66,6 +71,7 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
         chain.append(f)
         sid = f.from_
         changed = state.sum_source(sid)
+        touched.update(r.id for r in walk.children[sid])
     # re-evaluate top-down: the feeders whose load changed, then the run itself
     is_feeder = walk.feeder.get(run.to) is run
     dirty: list[str] = []
@@ -75,21 +81,23 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
     state.evaluate_run(run, result.source_drop_pct.get(run.from_, 0.0))
     if is_feeder:
         dirty.append(run.to)
-    _refresh_below(state, dirty, skip={f.id for f in chain} | {run.id})
+    _refresh_below(state, dirty, skip={f.id for f in chain} | {run.id}, touched=touched)
     state.chain_problems()
     state.assemble_problems()
     return result
 
 
-def _refresh_below(state: WalkState, dirty: list[str], skip: set[str]) -> None:
+def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: set[str]) -> None:
     """Carry new bus drops down: shift the total where the size cannot change, else
-    re-evaluate the run."""
+    re-evaluate the run. The runs of every source visited are added to ``touched``."""
     walk, result = state.walk, state.result
     stack = list(reversed(dirty))
     while stack:
         sid = stack.pop()
         upstream = result.source_drop_pct.get(sid, 0.0)
-        for r in walk.children[sid]:
+        children = walk.children[sid]
+        touched.update(r.id for r in children)
+        for r in children:
             is_feeder = walk.feeder.get(r.to) is r
             if r.id in skip:
                 continue

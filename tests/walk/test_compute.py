@@ -204,3 +204,30 @@ def test_recompute_falls_back_to_a_full_compute_when_a_run_is_re_pointed():
     job.run("R1").from_ = "LP1"
     _same(recompute_run(job, result, "R1"), compute_job(job))
 
+
+
+def test_the_runs_an_edit_changed_are_found_among_those_it_wrote_as_by_a_look_at_every_run():
+    from tests.support.synthetic_walk import synthetic_walk
+
+    job = synthetic_walk(1300)
+    result = compute_job(job)
+    rng = random.Random(11)
+    found = 0
+    for _ in range(30):
+        r = rng.choice(job.runs)
+        if r.load is not None and rng.random() < 0.7:
+            r.load = Load(value=r.load.value * rng.choice([0.5, 1.5, 3.0]), unit=r.load.unit,
+                          pf=r.load.pf)
+        else:
+            r.length = str(rng.randint(10, 900))
+        marks = result.marks()
+        updated = recompute_run(job, result, r.id)
+        if updated is not result:
+            result = updated
+            continue
+        among = result.changed_since(marks)
+        touched, result._touched = result._touched, None
+        assert among == result.changed_since(marks)  # every run looked at
+        result._touched = touched
+        found += len(among) > 1
+    assert found > 5
