@@ -89,3 +89,16 @@ def test_with_fields_is_replace_and_refuses_a_name_that_is_no_field():
     assert with_fields(result, notes=()) == replace(result, notes=())
     with pytest.raises(TypeError, match="no field 'set'"):
         with_fields(spec, set=3)
+
+
+def test_a_cold_computation_after_forget_loads_gives_what_a_warm_one_gives():
+    from gaugewalk.model.engine.sizing import forget_loads
+    from gaugewalk.model.engine.sizing.currents import _general
+
+    job = synthetic_walk(1300)
+    warm = compute_job(job)
+    assert _general.cache_info().currsize > 0
+    forget_loads()
+    assert _general.cache_info().currsize == 0
+    cold = compute_job(job)
+    assert cold.runs == warm.runs and cold.problems == warm.problems

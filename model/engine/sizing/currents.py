@@ -19,8 +19,8 @@ device; where its article lets the device exceed the conductor's ampacity (240.4
 also says how the device limits the pick (``Currents.protection``). ``evaluate`` asks the rule
 and picks the conductor from what it answers.
 
-Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``next_rating(amps)``, the protection
-modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
+Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``forget_general_loads()``,
+``next_rating(amps)``, the protection modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
 """
 
 from __future__ import annotations
@@ -109,6 +109,12 @@ def _general(amps: float, cont: float, ocpd_a: int | None) -> Currents:
                      f"the circuit needs (the next standard rating, 240.6(A))")
     return Currents(design, ocpd, tuple(notes), tuple(problems),
                     rule="NEC 210.19(A)(1), 210.20(A) (feeders 215.2(A)(1), 215.3)")
+
+
+def forget_general_loads() -> None:
+    """Empty the cache of the general rule's answers (keyed by a run's load), so that the next
+    computation is a cold one."""
+    _general.cache_clear()
 
 
 class _GeneralRule:

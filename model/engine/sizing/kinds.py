@@ -48,7 +48,7 @@ a water heater of 120 gal or less or a space heater noncontinuous.
 Public API: ``STARTING_PF``; ``continuous_default(eq)``, ``kind_continuous(kind, tank_gal)``,
 ``continuous_refusal(kind, tank_gal, given)``, ``continuous_of(eq)``, ``load_pf(kind, given, default)``; ``running_amps(eq, value,
 unit, circuit, pf)``; ``welder_current(eq)``; ``locked_rotor(eq, volts, phases)``;
-``rule_for(eq, volts, phases)``; ``KindLoad`` and ``kind_load(eq, amps, ocpd_a, volts,
+``rule_for(eq, volts, phases)``; ``forget_loads()``; ``KindLoad`` and ``kind_load(eq, amps, ocpd_a, volts,
 phases)``, what a feeder's rules need of a branch run (``gaugewalk.model.walk.equipment``).
 """
 
@@ -66,6 +66,7 @@ from gaugewalk.model.engine.sizing.currents import (
     WELDER_CONDUCTORS,
     Currents,
     LoadRule,
+    forget_general_loads,
     next_rating,
 )
 from gaugewalk.model.engine.sizing.text import amps_text
@@ -509,6 +510,14 @@ def _cached_currents(rule, eq: Equipment, volts: float, phases: int, amps: float
         return rule(eq, volts, phases, amps, cont, ocpd_a)
     except TableLookupError as exc:
         raise LoadError(f"{eq.kind}: {exc}") from None
+
+
+def forget_loads() -> None:
+    """Empty the caches keyed by a run's own load (each load's design current and device, by
+    its kind's rule and by the general rule), so that the next computation is a cold one; the
+    caches keyed by the tables stay."""
+    _cached_currents.cache_clear()
+    forget_general_loads()
 
 
 @lru_cache(maxsize=1024)
