@@ -703,7 +703,9 @@ with warnings.catch_warnings():
         # miss costs nothing. Code that puts an object built earlier into ``sources`` or ``runs``
         # at the same length sets ``_index_cache = None``, as ``gaugewalk.model.session.session`` does.
         def _index(self) -> tuple[dict[str, Source], dict[str, Run]]:
-            cache = self._index_cache
+            # read directly, as ``Run.length_ft`` does: ``self._index_cache`` goes through
+            # pydantic's ``__getattr__``, and a computation looks ids up thousands of times
+            cache = self.__pydantic_private__["_index_cache"]
             if cache is not None:
                 key, sources, runs = cache
                 if key == (id(self.sources), len(self.sources), id(self.runs), len(self.runs),

@@ -281,8 +281,7 @@ def run(args) -> int:
         data = result.to_dict()
         data["inputs"] = inputs
         data["caution"] = CAUTION
-        json.dump(data, sys.stdout, indent=2)
-        sys.stdout.write("\n")
+        sys.stdout.write(json.dumps(data, indent=2) + "\n")  # one write, not one per token
         return 0
     sys.stdout.write(_text(result, spec, inputs, family))
     return 0

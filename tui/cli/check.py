@@ -183,8 +183,8 @@ def run(args: argparse.Namespace) -> int:
         return EXIT_INVALID
     result = compute_job(job)
     if args.json:
-        json.dump(results_json(args.file, job, result), sys.stdout, indent=1)
-        sys.stdout.write("\n")
+        # one write: json.dump would hand the stream every token, each passing shown_lines
+        sys.stdout.write(json.dumps(results_json(args.file, job, result), indent=1) + "\n")
     else:
         print(_table(args.file, job, result))
     return EXIT_OK if result.ok else EXIT_LIMITS

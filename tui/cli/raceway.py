@@ -68,9 +68,8 @@ def _list(args: argparse.Namespace) -> int:
     result = compute_job(job)
     found = [result.raceways[r.id].to_dict() for r in job.raceways if r.id in result.raceways]
     if args.json:
-        json.dump({"file": args.file, "raceways": found, "caution": CAUTION}, sys.stdout,
-                  indent=1)
-        sys.stdout.write("\n")
+        sys.stdout.write(json.dumps({"file": args.file, "raceways": found, "caution": CAUTION},
+                                    indent=1) + "\n")  # one write, not one per token
     elif not found:
         print(f"{job.job.name or args.file}: no shared raceways; add one with "
               f"'gaugewalk raceway {args.file} ID --length L'")
