@@ -46,7 +46,6 @@ from __future__ import annotations
 import gc
 import os
 import re
-import tomllib
 from pathlib import Path
 
 from pydantic import BaseModel, ValidationError
@@ -87,7 +86,8 @@ _TOML_LINE_RE = re.compile(r"\(at line (\d+), column (\d+)\)")
 _TOP_KEYS = ("schema", "job", "defaults", "source", "raceway", "run")
 
 
-def _syntax_problem(exc: tomllib.TOMLDecodeError, file: str) -> Problem:
+def _syntax_problem(exc: ValueError, file: str) -> Problem:
+    """A ``tomllib.TOMLDecodeError`` as one problem, with its line."""
     text = str(exc)
     match = _TOML_LINE_RE.search(text)
     line = int(match.group(1)) if match else None
@@ -127,11 +127,15 @@ def _check_walk_text(text: str, path: str | os.PathLike) -> tuple[Job | None, li
                               "the file is empty; a walk file starts with 'schema = 1'")]
     try:
         data = parse_toml(text)
-    except tomllib.TOMLDecodeError as exc:
-        return None, [_syntax_problem(exc, file)]
     except RecursionError:
         return None, [Problem(file, None, "file", None, None,
                               "has lists or tables nested too deep to be a walk file")]
+    except ValueError as exc:  # tomllib is imported only for text it was asked to read
+        import tomllib
+
+        if not isinstance(exc, tomllib.TOMLDecodeError):
+            raise
+        return None, [_syntax_problem(exc, file)]
     locator = _LazyLocator(text)
     try:
         data = migrate(data)

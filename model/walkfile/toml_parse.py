@@ -26,7 +26,6 @@ and golden walk, on malformed walks and on mutated and random text.
 
 from __future__ import annotations
 
-import tomllib
 from types import ModuleType
 from typing import Any
 
@@ -48,4 +47,6 @@ def parse_toml(text: str) -> dict[str, Any]:
             return _compiled.loads(text)
         except Exception:  # whatever it refuses, tomllib reads or says why
             pass
+    import tomllib  # imported only here: a walk the compiled parser reads never needs it
+
     return tomllib.loads(text)

@@ -17,7 +17,6 @@ from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walk.plain_text import shown
 from gaugewalk.model.walk.plausible import implausible
-from gaugewalk.model.walk.schedule import drop_basis, source_entry
 from gaugewalk.model.walkfile.read import WalkFileError, check_walk_text, read_walk_text
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
 from gaugewalk.tui.cli.main import CAUTION
@@ -39,6 +38,8 @@ def _load_text(run) -> str:
 
 def results_json(path: str, job: Job, result: JobResult) -> dict:
     """The machine-readable results of ``check --json``."""
+    from gaugewalk.model.walk.schedule import drop_basis, source_entry  # only --json shows them
+
     runs: list[dict[str, Any]] = []
     for r in job.runs:
         rr = result.runs.get(r.id)

@@ -77,8 +77,9 @@ class _Parser(argparse.ArgumentParser):
 
 
 def build_parser(chosen: str | None = None) -> argparse.ArgumentParser:
-    """The parser: every command listed with its help; only ``chosen`` (a command name, or None
-    for none) has its module imported, its options added and its ``run`` set."""
+    """The parser: every command listed with its help; or, with ``chosen`` a command's name, that
+    command alone, its module imported, its options added and its ``run`` set (the others would
+    only be listed, by a help that is not asked for: each costs its own parser)."""
     parser = _Parser(
         prog="gaugewalk",
         description="Record a site walk of electrical runs and size them. "
@@ -86,7 +87,8 @@ def build_parser(chosen: str | None = None) -> argparse.ArgumentParser:
         epilog=CAUTION,
     )
     subparsers = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
-    for command in COMMANDS:
+    named = [c for c in COMMANDS if c.name == chosen]
+    for command in named or COMMANDS:
         sub = subparsers.add_parser(command.name, help=command.help, description=command.help,
                                     epilog=CAUTION)
         if command.name == chosen:
