@@ -11,6 +11,7 @@ import sys
 
 import pytest
 
+from gaugewalk.model.walkfile import toml_parse
 from gaugewalk.tui.cli.main import COMMANDS, main
 from tests.support.paths import REPO
 
@@ -79,3 +80,16 @@ def test_calc_imports_neither_pydantic_nor_the_walk_model():
 def test_help_imports_no_command_module():
     loaded = loaded_by(["--help"])
     assert {m for m in loaded if m.startswith("gaugewalk.tui.cli.")} == {"gaugewalk.tui.cli.main"}
+
+
+def test_check_loads_no_face_and_nothing_its_output_does_not_use():
+    loaded = loaded_by(["check", str(REPO / "sample_walks" / "warehouse_dc2.toml")])
+    assert "gaugewalk.model.walk.compute" in loaded  # it did compute the walk
+    faces = {m for m in loaded if m.split(".")[0] in ("textual", "rich")}
+    assert faces == set()
+    unused = ("gaugewalk.tui.app", "gaugewalk.tui.report", "gaugewalk.model.report",
+              "gaugewalk.model.session", "gaugewalk.model.walk.takeoff",
+              "gaugewalk.model.walk.schedule")  # the schedules only for --json
+    assert {m for m in loaded if m.startswith(unused)} == set()
+    if toml_parse.COMPILED is not None:  # tomllib only for text the compiled parser refuses
+        assert "tomllib" not in loaded
