@@ -4,6 +4,7 @@ needs (``calc`` neither pydantic nor the walk model)."""
 
 from __future__ import annotations
 
+import gc
 import importlib
 import json
 import subprocess
@@ -93,3 +94,13 @@ def test_check_loads_no_face_and_nothing_its_output_does_not_use():
     assert {m for m in loaded if m.startswith(unused)} == set()
     if toml_parse.COMPILED is not None:  # tomllib only for text the compiled parser refuses
         assert "tomllib" not in loaded
+
+
+def test_a_command_run_in_process_gives_the_collector_back_what_it_froze(capsys):
+    # main() from the command line leaves its objects frozen for its shutdown; a caller that goes
+    # on must get them back under the cyclic collector, enabled as it was
+    assert gc.get_freeze_count() == 0 and gc.isenabled()
+    assert main(["calc", "--amps", "20", "--length", "50", "--volts", "120"]) == 0
+    assert main(["check", str(REPO / "sample_walks" / "warehouse_dc2.toml")]) == 0
+    capsys.readouterr()
+    assert gc.get_freeze_count() == 0 and gc.isenabled()

@@ -17,6 +17,7 @@ from __future__ import annotations
 
 import argparse
 import contextlib
+import gc
 import importlib
 import os
 import sys
@@ -92,20 +93,48 @@ def build_parser(chosen: str | None = None) -> argparse.ArgumentParser:
         sub = subparsers.add_parser(command.name, help=command.help, description=command.help,
                                     epilog=CAUTION)
         if command.name == chosen:
-            module = importlib.import_module(command.module)
+            module = _import_quietly(command.module)
             module.add_arguments(sub)
             sub.set_defaults(_run=module.run)
     return parser
 
 
+def _import_quietly(name: str):
+    """Import a command's module with the cyclic garbage collector held off, then leave what the
+    import built out of the collector's passes (``gc.freeze``) until ``main`` ends: the classes,
+    pydantic schemas and tables a command imports live as long as it runs, and passes over them
+    while they were built cost time and freed next to nothing."""
+    collecting = gc.isenabled()
+    gc.disable()
+    try:
+        return importlib.import_module(name)
+    finally:
+        gc.freeze()
+        if collecting:
+            gc.enable()
+
+
 def main(argv: list[str] | None = None) -> int:
+    """Run ``gaugewalk ARGV``; None: the process's own arguments, as the installed command and
+    ``python -m`` run it, the process ending when this returns. A headless command's process
+    then leaves everything it built out of the collector's passes at shutdown (``gc.freeze``):
+    they would find only what the process is about to give back whole, and took about 25 ms of
+    the 195 ms of a ``gaugewalk check`` here. Nothing of gaugewalk's waits on a collection (no
+    ``__del__``; locks and files are released by ``with`` before then)."""
+    program = argv is None
     argv = list(sys.argv[1:] if argv is None else argv)
     names = {command.name for command in COMMANDS}
     try:
         if argv and (argv[0] in names or argv[0] in {"-h", "--help"}):
             with _plain_output():
-                args = build_parser(argv[0]).parse_args(argv)
-                return int(args._run(args) or 0)
+                try:
+                    args = build_parser(argv[0]).parse_args(argv)
+                    return int(args._run(args) or 0)
+                finally:
+                    if program:  # the process ends now: its shutdown need not pass over them
+                        gc.freeze()
+                    else:        # a caller that goes on (the tests) gets them back
+                        gc.unfreeze()
         return _open_app(argv)
     except UsageError as exc:
         print(str(exc), file=sys.stderr)
