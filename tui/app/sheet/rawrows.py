@@ -1,5 +1,7 @@
-"""The runs as written in the file, read with ``tomllib`` alone: shown the moment the app starts,
-while the walk is checked and sized in the background (which needs the model and takes longer).
+"""The runs as written in the file, read by the walk reader's own TOML parser
+(``gaugewalk.model.walkfile.toml_parse``: the compiled one where installed, else ``tomllib``) and
+nothing else: shown the moment the app starts, while the walk is checked and sized in the
+background (which needs the model and takes longer).
 
 Nothing here decides anything: a file that turns out to be invalid is still refused by
 ``gaugewalk.model.walkfile.read`` a moment later, with its message.
@@ -8,10 +10,10 @@ Nothing here decides anything: a file that turns out to be invalid is still refu
 from __future__ import annotations
 
 import math
-import tomllib
 from pathlib import Path
 
 from gaugewalk.model.walk.plain_text import shown
+from gaugewalk.model.walkfile.toml_parse import parse_toml
 from gaugewalk.tui.app.widgets.runsheet import SheetRow
 
 SIZING = "… sizing"
@@ -46,7 +48,7 @@ def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024) -> list[SheetRo
         p = Path(path)
         if p.stat().st_size > max_bytes:
             return None
-        data = tomllib.loads(p.read_text(encoding="utf-8-sig"))
+        data = parse_toml(p.read_text(encoding="utf-8-sig"))
     except (OSError, ValueError, RecursionError):  # the real reader says what is wrong
         return None
     runs = data.get("run")
