@@ -114,19 +114,26 @@ async def test_a_walk_past_the_size_first_limit_shows_first_and_is_sized_behind(
 
 
 async def test_a_walk_within_the_limit_comes_up_sized(tmp_path, monkeypatch):
+    """The runs as written first, then, once, the walk's own rows, already sized."""
     from gaugewalk.tui.app.sheet.rawrows import SIZING
 
     path = tmp_path / "walk.toml"
     path.write_text(synthetic_walk_text(60), encoding="utf-8")
-    first = []
-    original = WalkScreen.on_mount
+    shown_first, attached = [], []
+    on_mount, attach = WalkScreen.on_mount, WalkScreen.attach
 
-    def on_mount(self) -> None:
-        original(self)
-        first.append(self.query_one(RunSheet).rows[0].cells[-1])
+    def mounted(self) -> None:
+        on_mount(self)
+        shown_first.append(self.query_one(RunSheet).rows[0].cells[-1])
 
-    monkeypatch.setattr(WalkScreen, "on_mount", on_mount)
+    def attached_to(self, session) -> None:
+        attach(self, session)
+        attached.append(self.query_one(RunSheet).rows[0].cells[-1])
+
+    monkeypatch.setattr(WalkScreen, "on_mount", mounted)
+    monkeypatch.setattr(WalkScreen, "attach", attached_to)
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(100, 30)) as pilot:
         await opened(app, pilot)
-        assert len(first) == 1 and first[0] != SIZING
+        assert shown_first == [SIZING]   # one walk screen, with the runs as written
+        assert len(attached) == 1 and attached[0] != SIZING

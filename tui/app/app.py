@@ -7,18 +7,17 @@ The app object holds the open walk (a ``WalkSession``); the walk screen shows it
 from __future__ import annotations
 
 import os
+import threading
 from pathlib import Path
 from typing import TYPE_CHECKING
 
 from textual import events, work
-from textual.app import App, ComposeResult
+from textual.app import App
 from textual.message import Message
-from textual.widgets import Footer, Header, Static
 
 from gaugewalk.model.walk.plain_text import shown, shown_lines
 from gaugewalk.tui.app.keyorder import deliver_in_order
 from gaugewalk.tui.app.keys import bindings_for
-from gaugewalk.tui.app.plain import plain
 from gaugewalk.tui.app.recent import RecentWalks
 from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
 
@@ -27,8 +26,12 @@ if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is 
 
 
 SIZE_BEFORE_SHOWING = 20_000
-"""A walk of up to this many runs is sized before its screen shows (a few tenths of a second at
-most, while the runs as written are on screen); a bigger one shows first, sized behind [runs]."""
+"""A walk of up to this many runs is sized before its rows take the place of the runs as written
+(a few tenths of a second at most); a bigger one's rows come first, sized behind [runs]."""
+
+
+FIRST_PAINT_WAIT_S = 2.0
+"""Longest the walk's reading waits for the first paint of its runs as written [s]."""
 
 
 def light_terminal() -> bool:
@@ -45,18 +48,6 @@ class WalkApp(App[int]):
     TITLE = "gaugewalk"
     BINDINGS = bindings_for("app")
     ENABLE_COMMAND_PALETTE = False
-
-    def compose(self) -> ComposeResult:
-        """What shows while a walk is being opened."""
-        from gaugewalk.tui.app.sheet.columns import COLUMNS
-        from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading
-
-        yield Header()
-        yield Static("", id="opening")
-        sheet = RunSheet(COLUMNS, id="raw-sheet")
-        yield SheetHeading(sheet, id="raw-heading")
-        yield sheet
-        yield Footer()
 
     def __init__(self, path: str | None = None, *, config_dir: Path | None = None) -> None:
         super().__init__()
@@ -103,17 +94,20 @@ class WalkApp(App[int]):
             return
         self.title = p.name
         self.sub_title = "opening…"
-        self.query_one("#opening", Static).update(plain(f" Opening {p}…"))
+        from gaugewalk.tui.app.screens.walk import WalkScreen
         from gaugewalk.tui.app.sheet.rawrows import raw_rows
-        from gaugewalk.tui.app.widgets.runsheet import RunSheet
 
-        rows = raw_rows(p)  # the runs as written, on screen while the walk is checked and sized
-        if rows:
-            self.query_one("#raw-sheet", RunSheet).set_rows(rows)
-        self._load(str(p))
+        # the walk screen at once, with the runs as written; the walk is read, checked and sized
+        # behind them (``_load``), then attached (``_show``)
+        shown = threading.Event()
+        self.push_screen(WalkScreen(None, raw_rows(p), when_shown=shown.set))
+        self._load(str(p), shown)
 
     @work(thread=True, exclusive=True, group="open")
-    def _load(self, path: str) -> None:
+    def _load(self, path: str, shown: threading.Event) -> None:
+        # not before the runs as written are on screen (``shown``): the thread would take turns
+        # with the event loop, which is making that first paint
+        shown.wait(FIRST_PAINT_WAIT_S)
         from gaugewalk.model.session.session import WalkSession
         from gaugewalk.model.walkfile.read import WalkFileError
 
@@ -128,7 +122,7 @@ class WalkApp(App[int]):
         # SIZE_BEFORE_SHOWING runs is sized here first, so its sheet is built once, sized
         size_first = len(session.job.runs) <= SIZE_BEFORE_SHOWING
         if size_first:
-            from gaugewalk.tui.app.screens import walk  # noqa: F401  # off the event loop
+            from gaugewalk.tui.app.sheet import rows  # noqa: F401  # off the event loop
 
             try:
                 session.recompute()
@@ -253,7 +247,12 @@ class WalkApp(App[int]):
         if not session.read_only:
             self.call_after_refresh(self._warm_save, session)
         self.recent.remember(session.path)
-        self.push_screen(WalkScreen(session))
+        opening = next((s for s in self.screen_stack
+                        if isinstance(s, WalkScreen) and not s.attached), None)
+        if opening is not None:
+            opening.attach(session)   # its rows made again in place, sized
+        else:
+            self.push_screen(WalkScreen(session))
         self.refresh_title()
         if not self.recent.caution_seen:
             self.push_screen(AboutScreen(first_start=True))

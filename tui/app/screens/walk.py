@@ -1,21 +1,31 @@
-"""The walk screen: the run sheet, the supply tree and the footage tally of one open walk."""
+"""The walk screen: the run sheet, the supply tree and the footage tally of one open walk.
+
+It is on screen from the app's first paint: the runs as written (``sheet.rawrows``) while the walk
+is read, checked and sized behind it, then, once the session is attached (``attach``), the sized
+rows in place of those. So this module imports no model at the top (the model loads behind the
+first paint), and the views other than the run sheet are made when first shown.
+"""
 
 from __future__ import annotations
+
+from typing import TYPE_CHECKING, Callable
 
 from textual import on
 from textual.app import ComposeResult
 from textual.containers import ScrollableContainer, Vertical
 from textual.screen import Screen
+from textual.widget import Widget
 from textual.widgets import ContentSwitcher, Footer, Header, Input, Static
 
-from gaugewalk.model.session.session import WalkSession
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
-from gaugewalk.tui.app.sheet.rows import all_rows, changed_rows, detail_lines
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
-from gaugewalk.tui.app.widgets.views import SupplyTree, boards_text, footage_text
+
+if TYPE_CHECKING:  # the model loads behind the first paint
+    from gaugewalk.model.session.session import WalkSession
+    from gaugewalk.tui.app.widgets.views import SupplyTree
 
 VIEWS = ("runs", "tree", "footage", "boards")
 
@@ -29,13 +39,17 @@ DISK_LOOK_S = 2.0
 
 
 class WalkScreen(Screen):
-    """One open walk."""
+    """One open walk; ``session`` None while it is being opened (``rows``: the runs as written,
+    shown meanwhile; ``when_shown`` is called once they are on screen), then ``attach``."""
 
     BINDINGS = bindings_for("walk")
 
-    def __init__(self, session: WalkSession) -> None:
+    def __init__(self, session: WalkSession | None, rows: list[SheetRow] | None = None,
+                 when_shown: Callable[[], None] | None = None) -> None:
         super().__init__()
-        self.session = session
+        self._session = session
+        self._raw_rows = rows
+        self._when_shown = when_shown
         self.view = "runs"
         self.problems_only = False
         self.source_filter: str | None = None
@@ -55,20 +69,48 @@ class WalkScreen(Screen):
                 yield SheetHeading(sheet, id="sheet-heading")
                 yield sheet
                 yield Static("", id="detail")
-            yield SupplyTree(id="tree")
-            with ScrollableContainer(id="footage", can_focus=True):
-                yield Static("", id="footage-text")
-            with ScrollableContainer(id="boards", can_focus=True):
-                yield Static("", id="boards-text")
+            # the other views are made when first shown (``_view_widget``)
         yield Footer()
 
     def on_mount(self) -> None:
         self.query_one("#find").display = False
-        self.reload()
+        if self._session is None:
+            self.query_one(RunSheet).set_rows(self._raw_rows or [])
+            self._bar()
+            self.query_one("#detail", Static).update(
+                "Reading, checking and sizing the walk; the runs are shown as written meanwhile.",
+                layout=False)
+            if self._when_shown is not None:
+                self.call_after_refresh(self._when_shown)
+        else:
+            self.reload()
+        self._raw_rows = None
         self.query_one(RunSheet).focus()
         self.set_interval(DISK_LOOK_S, self.look_at_disk)
 
+    @property
+    def session(self) -> WalkSession:
+        """The open walk (only once attached: every use of it waits for ``attach``, as the
+        walk's keys do, ``check_action``)."""
+        if self._session is None:
+            raise RuntimeError("the walk screen has no session yet")
+        return self._session
+
+    @property
+    def attached(self) -> bool:
+        """The walk is open here (not only its runs as written)."""
+        return self._session is not None
+
+    def attach(self, session: WalkSession) -> None:
+        """The walk read and checked (and, up to ``SIZE_BEFORE_SHOWING`` runs, sized): its rows
+        take the place of the runs as written, and its keys work."""
+        self._session = session
+        self.reload()
+        self.refresh_bindings()
+
     def on_screen_resume(self) -> None:
+        if self._session is None:
+            return
         self.reload()
         self.look_at_disk()
 
@@ -77,8 +119,8 @@ class WalkScreen(Screen):
         once when nothing here waits to be saved; otherwise it is said once, with the key. Not
         while a save of the app's own is on its way (``WalkSession.saving``): that is no outside
         change, and a clash the writer meets is taken in by ``after_save``."""
-        s = self.session
-        if (s.read_only or s.busy or s.saving or self.app.screen is not self
+        s = self._session
+        if (s is None or s.read_only or s.busy or s.saving or self.app.screen is not self
                 or not s.changed_on_disk()):
             return
         if s.state.saved:
@@ -92,7 +134,10 @@ class WalkScreen(Screen):
 
     def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
         """The keys that open a screen are priority bindings (so the keys typed right after
-        them reach the new screen in order); while the find box has focus they are letters."""
+        them reach the new screen in order); while the find box has focus they are letters.
+        Until the walk is attached none of its keys work (the app's keys do)."""
+        if self._session is None:
+            return False
         if action in _OPENERS and isinstance(self.focused, Input):
             return False
         return True
@@ -107,6 +152,8 @@ class WalkScreen(Screen):
         """Show the session's walk as it is now: after one change that says which runs it
         touched (``WalkSession.changed``), only their rows are made again; after any other,
         every row (results can move anywhere); after none, none."""
+        from gaugewalk.tui.app.sheet.rows import all_rows, changed_rows
+
         sheet = self.query_one(RunSheet)
         session = self.session
         if self._shown == session.version and focus is None:
@@ -150,12 +197,18 @@ class WalkScreen(Screen):
         self.query_one("#view-bar", Static).update("".join(parts) + "  " + escape(info), layout=False)
 
     def _detail(self, key: str | None) -> None:
+        if self._session is None:
+            return
+        from gaugewalk.tui.app.sheet.rows import detail_lines
+
         run = self.session.job.run(key) if key else None
         self.query_one("#detail", Static).update(escape(detail_lines(self.session, run)), layout=False)
 
     def _refresh_view(self) -> None:
+        from gaugewalk.tui.app.widgets.views import boards_text, footage_text
+
         if self.view == "tree" and self._tree_stale:
-            self.query_one(SupplyTree).build(self.session)
+            self._tree().build(self.session)
             self._tree_stale = False
         elif self.view == "footage" and self._footage_stale:
             width = max(self.size.width - 2, 40)
@@ -165,13 +218,27 @@ class WalkScreen(Screen):
             self.query_one("#boards-text", Static).update(boards_text(self.session))
             self._boards_stale = False
 
+    @staticmethod
+    def _make_view(view: str) -> Widget:
+        """The widget of a view other than the run sheet, made the first time it is shown (only
+        the run sheet is on screen at the start)."""
+        from gaugewalk.tui.app.widgets.views import SupplyTree
+
+        if view == "tree":
+            return SupplyTree(id="tree")
+        return ScrollableContainer(Static("", id=f"{view}-text"), id=view, can_focus=True)
+
+    def _tree(self) -> SupplyTree:
+        from gaugewalk.tui.app.widgets.views import SupplyTree
+
+        return self.query_one("#tree", SupplyTree)
+
     @on(RunSheet.Highlighted)
     def _highlighted(self, event: RunSheet.Highlighted) -> None:
         self._detail(event.key)
 
-    @on(SupplyTree.NodeSelected)
-    def _tree_chosen(self, event: SupplyTree.NodeSelected) -> None:
-        """A click on a branch run in the tree edits it (a source node opens or folds)."""
+    def on_tree_node_selected(self, event) -> None:
+        """A click on a branch run in the supply tree edits it (a source node opens or folds)."""
         data = event.node.data
         if data and data[0] == "run" and not event.node.allow_expand:
             self.open_card(data[1])
@@ -181,7 +248,7 @@ class WalkScreen(Screen):
         A priority key (like n and e), so the card opens before the keys typed after it are
         taken, and they go into the card."""
         if self.view == "tree":
-            tree = self.query_one(SupplyTree)
+            tree = self._tree()
             node = tree.cursor_node
             if node is None:
                 return
@@ -201,7 +268,14 @@ class WalkScreen(Screen):
         self.open_card(event.key)
 
     # ----- views ------------------------------------------------------------------------
-    def action_show_view(self, view: str) -> None:
+    async def action_show_view(self, view: str) -> None:
+        if not self.query(f"#{view}"):
+            await self.query_one(ContentSwitcher).mount(self._make_view(view))
+        self._switch(view)
+
+    def _switch(self, view: str) -> None:
+        """Show ``view`` (its widget is mounted: the run sheet always is, the others once
+        ``action_show_view`` made them)."""
         self.view = view
         self.query_one(ContentSwitcher).current = view
         self._refresh_view()
@@ -210,8 +284,8 @@ class WalkScreen(Screen):
         self.query_one(target).focus()
         self._bar()
 
-    def action_next_view(self) -> None:
-        self.action_show_view(VIEWS[(VIEWS.index(self.view) + 1) % len(VIEWS)])
+    async def action_next_view(self) -> None:
+        await self.action_show_view(VIEWS[(VIEWS.index(self.view) + 1) % len(VIEWS)])
 
     # ----- filtering and sorting --------------------------------------------------------
     def _apply_filter(self) -> None:
@@ -232,7 +306,7 @@ class WalkScreen(Screen):
 
     def action_find(self) -> None:
         if self.view != "runs":
-            self.action_show_view("runs")
+            self._switch("runs")
         find = self.query_one("#find", Input)
         find.display = True
         find.focus()
@@ -295,12 +369,12 @@ class WalkScreen(Screen):
 
     def _to_runs(self) -> None:
         if self.view != "runs":
-            self.action_show_view("runs")
+            self._switch("runs")
 
     # ----- changing runs ----------------------------------------------------------------
     def _current_run_id(self) -> str | None:
         if self.view == "tree":
-            node = self.query_one(SupplyTree).cursor_node
+            node = self._tree().cursor_node
             if node is not None and node.data and node.data[0] == "run":
                 return node.data[1]
             return None
