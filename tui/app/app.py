@@ -246,7 +246,8 @@ class WalkApp(App[int]):
         session.save_behind(self._saved_behind)  # storing a run never waits for the disk
         if not session.read_only:
             self.call_after_refresh(self._warm_save, session)
-        self.recent.remember(session.path)
+        # written (and fsynced) once the walk is on screen, not before
+        self.call_after_refresh(self.recent.remember, session.path)
         opening = next((s for s in self.screen_stack
                         if isinstance(s, WalkScreen) and not s.attached), None)
         if opening is not None:

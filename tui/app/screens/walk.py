@@ -103,9 +103,23 @@ class WalkScreen(Screen):
 
     def attach(self, session: WalkSession) -> None:
         """The walk read and checked (and, up to ``SIZE_BEFORE_SHOWING`` runs, sized): its rows
-        take the place of the runs as written, and its keys work."""
+        take the place of the runs as written, and its keys work. When the runs as written are
+        the walk's runs in order, the rows on screen are made first and painted, and every row
+        right after that paint (``reload``); otherwise every row at once."""
         self._session = session
-        self.reload()
+        sheet = self.query_one(RunSheet)
+        on_screen = sheet.rows_on_screen()
+        if (on_screen and len(on_screen) < len(sheet.rows)
+                and sheet.visible_keys() == [run.id for run in session.job.runs]):
+            from gaugewalk.tui.app.sheet.rows import changed_rows
+
+            sheet.update_rows(changed_rows(session, set(on_screen)))
+            self._bar()
+            self._detail(sheet.cursor_key)
+            self.app.refresh_title()
+            self.call_after_refresh(self.reload)
+        else:
+            self.reload()
         self.refresh_bindings()
 
     def on_screen_resume(self) -> None:

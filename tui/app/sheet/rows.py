@@ -113,12 +113,13 @@ def sheet_row(session: WalkSession, run: Run, sources: dict[str, tuple[str, str]
     res = session.result_for(run.id)
     st = session.status(run, res)
     circuit, circuit_sort = circuit_cell(run, sources if sources is not None else source_kinds(session))
+    load = load_text(run)
     cells = (
         run.id,
         run.from_,
         run.to,
         fmt_ft(run.length_ft),
-        load_text(run),
+        load,
         circuit,
         f"{res.ocpd_a}A" if res else "—",
         sheet_size_text(res),
@@ -126,7 +127,7 @@ def sheet_row(session: WalkSession, run: Run, sources: dict[str, tuple[str, str]
         pct4(res.total_drop_pct) if res else "—",
         SHEET_STATUS.get(st.words, st.words),
     )
-    search = " ".join((run.id, run.from_, run.to, run.length, load_text(run), circuit, cells[7],
+    search = " ".join((run.id, run.from_, run.to, run.length, load, circuit, cells[7],
                        st.words, run.notes)).lower()
     sort = {
         "id": _natural(run.id),

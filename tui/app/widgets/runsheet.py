@@ -282,6 +282,12 @@ class RunSheet(ScrollView, can_focus=True):
     def visible_keys(self) -> list[str]:
         return [self.rows[i].key for i in self.view]
 
+    def rows_on_screen(self) -> list[str]:
+        """The keys of the rows drawn now (the sheet's height from its scroll position)."""
+        top = round(self.scroll_y)
+        height = self.scrollable_content_region.height or self.size.height
+        return [self.rows[i].key for i in self.view[top: top + max(height, 0)]]
+
     def move_to(self, key: str) -> bool:
         i = self._index.get(key)
         if i is None:

@@ -1,0 +1,72 @@
+"""Opening a walk in the app: the walk screen comes up with the runs as written, its keys wait for
+the walk, and the sized rows take their place, those on screen first."""
+
+from __future__ import annotations
+
+from gaugewalk.tui.app.app import WalkApp
+from gaugewalk.tui.app.screens.card import RunCard
+from gaugewalk.tui.app.screens.walk import WalkScreen
+from gaugewalk.tui.app.sheet.rawrows import SIZING
+from gaugewalk.tui.app.sheet.rows import all_rows
+from gaugewalk.tui.app.widgets.runsheet import RunSheet
+from tests.support.app_helpers import new_app, opened, settle
+from tests.support.synthetic_walk import synthetic_walk_text
+
+
+async def test_the_rows_on_screen_are_sized_first_and_every_row_right_after(tmp_path,
+                                                                             monkeypatch):
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(60), encoding="utf-8")
+    at_attach = []
+    attach = WalkScreen.attach
+
+    def attached(self, session) -> None:
+        attach(self, session)
+        sheet = self.query_one(RunSheet)
+        at_attach.append((sheet.rows_on_screen(), [r.cells[-1] for r in sheet.rows]))
+
+    monkeypatch.setattr(WalkScreen, "attach", attached)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        (on_screen, status), = at_attach
+        assert 0 < len(on_screen) < 60
+        assert all(s != SIZING for s in status[: len(on_screen)])
+        assert all(s == SIZING for s in status[len(on_screen):])
+        # and then every row, as a whole rebuild makes them
+        assert app.screen.query_one(RunSheet).rows == all_rows(app.session)
+
+
+async def test_the_walk_keys_wait_until_the_walk_is_open(tmp_path, monkeypatch):
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(12), encoding="utf-8")
+    held = []
+    monkeypatch.setattr(WalkApp, "_show", lambda self, session: held.append(session))
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        screen = app.screen
+        assert isinstance(screen, WalkScreen) and not screen.attached and len(held) == 1
+        assert screen.query_one(RunSheet).rows[0].cells[-1] == SIZING
+        await pilot.press("n")   # a new run: not yet
+        assert app.screen is screen
+        monkeypatch.undo()
+        app._show(held[0])
+        await opened(app, pilot)
+        assert screen.attached and app.session is held[0]
+        await pilot.press("n")
+        assert isinstance(app.screen, RunCard)
+
+
+async def test_the_supply_tree_is_made_the_first_time_it_is_shown(tmp_path):
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(12), encoding="utf-8")
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        assert not app.screen.query("#tree")
+        await pilot.press("2")
+        assert app.screen.query_one("#tree").has_focus
+        await pilot.press("1")
+        await pilot.press("2")
+        assert len(app.screen.query("#tree")) == 1
