@@ -101,3 +101,25 @@ async def test_a_sheet_line_drawn_at_once_is_the_line_cropped_and_padded(tmp_pat
             slow = Strip([Segment(text, style)]).crop(0, width).extend_cell_length(
                 width, sheet.rich_style)
             assert list(line) == list(slow) and line.cell_length == slow.cell_length == width
+
+
+def test_a_row_updated_in_place_leaves_each_columns_longest_entry_as_a_whole_rebuild_does():
+    from gaugewalk.tui.app.widgets.runsheet import SheetColumn, SheetRow
+
+    columns = [SheetColumn("id", "Id", 3), SheetColumn("to", "To", 4), SheetColumn("ft", "Ft", 3)]
+
+    def row(key: str, to: str, ft: str) -> SheetRow:
+        return SheetRow(key, (key, to, ft))
+
+    rows = [row("R1", "Pump", "12"), row("R2", "Long name here", "7"), row("R3", "Fan", "140")]
+    for change in ([row("R2", "Oven", "7")],                # the longest To shrinks: counted again
+                   [row("R3", "Fan", "9"), row("R1", "Sheeter line", "1200")],   # one grows
+                   [row("R1", "Pump", "12")]):              # both longest shrink at once
+        sheet = RunSheet(columns)
+        sheet.set_rows(list(rows))
+        assert sheet.update_rows(change)
+        whole = RunSheet(columns)
+        whole.set_rows(list(sheet.rows))
+        assert sheet._longest == whole._longest
+        rows = sheet.rows
+    assert sheet._longest == [2, 4, 2]

@@ -8,13 +8,13 @@ next one; a run with an invalid field is not stored.
 
 from __future__ import annotations
 
-from textual import on
+from textual import events, on
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
 from textual.suggester import SuggestFromList
 from textual.widget import Widget
-from textual.widgets import Footer, Header, Input, Label, Static
+from textual.widgets import Header, Input, Label, Static
 
 from gaugewalk.model.session.card_form import (
     FIELD_KEYS,
@@ -36,6 +36,7 @@ from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.sheet.rows import size_text
+from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
 
 
 class CardInput(Input):
@@ -64,23 +65,37 @@ class Note(Widget):
 
 
 class RunCard(TypedInOrder, Screen):
-    """Record a new run (``run_id`` None) or edit one."""
+    """Record a new run (``run_id`` None) or edit one.
+
+    One card serves a walk screen for every run it opens (``open_for`` before each push):
+    its widgets are built once, on the first open, and each later open only fills them in
+    again, which costs a fraction of building the screen anew."""
 
     BINDINGS = bindings_for("card")
 
     def __init__(self, session: WalkSession, run_id: str | None = None) -> None:
         super().__init__()
         self.session = session
-        self.run_id = run_id
-        self.form = CardForm(session, run_id)
-        self.checked = CardCheck()
-        self.stored: list[str] = []
-        self._seen: dict[str, str] = {}  # each field's text as the card last handled it
+        # what the widgets show now, so an unchanged text costs no repaint (kept across opens)
         self._hints: dict[str, tuple[str, bool]] = {}
         self._answer_text = ""
         self._said: tuple[str, bool] | None = None
+        self._built = False   # mounted once: a later open fills the widgets in on resume
+        self._restyle = False  # the theme changed since the card was last shown
+        self.open_for(run_id)
+
+    def open_for(self, run_id: str | None) -> None:
+        """Make this card a fresh one for ``run_id`` (None: a new run), to be pushed next: keys
+        typed meanwhile wait (``typing_ready``) until its fields are filled in and focused."""
+        self.run_id = run_id
+        self.form = CardForm(self.session, run_id)
+        self.checked = CardCheck()
+        self.stored: list[str] = []
+        self._seen: dict[str, str] = {}  # each field's text as the card last handled it
         self._sticky: str | None = None
         self._last_main = "to"
+        self._opening = True
+        self.typing_ready.clear()
 
     @property
     def errors(self) -> dict[str, str]:
@@ -93,7 +108,6 @@ class RunCard(TypedInOrder, Screen):
     # ----- layout -----------------------------------------------------------------------
     def compose(self) -> ComposeResult:
         yield Header()
-        self._choices = choices(self.session)
         with Horizontal(id="card-body"):
             with Vertical(id="card-fields"):
                 for f in FIELDS:
@@ -102,23 +116,52 @@ class RunCard(TypedInOrder, Screen):
                     with Horizontal(classes="card-row" + (" card-main" if f.main else ""),
                                     id=f"row-{f.key}"):
                         yield Label(f.label, classes="card-label")
-                        options = self._choices.get(f.key)
-                        suggester = SuggestFromList(options, case_sensitive=False) if options else None
                         yield CardInput(
                             placeholder=f.placeholder, id=f"f-{f.key}", compact=True,
-                            suggester=suggester, classes="card-input",
+                            classes="card-input",
                         )
                         yield Note("", id=f"h-{f.key}", classes="card-hint")
             with Vertical(id="card-answer"):
                 yield Note("", id="answer")
         yield Note("", id="card-msg")
-        yield Footer()
+        yield KeyFooter()
 
     def on_mount(self) -> None:
+        self._built = True
+        self.app.theme_changed_signal.subscribe(self, self._theme_changed)
+        self._start()
+
+    def _theme_changed(self, _theme: object) -> None:
+        self._restyle = True
+
+    def on_screen_resume(self, event: events.ScreenResume) -> None:
+        """Opened again (the first open starts on mount): filled in for its run. Its widgets
+        keep the styles they were given unless the theme changed while it was away, so Textual
+        is spared styling every widget of the card anew on each open."""
+        if not self._restyle:
+            event.refresh_styles = False
+        self._restyle = False
+        if self._built and self._opening:
+            self._start()
+
+    def _suggest(self) -> None:
+        """What each field completes from, as the walk is now."""
+        self._choices = choices(self.session)
+        for f in FIELDS:
+            options = self._choices.get(f.key)
+            self._input(f.key).suggester = (SuggestFromList(options, case_sensitive=False)
+                                            if options else None)
+
+    def _start(self) -> None:
+        """Fill the card in for the run it was opened for and give its first field the focus
+        (keys typed meanwhile are then taken, in order)."""
+        self._opening = False
         focus = self.form.start()
         if focus is None:  # the run to edit is gone
+            self.typing_ready.set()
             self.dismiss()
             return
+        self._suggest()
         self._show_values()
         if self.form.restored:
             self._sticky = "Your unstored card is back. Enter stores it; Esc keeps it for later."
@@ -174,7 +217,11 @@ class RunCard(TypedInOrder, Screen):
     # ----- live checking ----------------------------------------------------------------
     @on(Input.Changed, ".card-input")
     def _changed(self, event: Input.Changed) -> None:
-        """A change made neither by a key (``field_typed`` saw those) nor by the card."""
+        """A change made neither by a key (``field_typed`` saw those) nor by the card. One that
+        arrives while the card is opened again (a late message of the last open, whose text the
+        fields still hold until they are filled in) is no text for the run it opens for."""
+        if self._opening:
+            return
         if event.value == event.input.value:  # not a late message about text since replaced
             self.field_typed(event.input)
 

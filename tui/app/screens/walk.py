@@ -15,16 +15,18 @@ from textual.app import ComposeResult
 from textual.containers import ScrollableContainer, Vertical
 from textual.screen import Screen
 from textual.widget import Widget
-from textual.widgets import ContentSwitcher, Footer, Header, Input, Static
+from textual.widgets import ContentSwitcher, Header, Input, Static
 
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
+from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
 
 if TYPE_CHECKING:  # the model loads behind the first paint
     from gaugewalk.model.session.session import WalkSession
+    from gaugewalk.tui.app.screens.card import RunCard
     from gaugewalk.tui.app.widgets.views import SupplyTree
 
 VIEWS = ("runs", "tree", "footage", "boards")
@@ -58,6 +60,7 @@ class WalkScreen(Screen):
         self._boards_stale = True
         self._told_outside = False   # a change on disk was said (once) while changes here wait
         self._shown = -1   # the session's ``version`` the sheet shows
+        self._card: RunCard | None = None   # the run card, once opened (``open_card``)
 
     def compose(self) -> ComposeResult:
         yield Header()
@@ -70,7 +73,7 @@ class WalkScreen(Screen):
                 yield sheet
                 yield Static("", id="detail")
             # the other views are made when first shown (``_view_widget``)
-        yield Footer()
+        yield KeyFooter()
 
     def on_mount(self) -> None:
         self.query_one("#find").display = False
@@ -421,7 +424,14 @@ class WalkScreen(Screen):
         if self.session.read_only:
             self._busy()
             return
-        self.app.push_screen(RunCard(self.session, run_id))
+        card = self._card
+        if card is None or card.session is not self.session:
+            # built on the first open, then kept (installed) and opened again for every later one
+            card = self._card = RunCard(self.session, run_id)
+            self.app.install_screen(card, f"run-card-{id(card)}")
+        else:
+            card.open_for(run_id)
+        self.app.push_screen(card)
 
     def action_delete_run(self) -> None:
         if self._busy():

@@ -184,7 +184,7 @@ class RunSheet(ScrollView, can_focus=True):
         if any(row.key not in index for row in changed):
             return False
         rows, longest = self.rows, self._longest
-        shrunk = False
+        shrunk: set[int] = set()
         for row in changed:
             i = index[row.key]
             old = rows[i].cells
@@ -194,10 +194,9 @@ class RunSheet(ScrollView, can_focus=True):
                 if n > longest[c]:
                     longest[c] = n
                 elif n < longest[c] and c < len(old) and len(old[c]) == longest[c]:
-                    shrunk = True  # it may have been the longest: count again
-        if shrunk:
-            self._longest = [max((len(r.cells[i]) for r in rows if i < len(r.cells)), default=0)
-                             for i in range(len(self.columns))]
+                    shrunk.add(c)  # it may have been the longest: count that column again
+        for c in shrunk:
+            longest[c] = max((len(r.cells[c]) for r in rows if c < len(r.cells)), default=0)
         if self.is_mounted:
             self._fit_columns()
         if self.filter_text or self.filter_pred is not None or self.sort_key:

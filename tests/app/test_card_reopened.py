@@ -1,0 +1,138 @@
+"""The run card is built once and opened again for every later run: each open shows the run it
+was opened for and nothing of the last, the keys typed right behind the key that opens it land in
+it (in a burst as slowly), a theme changed while it was away is on it, and the key lines show
+the keys of the screen they are on."""
+
+from __future__ import annotations
+
+import tomllib
+
+from textual.widgets._footer import FooterKey
+
+from gaugewalk.tui.app.screens.card import RunCard
+from gaugewalk.tui.app.screens.walk import WalkScreen
+from gaugewalk.tui.app.widgets.runsheet import RunSheet
+from tests.support.app_helpers import new_app, opened, settle, type_keys
+from tests.support.walks import write_walk
+
+# two new runs, each on a card opened again with n after Esc closed the last
+NEW_RUNS = (["n", *"Sheeter", "tab", *"45", "tab", *"8A", "enter", "escape"]
+            + ["n", *"Oven", "tab", *"60", "tab", *"30A", "enter", "escape"])
+# R1 edited on the same card (typing starts in Length, its text selected), then one more new run
+EDIT_THEN_NEW = ["e", *"77", "enter", "n", *"Mixer", "tab", *"20", "tab", *"5A", "enter",
+                 "escape"]
+
+
+async def _record(tmp_path, name: str, fast: bool) -> list[tuple]:
+    folder = tmp_path / name
+    folder.mkdir()
+    path = write_walk(folder)
+    app = new_app(path, folder / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await type_keys(app, pilot, NEW_RUNS, fast=fast)
+        await settle(app, pilot)
+        assert isinstance(app.screen, WalkScreen)
+        assert app.screen.query_one(RunSheet).move_to("R1")
+        await type_keys(app, pilot, EDIT_THEN_NEW, fast=fast)
+        await settle(app, pilot)
+        assert isinstance(app.screen, WalkScreen)
+    runs = tomllib.loads(path.read_text())["run"][1:]
+    return [(r["id"], r["to"], r["length"], r["load"]) for r in runs]
+
+
+async def test_keys_typed_right_behind_the_key_that_opens_the_card_again_land_in_it(tmp_path):
+    expected = [
+        ("R1", "Proofer", "77", {"value": 16, "unit": "A"}),
+        ("R2", "Sheeter", "45", {"value": 8, "unit": "A"}),
+        ("R3", "Oven", "60", {"value": 30, "unit": "A"}),
+        ("R4", "Mixer", "20", {"value": 5, "unit": "A"}),
+    ]
+    assert await _record(tmp_path, "slow", fast=False) == expected
+    assert await _record(tmp_path, "burst", fast=True) == expected
+
+
+async def test_a_card_opened_again_shows_the_run_it_was_opened_for_and_nothing_of_the_last(
+        tmp_path):
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        assert sheet.move_to("R1")
+        await pilot.press("e")
+        await pilot.pause()
+        card = app.screen
+        assert isinstance(card, RunCard) and card.run_id == "R1"
+        await pilot.press("down", *"x")   # a load that is wrong: the card says so
+        await pilot.pause()
+        assert "not a load" in str(card.query_one("#card-msg").render())
+        assert "not a load" in str(card.query_one("#h-load").render())
+        assert card.query_one("#f-load").has_class("-invalid")
+        await pilot.press("escape")
+        await pilot.pause()
+        assert sheet.move_to("F1")
+        await pilot.press("e")
+        await pilot.pause()
+        assert app.screen is card and card.run_id == "F1"   # the same card, for the feeder
+        assert card.query_one("#f-to").value == "LP1" and card.values()["to"] == "LP1"
+        assert card.focused is card.query_one("#f-length")
+        assert card.focused.selected_text == "40"
+        assert not card.errors
+        assert "not a load" not in str(card.query_one("#card-msg").render())
+        assert "not a load" not in str(card.query_one("#h-load").render())
+        assert not card.query_one("#f-load").has_class("-invalid")
+        assert app.sub_title == "Run card: editing F1"
+        await pilot.press("escape")
+        await pilot.pause()
+        await pilot.press("n")   # a new run on it: the fields of a fresh card
+        await pilot.pause()
+        assert app.screen is card and card.run_id is None and card.stored == []
+        assert card.query_one("#f-to").value == "" and card.focused is card.query_one("#f-to")
+        assert card.values()["from"] == "LP1"   # the last run's source
+    assert tomllib.loads((tmp_path / "walk.toml").read_text())["run"][1]["load"]["value"] == 16
+
+
+async def test_a_theme_changed_while_the_card_was_closed_is_on_it_when_it_opens_again(tmp_path):
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")
+        await pilot.pause()
+        card = app.screen
+        field = card.query_one("#f-to")
+        before = field.styles.background
+        await pilot.press("escape")
+        await pilot.pause()
+        await pilot.press("f3")   # the other look, while the card is closed
+        await pilot.pause()
+        await pilot.press("n")
+        await pilot.pause()
+        assert app.screen is card
+        assert field.styles.background != before
+        assert field.styles.background == app.screen.query_one("#f-length").styles.background
+
+
+def _footer_keys(screen) -> list[str]:
+    return [key.key for key in screen.query(FooterKey)]
+
+
+async def test_the_key_lines_show_the_keys_of_their_screen_after_the_card_comes_and_goes(tmp_path):
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        walk = app.screen
+        walk_keys = _footer_keys(walk)
+        assert "n" in walk_keys
+        for _ in range(2):
+            await pilot.press("n")
+            await pilot.pause()
+            card = app.screen
+            assert isinstance(card, RunCard)
+            card_keys = _footer_keys(card)
+            assert card_keys and card_keys != walk_keys and "n" not in card_keys
+            await pilot.press("tab", "tab")   # moving between fields keeps the card's keys
+            await pilot.pause()
+            assert _footer_keys(card) == card_keys
+            await pilot.press("escape")
+            await pilot.pause()
+            assert app.screen is walk and _footer_keys(walk) == walk_keys
