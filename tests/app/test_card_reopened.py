@@ -12,7 +12,7 @@ from textual.widgets._footer import FooterKey
 from gaugewalk.tui.app.screens.card import RunCard
 from gaugewalk.tui.app.screens.walk import WalkScreen
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
-from tests.support.app_helpers import new_app, opened, settle, type_keys
+from tests.support.app_helpers import new_app, opened, screen_text, settle, type_keys
 from tests.support.walks import write_walk
 
 # two new runs, each on a card opened again with n after Esc closed the last
@@ -82,6 +82,7 @@ async def test_a_card_opened_again_shows_the_run_it_was_opened_for_and_nothing_o
         assert "not a load" not in str(card.query_one("#h-load").render())
         assert not card.query_one("#f-load").has_class("-invalid")
         assert app.sub_title == "Run card: editing F1"
+        assert "Run card: editing F1" in screen_text(app).splitlines()[0]   # the title line
         await pilot.press("escape")
         await pilot.pause()
         await pilot.press("n")   # a new run on it: the fields of a fresh card
@@ -136,3 +137,42 @@ async def test_the_key_lines_show_the_keys_of_their_screen_after_the_card_comes_
             await pilot.press("escape")
             await pilot.pause()
             assert app.screen is walk and _footer_keys(walk) == walk_keys
+
+
+async def test_enter_stores_the_run_its_last_check_sized_and_checks_again_what_changed_since(
+        tmp_path, monkeypatch):
+    """Enter right after a clean check stores that check's run without sizing it again; a field
+    changed since (here by the form itself, not a key) is checked again first."""
+    from gaugewalk.model.session.card_form import CardForm
+
+    checks: list[str] = []
+    check = CardForm.check
+
+    def counted(self, store_tried=False):
+        checks.append(self.values["length"])
+        return check(self, store_tried)
+
+    monkeypatch.setattr(CardForm, "check", counted)
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        assert app.screen.query_one(RunSheet).move_to("R1")
+        await pilot.press("e", *"60")   # R1's length, typed over
+        await pilot.pause()
+        card = app.screen
+        assert isinstance(card, RunCard) and card.run_id == "R1" and checks[-1] == "60"
+        before = len(checks)
+        await pilot.press("enter")
+        await settle(app, pilot)
+        assert len(checks) == before   # stored as checked
+        assert isinstance(app.screen, WalkScreen)
+        assert [r.length for r in app.session.job.runs] == ["40", "60"]
+        await pilot.press("e", *"70")
+        await pilot.pause()
+        card.form.values["length"] = "75"   # changed since the last check
+        before = len(checks)
+        await pilot.press("enter")
+        await settle(app, pilot)
+        assert checks[before:] == ["75"]
+    assert tomllib.loads(path.read_text())["run"][1]["length"] == "75"

@@ -8,13 +8,15 @@ next one; a run with an invalid field is not stored.
 
 from __future__ import annotations
 
+from datetime import date
+
 from textual import events, on
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
-from textual.suggester import SuggestFromList
+from textual.suggester import Suggester
 from textual.widget import Widget
-from textual.widgets import Header, Input, Label, Static
+from textual.widgets import Input, Label, Static
 
 from gaugewalk.model.session.card_form import (
     FIELD_KEYS,
@@ -37,6 +39,7 @@ from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.sheet.rows import size_text
 from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
+from gaugewalk.tui.app.widgets.titleline import TitleLine
 
 
 class CardInput(Input):
@@ -45,6 +48,19 @@ class CardInput(Input):
 
     def __init__(self, *args, **kwargs) -> None:
         super().__init__(*args, select_on_focus=False, **kwargs)
+
+
+class FieldSuggest(Suggester):
+    """The completion a card field shows: the first of what it completes from that starts
+    with its text (any case), the same one Tab takes (``RunCard.take_completion``)."""
+
+    def __init__(self, card: "RunCard", key: str) -> None:
+        super().__init__(use_cache=False, case_sensitive=False)   # the lists change per open
+        self._card = card
+        self._key = key
+
+    async def get_suggestion(self, value: str) -> str | None:
+        return complete(value, self._card.completions(self._key))
 
 
 class Note(Widget):
@@ -90,10 +106,12 @@ class RunCard(TypedInOrder, Screen):
         self.run_id = run_id
         self.form = CardForm(self.session, run_id)
         self.checked = CardCheck()
+        self._checked_for: tuple | None = None   # what ``checked`` was made from
         self.stored: list[str] = []
         self._seen: dict[str, str] = {}  # each field's text as the card last handled it
         self._sticky: str | None = None
         self._last_main = "to"
+        self._choices: dict[str, list[str]] | None = None   # ``completions``, once asked for
         self._opening = True
         self.typing_ready.clear()
 
@@ -107,7 +125,8 @@ class RunCard(TypedInOrder, Screen):
 
     # ----- layout -----------------------------------------------------------------------
     def compose(self) -> ComposeResult:
-        yield Header()
+        yield TitleLine()
+        keys = set(choices(self.session))   # the fields that complete from a list
         with Horizontal(id="card-body"):
             with Vertical(id="card-fields"):
                 for f in FIELDS:
@@ -118,6 +137,7 @@ class RunCard(TypedInOrder, Screen):
                         yield Label(f.label, classes="card-label")
                         yield CardInput(
                             placeholder=f.placeholder, id=f"f-{f.key}", compact=True,
+                            suggester=FieldSuggest(self, f.key) if f.key in keys else None,
                             classes="card-input",
                         )
                         yield Note("", id=f"h-{f.key}", classes="card-hint")
@@ -144,13 +164,13 @@ class RunCard(TypedInOrder, Screen):
         if self._built and self._opening:
             self._start()
 
-    def _suggest(self) -> None:
-        """What each field completes from, as the walk is now."""
-        self._choices = choices(self.session)
-        for f in FIELDS:
-            options = self._choices.get(f.key)
-            self._input(f.key).suggester = (SuggestFromList(options, case_sensitive=False)
-                                            if options else None)
+    def completions(self, key: str) -> list[str]:
+        """What field ``key`` completes from, as the walk is now: worked out once an open, on
+        the first key that needs it (the names of every run take a few milliseconds to gather
+        on a big walk)."""
+        if self._choices is None:
+            self._choices = choices(self.session)
+        return self._choices.get(key, [])
 
     def _start(self) -> None:
         """Fill the card in for the run it was opened for and give its first field the focus
@@ -161,7 +181,6 @@ class RunCard(TypedInOrder, Screen):
             self.typing_ready.set()
             self.dismiss()
             return
-        self._suggest()
         self._show_values()
         if self.form.restored:
             self._sticky = "Your unstored card is back. Enter stores it; Esc keeps it for later."
@@ -259,6 +278,7 @@ class RunCard(TypedInOrder, Screen):
         """Check every field, build the run if possible, size it and show it all."""
         self._show_fields()
         checked = self.checked = self.form.check(store_tried)
+        self._checked_for = self._check_inputs()
         for k in FIELD_KEYS:
             if k in checked.soft:
                 shown = ("needed", False)
@@ -276,6 +296,19 @@ class RunCard(TypedInOrder, Screen):
             self._input(k).set_class(bad, "-invalid")
         self._show_answer(checked)
         self._message_for_focus()
+
+    def _check_inputs(self) -> tuple:
+        """What a check of the card depends on: its texts, the walk (``WalkSession.version``)
+        and the day (a new or re-measured length is dated today)."""
+        return tuple(self.form.values.items()), self.session.version, date.today()
+
+    def _checked_clean(self) -> bool:
+        """The last check found nothing wrong and nothing it depends on changed since: checking
+        again, as Enter would, finds the same run sized the same (a field left empty counts as
+        wrong when Enter is pressed, but a clean check has none)."""
+        checked = self.checked
+        return (checked.run is not None and not checked.errors
+                and self._checked_for == self._check_inputs())
 
     def _show_answer(self, checked: CardCheck) -> None:
         run, res = checked.run, checked.result
@@ -375,7 +408,7 @@ class RunCard(TypedInOrder, Screen):
         if key == "to" and not field.value:
             suggestion = self.form.proposed_to()
         else:
-            suggestion = complete(field.value, self._choices.get(key, ()))
+            suggestion = complete(field.value, self.completions(key))
         if suggestion and field.cursor_at_end and suggestion != field.value:
             field.value = suggestion
             field.cursor_position = len(suggestion)
@@ -402,7 +435,8 @@ class RunCard(TypedInOrder, Screen):
             self._message_for_focus()
             return
         self._sticky = None
-        self.recheck(store_tried=True)
+        if not self._checked_clean():
+            self.recheck(store_tried=True)
         checked = self.checked
         if checked.errors or checked.run is None:
             first = next(iter(checked.errors), None)
@@ -419,7 +453,10 @@ class RunCard(TypedInOrder, Screen):
             return
         self.session.keep_draft(None)
         state = self.session.state
-        self.app.refresh_title()
+        if self.run_id is None:
+            # the card stays: its title says how the save went (a card that closes leaves that
+            # to the walk screen, which sets the title as it comes back: one repaint, not two)
+            self.app.refresh_title()
         if self.session.saves_behind:
             pass  # the app says how the save went once it is written (WalkApp.SavedBehind)
         elif not state.saved:

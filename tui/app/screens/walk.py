@@ -15,7 +15,7 @@ from textual.app import ComposeResult
 from textual.containers import ScrollableContainer, Vertical
 from textual.screen import Screen
 from textual.widget import Widget
-from textual.widgets import ContentSwitcher, Header, Input, Static
+from textual.widgets import ContentSwitcher, Input, Static
 
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
@@ -23,6 +23,7 @@ from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
 from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
+from gaugewalk.tui.app.widgets.titleline import TitleLine
 
 if TYPE_CHECKING:  # the model loads behind the first paint
     from gaugewalk.model.session.session import WalkSession
@@ -63,7 +64,7 @@ class WalkScreen(Screen):
         self._card: RunCard | None = None   # the run card, once opened (``open_card``)
 
     def compose(self) -> ComposeResult:
-        yield Header()
+        yield TitleLine()
         yield Static("", id="view-bar")
         yield Input(placeholder="find runs: type words, Enter to go back to the list", id="find", compact=True)
         with ContentSwitcher(initial="runs", id="views"):
