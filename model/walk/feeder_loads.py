@@ -350,8 +350,8 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
             if circuit.hots == 1 and r.position is None and r.phase is None:
                 # placed by the fast path for one pole, which needs no share
                 ph = mine.phasor
-                per_line = (tuple((ph * x, ph * x) for x in u) if mine.continuous
-                            else tuple((ph * x, 0j) for x in u))
+                per_line = (tuple([(ph * x, ph * x) for x in u]) if mine.continuous
+                            else tuple([(ph * x, 0j) for x in u]))
                 share = None
             else:
                 share = _OwnShare(u, mine)

@@ -5,8 +5,8 @@ change of load or of place can move the other runs the tool places), and every s
 while what its feeder carries changes, up to a feeder that gives its own load; those feeders
 sized again, top-down (an edit of the feeder into a transformer, which sets the rules of
 everything on its secondary, computes the whole walk); then below every source whose bus drop changed, only the runs whose size
-could change (upsized for drop, with problems, or pushed over the total target); the rest have
-their total drop shifted. A walk with shared raceways is computed whole. The result equals ``compute_job`` of the edited walk (tests compare
+could change (with problems, pushed over the total target, or upsized for drop where the limit
+on their drop loosened or is no longer met); the rest have their total drop shifted. A walk with shared raceways is computed whole. The result equals ``compute_job`` of the edited walk (tests compare
 them run by run).
 
 Public API:
@@ -18,7 +18,8 @@ Public API:
 
 from __future__ import annotations
 
-from gaugewalk.model.engine.contract import with_fields
+from gaugewalk.model.engine.contract import RunResult, RunSpec, with_fields
+from gaugewalk.model.engine.sizing.pick import drop_limit
 from gaugewalk.model.walk.compute import JobResult, WalkState, compute_job
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run
@@ -31,8 +32,7 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
 
     Redoes the run, its source's placement and sums and those above it while they change, the
     feeders whose load changed; then, below every source whose drop changed, re-evaluates only
-    the runs whose size could change (upsized for drop, with problems, or pushed over the total
-    target) and shifts the total drop of the rest. Falls back to ``compute_job`` when runs or
+    the runs whose size could change (``_size_stays``) and shifts the total drop of the rest. Falls back to ``compute_job`` when runs or
     sources were added, removed or re-pointed, and on a walk with shared raceways (a run's
     change moves the adjustment and fill of every run beside it). Only ``run_id`` may have changed since
     ``result`` was computed (edited in place or put in place of the run of the same id, as the
@@ -107,13 +107,13 @@ def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: 
                 state.evaluate_run(r, upstream)
             elif spec.upstream_drop_pct == upstream:
                 continue
-            elif (old.ok and old.governed_by != "voltage drop"
-                        and upstream + old.voltage_drop_pct <= spec.max_total_drop_pct + _EPS):
+            elif _size_stays(old, spec, new := with_fields(spec, upstream_drop_pct=upstream),
+                             is_feeder):
                 total = upstream + old.voltage_drop_pct
                 margins = dict(old.margins)
                 if "total_drop_pct" in margins:
                     margins["total_drop_pct"] = spec.max_total_drop_pct - total
-                spec = with_fields(spec, upstream_drop_pct=upstream)
+                spec = new
                 result._specs[r.id] = spec
                 state.store(r, with_fields(old, total_drop_pct=total, margins=margins),
                             is_feeder, spec)
@@ -121,3 +121,19 @@ def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: 
                 state.evaluate_run(r, upstream)
             if is_feeder and r.to not in dirty:
                 stack.append(r.to)
+
+
+def _size_stays(old: RunResult, spec: RunSpec, new: RunSpec, is_feeder: bool) -> bool:
+    """True when the engine gives ``old`` again for ``new`` (``spec`` with another drop up to
+    its source), but for the total drop: ``old`` has no problems and its size was not picked for
+    the drop and stays within the total target; or (a branch) it was picked for the drop, and the
+    new limit on the drop (``pick.drop_limit``) is no looser and still met, so every smaller size
+    still misses it and the same size is picked, with the same notes."""
+    if not old.ok:
+        return False
+    if old.governed_by != "voltage drop":
+        return new.upstream_drop_pct + old.voltage_drop_pct <= spec.max_total_drop_pct + _EPS
+    if is_feeder:
+        return False
+    limit = drop_limit(new)
+    return limit <= drop_limit(spec) and old.voltage_drop_pct <= limit

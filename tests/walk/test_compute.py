@@ -231,3 +231,27 @@ def test_the_runs_an_edit_changed_are_found_among_those_it_wrote_as_by_a_look_at
         result._touched = touched
         found += len(among) > 1
     assert found > 5
+
+
+def test_recompute_after_load_changes_deep_in_the_synthetic_walk_is_exactly_a_full_compute():
+    from tests.support.synthetic_walk import synthetic_walk
+
+    job = synthetic_walk(1300, seed=11)
+    result = compute_job(job)
+    rng = random.Random(5)
+    branches = [r for r in job.runs if r.load is not None and not job.is_feeder(r)]
+    moved = 0   # runs picked for their drop whose drop up to the source moved
+    for _ in range(24):
+        r = rng.choice(branches)
+        r.load = Load(value=r.load.value * rng.choice([0.4, 2.5, 6.0]), unit=r.load.unit,
+                      pf=r.load.pf)
+        before = dict(result._specs)
+        result = recompute_run(job, result, r.id)
+        full = compute_job(job)
+        assert result.runs == full.runs
+        assert result._specs == full._specs
+        assert [str(p) for p in result.problems] == [str(p) for p in full.problems]
+        moved += sum(1 for k, s in result._specs.items()
+                     if k in before and before[k].upstream_drop_pct != s.upstream_drop_pct
+                     and result.runs[k].governed_by == "voltage drop" and result.runs[k].ok)
+    assert moved > 20
