@@ -527,8 +527,22 @@ class WalkState:
                 self.forget(r)
                 return
         is_feeder = self.walk.feeder.get(r.to) is r
+        from_transformer = _from_transformer(self, r)
+        if not (is_feeder or from_transformer or self.shared_ccc):
+            # a branch run on a panel or service: its own load, no feeder rule, no motors fed,
+            # no shared raceway (the rest of this method with all of those None)
+            try:
+                spec = _spec(self.job, r, upstream, circuit, False, None)
+                result = evaluate(spec)
+            except (LoadError, CircuitError, ValueError) as exc:
+                self.forget(r)
+                self.fail(r, str(exc))
+                return
+            res._specs[r.id] = spec
+            self.store(r, result, False, spec)
+            return
         feed = res._feeds.get(r.to) if is_feeder else None
-        rule = self.feeder_rule(r, is_feeder) if is_feeder or _from_transformer(self, r) else None
+        rule = self.feeder_rule(r, is_feeder) if is_feeder or from_transformer else None
         steps: tuple[DemandStep, ...] = ()
         if (feed is not None and feed.kinds and r.load is None
                 and self.walk.sources[r.to].kind != "transformer"):

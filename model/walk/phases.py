@@ -189,13 +189,14 @@ class _Spaces:
         within the spaces."""
         key = start * 4 + poles
         index = self._next.get(key, 0)
-        n, spaces = self.n, self.spaces
+        n, spaces, taken = self.n, self.spaces, self.taken
+        last = 2 * poles - 2   # the last pole's position past the first
         while True:
             p = 2 * (start + n * (index >> 1)) + 1 + (index & 1)
-            if spaces is not None and p + 2 * poles - 2 > spaces:
+            if spaces is not None and p + last > spaces:
                 self._next[key] = index
                 return None
-            if self._fits(p, poles):
+            if p not in taken and (poles == 1 or self._fits(p, poles)):
                 self._next[key] = index
                 return p
             index += 1
@@ -203,18 +204,22 @@ class _Spaces:
     def lowest_free(self, poles: int) -> int | None:
         """The lowest position with every pole free and within the spaces, on any line."""
         p = self._any.get(poles, 1)
-        spaces = self.spaces
+        spaces, taken = self.spaces, self.taken
+        last = 2 * poles - 2
         while True:
-            if spaces is not None and p + 2 * poles - 2 > spaces:
+            if spaces is not None and p + last > spaces:
                 self._any[poles] = p
                 return None
-            if self._fits(p, poles):
+            if p not in taken and (poles == 1 or self._fits(p, poles)):
                 self._any[poles] = p
                 return p
             p += 1
 
     def take(self, position: int, poles: int) -> None:
-        self.taken.update(range(position, position + 2 * poles, 2))
+        if poles == 1:
+            self.taken.add(position)
+        else:
+            self.taken.update(range(position, position + 2 * poles, 2))
 
 
 def _add(total: list[complex], cont: list[complex],
@@ -361,15 +366,18 @@ def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[comp
         if per_line is not None:
             # one pole: the least loaded line with a free position, the first of equals
             k = -1
+            at_k = None   # the free position on line k, looked up once
             for j in lines_of:
-                if (k < 0 or load[j] < load[k] - _EPS) and not (
-                        limited and first_free(j, 1) is None):
-                    k = j
+                if k < 0 or load[j] < load[k] - _EPS:
+                    at_j = first_free(j, 1) if limited else None
+                    if limited and at_j is None:
+                        continue
+                    k, at_k = j, at_j
             if k < 0:
                 problems.append((it.key, "position", _no_space(1, (0,), free.spaces)))
                 k, at = 0, ()
             else:
-                p = first_free(k, 1)
+                p = at_k if limited else first_free(k, 1)
                 free.taken.add(p)
                 at = (p,)
             load[k] += it.mags[0]

@@ -108,8 +108,8 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         cur = rule_for(eq, circuit.volts, circuit.phases).currents(amps, cont, spec.ocpd_a)
     design, ocpd = cur.design_a, cur.ocpd_a
     need = amps if cur.corrected_a is None else cur.corrected_a
-    notes: list[str] = list(circuit.notes) + list(cur.notes)
-    problems: list[str] = list(cur.problems)
+    notes: list[str] = [*circuit.notes, *cur.notes]
+    problems: list[str] = [*cur.problems]
 
     # --- columns, corrections, raceway, impedance ----------------------------------------------
     n_ccc = spec.ccc if spec.ccc is not None else current_carrying_conductors(circuit)

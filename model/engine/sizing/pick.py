@@ -55,7 +55,8 @@ def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
 
 def drop_limit(spec: RunSpec) -> float:
     """The largest drop a size may have to be picked [%]: the run's target and what the total
-    target leaves after the drop up to its source (rule 3), the smaller, with a tolerance."""
+    target leaves after the drop up to its source (rule 3), the smaller, with a tolerance (the
+    same expression as in ``pick_conductor``, written out there to spare a call per run)."""
     return min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct) + _EPS
 
 
@@ -80,7 +81,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
     mat = MAT[material]
     sizes = tab.sizes
     floor_i = floor_index(spec.min_size, sizes)
-    limit = drop_limit(spec)
+    limit = min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct) + _EPS
     # rules 1-4: the smallest size with ampacity, then protected by the device, then within
     # the drop limit and the floor
     min_amp_i = ocpd_i = pick_i = None
