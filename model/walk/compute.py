@@ -266,12 +266,15 @@ def _motors_fed(job: Job, result: JobResult, run: Run, is_feeder: bool) -> Motor
 def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder: bool,
           feed: Feed | None, rule: FeederRule | None = None,
           motors: MotorGroup | None = None, ccc: int | None = None) -> RunSpec:
-    d = job.defaults
-    pf = d.pf
+    # fields read from the models' __dict__: attribute access on a pydantic model passes its
+    # __getattr__ hook first, and this runs once per run of every computation
+    d = job.defaults.__dict__
+    rf = run.__dict__
+    pf = d["pf"]
     continuous_amps = None
-    load = run.load
+    load = rf["load"]
     equipment = None
-    continuous = bool(run.continuous)
+    continuous = bool(rf["continuous"])
     if load is not None and load.kind == "general":
         if load.pf is not None:
             pf = load.pf
@@ -289,9 +292,9 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         pf = min(1.0, max(0.05, feed.load.watts / feed.load.va))
     else:
         raise LoadError(f"the run has no load; give it in {or_words(LOAD_UNITS)}")
-    max_drop = run.max_drop_pct
+    max_drop = rf["max_drop_pct"]
     if max_drop is None:
-        max_drop = d.feeder_drop_pct if feeder else d.branch_drop_pct
+        max_drop = d["feeder_drop_pct"] if feeder else d["branch_drop_pct"]
     # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (the
     # larger part of this function's time): every field of RunSpec is set, in field order, those
     # not given here to RunSpec's defaults (egc, egc_material, egc_bare, stranded).
@@ -302,26 +305,26 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
     values["length_ft"] = run.length_ft
     values["continuous"] = continuous if continuous_amps is None else False
     values["continuous_amps"] = continuous_amps
-    values["distributed"] = run.distributed
-    values["material"] = run.material or d.material
-    values["insulation"] = run.insulation or d.insulation
-    values["terminal_temp"] = (run.terminal_temp if run.terminal_temp is not None
-                               else d.terminal_temp)
-    values["conductor_temp_c"] = (run.conductor_temp_c if run.conductor_temp_c is not None
-                                  else d.conductor_temp_c)
-    values["method"] = run.method or d.method
+    values["distributed"] = rf["distributed"]
+    values["material"] = rf["material"] or d["material"]
+    values["insulation"] = rf["insulation"] or d["insulation"]
+    values["terminal_temp"] = (rf["terminal_temp"] if rf["terminal_temp"] is not None
+                               else d["terminal_temp"])
+    values["conductor_temp_c"] = (rf["conductor_temp_c"] if rf["conductor_temp_c"] is not None
+                                  else d["conductor_temp_c"])
+    values["method"] = rf["method"] or d["method"]
     values["pf"] = pf
-    values["raceway"] = run.raceway or d.raceway
-    values["ambient_c"] = run.ambient_c if run.ambient_c is not None else d.ambient_c
-    values["sets"] = run.sets
-    values["size"] = run.size
-    values["ocpd_a"] = run.ocpd_a
+    values["raceway"] = rf["raceway"] or d["raceway"]
+    values["ambient_c"] = rf["ambient_c"] if rf["ambient_c"] is not None else d["ambient_c"]
+    values["sets"] = rf["sets"]
+    values["size"] = rf["size"]
+    values["ocpd_a"] = rf["ocpd_a"]
     values["max_drop_pct"] = max_drop
     values["upstream_drop_pct"] = upstream_drop_pct
-    values["max_total_drop_pct"] = d.total_drop_pct
-    values["min_size"] = d.min_size
+    values["max_total_drop_pct"] = d["total_drop_pct"]
+    values["min_size"] = d["min_size"]
     values["equipment"] = equipment
-    values["starting_drop_pct"] = d.starting_drop_pct
+    values["starting_drop_pct"] = d["starting_drop_pct"]
     if continuous_amps is not None and circuit.neutral and feed.frame == "lines":
         values["neutral_amps"] = abs(sum(feed.total))   # NEC 220.61: the maximum unbalance
     if rule is not None:
