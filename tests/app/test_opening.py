@@ -3,6 +3,8 @@ the walk, and the sized rows take their place, those on screen first."""
 
 from __future__ import annotations
 
+import gc
+
 from gaugewalk.tui.app.app import WalkApp
 from gaugewalk.tui.app.screens.card import RunCard
 from gaugewalk.tui.app.screens.walk import WalkScreen
@@ -70,3 +72,28 @@ async def test_the_supply_tree_is_made_the_first_time_it_is_shown(tmp_path):
         await pilot.press("1")
         await pilot.press("2")
         assert len(app.screen.query("#tree")) == 1
+
+
+async def test_the_collector_is_held_off_while_the_walk_opens_and_given_back(tmp_path,
+                                                                          monkeypatch):
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(12), encoding="utf-8")
+    assert gc.isenabled()
+    held = []
+    monkeypatch.setattr(WalkApp, "_show", lambda self, session: held.append(gc.isenabled()))
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        assert held == [False] and not gc.isenabled()   # read and sized with it off
+    assert gc.isenabled()   # the app ended: given back all the same
+    monkeypatch.undo()
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        assert app.screen.attached and gc.isenabled()
+    bad = tmp_path / "bad.toml"
+    bad.write_text("not = [toml", encoding="utf-8")
+    app = new_app(bad, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(app, pilot)
+        assert app.return_code == 2 and gc.isenabled()

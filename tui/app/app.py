@@ -6,6 +6,7 @@ The app object holds the open walk (a ``WalkSession``); the walk screen shows it
 
 from __future__ import annotations
 
+import gc
 import os
 import threading
 from pathlib import Path
@@ -55,6 +56,7 @@ class WalkApp(App[int]):
         self.recent = RecentWalks.load(config_dir)
         self.session: WalkSession | None = None
         self.exit_message: str | None = None
+        self._collector_held: bool | None = None   # see _hold_collector
         self.theme = "textual-light" if light_terminal() else "textual-dark"
 
     async def on_event(self, event: events.Event) -> None:
@@ -94,6 +96,7 @@ class WalkApp(App[int]):
             return
         self.title = p.name
         self.sub_title = "opening…"
+        self._hold_collector()
         from gaugewalk.tui.app.screens.walk import WalkScreen
         from gaugewalk.tui.app.sheet.rawrows import raw_rows
 
@@ -234,6 +237,7 @@ class WalkApp(App[int]):
             look()
 
     def on_unmount(self) -> None:
+        self._release_collector()
         if self.session is not None:
             left = self.session.release_lock()
             if left and not self.exit_message:  # said on stderr after the app has gone
@@ -258,9 +262,28 @@ class WalkApp(App[int]):
         if not self.recent.caution_seen:
             self.push_screen(AboutScreen(first_start=True))
             self.recent.mark_caution_seen()
+        self._release_collector()
+
+    def _hold_collector(self) -> None:
+        """Hold the cyclic garbage collector off while a walk opens (its screen built, the model
+        imported, the walk read, checked and sized) until it is attached (``_show``) or the app
+        fails or ends: what is built then lives while the walk is open, and the collector's
+        passes over it while it was built freed next to nothing (about 25 ms of the ~140 ms
+        from the first paint to the sized rows on the 384-run sample walk, 40 ms at 5,000
+        runs). Nothing of gaugewalk's waits on a collection (no ``__del__``)."""
+        if self._collector_held is None:
+            self._collector_held = gc.isenabled()
+            gc.disable()
+
+    def _release_collector(self) -> None:
+        """The collector as it was before ``_hold_collector``."""
+        if self._collector_held:
+            gc.enable()
+        self._collector_held = None
 
     def fail_exit(self, text: str) -> None:
         """Leave with status 2; ``open_app`` prints ``text`` as one line on stderr."""
+        self._release_collector()
         self.exit_message = "gaugewalk: " + shown(" ".join(text.split()))
         self.exit(2, return_code=2)
 
