@@ -4,6 +4,8 @@ the walk, and the sized rows take their place, those on screen first."""
 from __future__ import annotations
 
 import gc
+import subprocess
+import sys
 
 from gaugewalk.tui.app.app import WalkApp
 from gaugewalk.tui.app.screens.card import RunCard
@@ -97,3 +99,17 @@ async def test_the_collector_is_held_off_while_the_walk_opens_and_given_back(tmp
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(app, pilot)
         assert app.return_code == 2 and gc.isenabled()
+
+
+def test_what_the_first_paint_imports_holds_no_model_and_no_command_line():
+    # the walk screen with the runs as written: the model (pydantic) loads behind that paint
+    code = ("import sys, gaugewalk.tui.app.app, gaugewalk.tui.app.screens.walk, "
+            "gaugewalk.tui.app.sheet.rawrows; print(' '.join(sorted(sys.modules)))")
+    loaded = set(subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                                check=True).stdout.split())
+    assert "gaugewalk.tui.app.screens.walk" in loaded
+    assert {m for m in loaded if m.split(".")[0] in {"pydantic", "pydantic_core", "argparse"}
+            or m.startswith(("gaugewalk.model.session", "gaugewalk.model.walk.job",
+                             "gaugewalk.model.engine.sizing", "gaugewalk.tui.cli",
+                             "gaugewalk.tui.app.widgets.views", "gaugewalk.tui.app.sheet.rows"))
+            } == set()

@@ -12,7 +12,6 @@ from textual.widgets import Static
 
 from gaugewalk.tui.app.keys import bindings_for, guide_rows
 from gaugewalk.tui.app.plain import escape
-from gaugewalk.tui.cli.main import CAUTION
 
 ABOUT_TEXT = (
     "gaugewalk records a site walk of electrical runs and gives back, for each run, the conductor "
@@ -55,6 +54,9 @@ class AboutScreen(ModalScreen[None]):
         self.first_start = first_start
 
     def compose(self) -> ComposeResult:
+        # the command line's module (argparse) loads when the caution is shown, not at the start
+        from gaugewalk.tui.cli.main import CAUTION
+
         head = "Welcome to gaugewalk" if self.first_start else "About gaugewalk"
         with Vertical(id="about-box", classes="info-box"):
             yield Static(f"[b]{head}[/b]", id="about-head")
