@@ -120,3 +120,33 @@ def test_longest_accepted_input_still_parses():
 )
 def test_lengths_show_in_feet_to_a_tenth(feet, shown):
     assert format_length_ft(feet) == shown
+
+
+def _outcome(text: str, shift: int = 0):
+    try:
+        return parse_length(text)
+    except LengthError as exc:
+        # a refusal of the whole total is placed at 0 however the text starts
+        return (exc.position - shift if exc.position else 0, exc.reason)
+
+
+_WHOLE = st.from_regex(r"[0-9]{1,14}", fullmatch=True)
+_TERM = st.one_of(_WHOLE, st.builds(lambda a, b: f"{a}*{b}", _WHOLE, _WHOLE))
+_PLAIN = st.one_of(
+    st.lists(_TERM, min_size=1, max_size=6).map("+".join),  # zeros and long numbers among them
+    st.text(alphabet="0123456789+*", min_size=1, max_size=40),
+)
+
+
+@given(_PLAIN)
+def test_plain_sums_read_alike_by_the_short_path_and_the_parser(text):
+    # A leading space keeps the text off the short path for whole feet (``85+12+2*6``), so the
+    # tokenizer and parser read it: the value, or the refusal and its place, must be the same.
+    assert _outcome(text) == _outcome(" " + text, shift=1)
+
+
+@given(st.lists(st.tuples(st.integers(1, 99), st.integers(1, 99_999)), min_size=1, max_size=10))
+def test_counted_whole_feet_add_up_exactly(terms):
+    # worked by hand in integers: every product and sum is below 2**53, so the float is exact
+    text = "+".join(f"{count}*{feet}" for count, feet in terms)
+    assert parse_length(text) == sum(count * feet for count, feet in terms)
