@@ -53,6 +53,7 @@ async def test_the_walk_keys_wait_until_the_walk_is_open(tmp_path, monkeypatch):
         assert isinstance(screen, WalkScreen) and not screen.attached and len(held) == 1
         assert screen.query_one(RunSheet).rows[0].cells[-1] == SIZING
         await pilot.press("n")   # a new run: not yet
+        await pilot.click(RunSheet, offset=(3, 0), times=2)   # nor a run double-clicked
         assert app.screen is screen
         monkeypatch.undo()
         app._show(held[0])

@@ -73,7 +73,7 @@ class WalkScreen(Screen):
                 yield SheetHeading(sheet, id="sheet-heading")
                 yield sheet
                 yield Static("", id="detail")
-            # the other views are made when first shown (``_view_widget``)
+            # the other views are made when first shown (``action_show_view``)
         yield KeyFooter()
 
     def on_mount(self) -> None:
@@ -283,7 +283,8 @@ class WalkScreen(Screen):
 
     @on(RunSheet.Chosen)
     def _chosen(self, event: RunSheet.Chosen) -> None:
-        self.open_card(event.key)
+        if self._session is not None:   # a double click on the runs as written waits too
+            self.open_card(event.key)
 
     # ----- views ------------------------------------------------------------------------
     async def action_show_view(self, view: str) -> None:
