@@ -81,7 +81,7 @@ async def test_the_collector_is_held_off_while_the_walk_opens_and_given_back(tmp
                                                                           monkeypatch):
     path = tmp_path / "walk.toml"
     path.write_text(synthetic_walk_text(12), encoding="utf-8")
-    assert gc.isenabled()
+    assert gc.isenabled() and gc.get_freeze_count() == 0
     held = []
     monkeypatch.setattr(WalkApp, "_show", lambda self, session: held.append(gc.isenabled()))
     app = new_app(path, tmp_path / "cfg")
@@ -93,7 +93,9 @@ async def test_the_collector_is_held_off_while_the_walk_opens_and_given_back(tmp
     app = new_app(path, tmp_path / "cfg")
     async with app.run_test(size=(80, 24)) as pilot:
         await opened(app, pilot)
-        assert app.screen.attached and gc.isenabled()
+        # on again, with what the opening built left out of its passes
+        assert app.screen.attached and gc.isenabled() and gc.get_freeze_count() > 0
+    assert gc.get_freeze_count() == 0   # given back when the app ends
     bad = tmp_path / "bad.toml"
     bad.write_text("not = [toml", encoding="utf-8")
     app = new_app(bad, tmp_path / "cfg")
