@@ -100,11 +100,15 @@ def _kill(pid: int) -> None:
         pass
 
 
+RUNNING = (0).to_bytes(8, "little")
+"""What a save child writes to its pipe before its first save (versions reported are 2 and up)."""
+
+
 class SaveKillTrials:
     """A child saves versions k+1, k+2, ... of the walk in a loop and writes each finished k to a
-    pipe; it is killed after a random delay. After the kill, with d the last version reported:
-    the file is version d or d+1 and parses to that Job; the backup is version d-1 or d (d when
-    the file is d+1) and parses."""
+    pipe; it is killed after a random delay counted from its first turn (a marker it writes
+    first). After the kill, with d the last version reported: the file is version d or d+1 and
+    parses to that Job; the backup is version d-1 or d (d when the file is d+1) and parses."""
 
     def __init__(self, folder: Path, versions: list[Job]) -> None:
         self.folder = Path(folder)
@@ -118,6 +122,7 @@ class SaveKillTrials:
 
     def _child(self, start: int, fd: int) -> None:
         try:
+            os.write(fd, RUNNING)  # the parent's random delay starts once the child runs
             k = start
             while True:
                 k += 1
@@ -161,12 +166,15 @@ class SaveKillTrials:
                 os.close(r)
                 self._child(start, w)
             os.close(w)
+            # on a busy machine a forked child may wait tens of milliseconds for its first turn;
+            # timed from the fork, the kills would then mostly land before any save began
+            data = os.read(r, len(RUNNING))
             delay = rng.uniform(0.0, max_delay_s)
             report.delays_s.append(delay)
             time.sleep(delay)
             _kill(pid)
             os.waitpid(pid, 0)
-            data = b""
+            data = data[len(RUNNING):]
             while chunk := os.read(r, 4096):
                 data += chunk
             os.close(r)
