@@ -579,6 +579,9 @@ class WalkState:
         res._specs[r.id] = spec
         if is_feeder:
             info = self.feeder_info(r, spec, feed, rule, beside, motors, limit)
+            if r.load is not None and feed is not None and rule is None:
+                info = replace(info, basis=info.basis + _served_beyond_stated(
+                    self, r, result.design_amps, feed))
             res.feeders[r.id] = replace(info, demand=steps) if steps else info
         self.store(r, result, is_feeder, spec)
 
@@ -709,3 +712,21 @@ def _compute_job(job: Job) -> JobResult:
     result._shape = walk.shape()
     result._walk = walk
     return result
+
+
+def _served_beyond_stated(state: WalkState, r: Run, design_a: float, feed: Feed) -> str:
+    """A feeder given its own load is sized for it, as the person asked (a demand load worked
+    out by hand, NEC 220 Parts III-IV, is the usual reason). Where the loads recorded on the
+    source it feeds need more on their heaviest line (NEC 215.2(A)(1), with the job's demand
+    setting), its basis says so and states the assumption, so a stale figure cannot pass unseen;
+    "" where they need no more."""
+    served = feed
+    if feed.kinds and state.walk.sources[r.to].kind != "transformer":
+        served, _ = apply_demand(feed)
+    k, need, _, _ = served.heaviest()
+    if need <= design_a + 0.05:
+        return ""
+    line = f"line {LINE_NAMES[k]}" if served.frame == "lines" else "the primary winding"
+    return (f" ({design_a:.1f} A design), taken as a demand load worked out for {r.to}: the "
+            f"loads recorded there need {need:.1f} A on {line} (NEC 215.2(A)(1)); remove the "
+            "feeder's load to size it from them")

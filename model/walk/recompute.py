@@ -2,8 +2,8 @@
 
 The run itself; its source placed and summed again (``gaugewalk.model.walk.feeder_loads``: a
 change of load or of place can move the other runs the tool places), and every source above it
-while what its feeder carries changes, up to a feeder that gives its own load; those feeders
-sized again, top-down (an edit of the feeder into a transformer, which sets the rules of
+while what its feeder carries changes, up to a feeder that gives its own load (evaluated again,
+for its check against what its source carries, and not climbed past); those feeders sized again, top-down (an edit of the feeder into a transformer, which sets the rules of
 everything on its secondary, computes the whole walk); then below every source whose bus drop changed, only the runs whose size
 could change (with problems, pushed over the total target, or upsized for drop where the limit
 on their drop loosened or is no longer met); the rest have their total drop shifted. A walk with shared raceways is computed whole. The result equals ``compute_job`` of the edited walk (tests compare
@@ -66,9 +66,11 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
     touched.update(r.id for r in walk.children[sid])
     while changed:
         f = walk.feeder.get(sid)
-        if f is None or f.load is not None or f.from_ not in result.lines:
+        if f is None or f.from_ not in result.lines:
             break
         chain.append(f)
+        if f.load is not None:
+            break  # sized for its own load: evaluated again only to weigh it against its source's
         sid = f.from_
         changed = state.sum_source(sid)
         touched.update(r.id for r in walk.children[sid])

@@ -11,7 +11,7 @@ from gaugewalk.model.engine.sizing import evaluate
 from gaugewalk.model.walk.compute import compute_job, run_spec_for
 from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Load, Source
 from gaugewalk.model.walk.recompute import recompute_run
-from tests.support.walks import make_run
+from tests.support.walks import make_job, make_run, run_table, source_table
 
 SQRT3 = math.sqrt(3.0)
 # NEC 2023 Ch. 9 Table 8, uncoated stranded copper, DC resistance at 75 C [ohm/kft] (from memory)
@@ -255,3 +255,26 @@ def test_recompute_after_load_changes_deep_in_the_synthetic_walk_is_exactly_a_fu
                      if k in before and before[k].upstream_drop_pct != s.upstream_drop_pct
                      and result.runs[k].governed_by == "voltage drop" and result.runs[k].ok)
     assert moved > 20
+
+
+def test_a_feeder_given_its_own_load_says_what_its_panel_needs_beyond_it_also_after_an_edit():
+    # three 16 A 120 V loads on a 120/240 V panel: two share a line, 32 A there (hand sum,
+    # NEC 215.2(A)(1), noncontinuous); the feeder was given 20 A
+    system = "120/240V 1ph 3w"
+    job = make_job("Stated feeder", sources=[source_table("SVC", "service", system),
+                                             source_table("LP1", "panel", system)],
+                   runs=[run_table("F1", "SVC", "LP1", "40", load=(20, "A")),
+                         *(run_table(f"R{i}", "LP1", f"Load {i}", "30", load=(16, "A"),
+                                     connection="LN") for i in (1, 2, 3))])
+    result = compute_job(job)
+    basis = result.feeders["F1"].basis
+    assert basis.startswith("its own load (20.0 A design)"), basis
+    assert "need 32.0 A on line " in basis and "NEC 215.2(A)(1)" in basis
+    # the feeder is still sized for the load it was given, as asked
+    assert result.runs["F1"].design_amps == pytest.approx(20.0)
+    # a branch edited smaller: the feeder is weighed again, incrementally as in full
+    job.run("R3").load = Load(value=2, unit="A")
+    result = recompute_run(job, result, "R3")
+    full = compute_job(job)
+    _same(result, full)
+    assert result.feeders["F1"].basis == full.feeders["F1"].basis == "its own load"
