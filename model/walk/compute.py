@@ -101,6 +101,8 @@ class FeederInfo:
     beside: RunResult | None = None
     max_ocpd_a: float | None = None   # NEC 430.62(A) for a feeder supplying motors
     demand: tuple[DemandStep, ...] = ()   # demand factors taken (Defaults.demand)
+    served_a: float | None = None  # [A] design current the loads below need, where a stated
+    # feeder load is smaller (NEC 215.2(A)(1)); ``basis`` says so in words
 
 
 @dataclass
@@ -580,8 +582,9 @@ class WalkState:
         if is_feeder:
             info = self.feeder_info(r, spec, feed, rule, beside, motors, limit)
             if r.load is not None and feed is not None and rule is None:
-                info = replace(info, basis=info.basis + _served_beyond_stated(
-                    self, r, result.design_amps, feed))
+                need, words = _served_beyond_stated(self, r, result.design_amps, feed)
+                if need is not None:
+                    info = replace(info, basis=info.basis + words, served_a=need)
             res.feeders[r.id] = replace(info, demand=steps) if steps else info
         self.store(r, result, is_feeder, spec)
 
@@ -714,19 +717,20 @@ def _compute_job(job: Job) -> JobResult:
     return result
 
 
-def _served_beyond_stated(state: WalkState, r: Run, design_a: float, feed: Feed) -> str:
+def _served_beyond_stated(state: WalkState, r: Run, design_a: float,
+                          feed: Feed) -> tuple[float | None, str]:
     """A feeder given its own load is sized for it, as the person asked (a demand load worked
     out by hand, NEC 220 Parts III-IV, is the usual reason). Where the loads recorded on the
     source it feeds need more on their heaviest line (NEC 215.2(A)(1), with the job's demand
-    setting), its basis says so and states the assumption, so a stale figure cannot pass unseen;
-    "" where they need no more."""
+    setting), its basis says so and states the assumption, so a stale figure cannot pass unseen:
+    (that design current [A], the words); (None, "") where they need no more."""
     served = feed
     if feed.kinds and state.walk.sources[r.to].kind != "transformer":
         served, _ = apply_demand(feed)
     k, need, _, _ = served.heaviest()
     if need <= design_a + 0.05:
-        return ""
+        return None, ""
     line = f"line {LINE_NAMES[k]}" if served.frame == "lines" else "the primary winding"
-    return (f" ({design_a:.1f} A design), taken as a demand load worked out for {r.to}: the "
+    return need, (f" ({design_a:.1f} A design), taken as a demand load worked out for {r.to}: the "
             f"loads recorded there need {need:.1f} A on {line} (NEC 215.2(A)(1)); remove the "
             "feeder's load to size it from them")

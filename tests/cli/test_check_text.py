@@ -40,3 +40,17 @@ def test_the_check_table_keeps_its_columns_in_line_for_long_ids_and_counts_in_wo
     assert head.index("from") == row.index("SVC-MAIN-NORTH")
     assert head.index("to") == row.index("Counter")
     assert head.index("status") == row.index("ok")
+
+
+def test_check_says_which_feeders_keep_a_stated_load_below_what_their_panel_needs(capsys):
+    from pathlib import Path
+
+    farm = Path(__file__).resolve().parents[2] / "sample_walks" / "farm_workshop.toml"
+    # the invented sample gives F-SHOP a 120 A demand load; the loads recorded on SHOP need
+    # more on line A at connected load (NEC 215.2(A)(1)): stated, never counted as a problem
+    assert main(["check", str(farm)]) == 1  # SVC-YARD over its drop target, as the sample says
+    out = capsys.readouterr().out
+    assert "1 feeder(s) sized for a stated load below what their panel's loads need:" in out
+    line = next(t for t in out.splitlines() if t.startswith("  run F-SHOP: "))
+    assert "its own load (120.0 A design)" in line and "(NEC 215.2(A)(1))" in line
+    assert "1 problem(s):" in out  # still only SVC-YARD

@@ -155,6 +155,12 @@ def _table(path: str, job: Job, result: JobResult) -> str:
         lines += [f"  {p.brief()}" for p in result.problems]
     else:
         lines.append("Every run is within its ampacity and drop targets.")
+    stated = [(rid, f) for rid, f in result.feeders.items() if f.served_a is not None]
+    if stated:  # an assumption stated, not a problem: the person gave the feeder its load
+        lines.append("")
+        lines.append(f"{len(stated)} feeder(s) sized for a stated load below what their "
+                     "panel's loads need:")
+        lines += [f"  run {shown(rid)}: {shown(f.basis)}" for rid, f in stated]
     warnings = implausible(job)
     if warnings:  # said, never counted against the walk (the exit status)
         lines.append("")
