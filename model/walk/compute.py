@@ -33,11 +33,11 @@ once every run is sized (``gaugewalk.model.walk.raceways``).
 
 from __future__ import annotations
 
-import gc
 import math
 from dataclasses import MISSING, dataclass, field, fields, replace
 
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
+from gaugewalk.model.engine.collector import collector_held
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fields
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate
@@ -549,9 +549,8 @@ class WalkState:
         feed = res._feeds.get(r.to) if is_feeder else None
         rule = self.feeder_rule(r, is_feeder) if is_feeder or from_transformer else None
         steps: tuple[DemandStep, ...] = ()
-        if (feed is not None and feed.kinds and r.load is None
-                and self.walk.sources[r.to].kind != "transformer"):
-            feed, steps = apply_demand(feed)   # Defaults.demand: NEC 220.44, 220.60
+        if feed is not None and r.load is None:
+            feed, steps = self.with_demand(r, feed)
         motors = _motors_fed(self.job, res, r, is_feeder)
         ccc = ccc_for_run(r, self.shared_ccc) if self.shared_ccc else None
         try:
@@ -587,6 +586,13 @@ class WalkState:
                     info = replace(info, basis=info.basis + words, served_a=need)
             res.feeders[r.id] = replace(info, demand=steps) if steps else info
         self.store(r, result, is_feeder, spec)
+
+    def with_demand(self, r: Run, feed: Feed) -> tuple[Feed, tuple[DemandStep, ...]]:
+        """What feeder ``r`` carries with the job's demand factors taken (``Defaults.demand``:
+        NEC 220.44, 220.60), and the steps; a transformer's primary takes none."""
+        if feed.kinds and self.walk.sources[r.to].kind != "transformer":
+            return apply_demand(feed)
+        return feed, ()
 
     def feeder_info(self, r: Run, spec: RunSpec, feed: Feed | None, rule: FeederRule | None,
                     beside: RunResult | None, motors: MotorGroup | None = None,
@@ -687,15 +693,8 @@ def _from_transformer(state: WalkState, r: Run) -> bool:
 
 def compute_job(job: Job) -> JobResult:
     """Size every run of the walk and carry the drop down every chain."""
-    # Thousands of new results and no reference cycles among them: the cyclic collector's passes
-    # over the growing heap only cost time (a quarter of it at 50,000 runs), so they wait.
-    collecting = gc.isenabled()
-    gc.disable()
-    try:
+    with collector_held():  # thousands of new results, no reference cycles among them
         return _compute_job(job)
-    finally:
-        if collecting:
-            gc.enable()
 
 
 def _compute_job(job: Job) -> JobResult:
@@ -724,9 +723,7 @@ def _served_beyond_stated(state: WalkState, r: Run, design_a: float,
     source it feeds need more on their heaviest line (NEC 215.2(A)(1), with the job's demand
     setting), its basis says so and states the assumption, so a stale figure cannot pass unseen:
     (that design current [A], the words); (None, "") where they need no more."""
-    served = feed
-    if feed.kinds and state.walk.sources[r.to].kind != "transformer":
-        served, _ = apply_demand(feed)
+    served, _ = state.with_demand(r, feed)
     k, need, _, _ = served.heaviest()
     if need <= design_a + 0.05:
         return None, ""

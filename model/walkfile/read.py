@@ -43,13 +43,13 @@ File layout (schema 1)::
 
 from __future__ import annotations
 
-import gc
 import os
 import re
 from pathlib import Path
 
 from pydantic import BaseModel, ValidationError
 
+from gaugewalk.model.engine.collector import collector_held
 from gaugewalk.model.walk.checks import check_references
 from gaugewalk.model.walk.job import (
     SCHEMA_VERSION,
@@ -101,15 +101,8 @@ def check_walk_text(text: str, path: str | os.PathLike = "walk.toml"
     """Read and check a walk's text; return the Job (None when it cannot be built) and every
     problem found. Tables that fail on their own are left out of the cross-checks so one mistake
     is reported once."""
-    # Tens of thousands of new tables and models and no reference cycles among them: the cyclic
-    # collector's passes only cost time (a quarter of it at 50,000 runs), so they wait.
-    collecting = gc.isenabled()
-    gc.disable()
-    try:
+    with collector_held():  # tens of thousands of new tables and models, no cycles among them
         return _check_walk_text(text, path)
-    finally:
-        if collecting:
-            gc.enable()
 
 
 BOM = "\ufeff"

@@ -104,14 +104,10 @@ def _import_quietly(name: str):
     import built out of the collector's passes (``gc.freeze``) until ``main`` ends: the classes,
     pydantic schemas and tables a command imports live as long as it runs, and passes over them
     while they were built cost time and freed next to nothing."""
-    collecting = gc.isenabled()
-    gc.disable()
-    try:
+    from gaugewalk.model.engine.collector import collector_held
+
+    with collector_held(freeze=True):
         return importlib.import_module(name)
-    finally:
-        gc.freeze()
-        if collecting:
-            gc.enable()
 
 
 def main(argv: list[str] | None = None) -> int:
