@@ -15,6 +15,7 @@ from gaugewalk.model.walk.checks import connection_of
 from gaugewalk.model.walk.compute import JobResult
 from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.job import Job, Run, shared_ids
+from gaugewalk.model.walk.plausible import implausible, stated_loads
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
 from gaugewalk.model.walk.vocabulary import DEMANDS
@@ -71,6 +72,12 @@ class ReportRun:
                 self.total_drop_pct, self.governed_by)
 
 
+NOTES_HEADING = "Warnings and stated assumptions"
+"""The section after the runs table: what is said about the walk without counting as a problem."""
+RUN_WARNINGS_HEADING = "Values to check"
+STATED_LOADS_HEADING = "Feeders sized for a stated load below what their panel's loads need"
+
+
 @dataclass(frozen=True)
 class Report:
     title: str
@@ -94,6 +101,8 @@ class Report:
     sources_table: tuple[tuple[str, ...], tuple[tuple[str, ...], ...]] = ((), ())
     schedules: tuple[ReportSchedule, ...] = ()
     drop_basis: str = ""
+    run_warnings: tuple[str, ...] = ()   # values to check (``plausible.implausible``), said only
+    stated_loads: tuple[str, ...] = ()   # feeders kept at a stated load below their panel's need
 
 
 @dataclass(frozen=True)
@@ -288,6 +297,9 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         sources_table=sources_table_of(job, job_result) if job_result is not None else ((), ()),
         schedules=schedules_of(job, job_result) if job_result is not None else (),
         drop_basis=drop_basis(job),
+        run_warnings=tuple(p.brief() for p in implausible(job)),
+        stated_loads=tuple(f"run {rid}: {basis}" for rid, basis in
+                           (stated_loads(job_result) if job_result is not None else ())),
     )
 
 

@@ -6,14 +6,25 @@ never refused.
   is more likely a slip of the keyboard (``9999999``, a metre length typed as feet) than a
   route; a longer site feeder is real, and the walk can raise the setting.
 
-Public API: ``long_length(feet, defaults) -> str | None`` (the warning for one length) and
-``implausible(job) -> list[Problem]`` (every warning of a walk, about its runs).
+- A feeder given its own load (a demand load worked out elsewhere) keeps it, even where the
+  loads recorded on its panel need more (NEC 215.2(A)(1)): the walker stated it, so it is said
+  as an assumption to check, not counted as a problem.
+
+Public API: ``long_length(feet, defaults) -> str | None`` (the warning for one length),
+``implausible(job) -> list[Problem]`` (every warning of a walk, about its runs) and
+``stated_loads(result) -> list[tuple[str, str]]`` (the feeders kept at a stated load below what
+their panel's loads need: run id and the basis that says so).
 """
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from gaugewalk.model.walk.job import Defaults, Job
 from gaugewalk.model.walk.problems import Problem
+
+if TYPE_CHECKING:
+    from gaugewalk.model.walk.compute import JobResult
 
 
 def long_length(feet: float, defaults: Defaults) -> str | None:
@@ -33,3 +44,9 @@ def implausible(job: Job, file: str = "") -> list[Problem]:
         if said is not None:
             out.append(Problem(file, None, "run", run.id, "length", said))
     return out
+
+
+def stated_loads(result: JobResult) -> list[tuple[str, str]]:
+    """Feeders sized for the load the walk gives them where the loads recorded on their panel
+    need more (NEC 215.2(A)(1)), as (run id, the basis in words), in the order computed."""
+    return [(rid, f.basis) for rid, f in result.feeders.items() if f.served_a is not None]

@@ -54,3 +54,21 @@ def test_check_says_which_feeders_keep_a_stated_load_below_what_their_panel_need
     line = next(t for t in out.splitlines() if t.startswith("  run F-SHOP: "))
     assert "its own load (120.0 A design)" in line and "(NEC 215.2(A)(1))" in line
     assert "1 problem(s):" in out  # still only SVC-YARD
+
+
+def test_the_app_says_under_the_sheet_when_a_feeder_keeps_a_stated_load(tmp_path):
+    import shutil
+    from pathlib import Path
+
+    from gaugewalk.model.session.session import WalkSession
+    from gaugewalk.tui.app.sheet.rows import detail_lines
+
+    farm = Path(__file__).resolve().parents[2] / "sample_walks" / "farm_workshop.toml"
+    walk = tmp_path / "farm.toml"
+    shutil.copy(farm, walk)
+    session = WalkSession.open(walk)
+    said = detail_lines(session, session.job.run("F-SHOP")).splitlines()[2]
+    # the same figures as `check` gives: 120 A stated, 200.1 A needed on line A
+    assert said == ("ⓘ sized for its stated 120.0 A; the loads on SHOP need 200.1 A "
+                    "(NEC 215.2(A)(1))")
+    assert len(detail_lines(session, session.job.run("SVC-PUMP")).splitlines()) == 2

@@ -332,3 +332,34 @@ def test_the_report_names_each_demand_factor_under_the_panel_its_feeder_feeds(tm
     # NEC 2023 Table 220.44: 43.2 kVA -> 10 + 0.5 x 33.2 = 26.6 kVA
     assert ("- feeder F1: NEC 220.44 (Table 220.44): receptacle loads 43.2 kVA, the first 10 kVA "
             "at 100 % and the remaining 33.2 kVA at 50 %: 26.6 kVA counted") in md
+
+
+def test_the_report_lists_stated_feeder_loads_and_values_to_check(tmp_path):
+    farm = Path(__file__).resolve().parents[2] / "sample_walks" / "farm_workshop.toml"
+    walk = tmp_path / "farm.toml"
+    # the invented sample, with one run's length slipped to 9,999 ft (over the 3,000 ft a
+    # building's run usually is: a warning, never a problem)
+    text = farm.read_text(encoding="utf-8")
+    assert 'length = "290+25"' in text
+    walk.write_text(text.replace('length = "290+25"', 'length = "9999"', 1), encoding="utf-8")
+    for name in ("r.html", "r.md"):
+        assert gaugewalk(cmd_report, [str(walk), "-o", str(tmp_path / name)]) == 0
+    md = (tmp_path / "r.md").read_text(encoding="utf-8")
+    assert "## Warnings and stated assumptions" in md
+    # F-SHOP is given 120 A as a demand load; the loads recorded on SHOP need more on line A
+    # at connected load (NEC 215.2(A)(1)): said in the report as `check` says it
+    stated = md.split("### Feeders sized for a stated load below what their panel's loads "
+                      "need", 1)[1]
+    assert stated.lstrip().startswith("- run F-SHOP: its own load (120.0 A design)")
+    assert "9,999 ft is longer than a run in a building usually is" in md.split(
+        "### Values to check", 1)[1]
+    parsed = _Page()
+    parsed.feed((tmp_path / "r.html").read_text(encoding="utf-8"))
+    text_of_page = "".join(parsed.text)
+    assert "Warnings and stated assumptions" in text_of_page
+    assert "run F-SHOP: its own load (120.0 A design)" in text_of_page
+
+
+def test_a_walk_with_nothing_to_say_has_no_warnings_section(page):
+    html, _ = page
+    assert "Warnings and stated assumptions" not in html

@@ -16,7 +16,7 @@ from gaugewalk.model.walk.compute import JobResult, compute_job
 from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walk.plain_text import shown
-from gaugewalk.model.walk.plausible import implausible
+from gaugewalk.model.walk.plausible import implausible, stated_loads
 from gaugewalk.model.walkfile.read import WalkFileError, check_walk_text, read_walk_text
 from gaugewalk.tui.cli.common import EXIT_INVALID, EXIT_LIMITS, EXIT_OK, print_problems
 from gaugewalk.tui.cli.main import CAUTION
@@ -155,12 +155,12 @@ def _table(path: str, job: Job, result: JobResult) -> str:
         lines += [f"  {p.brief()}" for p in result.problems]
     else:
         lines.append("Every run is within its ampacity and drop targets.")
-    stated = [(rid, f) for rid, f in result.feeders.items() if f.served_a is not None]
+    stated = stated_loads(result)
     if stated:  # an assumption stated, not a problem: the person gave the feeder its load
         lines.append("")
         lines.append(f"{len(stated)} feeder(s) sized for a stated load below what their "
                      "panel's loads need:")
-        lines += [f"  run {shown(rid)}: {shown(f.basis)}" for rid, f in stated]
+        lines += [f"  run {shown(rid)}: {shown(basis)}" for rid, basis in stated]
     warnings = implausible(job)
     if warnings:  # said, never counted against the walk (the exit status)
         lines.append("")

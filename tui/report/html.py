@@ -8,7 +8,14 @@ from __future__ import annotations
 import html
 from collections.abc import Set as AbstractSet
 
-from gaugewalk.model.report.content import RUN_COLUMNS, SHARED_COLUMNS, Report
+from gaugewalk.model.report.content import (
+    NOTES_HEADING,
+    RUN_COLUMNS,
+    RUN_WARNINGS_HEADING,
+    SHARED_COLUMNS,
+    STATED_LOADS_HEADING,
+    Report,
+)
 from gaugewalk.model.walk.plain_text import shown
 from gaugewalk.tui.report.oneline_svg import one_line_svg
 
@@ -145,6 +152,13 @@ def render_html(report: Report) -> str:
            if r.problems}
     out.append(_table(RUN_COLUMNS, [r.cells() for r in report.runs],
                       problem_rows=problem_rows, label="Runs", why=why))
+    if report.run_warnings or report.stated_loads:
+        out.append(f"<h2>{escape(NOTES_HEADING)}</h2>")
+        for heading, items in ((RUN_WARNINGS_HEADING, report.run_warnings),
+                               (STATED_LOADS_HEADING, report.stated_loads)):
+            if items:
+                out.append(f"<h3>{escape(heading)}</h3>")
+                out.append("<ul>" + "".join(f"<li>{escape(t)}</li>" for t in items) + "</ul>")
     if report.shared:
         out.append("<h2>Shared raceways</h2>")
         out.append(_table(SHARED_COLUMNS, report.shared, label="Shared raceways"))

@@ -6,7 +6,14 @@ and its control characters are shown as ``\x1b`` (``gaugewalk.model.walk.plain_t
 
 from __future__ import annotations
 
-from gaugewalk.model.report.content import RUN_COLUMNS, SHARED_COLUMNS, Report
+from gaugewalk.model.report.content import (
+    NOTES_HEADING,
+    RUN_COLUMNS,
+    RUN_WARNINGS_HEADING,
+    SHARED_COLUMNS,
+    STATED_LOADS_HEADING,
+    Report,
+)
 from gaugewalk.model.report.oneline import one_line_text
 from gaugewalk.model.walk.plain_text import shown
 
@@ -74,6 +81,12 @@ def render_md(report: Report) -> str:
     out += ["## Runs", ""] + _table(RUN_COLUMNS + ("Problems",),
                                     [r.cells() + ("; ".join(r.problems),) for r in report.runs])
     out += [""]
+    if report.run_warnings or report.stated_loads:
+        out += [f"## {NOTES_HEADING}", ""]
+        for heading, items in ((RUN_WARNINGS_HEADING, report.run_warnings),
+                               (STATED_LOADS_HEADING, report.stated_loads)):
+            if items:
+                out += [f"### {heading}", ""] + [f"- {md_escape(t)}" for t in items] + [""]
     if report.shared:
         out += ["## Shared raceways", ""] + _table(SHARED_COLUMNS, report.shared) + [""]
     if report.equipment_table[1]:

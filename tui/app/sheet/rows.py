@@ -210,6 +210,10 @@ def detail_lines(session: WalkSession, run: Run | None) -> str:
     long = long_length(run.length_ft, session.job.defaults)
     if long:  # a warning, never a problem: the third line has room for both
         said.append(f"⚠ {long}")
+    feeder = session.result.feeders.get(run.id) if session.result is not None else None
+    if feeder is not None and feeder.served_a is not None:  # stated, not a problem
+        said.append(f"ⓘ sized for its stated {feeder.amps:.1f} A; the loads on {run.to} need "
+                    f"{feeder.served_a:.1f} A (NEC 215.2(A)(1))")
     if said:
         lines.append("; ".join(said))
     return "\n".join(lines)
