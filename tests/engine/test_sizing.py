@@ -289,3 +289,25 @@ def test_the_picked_size_passes_and_the_next_smaller_fails(circuit, amps, length
             i -= 1
     if SIZES.index(r.size) > SIZES.index(START_SIZE[material]) and i > 0:
         assert independent_failures(s, SIZES[i - 1]) != []
+
+
+@pytest.mark.parametrize("upstream, said", [
+    (5.6, "already takes the whole 5% total target"),
+    (4.9, "leaves 0.10% of the 5% total target, less than any size of this run drops"),
+])
+def test_a_run_behind_a_source_over_the_total_target_keeps_what_its_own_target_asks(upstream,
+                                                                                    said):
+    # Up to the source the drop is already 5.6 % (or leaves 0.1 %, which even 1000 kcmil Cu
+    # exceeds: about 0.035 ohm/kft x 2 x 40 A x 0.150 kft = 0.42 V, 0.18 % of 240 V): a larger
+    # conductor here cannot meet the total, so the run keeps the size its own 3 % asks instead
+    # of the largest the table has. NEC Ch. 9 Table 9 (from memory), Cu at pf 0.85: 8 AWG about
+    # 0.69 ohm/kft -> 2 x 40 A x 0.69 x 0.150 kft = 8.3 V, 3.5 % of 240 V (over 3 %); 6 AWG
+    # about 0.44 ohm/kft -> 5.3 V, 2.2 %.
+    r = evaluate(spec(amps=40, length_ft=150, upstream_drop_pct=upstream))
+    assert (r.size, r.governed_by) == ("6 AWG", "voltage drop")
+    assert r.voltage_drop_pct == pytest.approx(2.2, abs=0.1)
+    assert r.problems[0] == (f"the drop up to its source, {upstream:.2f}%, {said}: sized for its "
+                             "own 3% target; the drop has to come down upstream")
+    assert f"drop from the service {upstream + r.voltage_drop_pct:.2f}% is over the 5% target" \
+        in r.problems
+    assert not r.ok

@@ -8,7 +8,9 @@ every rule it fails named.
 2. the device protects it: at most the conductor's ampacity, or the next standard rating up to
    800 A (240.4(B), (C)), and within the small-conductor limits of 240.4(D);
 3. the drop targets: this run's drop and the drop from the service (informational notes to
-   210.19(A) and 215.2(A); recommendations, made binding here as the job's targets);
+   210.19(A) and 215.2(A); recommendations, made binding here as the job's targets). Where the
+   drop up to the source leaves less of the total than any size drops, a larger conductor here
+   cannot help: the run keeps the size its own target asks, and a problem says so;
 4. the job's minimum size (a job specification; common practice);
 5. conductors in parallel are 1/0 AWG and larger (310.10(G));
 6. where a rule of the walk asks it (``RunSpec.min_ampacity_a``), an ampacity of at least that
@@ -118,15 +120,15 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
             problems.append(f"{size} {mat} is below the job's minimum size, {sizes[floor_i]}")
     elif pick_i is not None:
         i = pick_i
-        if pick_i == floor_i and ocpd_i is not None and floor_i > ocpd_i:
-            governed_by = "minimum size"
-            notes.append(f"job minimum size {sizes[floor_i]} {mat} (job specification)")
-        elif pick_i == min_amp_i:
-            governed_by = "ampacity"
-        elif pick_i == ocpd_i:
-            governed_by = "overcurrent device"
-        else:
-            governed_by = "voltage drop"
+        governed_by = _governed(i, floor_i, min_amp_i, ocpd_i, sizes, mat, notes)
+    elif (own_i := _own_target_index(spec, cols, z, protect, design, amps, ocpd, floor_i,
+                                     ocpd_i, volts_per_ohm_kft * pct_per_volt)) is not None:
+        # The total target is what no size meets, because of the drop up to the source: a
+        # larger conductor here cannot cure that, so the run keeps the size its own target asks
+        i = own_i
+        governed_by = _governed(i, floor_i, min_amp_i, ocpd_i, sizes, mat, notes)
+        problems.append(_upstream_words(spec))  # no parallel-sets hint: 1000 kcmil sets on a
+        # 40 A branch would meet it, but the cure is upstream
     else:
         # Nothing works: show the largest size the method covers, with its failures.
         term_amps = tab.amp[st.term_col]
@@ -154,6 +156,52 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
             notes.append(f"NEC 310.10(G): {sets} sets in parallel, "
                          f"{amps_text(cols.allowable_total[i] / sets)} each")
     return i, governed_by, min_amp_i, ocpd_i, pick_i, sm
+
+
+def _governed(i: int, floor_i: int, min_amp_i: int | None, ocpd_i: int | None,
+              sizes: tuple[str, ...], mat: str, notes: list[str]) -> str:
+    """What decided the size at index ``i`` picked by rules 1-4 (the floor's note added)."""
+    if i == floor_i and ocpd_i is not None and floor_i > ocpd_i:
+        notes.append(f"job minimum size {sizes[floor_i]} {mat} (job specification)")
+        return "minimum size"
+    if i == min_amp_i:
+        return "ampacity"
+    if i == ocpd_i:
+        return "overcurrent device"
+    return "voltage drop"
+
+
+def _own_target_index(spec: RunSpec, cols, z: tuple[float | None, ...],
+                      protect: tuple[float, ...], design: float, amps: float, ocpd: int,
+                      floor_i: int, ocpd_i: int | None, pct_per_ohm_kft: float) -> int | None:
+    """Where no size meets rule 3 because the total target, less the drop up to the source, is
+    the tighter limit: the smallest size meeting rules 1, 2 and 4 and this run's own drop target
+    (None when the total is not what fails, or no size meets even the run's own target)."""
+    own = spec.max_drop_pct + _EPS
+    if ocpd_i is None or spec.max_total_drop_pct - spec.upstream_drop_pct + _EPS >= own:
+        return None
+    mina = spec.min_ampacity_a
+    for i in range(max(ocpd_i, floor_i), len(z)):
+        if (cols.term_total[i] + _EPS < design or cols.corrected_total[i] + _EPS < amps
+                or (mina is not None and cols.allowable_total[i] + _EPS < mina)
+                or protect[i] < ocpd):
+            continue
+        zi = z[i]
+        if zi is not None and pct_per_ohm_kft * zi <= own:
+            return i
+    return None
+
+
+def _upstream_words(spec: RunSpec) -> str:
+    """Why the run is sized for its own drop target only: the drop up to its source."""
+    total, up = spec.max_total_drop_pct, spec.upstream_drop_pct
+    if up >= total:
+        said = f"already takes the whole {total:g}% total target"
+    else:
+        said = (f"leaves {pct_text(total - up)} of the {total:g}% total target, less than any "
+                f"size of this run drops")
+    return (f"the drop up to its source, {pct_text(up)}, {said}: sized for its own "
+            f"{spec.max_drop_pct:g}% target; the drop has to come down upstream")
 
 
 def size_problems(size: str, material: str, term_col: int, design: float, amps: float,
