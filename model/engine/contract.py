@@ -90,6 +90,8 @@ class RunSpec:
     pf: float = 0.85                       # power factor for the AC method
     raceway: str = "EMT"                   # raceway type (gaugewalk.tables.raceway.fill) or family
     ambient_c: float = 30.0                # [C] NEC 310.15(B)(1)
+    rooftop: bool = False                  # in sunlight less than 7/8 in above a roof: 33 C
+                                           # added to ambient_c (NEC 310.15(B)(2))
     ccc: int | None = None                 # current-carrying conductors in the raceway; None: from circuit
     sets: int = 1                          # conductors in parallel per phase (NEC 310.10(G))
     size: str | None = None                # a size the user fixed; None: pick the smallest that works

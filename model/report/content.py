@@ -19,6 +19,7 @@ from gaugewalk.model.walk.plausible import implausible, stated_loads
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
 from gaugewalk.model.walk.vocabulary import DEMANDS
+from gaugewalk.tables.conductor.ampacity import rooftop_words
 from gaugewalk.tables.order.putups import CUT_LABEL
 
 CAUTION = (
@@ -258,7 +259,8 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
             str(result.ocpd_a), load_text(run, result), size_text(result),
             _num(result.voltage_drop_pct, 2), _num(result.total_drop_pct, 2),
             result.egc_size or "none",
-            raceway_text(result) + "".join(f", in {rid}" for rid in shared_ids(run)),
+            raceway_text(result) + "".join(f", in {rid}" for rid in shared_ids(run))
+            + (f", {rooftop_words(job.effective(run, 'insulation'))}" if run.rooftop else ""),
             result.governed_by,
             tuple(result.problems),
         ))

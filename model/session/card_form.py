@@ -35,6 +35,7 @@ from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.walk.job import Load, Run, Source
 from gaugewalk.model.walk.plain_text import shown as shown_plain
 from gaugewalk.model.walk.plausible import long_length
+from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 
@@ -66,6 +67,7 @@ FIELDS: tuple[CardField, ...] = (
     CardField("material", "Material", "cu / al"),
     CardField("raceway", "Raceway", "EMT, PVC-40, ..."),
     CardField("raceway_id", "Shared in", "raceway id; blank: own"),
+    CardField("rooftop", "Rooftop", "yes: <7/8 in above a roof"),
     CardField("id", "Run id", ""),
     CardField("notes", "Notes", ""),
 )
@@ -254,6 +256,7 @@ def run_to_fields(run: Run) -> dict[str, str]:
         "raceway": run.raceway or "",
         "place": (str(run.position) if run.position is not None else run.phase or ""),
         "raceway_id": run.raceway_id or "",
+        "rooftop": "yes" if run.rooftop else "no",
         "id": run.id,
         "notes": shown_plain(run.notes),  # control characters made visible, never sent raw
     }
@@ -568,6 +571,13 @@ def _check_yes_no(key: str, name: str) -> Callable[[_Reading], None]:
     return check
 
 
+def _check_rooftop(r: _Reading) -> None:
+    """Yes or no; the hint gives what NEC 310.15(B)(2) does to the ambient."""
+    _check_yes_no("rooftop", "rooftop")(r)
+    if r.got["rooftop"]:
+        r.hints["rooftop"] = f"+{ROOFTOP_ADDER_C} C ambient, 310.15(B)(2)"
+
+
 def _check_continuous(r: _Reading) -> None:
     """Yes or no; the hint says what the load's kind makes it (the walk refuses what its
     article does not allow, at this field)."""
@@ -712,6 +722,7 @@ CHECKS: tuple[tuple[str, Callable[[_Reading], None]], ...] = (
     ("raceway", _check_raceway),
     ("place", _check_place),
     ("raceway_id", _check_raceway_id),
+    ("rooftop", _check_rooftop),
     ("id", _check_id),
 )
 """Each field's check, in an order where a check may use what the earlier ones read."""
@@ -725,7 +736,7 @@ def _run_data(r: _Reading) -> dict:
         "load": g["load"], "continuous": g["continuous"], "distributed": g["distributed"],
         "connection": g["connection"], "sets": g["sets"], "size": g["size"],
         "material": g["material"], "raceway": g["raceway"], "raceway_id": g["raceway_id"],
-        "notes": r.v["notes"].strip(), "position": g["position"], "phase": g["phase"],
+        "rooftop": g["rooftop"], "notes": r.v["notes"].strip(), "position": g["position"], "phase": g["phase"],
     }
 
 
@@ -879,6 +890,7 @@ class CardForm:
         values = {k: "" for k in FIELD_KEYS}
         values["from"] = source_id or (prev.from_ if prev else (s.source_ids()[:1] or [""])[0])
         values["spread"] = "no"
+        values["rooftop"] = "no"
         values["sets"] = "1"
         values.update(self._following_values(values))
         return values
@@ -1037,7 +1049,7 @@ _CARD_FIELD = {
     "load.unit": "load", "load.pf": "load", "load.kind": "kind", "connection": "circuit",
     "sets": "sets", "size": "size", "material": "material", "raceway": "raceway",
     "raceway_id": "raceway_id", "id": "id",
-    "continuous": "continuous", "distributed": "spread", "notes": "notes",
+    "continuous": "continuous", "distributed": "spread", "notes": "notes", "rooftop": "rooftop",
     **{f"load.{key}": "plate" for key in vocab.NAMEPLATE_KEYS},
 }
 """The card field each walk-model field of a run is typed in."""

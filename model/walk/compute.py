@@ -318,6 +318,7 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
     values["pf"] = pf
     values["raceway"] = rf["raceway"] or d["raceway"]
     values["ambient_c"] = rf["ambient_c"] if rf["ambient_c"] is not None else d["ambient_c"]
+    values["rooftop"] = rf["rooftop"]
     values["sets"] = rf["sets"]
     values["size"] = rf["size"]
     values["ocpd_a"] = rf["ocpd_a"]

@@ -580,6 +580,9 @@ class Run(_Strict):
     """Terminal rating [C]; None: the job default."""
     ambient_c: float | None = Field(None, ge=-40.0, le=90.0)
     """Ambient temperature [C]; None: the job default."""
+    rooftop: bool = False
+    """The raceway or cable runs in direct sunlight on a rooftop less than 7/8 in (23 mm) above
+    it: 33 C is added to the ambient (NEC 310.15(B)(2); XHHW-2 excepted)."""
     conductor_temp_c: float | None = Field(None, ge=20.0, le=150.0)
     """Conductor temperature for resistance [C]; None: the job default."""
     method: Method | None = None

@@ -179,6 +179,34 @@ def ambient_factor(ambient_c: float, column: int) -> float:
     return factor
 
 
+ROOFTOP_ADDER_C = 33
+"""[C] NEC 2023 310.15(B)(2): added to the outdoor temperature for raceways or cables in direct
+sunlight on or above a rooftop whose bottom is less than 23 mm (7/8 in) above the roof, before
+the correction of Table 310.15(B)(1)(1). Type XHHW-2 is excepted (its exception)."""
+ROOFTOP_EXCEPTED = frozenset({"XHHW-2"})
+
+
+def rooftop_ambient(ambient_c: float, insulation: str) -> tuple[float, str]:
+    """The ambient [C] a rooftop run is corrected at (NEC 310.15(B)(2)), with the note saying
+    so. ``insulation`` as typed (``parse_insulation`` reads it)."""
+    name = parse_insulation(insulation)
+    if name in ROOFTOP_EXCEPTED:
+        return ambient_c, (f"NEC 310.15(B)(2) Exception: {name} takes no rooftop adder; "
+                           f"{ambient_c:g} C ambient")
+    hot = ambient_c + ROOFTOP_ADDER_C
+    return hot, (f"NEC 310.15(B)(2): rooftop, in sunlight less than 7/8 in above the roof: "
+                 f"{ROOFTOP_ADDER_C} C added to the {ambient_c:g} C outdoor temperature, "
+                 f"{hot:g} C ambient")
+
+
+def rooftop_words(insulation: str) -> str:
+    """Said beside the raceway of a run marked ``rooftop`` (report, app)."""
+    name = parse_insulation(insulation)
+    if name in ROOFTOP_EXCEPTED:
+        return f"rooftop: {name}, no adder (NEC 310.15(B)(2) Exception)"
+    return f"rooftop: +{ROOFTOP_ADDER_C} C ambient (NEC 310.15(B)(2))"
+
+
 # NEC 2023 Table 310.15(C)(1): (highest count of the row, factor); 41 and above -> 0.35.
 CCC_ROWS: tuple[tuple[int, float], ...] = (
     (3, 1.00), (6, 0.80), (9, 0.70), (20, 0.50), (30, 0.45), (40, 0.40),

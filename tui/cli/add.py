@@ -67,6 +67,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--raceway", help="e.g. EMT, PVC-40, RMC")
     parser.add_argument("--terminal-temp", type=int, choices=TERMINAL_TEMPS)
     parser.add_argument("--ambient", type=float, metavar="C", help="ambient temperature [C]")
+    parser.add_argument("--rooftop", action="store_true", default=None,
+                        help="in sunlight less than 7/8 in above a roof: 33 C added to the "
+                             "ambient (NEC 310.15(B)(2); XHHW-2 excepted)")
     parser.add_argument("--max-drop", type=float, metavar="PCT",
                         help="drop target for this run [%%]")
     parser.add_argument("--bends", type=int, help="90-degree bends along the route")
@@ -94,7 +97,7 @@ def _run_data(args: argparse.Namespace, run_id: str, usual_circuit_on: str | Non
         "raceway": args.raceway, "terminal_temp": args.terminal_temp, "ambient_c": args.ambient,
         "max_drop_pct": args.max_drop, "bends": args.bends, "measured_on": args.measured_on,
         "position": args.position, "phase": args.phase,
-        "raceway_id": args.raceway_id,
+        "raceway_id": args.raceway_id, "rooftop": args.rooftop,
     }
     data.update({k: v for k, v in options.items() if v is not None})
     if args.continuous is not None:

@@ -29,7 +29,12 @@ from gaugewalk.model.engine.vocabulary import (
     MIN_SETS,
     TERMINAL_TEMPS,
 )
-from gaugewalk.tables.conductor.ampacity import ambient_factor, insulation_rating, parse_insulation
+from gaugewalk.tables.conductor.ampacity import (
+    ambient_factor,
+    insulation_rating,
+    parse_insulation,
+    rooftop_ambient,
+)
 from gaugewalk.tables.conductor.sizes import parse_size
 from gaugewalk.tables.equipment.horsepower import hp_text
 from gaugewalk.tables.errors import TableLookupError
@@ -155,6 +160,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="terminal rating [C]; default by NEC 110.14(C)(1)")
     parser.add_argument("--ambient", type=_number(-40.0, allow_equal=True, high=90.0),
                         default=30.0, metavar="C", help="ambient temperature [C] (default 30)")
+    parser.add_argument("--rooftop", action="store_true",
+                        help="in sunlight less than 7/8 in above a roof: 33 C added to the "
+                             "ambient (NEC 310.15(B)(2); XHHW-2 excepted)")
     parser.add_argument("--ccc", type=_whole(1, 200), metavar="N",
                         help="current-carrying conductors in the raceway (default: this circuit's)")
     parser.add_argument("--temp", type=_number(-40.0, allow_equal=True, high=250.0), default=75.0,
@@ -211,7 +219,9 @@ def run(args) -> int:
     continuous = bool(args.continuous) if eq is None else continuous_of(eq)
     _rtype, family, _note = resolve_raceway(args.raceway)
     try:
-        ambient_factor(args.ambient, insulation_rating(args.insulation))
+        ambient = (rooftop_ambient(args.ambient, args.insulation)[0] if args.rooftop
+                   else args.ambient)
+        ambient_factor(ambient, insulation_rating(args.insulation))
     except TableLookupError as exc:
         raise UsageError(f"gaugewalk calc: argument --ambient: {exc}") from None
     spec = RunSpec(
@@ -228,6 +238,7 @@ def run(args) -> int:
         pf=pf,
         raceway=args.raceway,
         ambient_c=args.ambient,
+        rooftop=args.rooftop,
         ccc=args.ccc,
         sets=args.sets,
         size=args.size,
@@ -267,6 +278,7 @@ def run(args) -> int:
         "distributed": args.distributed,
         "terminal_temp": args.terminal_temp,
         "ambient_c": args.ambient,
+        "rooftop": args.rooftop,
         "ccc": args.ccc,
         "conductor_temp_c": args.temp,
         "ocpd_a": args.ocpd,

@@ -54,6 +54,8 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             "flc_a": None, "locked_rotor_a": None, "starting_drop_pct": None, "kind_rule": None,
             "ok": False, "problems": [p.message for p in result.run_problems(r.id)],
         }
+        if r.rooftop:  # given only where set, as the file keeps it
+            entry["rooftop"] = True   # NEC 310.15(B)(2): 33 C added to the ambient
         feeder = result.feeders.get(r.id)
         entry["basis"] = feeder.basis if feeder is not None else None
         entry["demand"] = None if feeder is None else [   # Defaults.demand: NEC 220.44, 220.60

@@ -37,6 +37,7 @@ from gaugewalk.model.engine.sizing.raceway import raceway_fill
 from gaugewalk.model.engine.sizing.spec import SizingError, check_spec
 from gaugewalk.model.engine.sizing.text import amps_text, pct_text
 from gaugewalk.tables.conductor import properties as t_cond
+from gaugewalk.tables.conductor.ampacity import rooftop_ambient
 from gaugewalk.tables.errors import TableLookupError
 
 
@@ -116,7 +117,11 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     terminal_temp, terminal_why = spec.terminal_temp, None
     if terminal_temp is None and cur.terminal_col is not None:
         terminal_temp, terminal_why = cur.terminal_col, cur.terminal_why
-    st = setting(material, spec.insulation, terminal_temp, ocpd, spec.ambient_c, n_ccc,
+    ambient = spec.ambient_c
+    if spec.rooftop:  # NEC 310.15(B)(2)
+        ambient, said = rooftop_ambient(ambient, spec.insulation)
+        notes.append(said)
+    st = setting(material, spec.insulation, terminal_temp, ocpd, ambient, n_ccc,
                  spec.raceway, spec.method, float(spec.pf), float(spec.conductor_temp_c),
                  bool(spec.stranded), sets, bool(spec.distributed), circuit.drop_angle_deg,
                  terminal_why)

@@ -21,6 +21,7 @@ from gaugewalk.model.walk.checks import connection_of, default_connection
 from gaugewalk.model.walk.equipment import load_short
 from gaugewalk.model.walk.job import Run
 from gaugewalk.model.walk.plausible import long_length
+from gaugewalk.tables.conductor.ampacity import rooftop_words
 from gaugewalk.tables.conductor.sizes import size_index
 from gaugewalk.tables.equipment.horsepower import hp_text
 from gaugewalk.tui.app.widgets.runsheet import SheetRow
@@ -200,6 +201,8 @@ def detail_lines(session: WalkSession, run: Run | None) -> str:
         own, total = session.targets(run)
         egc = res.egc_size or "no EGC"
         race = f"{res.raceway_size} {res.raceway}" if res.raceway_size else f"{res.raceway}: none fits"
+        if run.rooftop:
+            race += ", " + rooftop_words(session.job.effective(run, "insulation"))
         body = (
             f"{size_text(res)} · {res.amps:.1f} A · drop {res.voltage_drop_pct:.2f}% "
             f"(≤{own:g}) · total {res.total_drop_pct:.2f}% (≤{total:g}) · by {res.governed_by}"
