@@ -246,7 +246,7 @@ class WalkSession:
         extra = ((new_source,) if new_source is not None else ()) + more_sources
         _put(runs, sources, run, replaces, extra)
         trial = self.job.model_copy(update={"runs": runs, "sources": sources})
-        trial._index_cache = None
+        trial.reindex()
         return trial
 
     def _keeps_clean(self, run: Run, replaces: str | None, new_sources: tuple[Source, ...]) -> bool:
@@ -352,12 +352,13 @@ class WalkSession:
         """A copy of the job as ``snap`` holds it (sharing its runs and sources)."""
         job = self.job.model_copy(update={"runs": list(snap.runs), "sources": list(snap.sources),
                                           "defaults": snap.defaults, "job": snap.header})
-        job._index_cache = None
+        job.reindex()
         return job
 
     def _touch(self) -> None:
-        # The job caches its id lookups by list identity and length; lists changed in place.
-        self.job._index_cache = None
+        # The lists were changed in place by slices (items of other ids where others stood):
+        # the job's id lookups are forgotten (``Job.reindex``).
+        self.job.reindex()
 
     def _commit(self, label: str, focus: str | None, change,
                 edited: str | None = None, keeps_clean: bool = False) -> str | None:
@@ -397,10 +398,9 @@ class WalkSession:
         def change() -> bool:
             _put(self.job.runs, self.job.sources, run, replaces,
                  ((new_source,) if new_source is not None else ()) + tuple(sources))
-            if old is None or old.id != run.id or new_source is not None or sources:
-                return False
-            self.job.replaced_run(old, run)  # one run for another of its id: no rebuilt lookups
-            return True
+            # the id lookups follow an item added, or put in place of one of its id, on their
+            # own (no pass over every run); a run stored under a new id drops them
+            return old is None or old.id == run.id
 
         in_place = (
             old is not None and old.id == run.id and old.from_ == run.from_ and old.to == run.to

@@ -114,16 +114,40 @@ def parse_length(text: str) -> float:
     return _parse_length(text)
 
 
-_ID_EPOCH = [0]
-"""Counts ids set on sources and runs (built or assigned): a ``Job``'s cached id lookups are
-rebuilt when it moves, so a lookup that finds nothing can answer at once."""
-
-
 def _check_id(value: str) -> str:
     if not isinstance(value, str) or not _ID_RE.match(value) or value != value.strip():
         raise ValueError(f"'{value}' is not a usable id: {_ID_HELP}")
-    _ID_EPOCH[0] += 1
     return value
+
+
+_SOURCES_BUILT = [0]
+"""Counts the ids validated on sources (each source built, each id assigned): a ``Job``'s
+lookup that finds no source answers from its index only while this has not moved."""
+_RUNS_BUILT = [0]
+"""The same for runs: building a run (as the run card does) leaves the source lookups alone."""
+_IDS_RENAMED = [0]
+"""Counts ids assigned in place on a source or run (``source.id = ...``): every lookup index
+of every ``Job`` is rebuilt after one, since the first item of an id may then stand elsewhere."""
+
+
+def _source_id(value: str) -> str:
+    value = _check_id(value)
+    _SOURCES_BUILT[0] += 1
+    return value
+
+
+def _run_id(value: str) -> str:
+    value = _check_id(value)
+    _RUNS_BUILT[0] += 1
+    return value
+
+
+def _noting_renames(self, name: str, value) -> None:
+    """``__setattr__`` of ``Source`` and ``Run``: an id assigned in place is counted in
+    ``_IDS_RENAMED`` before pydantic validates and sets it."""
+    if name == "id":
+        _IDS_RENAMED[0] += 1
+    _Strict.__setattr__(self, name, value)
 
 
 def _no_items() -> list:
@@ -458,7 +482,9 @@ class Source(_Strict):
     @field_validator("id")
     @classmethod
     def _usable_id(cls, value: str) -> str:
-        return _check_id(value)
+        return _source_id(value)
+
+    __setattr__ = _noting_renames
 
     @model_validator(mode="after")
     def _transformer_keys(self) -> Source:
@@ -603,10 +629,17 @@ class Run(_Strict):
 
     _length_ft: float = PrivateAttr(default=0.0)
 
-    @field_validator("id", "from_")
+    @field_validator("id")
+    @classmethod
+    def _usable_id(cls, value: str) -> str:
+        return _run_id(value)
+
+    @field_validator("from_")
     @classmethod
     def _from_is_id(cls, value: str) -> str:
         return _check_id(value)
+
+    __setattr__ = _noting_renames
 
     @field_validator("continuous")
     @classmethod
@@ -669,6 +702,48 @@ if set(Run.__private_attributes__) != {"_length_ft"}:  # keep _run_private_init 
 Run.model_post_init = _run_private_init
 
 
+_STALE = object()
+
+
+class _IdIndex:
+    """Where each id first stands in one list of a walk (``Job.sources`` or ``Job.runs``),
+    built in one pass and then kept without another while its answers still hold:
+
+    - the list is the same object, of the same length (an item added or removed is noticed);
+    - no id was assigned in place since (``_IDS_RENAMED``);
+    - a found id is checked against the item now at its place, so an item put in place of
+      another of the same id (a run stored from the run card, a change undone, a copy with
+      a position written) is the one returned, and one of another id makes the index stale;
+    - an id not found answers None only while no item of the list's kind was built since
+      (``built``: ``_SOURCES_BUILT`` or ``_RUNS_BUILT``): the item may be new.
+
+    An item of another id put in place of one (``runs[i] = other``) is noticed only by a lookup
+    of the id it replaced, or of its own id when not found and built since; code that does that
+    calls ``Job.reindex``, so no answer depends on which lookup comes first. ``find`` returns
+    the item, None, or ``_STALE`` when the index must be built again."""
+
+    __slots__ = ("items", "length", "built", "renamed", "at")
+
+    def __init__(self, items: list, built: int) -> None:
+        self.items = items
+        self.length = len(items)
+        self.built = built
+        self.renamed = _IDS_RENAMED[0]
+        ids = [item.id for item in items]
+        # the first position of each id: later positions are written first and overwritten
+        self.at = dict(zip(reversed(ids), range(len(ids) - 1, -1, -1), strict=True))
+
+    def find(self, items: list, key: str, built: int):
+        if items is not self.items or len(items) != self.length or \
+                self.renamed != _IDS_RENAMED[0]:
+            return _STALE
+        i = self.at.get(key)
+        if i is None:
+            return None if built == self.built else _STALE
+        item = items[i]
+        return item if item.id == key else _STALE
+
+
 OVERRIDABLE: dict[str, str] = {
     "material": "material",
     "insulation": "insulation",
@@ -701,72 +776,48 @@ with warnings.catch_warnings():
         raceways: list[Raceway] = Field(default_factory=_no_items, alias="raceway")
         """Raceways several runs share (``[[raceway]]``)."""
 
-        _index_cache: tuple | None = PrivateAttr(default=None)
+        _source_index: _IdIndex | None = PrivateAttr(default=None)
+        _run_index: _IdIndex | None = PrivateAttr(default=None)
 
-        def __eq__(self, other: object) -> bool:  # the lookup cache is not part of the walk
+        def __eq__(self, other: object) -> bool:  # the lookup indexes are not part of the walk
             return type(other) is type(self) and self.__dict__ == other.__dict__
 
         __hash__ = None
 
         # -- lookups -------------------------------------------------------------------------
-        # Cached by list identity and length and by ``_ID_EPOCH`` (ids built or assigned), so a
-        # miss costs nothing. Code that puts an object built earlier into ``sources`` or ``runs``
-        # at the same length sets ``_index_cache = None``, as ``gaugewalk.model.session.session`` does.
-        def _index(self) -> tuple[dict[str, Source], dict[str, Run]]:
-            # read directly, as ``Run.length_ft`` does: ``self._index_cache`` goes through
-            # pydantic's ``__getattr__``, and a computation looks ids up thousands of times
-            cache = self.__pydantic_private__["_index_cache"]
-            if cache is not None:
-                key, sources, runs = cache
-                if key == (id(self.sources), len(self.sources), id(self.runs), len(self.runs),
-                           _ID_EPOCH[0]):
-                    return sources, runs
-            sources = {}
-            for s in self.sources:
-                sources.setdefault(s.id, s)
-            runs = {}
-            for r in self.runs:
-                runs.setdefault(r.id, r)
-            self._index_cache = (
-                (id(self.sources), len(self.sources), id(self.runs), len(self.runs), _ID_EPOCH[0]),
-                sources,
-                runs,
-            )
-            return sources, runs
-
+        # Each list has an index of where each id first stands, which follows edits on its own
+        # (``_IdIndex``); the private attributes are read directly, as ``Run.length_ft`` is:
+        # ``self._run_index`` goes through pydantic's ``__getattr__``, and a computation looks
+        # ids up thousands of times.
         def reindex(self) -> None:
-            """Forget the lookup index; call after renaming a source or run id in place
-            (appending or removing items is noticed on its own)."""
-            self._index_cache = None
-
-        def replaced_run(self, old: Run, new: Run) -> None:
-            """Note that ``new`` was put in ``runs`` where ``old`` was, with the same id: the
-            lookups follow without being rebuilt (a pass over every run); otherwise they are
-            forgotten, as by ``reindex``."""
-            cache = self._index_cache
-            if cache is not None and old.id == new.id:
-                key, _sources, runs = cache
-                if (key == (id(self.sources), len(self.sources), id(self.runs), len(self.runs),
-                            _ID_EPOCH[0]) and runs.get(new.id) is old):
-                    runs[new.id] = new
-                    return
-            self._index_cache = None
+            """Forget the lookup indexes: call after putting an item into ``sources`` or
+            ``runs`` in place of one of another id, or reordering a list in place. Items
+            added or removed, ids assigned in place and items put in place of one of the same
+            id are noticed on their own (``_IdIndex``)."""
+            private = self.__pydantic_private__
+            private["_source_index"] = private["_run_index"] = None
 
         def source(self, source_id: str) -> Source | None:
-            """The source with this id, or None."""
-            found = self._index()[0].get(source_id)
-            if found is not None and found.id != source_id:  # renamed in place
-                self._index_cache = None
-                found = self._index()[0].get(source_id)
-            return found
+            """The first source with this id, or None."""
+            private = self.__pydantic_private__
+            index = private["_source_index"]
+            if index is not None:
+                found = index.find(self.sources, source_id, _SOURCES_BUILT[0])
+                if found is not _STALE:
+                    return found
+            index = private["_source_index"] = _IdIndex(self.sources, _SOURCES_BUILT[0])
+            return index.find(self.sources, source_id, _SOURCES_BUILT[0])
 
         def run(self, run_id: str) -> Run | None:
-            """The run with this id, or None."""
-            found = self._index()[1].get(run_id)
-            if found is not None and found.id != run_id:
-                self._index_cache = None
-                found = self._index()[1].get(run_id)
-            return found
+            """The first run with this id, or None."""
+            private = self.__pydantic_private__
+            index = private["_run_index"]
+            if index is not None:
+                found = index.find(self.runs, run_id, _RUNS_BUILT[0])
+                if found is not _STALE:
+                    return found
+            index = private["_run_index"] = _IdIndex(self.runs, _RUNS_BUILT[0])
+            return index.find(self.runs, run_id, _RUNS_BUILT[0])
 
         def raceway(self, raceway_id: str) -> Raceway | None:
             """The shared raceway with this id, or None (a walk has few: no index)."""
