@@ -397,7 +397,8 @@ class WalkSession:
 
         def change() -> bool:
             _put(self.job.runs, self.job.sources, run, replaces,
-                 ((new_source,) if new_source is not None else ()) + tuple(sources))
+                 ((new_source,) if new_source is not None else ()) + tuple(sources),
+                 self.job.run_position(replaces) if replaces else None)
             # the id lookups follow an item added, or put in place of one of its id, on their
             # own (no pass over every run); a run stored under a new id drops them
             return old is None or old.id == run.id
@@ -867,10 +868,14 @@ class WalkSession:
 
 
 def _put(runs: list[Run], sources: list[Source], run: Run, replaces: str | None,
-         new_sources: tuple[Source, ...]) -> None:
+         new_sources: tuple[Source, ...], at: int | None = None) -> None:
     """Put ``run`` in place of the run ``replaces`` (or add it), and each of ``new_sources`` in
-    place of the source of its id (or add it), in the lists given."""
-    _put_in(runs, run, replaces)
+    place of the source of its id (or add it), in the lists given. ``at``: where the run
+    ``replaces`` stands in ``runs``, when known (``Job.run_position``)."""
+    if at is not None:
+        runs[at] = run
+    else:
+        _put_in(runs, run, replaces)
     for source in new_sources:
         _put_in(sources, source, source.id)
 

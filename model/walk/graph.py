@@ -92,15 +92,6 @@ class SupplyGraph:
         return [sid for sid in self.sources if sid not in reached]
 
     @cached_property
-    def run_ids(self) -> list[int]:
-        """``id()`` of each run the graph was built from (kept alive by ``runs``)."""
-        return list(map(id, self.runs))
-
-    @cached_property
-    def source_ids(self) -> list[int]:
-        return list(map(id, self._sources_built))
-
-    @cached_property
     def position(self) -> dict[str, int]:
         """{run id: index of its first run in the file}."""
         position: dict[str, int] = {}
@@ -173,21 +164,23 @@ class SupplyGraph:
     def fits(self, job: Job, run: Run, shape: tuple) -> bool:
         """True when ``job`` is the walk this was built from, with at most ``run`` put in place
         of the run of the same id (same ``from`` and ``to``; it is then patched in), every other
-        run and source the same object, and no source re-pointed or re-kinded. Costs a pass in C
-        over the lists instead of rebuilding the graph."""
+        run and source the same object (or, where not, one equal to it: the same fields, so the
+        same results), and no source re-pointed or re-kinded. Costs a comparison of the lists in
+        C, object by object (identical objects are not compared further), instead of rebuilding
+        the graph."""
         i = self.position.get(run.id)
         if (job is not self.job or i is None or len(job.runs) != len(self.runs)
                 or job.runs[i] is not run or shape[i] != (run.id, run.from_, run.to)):
             return False
         old = self.runs[i]
-        self.run_ids[i] = id(run)
-        if list(map(id, job.runs)) != self.run_ids or list(map(id, job.sources)) != self.source_ids:
-            self.run_ids[i] = id(old)
+        self.runs[i] = run
+        if job.runs != self.runs or job.sources != self._sources_built:
+            self.runs[i] = old
             return False
         if shape[len(self.runs):] != tuple((s.id, s.kind, s.system) for s in job.sources):
+            self.runs[i] = old
             return False
         if old is not run:
-            self.runs[i] = run
             for table in (self.children.get(run.from_, []), self.feeds.get(run.to, [])):
                 for k, r in enumerate(table):
                     if r is old:

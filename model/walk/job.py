@@ -819,6 +819,12 @@ with warnings.catch_warnings():
             index = private["_run_index"] = _IdIndex(self.runs, _RUNS_BUILT[0])
             return index.find(self.runs, run_id, _RUNS_BUILT[0])
 
+        def run_position(self, run_id: str) -> int | None:
+            """Where the first run with this id stands in ``runs``, or None."""
+            if self.run(run_id) is None:
+                return None
+            return self.__pydantic_private__["_run_index"].at[run_id]  # checked by ``run``
+
         def raceway(self, raceway_id: str) -> Raceway | None:
             """The shared raceway with this id, or None (a walk has few: no index)."""
             return next((r for r in self.raceways if r.id == raceway_id), None)

@@ -50,3 +50,23 @@ def test_a_loop_of_feeders_is_found_once_and_its_sources_are_not_reached():
     graph = SupplyGraph(job)
     assert [(loop, run.id) for loop, run in graph.feeder_loops()] == [(["LP1", "LP2", "LP1"], "F1")]
     assert graph.unreached == ["LP1", "LP2"] and [s.id for s in graph.roots()] == ["SVC"]
+
+
+def test_the_graph_fits_a_walk_with_one_run_put_in_place_but_not_one_changed_elsewhere():
+    """The incremental path patches the graph for the edited run; every other run must be the
+    same object, or one with the same fields (the same results), else the graph is rebuilt."""
+    job = load_walk(SAMPLES / "retail_fitout.toml")
+    graph = SupplyGraph(job)
+    shape = graph.shape()
+    i = max(k for k, r in enumerate(job.runs) if r.load is not None and not graph.is_feeder(r))
+    edited = Run.model_validate(dict(job.runs[i].model_dump(by_alias=True), notes="moved"))
+    job.runs[i] = edited
+    assert graph.fits(job, edited, shape) and graph.runs[i] is edited
+    assert edited in graph.children[edited.from_]
+    job.runs[0] = job.runs[0].model_copy()  # another object with the same fields
+    assert graph.fits(job, edited, shape)
+    job.runs[0] = Run.model_validate(dict(job.runs[0].model_dump(by_alias=True), length="999"))
+    assert not graph.fits(job, edited, shape)
+    job.runs[0] = graph.runs[0]
+    job.sources[0] = Source.model_validate(dict(job.sources[0].model_dump(), name="renamed"))
+    assert not graph.fits(job, edited, shape)

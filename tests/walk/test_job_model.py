@@ -27,6 +27,7 @@ def test_lookups_find_sources_runs_and_feeders():
     assert job.is_feeder(job.run("F1")) and not job.is_feeder(job.run("R7"))
     assert job.feeder_of("SP").id == "F1" and job.feeder_of("SVC") is None
     assert [r.id for r in job.runs_from("SP")] == ["R7"]
+    assert job.run_position("R7") == 1 and job.run_position("Pump") is None
 
 
 def test_next_run_id_is_one_past_the_highest_with_that_prefix():
