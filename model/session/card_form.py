@@ -35,7 +35,7 @@ from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.walk.job import Load, Run, Source
 from gaugewalk.model.walk.plain_text import shown as shown_plain
 from gaugewalk.model.walk.plausible import long_length
-from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C
+from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C, ROOFTOP_EXCEPTED
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 
@@ -572,10 +572,15 @@ def _check_yes_no(key: str, name: str) -> Callable[[_Reading], None]:
 
 
 def _check_rooftop(r: _Reading) -> None:
-    """Yes or no; the hint gives what NEC 310.15(B)(2) does to the ambient."""
+    """Yes or no; the hint gives what NEC 310.15(B)(2) does to the ambient (nothing for
+    XHHW-2, the run's own insulation or the job's)."""
     _check_yes_no("rooftop", "rooftop")(r)
     if r.got["rooftop"]:
-        r.hints["rooftop"] = f"+{ROOFTOP_ADDER_C} C ambient, 310.15(B)(2)"
+        run = r.job.run(r.form.run_id) if r.form.run_id is not None else None
+        insulation = (run.insulation if run is not None and run.insulation
+                      else r.job.defaults.insulation)
+        r.hints["rooftop"] = ("XHHW-2: no adder" if insulation in ROOFTOP_EXCEPTED
+                              else f"+{ROOFTOP_ADDER_C}C 310.15(B)(2)")
 
 
 def _check_continuous(r: _Reading) -> None:

@@ -82,7 +82,7 @@ def test_the_run_card_marks_a_run_rooftop_and_an_edit_keeps_it(tmp_path):
         form.type(key, text)
     checked = form.check()
     assert checked.errors == {} and checked.run is not None and checked.run.rooftop is True
-    assert checked.hints["rooftop"] == "+33 C ambient, 310.15(B)(2)"
+    assert checked.hints["rooftop"] == "+33C 310.15(B)(2)"
     session.put_run(checked.run)
     assert session.result_for(checked.run.id).size == "4 AWG"
     edit = CardForm(session, run_id=checked.run.id)
@@ -90,3 +90,5 @@ def test_the_run_card_marks_a_run_rooftop_and_an_edit_keeps_it(tmp_path):
     assert edit.values["rooftop"] == "yes"
     edit.type("length", "70")
     assert edit.check().run.rooftop is True
+    session.job.defaults.insulation = "XHHW-2"  # NEC 310.15(B)(2) Exception
+    assert edit.check().hints["rooftop"] == "XHHW-2: no adder"
