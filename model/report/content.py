@@ -424,12 +424,12 @@ def order_table_of(t: Takeoff, priced=None):
     ``gaugewalk.model.walk.takeoff.prices.PricedOrder``) the unit price and cost of each."""
     from gaugewalk.model.walk.takeoff.prices import money
 
-    columns = ("Item", "Description", "Quantity", "Unit")
+    columns: tuple[str, ...] = ("Item", "Description", "Quantity", "Unit")
     if priced is not None:
         columns += ("Unit price", "Cost")
     rows = []
     for i, line in enumerate(t.order_lines):
-        row = (line.item, line.description, f"{line.quantity:,}", line.unit)
+        row: tuple[str, ...] = (line.item, line.description, f"{line.quantity:,}", line.unit)
         if priced is not None:
             p = priced.lines[i]
             row += (money(p.unit_price) or "no price", money(p.cost))

@@ -151,12 +151,8 @@ def _plan(cls: type[BaseModel]) -> tuple[tuple[str, str, bool, object], ...]:
     """For each field in order: (attribute, key as written, required, default)."""
     plan = []
     for name, field in cls.model_fields.items():
-        if field.is_required():
-            default = _UNSET
-        elif field.default_factory is not None:
-            default = field.default_factory()
-        else:
-            default = field.default
+        default = (_UNSET if field.is_required()
+                   else field.get_default(call_default_factory=True))
         plan.append((name, _key(field.alias or name), field.is_required(), default))
     return tuple(plan)
 
