@@ -40,7 +40,7 @@ from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.collector import collector_held
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fields
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
-from gaugewalk.model.engine.sizing import evaluate
+from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
@@ -125,6 +125,9 @@ class JobResult:
     problems: list[Problem] = field(default_factory=list)
     # kept for recompute_run
     _specs: dict[str, RunSpec] = field(default_factory=dict, repr=False)
+    _passed: dict[str, float] = field(default_factory=dict, repr=False)
+    """{run id: the least drop [%] of the smaller sizes its evaluation passed over for their
+    drop alone} (``evaluate_picked``): a looser drop limit below it keeps the size."""
     _circuits: dict[str, Circuit] = field(default_factory=dict, repr=False)
     _own: dict[str, OwnLoad | None] = field(default_factory=dict, repr=False)
     _feeds: dict[str, Feed] = field(default_factory=dict, repr=False)
@@ -539,12 +542,13 @@ class WalkState:
             # no shared raceway (the rest of this method with all of those None)
             try:
                 spec = _spec(self.job, r, upstream, circuit, False, None)
-                result = evaluate(spec)
+                result, passed = evaluate_picked(spec)
             except (LoadError, CircuitError, ValueError) as exc:
                 self.forget(r)
                 self.fail(r, str(exc))
                 return
             res._specs[r.id] = spec
+            res._passed[r.id] = passed
             self.store(r, result, False, spec)
             return
         feed = res._feeds.get(r.to) if is_feeder else None
@@ -556,7 +560,7 @@ class WalkState:
         ccc = ccc_for_run(r, self.shared_ccc) if self.shared_ccc else None
         try:
             spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule, motors, ccc)
-            result = evaluate(spec)
+            result, passed = evaluate_picked(spec)
             beside = None
             if rule is not None and rule.beside:
                 beside = evaluate(_spec(self.job, r, upstream, circuit, is_feeder, feed,
@@ -579,6 +583,7 @@ class WalkState:
             result = with_fields(result, notes=result.notes + notes,
                                  problems=result.problems + problems)
         res._specs[r.id] = spec
+        res._passed[r.id] = passed
         if is_feeder:
             info = self.feeder_info(r, spec, feed, rule, beside, motors, limit)
             if r.load is not None and feed is not None and rule is None:
@@ -619,7 +624,7 @@ class WalkState:
     def forget(self, r: Run) -> None:
         res = self.result
         for table in (res.runs, res.run_total_drop_pct, res.feeder_amps, res._specs,
-                      res.feeders):
+                      res._passed, res.feeders):
             table.pop(r.id, None)
 
     def store(self, r: Run, result: RunResult, is_feeder: bool, spec: RunSpec) -> None:

@@ -110,7 +110,7 @@ def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: 
             elif spec.upstream_drop_pct == upstream:
                 continue
             elif _size_stays(old, spec, new := with_fields(spec, upstream_drop_pct=upstream),
-                             is_feeder):
+                             is_feeder, result._passed.get(r.id)):
                 total = upstream + old.voltage_drop_pct
                 margins = dict(old.margins)
                 if "total_drop_pct" in margins:
@@ -125,12 +125,16 @@ def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: 
                 stack.append(r.to)
 
 
-def _size_stays(old: RunResult, spec: RunSpec, new: RunSpec, is_feeder: bool) -> bool:
+def _size_stays(old: RunResult, spec: RunSpec, new: RunSpec, is_feeder: bool,
+                passed: float | None) -> bool:
     """True when the engine gives ``old`` again for ``new`` (``spec`` with another drop up to
     its source), but for the total drop: ``old`` has no problems and its size was not picked for
-    the drop and stays within the total target; or (a branch) it was picked for the drop, and the
-    new limit on the drop (``pick.drop_limit``) is no looser and still met, so every smaller size
-    still misses it and the same size is picked, with the same notes."""
+    the drop and stays within the total target; or (a branch) it was picked for the drop, and
+    under the new limit on the drop (``pick.drop_limit``) it is the smallest size that meets it
+    again: a limit no looser that it still meets (every smaller size missed the looser one), or
+    a looser limit below ``passed``, the least drop of the smaller sizes its evaluation passed
+    over for their drop (``evaluate_picked``; the drop of a size does not depend on the drop up
+    to its source). Its notes name its own drop only, so they stay too."""
     if not old.ok:
         return False
     if old.governed_by != "voltage drop":
@@ -138,4 +142,6 @@ def _size_stays(old: RunResult, spec: RunSpec, new: RunSpec, is_feeder: bool) ->
     if is_feeder:
         return False
     limit = drop_limit(new)
-    return limit <= drop_limit(spec) and old.voltage_drop_pct <= limit
+    if limit <= drop_limit(spec):
+        return old.voltage_drop_pct <= limit
+    return passed is not None and limit < passed

@@ -311,3 +311,19 @@ def test_a_run_behind_a_source_over_the_total_target_keeps_what_its_own_target_a
     assert f"drop from the service {upstream + r.voltage_drop_pct:.2f}% is over the 5% target" \
         in r.problems
     assert not r.ok
+
+
+def test_a_run_upsized_for_its_drop_says_how_much_the_sizes_it_passed_over_drop():
+    # 16 A on 240 V single-phase, 150 ft, DC method: VD = 2 x 16 A x R x 150 ft / 1000 with NEC
+    # 2023 Ch. 9 Table 8 uncoated stranded copper at 75 C (from memory): 12 AWG 1.98 ohm/kft,
+    # 9.50 V = 3.96 % of 240 V; 10 AWG 1.24 ohm/kft, 5.95 V = 2.48 %: 10 AWG for the 3 %
+    # target, 12 AWG passed over for its drop alone (14 AWG, 15 A in the 60 C column of Table
+    # 310.16, is passed over for its ampacity)
+    from gaugewalk.model.engine.sizing import evaluate_picked
+
+    r, passed = evaluate_picked(spec(amps=16, length_ft=150.0, method="dc"))
+    assert (r.size, r.governed_by) == ("10 AWG", "voltage drop")
+    assert passed == pytest.approx(2 * 16 * 1.98 * 150 / 1000 / 240 * 100, rel=1e-3)
+    assert evaluate(spec(amps=16, length_ft=150.0, method="dc")) == r
+    # a size picked for its ampacity passed over nothing for its drop
+    assert evaluate_picked(spec(amps=16, length_ft=20.0, method="dc"))[1] == math.inf

@@ -278,3 +278,41 @@ def test_a_feeder_given_its_own_load_says_what_its_panel_needs_beyond_it_also_af
     full = compute_job(job)
     _same(result, full)
     assert result.feeders["F1"].basis == full.feeders["F1"].basis == "its own load"
+
+
+def test_runs_picked_for_their_drop_keep_their_size_unevaluated_when_the_drop_above_falls(
+        monkeypatch):
+    """A run upsized for its drop keeps its size when the drop up to its source falls, unless
+    a smaller size it passed over now meets the looser limit: the recompute shifts its total
+    without evaluating it, and the result is still exactly a full compute's."""
+    from gaugewalk.model.walk import compute as computing
+    from tests.support.synthetic_walk import synthetic_walk
+
+    job = synthetic_walk(1300, seed=11)
+    result = compute_job(job)
+    evaluated: list[str] = []
+    real = computing.evaluate_picked
+
+    def counting(spec):
+        evaluated.append(spec)
+        return real(spec)
+
+    monkeypatch.setattr(computing, "evaluate_picked", counting)
+    rng = random.Random(3)
+    branches = [r for r in job.runs if r.load is not None and not job.is_feeder(r)]
+    kept = 0   # runs picked for their drop, upstream fallen, size kept without an evaluation
+    for _ in range(16):
+        r = rng.choice(branches)
+        r.load = Load(value=r.load.value * 0.3, unit=r.load.unit, pf=r.load.pf)  # drops fall
+        before = dict(result._specs)
+        evaluated.clear()
+        result = recompute_run(job, result, r.id)
+        again = {id(s) for s in evaluated}
+        full = compute_job(job)
+        assert result.runs == full.runs
+        assert result._specs == full._specs
+        assert [str(p) for p in result.problems] == [str(p) for p in full.problems]
+        kept += sum(1 for k, s in result._specs.items()
+                    if k in before and s.upstream_drop_pct < before[k].upstream_drop_pct
+                    and result.runs[k].governed_by == "voltage drop" and id(s) not in again)
+    assert kept > 20

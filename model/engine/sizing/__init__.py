@@ -19,16 +19,17 @@ Terminals (110.14(C)(1)) are taken by the circuit rating: 60 C for a device of 1
 75 C above; equipment marked otherwise (75 C lugs on a small breaker, or lugs marked for 14-1 AWG
 on a larger one) is given with ``RunSpec.terminal_temp``. Pure: no I/O.
 
-Public API: ``evaluate``, ``forget_loads`` (the caches keyed by a run's load emptied),
+Public API: ``evaluate`` (and ``evaluate_picked``: with the least drop of the sizes it passed
+over), ``forget_loads`` (the caches keyed by a run's load emptied),
 ``SizingError``, ``resolve_raceway``, ``START_SIZE``,
 ``PARALLEL_MIN_SIZE``, ``FAMILY_REPRESENTATIVE``.
 """
 
 from gaugewalk.model.engine.sizing.columns import PARALLEL_MIN_SIZE, START_SIZE
-from gaugewalk.model.engine.sizing.evaluate import evaluate
+from gaugewalk.model.engine.sizing.evaluate import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.kinds import forget_loads
 from gaugewalk.model.engine.sizing.raceway import FAMILY_REPRESENTATIVE, resolve_raceway
 from gaugewalk.model.engine.sizing.spec import SizingError
 
 __all__ = ["FAMILY_REPRESENTATIVE", "PARALLEL_MIN_SIZE", "START_SIZE", "SizingError", "evaluate",
-           "forget_loads", "resolve_raceway"]
+           "evaluate_picked", "forget_loads", "resolve_raceway"]

@@ -63,7 +63,20 @@ def evaluate(spec: RunSpec) -> RunResult:
     """
     check_spec(spec)
     try:
-        return _evaluate(spec)
+        return _evaluate_pick(spec, True)[0]
+    except TableLookupError as exc:
+        raise SizingError(str(exc)) from None
+
+
+def evaluate_picked(spec: RunSpec) -> tuple[RunResult, float]:
+    """``evaluate``, with the least drop [%] of the smaller sizes it passed over for their drop
+    alone (rules 1, 2 and 4 allowed them; ``pick.pick_conductor``), infinity where it passed
+    over none: any drop limit below that picks the same size again, which is how
+    ``gaugewalk.model.walk.recompute`` tells that a run's size stays when the drop up to its
+    source falls. The drop of a size does not depend on that upstream drop."""
+    check_spec(spec)
+    try:
+        return _evaluate_pick(spec, True)
     except TableLookupError as exc:
         raise SizingError(str(exc)) from None
 
@@ -91,6 +104,11 @@ _RESULT_TEMPLATE = {f.name: None if f.default is MISSING else f.default for f in
 def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     """``hint``: when nothing fits, look for a number of parallel sets that would (off while
     looking, so the search is one pass over 2..12 sets, not a tree of searches)."""
+    return _evaluate_pick(spec, hint)[0]
+
+
+def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
+    """``_evaluate``, with the least drop of the sizes passed over (``evaluate_picked``)."""
     circuit = spec.circuit
     material = spec.material
     tab = material_table(material)
@@ -142,7 +160,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
     volts_per_z = drop_volts(circuit.drop_factor, amps, 1.0,
                              drop_length_ft(spec.length_ft, spec.distributed), sets)
     pct_per_volt = 100.0 / circuit.volts
-    i, governed_by, min_amp_i, ocpd_i, pick_i, sm = pick_conductor(
+    i, governed_by, min_amp_i, ocpd_i, pick_i, sm, passed = pick_conductor(
         spec, tab, st, design, need, ocpd, volts_per_z, pct_per_volt,
         _parallel_hint if hint else None, notes, problems, protect, protection == PROTECTED)
     size = tab.sizes[i]
@@ -261,7 +279,7 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
         values["starting_drop_pct"] = start_pct
     values["kind_rule"] = cur.rule
     _set_attr(result, "__dict__", values)
-    return result
+    return result, passed
 
 
 def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,

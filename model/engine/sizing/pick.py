@@ -19,12 +19,15 @@ every rule it fails named.
    device they end in (240.21(C), where 240.4(B) does not apply).
 
 Public API: ``pick_conductor`` (returns ``Pick``: the size index, what governed it, the
-smallest size index meeting rule 1, rules 1-2, rules 1-4, and the 240.4(D) limit of the size
-[A]); ``drop_limit`` (rule 3's limit [%]); ``size_problems``; ``floor_index``.
+smallest size index meeting rule 1, rules 1-2, rules 1-4, the 240.4(D) limit of the size [A],
+and the least drop [%] of the smaller sizes passed over for rule 3 alone, so that a looser drop
+limit below it is known to pick the same size); ``drop_limit`` (rule 3's limit [%]);
+``size_problems``; ``floor_index``.
 """
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 
 from gaugewalk.model.engine.contract import RunSpec
@@ -41,8 +44,9 @@ from gaugewalk.tables.conductor.sizes import canonical, parse_size, size_index
 
 _EPS = 1e-9
 
-Pick = tuple[int, str, "int | None", "int | None", "int | None", "int | None"]
-"""(size index, governed by, min_amp_i, ocpd_i, pick_i, 240.4(D) limit [A] or None)."""
+Pick = tuple[int, str, "int | None", "int | None", "int | None", "int | None", float]
+"""(size index, governed by, min_amp_i, ocpd_i, pick_i, 240.4(D) limit [A] or None, the least
+drop [%] of the sizes passed over for their drop alone: infinity where none was)."""
 
 
 def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
@@ -92,6 +96,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
         protect = cols.protect_limit
     mina = spec.min_ampacity_a
     allow_tot = cols.allowable_total
+    passed = math.inf   # the least drop of a size meeting rules 1, 2 and 4 but not the limit
     for i in range(cols.first, len(z)):
         if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
             continue
@@ -104,9 +109,13 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
         if ocpd_i is None:
             ocpd_i = i
         zi = z[i]
-        if i >= floor_i and zi is not None and volts_per_ohm_kft * zi * pct_per_volt <= limit:
-            pick_i = i
-            break
+        if i >= floor_i and zi is not None:
+            pct = volts_per_ohm_kft * zi * pct_per_volt
+            if pct <= limit:
+                pick_i = i
+                break
+            if pct < passed:
+                passed = pct
 
     # the size and what governed it
     if spec.size is not None:
@@ -155,7 +164,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
         else:
             notes.append(f"NEC 310.10(G): {sets} sets in parallel, "
                          f"{amps_text(cols.allowable_total[i] / sets)} each")
-    return i, governed_by, min_amp_i, ocpd_i, pick_i, sm
+    return i, governed_by, min_amp_i, ocpd_i, pick_i, sm, passed
 
 
 def _governed(i: int, floor_i: int, min_amp_i: int | None, ocpd_i: int | None,
