@@ -173,7 +173,7 @@ def plan(card, wanted: dict[str, str], like: str | None, plain: bool) -> list[st
         here = goal
         text = wanted[goal]
         typed = _field_keys(text)
-        options = card._choices.get(goal, ())
+        options = card.completions(goal)
         for end in range(0 if goal == "to" and not plain else 1, len(text)):
             prefix = text[:end]
             taken = form.proposed_to() if goal == "to" and not prefix else complete(prefix, options)
