@@ -176,3 +176,22 @@ async def test_enter_stores_the_run_its_last_check_sized_and_checks_again_what_c
         await settle(app, pilot)
         assert checks[before:] == ["75"]
     assert tomllib.loads(path.read_text())["run"][1]["length"] == "75"
+
+
+async def test_a_card_field_keeps_the_end_of_a_long_text_in_view_and_scrolls_back(tmp_path):
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")
+        await pilot.pause()
+        card = app.screen
+        field = card.query_one("#f-to")
+        assert card.focused is field
+        long = "Walk-in freezer evaporator"   # wider than the field (17 columns)
+        await type_keys(app, pilot, list(long), fast=True)
+        assert field.value == long
+        shown_text = str(field.render_line(0).text)
+        assert field.scroll_x > 0 and "evaporator" in shown_text and "Walk" not in shown_text
+        await type_keys(app, pilot, ["up", "down", *"Oven"], fast=False)   # back in: replaced
+        assert field.value == "Oven" and field.scroll_x == 0
+        assert "Oven" in str(field.render_line(0).text)

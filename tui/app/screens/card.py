@@ -13,6 +13,7 @@ from datetime import date
 from textual import events, on
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
+from textual.geometry import Size
 from textual.screen import Screen
 from textual.suggester import Suggester
 from textual.widget import Widget
@@ -46,8 +47,24 @@ class CardInput(Input):
     """A card field. Moving into it selects its text (so typing replaces what the card
     proposed) when the focus moves, not when its Focus event arrives (``keyorder``)."""
 
+    # its size is fixed (``.card-input`` in app.tcss): no scrollbar comes and goes as its text
+    # grows past its width, which would lay the whole card out again
+    DEFAULT_CSS = "CardInput { overflow: hidden hidden; }"
+
     def __init__(self, *args, **kwargs) -> None:
         super().__init__(*args, select_on_focus=False, **kwargs)
+
+    def _watch_value(self, value: str) -> None:
+        """As ``Input`` does, less the layout pass over the whole card it asks for whenever the
+        width of its text changes (its scrolling width, ``virtual_size``): a card field's size is
+        fixed (``.card-input`` in app.tcss), so that pass would only clamp the field's own
+        scrolling, done here (``_scroll_update``, as that pass does for a scrolling widget). It
+        was most of a typed key's cost, and of every open of the card for another run."""
+        width = Size(self.content_width, 1)
+        if self.virtual_size != width:
+            self.set_reactive(Widget.virtual_size, width)
+            self._scroll_update(width)
+        super()._watch_value(value)   # its virtual size already set: no layout asked for
 
 
 class FieldSuggest(Suggester):
