@@ -12,7 +12,7 @@ from textual.widgets._footer import FooterKey
 from gaugewalk.tui.app.screens.card import RunCard
 from gaugewalk.tui.app.screens.walk import WalkScreen
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
-from tests.support.app_helpers import new_app, opened, screen_text, settle, type_keys
+from tests.support.app_helpers import burst, new_app, opened, screen_text, settle, type_keys
 from tests.support.walks import write_walk
 
 # two new runs, each on a card opened again with n after Esc closed the last
@@ -176,6 +176,67 @@ async def test_enter_stores_the_run_its_last_check_sized_and_checks_again_what_c
         await settle(app, pilot)
         assert checks[before:] == ["75"]
     assert tomllib.loads(path.read_text())["run"][1]["length"] == "75"
+
+
+async def _card_built_ahead(app, pilot) -> RunCard:
+    """Wait until the walk screen has built its run card and rehearsed its first open (it does
+    while the app waits for a key); a few seconds at most."""
+    walk = app.screen
+    assert isinstance(walk, WalkScreen)
+    for _ in range(300):
+        if walk.card_ready:
+            break
+        await pilot.pause(0.01)
+    assert walk.card_ready, "the run card was not built while the app waited for a key"
+    assert walk._card is not None
+    return walk._card
+
+
+async def test_the_card_is_built_while_the_app_waits_and_its_first_open_shows_the_run(tmp_path):
+    path = write_walk(tmp_path)
+    text = path.read_text()
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        walk, title = app.screen, app.sub_title
+        card = await _card_built_ahead(app, pilot)
+        # built unseen: nothing shown, said, kept or saved for it
+        assert app.screen is walk and app.sub_title == title and card.stored == []
+        assert app.session.draft is None and path.read_text() == text
+        assert not list(tmp_path.glob("*draft*")) and not list(tmp_path.glob(".*draft*"))
+        assert walk.query_one(RunSheet).move_to("R1")
+        await burst(app, pilot, ["e", *"77"])   # typed right behind the key that opens it
+        assert app.screen is card and card.run_id == "R1"
+        assert card.query_one("#f-to").value == "Proofer"
+        assert card.focused is card.query_one("#f-length")
+        assert card.query_one("#f-length").value == "77"
+        assert app.sub_title == "Run card: editing R1"
+        await type_keys(app, pilot, ["enter"], fast=False)
+        await settle(app, pilot)
+        assert app.screen is walk
+    assert tomllib.loads(path.read_text())["run"][1]["length"] == "77"
+
+
+async def test_keys_typed_behind_the_key_that_opens_a_card_still_being_built_land_in_it(
+        tmp_path, monkeypatch):
+    from gaugewalk.tui.app.screens import walk as walk_screen
+
+    monkeypatch.setattr(walk_screen, "CARD_AHEAD_S", 3600.0)   # built ahead only when told here
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        walk = app.screen
+        assert isinstance(walk, WalkScreen) and walk._card is None
+        walk._card_ahead()   # the first step: the card's widgets start being built, unseen
+        card = walk._card
+        assert card is not None and not card.is_mounted and app.screen is walk
+        await burst(app, pilot, ["n", *"Sheeter", "tab", *"45", "tab", *"8A", "enter", "escape"])
+        await settle(app, pilot)
+        assert app.screen is walk and card.rehearsed
+    runs = tomllib.loads(path.read_text())["run"]
+    assert [(r["to"], r["length"], r["load"]) for r in runs[2:]] == [
+        ("Sheeter", "45", {"value": 8, "unit": "A"})]
 
 
 async def test_a_card_field_keeps_the_end_of_a_long_text_in_view_and_scrolls_back(tmp_path):

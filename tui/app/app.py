@@ -294,6 +294,16 @@ class WalkApp(App[int]):
             gc.enable()
         self._collector_held = None
 
+    def freeze_built(self) -> None:
+        """Leave what the walk screen built once the walk was attached (its sized rows, the run
+        card built ahead) out of the collector's later passes, as ``_release_collector`` does
+        for the opening: they live while the walk is open, and the first full pass over them
+        would otherwise stall a key on the card (about 17 ms at 5,000 runs). The young
+        generations are collected first, so the garbage of that building is not kept."""
+        gc.collect(1)
+        gc.freeze()
+        self._froze = True
+
     def fail_exit(self, text: str) -> None:
         """Leave with status 2; ``open_app`` prints ``text`` as one line on stderr."""
         self._release_collector()

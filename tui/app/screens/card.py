@@ -101,8 +101,9 @@ class RunCard(TypedInOrder, Screen):
     """Record a new run (``run_id`` None) or edit one.
 
     One card serves a walk screen for every run it opens (``open_for`` before each push):
-    its widgets are built once, on the first open, and each later open only fills them in
-    again, which costs a fraction of building the screen anew."""
+    its widgets are built once, ahead of the first open while the app waits for a key
+    (``build_ahead``) or else on the first open, and each open only fills them in again, which
+    costs a fraction of building the screen anew."""
 
     BINDINGS = bindings_for("card")
 
@@ -115,6 +116,8 @@ class RunCard(TypedInOrder, Screen):
         self._said: tuple[str, bool] | None = None
         self._built = False   # mounted once: a later open fills the widgets in on resume
         self._restyle = False  # the theme changed since the card was last shown
+        self._rehearsal = 0          # the next step of ``rehearse``
+        self._rehearsed = False      # laid out and drawn once (ahead, or by an open)
         self.open_for(run_id)
 
     def open_for(self, run_id: str | None) -> None:
@@ -163,10 +166,51 @@ class RunCard(TypedInOrder, Screen):
         yield Note("", id="card-msg")
         yield KeyFooter()
 
+    def build_ahead(self) -> None:
+        """Build the card's widgets now without showing it (its walk screen does this while the
+        app waits for a key), so its first open only fills them in, as every later one does.
+        Textual builds a screen when it is first pushed; registering it with the app is that
+        same first step (``App._get_screen``), taken early. Opening the card while it is being
+        built is safe: keys typed meanwhile wait for its first field (``typing_ready``)."""
+        if not self.is_running and self not in self.app._registry:
+            self.app._register(self.app, self)
+
+    def rehearse(self) -> bool:
+        """One step of a rehearsal of the first open while the built card is not shown, each a
+        few milliseconds: lay it out for the app's size (as ``Screen._on_screen_resume`` does on
+        an open), fill it in as a new card (its fields sized by that layout), lay it out again
+        for what that changed, and draw it, the drawing thrown away. That first open then finds
+        its rows shown or hidden, its layout and its widgets' drawings made, as every later open
+        does. Nothing is focused, typed or said; the open fills it in again for its run. True
+        when there is nothing left to rehearse (done, or the card was opened meanwhile)."""
+        if self._rehearsed or self.is_current:
+            return True
+        if not self.is_mounted:
+            return False
+        step = self._rehearsal
+        self._rehearsal += 1
+        if step in (0, 2):
+            self._refresh_layout(self.app.size)
+            self._layout_required = False   # what the building or filling in asked for: done
+        elif step == 1:
+            if self.form.start() is not None:
+                self._show_values()
+                self.recheck()
+        else:
+            self._compositor.render_strips()
+            self._rehearsed = True
+        return self._rehearsed
+
+    @property
+    def rehearsed(self) -> bool:
+        """Laid out and drawn once, by ``rehearse`` or by an open."""
+        return self._rehearsed
+
     def on_mount(self) -> None:
         self._built = True
         self.app.theme_changed_signal.subscribe(self, self._theme_changed)
-        self._start()
+        if self.is_current:   # opened (built ahead, it is filled in when it opens: resume)
+            self._start()
 
     def _theme_changed(self, _theme: object) -> None:
         self._restyle = True
@@ -193,6 +237,7 @@ class RunCard(TypedInOrder, Screen):
         """Fill the card in for the run it was opened for and give its first field the focus
         (keys typed meanwhile are then taken, in order)."""
         self._opening = False
+        self._rehearsed = True   # shown: laid out and drawn by Textual
         focus = self.form.start()
         if focus is None:  # the run to edit is gone
             self.typing_ready.set()
