@@ -206,7 +206,7 @@ def run_spec_for(
     feed = state.result._feeds.get(run.to) if is_feeder else None
     counts = [raceway_ccc(job, rid) for rid in shared_ids(run)]
     ccc = max((c for c in counts if c), default=None)
-    return _spec(job, run, upstream_drop_pct, circuit, is_feeder, feed, rule,
+    return _spec(state.spec_base, job, run, upstream_drop_pct, circuit, is_feeder, feed, rule,
                  _motors_fed(job, state.result, run, is_feeder), ccc)
 
 
@@ -234,8 +234,20 @@ def _state_for(job: Job, result: JobResult | None) -> WalkState:
 
 _NUMBER = (int, float)
 _SPEC_TEMPLATE = {f.name: None if f.default is MISSING else f.default for f in fields(RunSpec)}
-"""Every RunSpec field in order, with its default; copied and filled per run (a copy and item
-sets cost half a dict display of 26 keys)."""
+"""Every RunSpec field in order, with its default (``_spec_base`` fills in a walk's defaults)."""
+
+
+def _spec_base(defaults: dict) -> dict:
+    """Every RunSpec field in order, with its default, and those a run takes from the job
+    (``defaults``: ``Defaults.__dict__``) unless it says otherwise filled in from it; copied and
+    filled per run by ``_spec``, which then sets only what is the run's own (a copy and item
+    sets cost half a dict display of 26 keys)."""
+    base = _SPEC_TEMPLATE.copy()
+    for name in ("material", "insulation", "terminal_temp", "conductor_temp_c", "method",
+                 "raceway", "ambient_c", "min_size", "starting_drop_pct"):
+        base[name] = defaults[name]
+    base["max_total_drop_pct"] = defaults["total_drop_pct"]
+    return base
 _new_object = object.__new__
 _set_attr = object.__setattr__
 
@@ -268,9 +280,10 @@ def _motors_fed(job: Job, result: JobResult, run: Run, is_feeder: bool) -> Motor
     return result.motor_groups.get(run.to)
 
 
-def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder: bool,
-          feed: Feed | None, rule: FeederRule | None = None,
+def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit,
+          feeder: bool, feed: Feed | None, rule: FeederRule | None = None,
           motors: MotorGroup | None = None, ccc: int | None = None) -> RunSpec:
+    """The run's ``RunSpec``, from ``base`` (``_spec_base`` of the job's defaults)."""
     # fields read from the models' __dict__: attribute access on a pydantic model passes its
     # __getattr__ hook first, and this runs once per run of every computation
     d = job.defaults.__dict__
@@ -302,35 +315,39 @@ def _spec(job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit, feeder
         max_drop = d["feeder_drop_pct"] if feeder else d["branch_drop_pct"]
     # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (the
     # larger part of this function's time): every field of RunSpec is set, in field order, those
-    # not given here to RunSpec's defaults (egc, egc_material, egc_bare, stranded).
+    # not given here to the job's defaults (``base``) or RunSpec's (egc, egc_material,
+    # egc_bare, stranded).
     spec = _new_object(RunSpec)
-    values = _SPEC_TEMPLATE.copy()
+    values = base.copy()
     values["circuit"] = circuit
     values["amps"] = amps
     values["length_ft"] = run.length_ft
     values["continuous"] = continuous if continuous_amps is None else False
     values["continuous_amps"] = continuous_amps
     values["distributed"] = rf["distributed"]
-    values["material"] = rf["material"] or d["material"]
-    values["insulation"] = rf["insulation"] or d["insulation"]
-    values["terminal_temp"] = (rf["terminal_temp"] if rf["terminal_temp"] is not None
-                               else d["terminal_temp"])
-    values["conductor_temp_c"] = (rf["conductor_temp_c"] if rf["conductor_temp_c"] is not None
-                                  else d["conductor_temp_c"])
-    values["method"] = rf["method"] or d["method"]
+    # a run's overrides, where it gives one (``OVERRIDABLE``); no word of them is empty
+    if rf["material"]:
+        values["material"] = rf["material"]
+    if rf["insulation"]:
+        values["insulation"] = rf["insulation"]
+    if rf["terminal_temp"] is not None:
+        values["terminal_temp"] = rf["terminal_temp"]
+    if rf["conductor_temp_c"] is not None:
+        values["conductor_temp_c"] = rf["conductor_temp_c"]
+    if rf["method"]:
+        values["method"] = rf["method"]
     values["pf"] = pf
-    values["raceway"] = rf["raceway"] or d["raceway"]
-    values["ambient_c"] = rf["ambient_c"] if rf["ambient_c"] is not None else d["ambient_c"]
+    if rf["raceway"]:
+        values["raceway"] = rf["raceway"]
+    if rf["ambient_c"] is not None:
+        values["ambient_c"] = rf["ambient_c"]
     values["rooftop"] = rf["rooftop"]
     values["sets"] = rf["sets"]
     values["size"] = rf["size"]
     values["ocpd_a"] = rf["ocpd_a"]
     values["max_drop_pct"] = max_drop
     values["upstream_drop_pct"] = upstream_drop_pct
-    values["max_total_drop_pct"] = d["total_drop_pct"]
-    values["min_size"] = d["min_size"]
     values["equipment"] = equipment
-    values["starting_drop_pct"] = d["starting_drop_pct"]
     if continuous_amps is not None and circuit.neutral and feed.frame == "lines":
         values["neutral_amps"] = abs(sum(feed.total))   # NEC 220.61: the maximum unbalance
     if rule is not None:
@@ -359,6 +376,7 @@ class WalkState:
         self.job = walk.job if walk is not None else job
         self.result = result
         self._circuit_cache: dict[tuple[str, str, bool], Circuit] = {}
+        self.spec_base = _spec_base(self.job.defaults.__dict__)   # what every run's spec starts as
         self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
 
     def fail(self, run: Run, message: str, field_name: str | None = None) -> None:
@@ -541,7 +559,7 @@ class WalkState:
             # a branch run on a panel or service: its own load, no feeder rule, no motors fed,
             # no shared raceway (the rest of this method with all of those None)
             try:
-                spec = _spec(self.job, r, upstream, circuit, False, None)
+                spec = _spec(self.spec_base, self.job, r, upstream, circuit, False, None)
                 result, passed = evaluate_picked(spec)
             except (LoadError, CircuitError, ValueError) as exc:
                 self.forget(r)
@@ -559,12 +577,13 @@ class WalkState:
         motors = _motors_fed(self.job, res, r, is_feeder)
         ccc = ccc_for_run(r, self.shared_ccc) if self.shared_ccc else None
         try:
-            spec = _spec(self.job, r, upstream, circuit, is_feeder, feed, rule, motors, ccc)
+            spec = _spec(self.spec_base, self.job, r, upstream, circuit, is_feeder, feed, rule,
+                         motors, ccc)
             result, passed = evaluate_picked(spec)
             beside = None
             if rule is not None and rule.beside:
-                beside = evaluate(_spec(self.job, r, upstream, circuit, is_feeder, feed,
-                                        None, motors, ccc))
+                beside = evaluate(_spec(self.spec_base, self.job, r, upstream, circuit,
+                                        is_feeder, feed, None, motors, ccc))
         except (LoadError, CircuitError, ValueError) as exc:
             self.forget(r)
             self.fail(r, str(exc))

@@ -59,6 +59,7 @@ from gaugewalk.model.walk.phases import (
     Share,
     design_line,
     line_phasors,
+    one_on,
     place,
 )
 
@@ -341,7 +342,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         if circuit is None:
             continue
         mine = own.get(r.id)
-        per_line = None
+        one = None
         share: Share | None
         if mine is not None:
             size = mine.amps * circuit.hots
@@ -349,9 +350,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
             mags = ((1.25 if mine.continuous else 1.0) * mine.amps,) * circuit.hots
             if circuit.hots == 1 and r.position is None and r.phase is None:
                 # placed by the fast path for one pole, which needs no share
-                ph = mine.phasor
-                per_line = (tuple([(ph * x, ph * x) for x in u]) if mine.continuous
-                            else tuple([(ph * x, 0j) for x in u]))
+                one = (mine.phasor, mine.continuous, u)
                 share = None
             else:
                 share = _OwnShare(u, mine)
@@ -371,7 +370,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         poles = min(circuit.hots, n) if n > 1 else 1
         whose.append((r, mine))
         items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size, mags,
-                               mine is not None and poles == n, per_line))
+                               mine is not None and poles == n, one))
     outcome = place(items, n, source.spaces)
     has_neutral = SYSTEMS[source.system].has_neutral
     kinds = _group_sums(items, whose, outcome, feeds, u, has_neutral) if groups else ()
@@ -414,7 +413,7 @@ def _group_sums(items: list[PlaceItem], whose: list[tuple[Run, OwnLoad | None]],
             if it.share is not None:
                 share = it.share(placed.lines)
             else:
-                t, c = it.per_line[placed.lines[0]]
+                t, c = one_on(it.one, placed.lines[0])
                 share = ((placed.lines[0], t, c),)
             add_to(group, share, mine.load)
             continue

@@ -72,7 +72,12 @@ class SupplyGraph:
         order); a source in a loop of feeders is not reached (``unreached``)."""
         order: list[str] = []
         seen: set[str] = set()
-        feeder, children = self.feeder, self.children
+        feeder = self.feeder
+        # the sources each source feeds, in file order of their feeders (``feeder`` was filled
+        # in file order): a pass over the feeders, not over every run
+        fed: dict[str, list[str]] = {}
+        for target, r in feeder.items():
+            fed.setdefault(r.from_, []).append(target)
         stack = [sid for sid in self.sources if sid not in feeder]
         stack.reverse()
         while stack:
@@ -81,8 +86,7 @@ class SupplyGraph:
                 continue
             seen.add(sid)
             order.append(sid)
-            below = [r.to for r in children[sid] if feeder.get(r.to) is r]
-            stack.extend(reversed(below))
+            stack.extend(reversed(fed.get(sid, ())))
         return order
 
     @cached_property
@@ -94,10 +98,9 @@ class SupplyGraph:
     @cached_property
     def position(self) -> dict[str, int]:
         """{run id: index of its first run in the file}."""
-        position: dict[str, int] = {}
-        for i, r in enumerate(self.runs):
-            position.setdefault(r.id, i)
-        return position
+        ids = [r.id for r in self.runs]
+        # the first index of each id: later indexes are written first and overwritten
+        return dict(zip(reversed(ids), range(len(ids) - 1, -1, -1), strict=True))
 
     # -- reading the graph ---------------------------------------------------------------------
     def roots(self) -> list[Source]:
@@ -158,8 +161,8 @@ class SupplyGraph:
     # -- the incremental path ------------------------------------------------------------------
     def shape(self) -> tuple:
         """What the graph depends on: every run's (id, from, to) and source's (id, kind, system)."""
-        return tuple((r.id, r.from_, r.to) for r in self.job.runs) + tuple(
-            (s.id, s.kind, s.system) for s in self.job.sources)
+        return tuple([(r.id, r.from_, r.to) for r in self.job.runs]
+                     + [(s.id, s.kind, s.system) for s in self.job.sources])
 
     def fits(self, job: Job, run: Run, shape: tuple) -> bool:
         """True when ``job`` is the walk this was built from, with at most ``run`` put in place

@@ -115,17 +115,18 @@ class PlaceItem:
     them (None: not given); ``share(lines)`` its line currents; ``size`` orders the greedy
     (largest first); ``mags`` its design current on each of its poles [A], by which the greedy
     weighs the lines; ``balanced``: every rotation of its lines loads them alike (a balanced
-    three-phase load), so only the first with a free space is tried; ``per_line``: for a
-    one-pole run, its (current, continuous part) on each line, worked out ahead (the usual run,
-    placed fastest)."""
+    three-phase load), so only the first with a free space is tried; ``one``: for a one-pole
+    run without a share, (its current [A, phasor against its line's voltage], whether it is
+    continuous, the source's line phasors), its current on line k being ``phasor * u[k]``,
+    worked out only for the lines it is tried on (the usual run, placed fastest)."""
 
     __slots__ = ("key", "poles", "position", "phase", "share", "size", "mags", "balanced",
-                 "per_line")
+                 "one")
 
     def __init__(self, key: str, poles: int, position: int | None, phase: str | None,
                  share: Share | None, size: float, mags: tuple[float, ...],
                  balanced: bool = False,
-                 per_line: tuple[tuple[complex, complex], ...] | None = None) -> None:
+                 one: tuple[complex, bool, tuple[complex, ...]] | None = None) -> None:
         self.key = key
         self.poles = poles
         self.position = position
@@ -134,7 +135,14 @@ class PlaceItem:
         self.size = size
         self.mags = mags
         self.balanced = balanced
-        self.per_line = per_line
+        self.one = one
+
+
+def one_on(one: tuple[complex, bool, tuple[complex, ...]], k: int) -> tuple[complex, complex]:
+    """A one-pole run's (current, continuous part) on line ``k`` [A, phasors]."""
+    phasor, continuous, u = one
+    t = phasor * u[k]
+    return t, (t if continuous else 0j)
 
 
 @dataclass
@@ -233,8 +241,8 @@ def _share(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, complex
     """The line currents of ``it`` on ``lines``: its share, or its worked-out one-pole lines."""
     if it.share is not None:
         return it.share(lines)
-    assert it.per_line is not None, "a run to place has a share or its one-pole lines"
-    t, c = it.per_line[lines[0]]
+    assert it.one is not None, "a run to place has a share or its one-pole current"
+    t, c = one_on(it.one, lines[0])
     return ((lines[0], t, c),)
 
 
@@ -362,8 +370,8 @@ def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[comp
     lines_of = range(n_lines)
     for it in sorted(rest, key=_by_size):  # stable: file order among equals
         poles = it.poles
-        per_line = it.per_line
-        if per_line is not None:
+        one = it.one
+        if one is not None:
             # one pole: the least loaded line with a free position, the first of equals
             k = -1
             at_k = None   # the free position on line k, looked up once
@@ -381,9 +389,10 @@ def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[comp
                 free.taken.add(p)
                 at = (p,)
             load[k] += it.mags[0]
-            t, c = per_line[k]
+            phasor, continuous, u = one
+            t = phasor * u[k]
             total[k] += t
-            cont[k] += c
+            cont[k] += t if continuous else 0j
             placements[it.key] = Placement(singles[k], at, LINE_NAMES[k], "placed")
             continue
         choices = options(poles, n_lines)
@@ -445,11 +454,12 @@ def _file_order(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[
             start = (p - 1) // 2
         else:
             start = 0
-        if it.per_line is not None:
+        if it.one is not None:
             k = start % n_lines
-            t, c = it.per_line[k]
+            phasor, continuous, u = it.one
+            t = phasor * u[k]
             total[k] += t
-            cont[k] += c
+            cont[k] += t if continuous else 0j
             continue
         lines = tuple((start + j) % n_lines for j in range(poles))
         for k, t, c in _share(it, lines):
