@@ -123,3 +123,35 @@ def test_a_row_updated_in_place_leaves_each_columns_longest_entry_as_a_whole_reb
         assert sheet._longest == whole._longest
         rows = sheet.rows
     assert sheet._longest == [2, 4, 2]
+
+
+
+async def test_a_filter_of_two_words_keeps_runs_with_both_and_the_view_scrolls_with_its_lines(
+        tmp_path):
+    app = new_app(write_walk(tmp_path, _many_runs(40)), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        lights = [f"L{i}" for i in range(1, 41)]
+        await pilot.press("end")   # scrolled down to the last run
+        await pilot.pause()
+        assert sheet.scroll_y > 0 and sheet.virtual_size.height == len(sheet.rows)
+        await pilot.press("slash")
+        await type_text(pilot, "light")
+        await pilot.pause()
+        assert sheet.visible_keys() == lights and sheet.virtual_size.height == 40
+        await type_text(pilot, " proofer")   # no run is both
+        await pilot.pause()
+        assert sheet.visible_keys() == [] and sheet.virtual_size.height == 0
+        await pilot.press(*["backspace"] * len("light proofer"))
+        await type_text(pilot, "proofer")    # one run: it fits, the view is back at the top
+        await pilot.pause()
+        assert sheet.visible_keys() == ["R1"] and sheet.scroll_y == 0
+        await type_text(pilot, " ight")      # both words, one inside another word
+        await pilot.pause()
+        assert sheet.visible_keys() == []
+        await pilot.press(*["backspace"] * len("proofer ight"))
+        await type_text(pilot, "ight row")
+        await pilot.press("enter", "exclamation_mark")   # and problems only
+        await pilot.pause()
+        assert sheet.visible_keys() == [k for k in lights if sheet.rows[sheet._index[k]].flag]
