@@ -256,3 +256,27 @@ async def test_a_card_field_keeps_the_end_of_a_long_text_in_view_and_scrolls_bac
         await type_keys(app, pilot, ["up", "down", *"Oven"], fast=False)   # back in: replaced
         assert field.value == "Oven" and field.scroll_x == 0
         assert "Oven" in str(field.render_line(0).text)
+
+
+async def test_a_theme_changed_while_the_card_was_open_is_on_the_walk_screen_when_it_closes(
+        tmp_path):
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        walk = app.screen
+        before = walk.styles.background
+        await pilot.press("n")
+        await pilot.pause()
+        card = app.screen
+        await pilot.press("escape")   # and back, the theme as it was: the styles as they were
+        await pilot.pause()
+        assert app.screen is walk and walk.styles.background == before
+        await pilot.press("n")
+        await pilot.pause()
+        await pilot.press("f3")   # the other look, while the card is open
+        await pilot.pause()
+        await pilot.press("escape")
+        await pilot.pause()
+        assert app.screen is walk
+        assert walk.styles.background != before
+        assert walk.styles.background == card.styles.background   # both in the new look

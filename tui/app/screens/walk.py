@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING, Callable
 
-from textual import on
+from textual import events, on
 from textual.app import ComposeResult
 from textual.containers import ScrollableContainer, Vertical
 from textual.screen import Screen
@@ -66,6 +66,7 @@ class WalkScreen(Screen):
         self._shown = -1   # the session's ``version`` the sheet shows
         self._card: RunCard | None = None   # the run card, once made (``open_card``, ``_card_ahead``)
         self._card_ahead_on = False   # a step of building the card ahead is waiting
+        self._restyle = False   # the theme changed while another screen was on top
 
     def compose(self) -> ComposeResult:
         yield TitleLine()
@@ -95,6 +96,10 @@ class WalkScreen(Screen):
         self._raw_rows = None
         self.query_one(RunSheet).focus()
         self.set_interval(DISK_LOOK_S, self.look_at_disk)
+        self.app.theme_changed_signal.subscribe(self, self._theme_changed)
+
+    def _theme_changed(self, _theme: object) -> None:
+        self._restyle = True
 
     @property
     def session(self) -> WalkSession:
@@ -130,7 +135,14 @@ class WalkScreen(Screen):
             self.reload()
         self.refresh_bindings()
 
-    def on_screen_resume(self) -> None:
+    def on_screen_resume(self, event: events.ScreenResume) -> None:
+        """Back from another screen (the run card, most often): its widgets keep the styles they
+        were given unless the theme changed meanwhile, so Textual is spared styling every widget
+        of the walk screen anew (a few milliseconds of each run stored from the card); the sheet
+        shows what changed (``reload``)."""
+        if not self._restyle:
+            event.refresh_styles = False
+        self._restyle = False
         if self._session is None:
             return
         self.reload()
