@@ -204,6 +204,8 @@ async def test_the_card_is_built_while_the_app_waits_and_its_first_open_shows_th
         assert app.screen is walk and app.sub_title == title and card.stored == []
         assert app.session.draft is None and path.read_text() == text
         assert not list(tmp_path.glob("*draft*")) and not list(tmp_path.glob(".*draft*"))
+        ahead = _footer_keys(card)   # its key line built too, with the card's own keys
+        assert "escape" in ahead and "n" not in ahead
         assert walk.query_one(RunSheet).move_to("R1")
         await burst(app, pilot, ["e", *"77"])   # typed right behind the key that opens it
         assert app.screen is card and card.run_id == "R1"
@@ -211,6 +213,7 @@ async def test_the_card_is_built_while_the_app_waits_and_its_first_open_shows_th
         assert card.focused is card.query_one("#f-length")
         assert card.query_one("#f-length").value == "77"
         assert app.sub_title == "Run card: editing R1"
+        assert _footer_keys(card) == ahead
         await type_keys(app, pilot, ["enter"], fast=False)
         await settle(app, pilot)
         assert app.screen is walk

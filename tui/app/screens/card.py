@@ -178,8 +178,8 @@ class RunCard(TypedInOrder, Screen):
     def rehearse(self) -> bool:
         """One step of a rehearsal of the first open while the built card is not shown, each a
         few milliseconds: lay it out for the app's size (as ``Screen._on_screen_resume`` does on
-        an open), fill it in as a new card (its fields sized by that layout), lay it out again
-        for what that changed, and draw it, the drawing thrown away. That first open then finds
+        an open), fill it in as a new card (its fields sized by that layout) and build its key
+        line, lay it out again for what that changed, and draw it, the drawing thrown away. That first open then finds
         its rows shown or hidden, its layout and its widgets' drawings made, as every later open
         does. Nothing is focused, typed or said; the open fills it in again for its run. True
         when there is nothing left to rehearse (done, or the card was opened meanwhile)."""
@@ -196,6 +196,7 @@ class RunCard(TypedInOrder, Screen):
             if self.form.start() is not None:
                 self._show_values()
                 self.recheck()
+            self.query_one(KeyFooter).show_keys_ahead()
         else:
             self._compositor.render_strips()
             self._rehearsed = True

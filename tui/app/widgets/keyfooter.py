@@ -32,6 +32,13 @@ class KeyFooter(Footer):
             return
         super().bindings_changed(screen)
 
+    def show_keys_ahead(self) -> None:
+        """Build the keys of its screen next, while the screen is not shown yet (a screen built
+        ahead of its first open): that open then finds them built, not rebuilt after its first
+        paint."""
+        self._bindings_ready = True
+        self.call_later(self.recompose)
+
     def compose(self) -> ComposeResult:
         self._showing = shown_keys(self.screen) if self._bindings_ready else None
         yield from super().compose()
