@@ -554,7 +554,7 @@ class WalkState:
                 self.forget(r)
                 return
         is_feeder = self.walk.feeder.get(r.to) is r
-        from_transformer = _from_transformer(self, r)
+        from_transformer = r.from_ in self.walk.transformers
         if not (is_feeder or from_transformer or self.shared_ccc):
             # a branch run on a panel or service: its own load, no feeder rule, no motors fed,
             # no shared raceway (the rest of this method with all of those None)
@@ -709,11 +709,6 @@ class WalkState:
                 problems.extend(runs.get(r.id, ()))
                 problems.extend(placed.get(r.id, ()))
         res.problems = problems
-
-
-def _from_transformer(state: WalkState, r: Run) -> bool:
-    source = state.walk.sources.get(r.from_)
-    return source is not None and source.kind == "transformer"
 
 
 def compute_job(job: Job) -> JobResult:

@@ -14,7 +14,8 @@ Public API:
   first of ``feeds`` that does not end where it starts)}, ``orphans`` (runs from no source of the
   job), ``order`` (source ids from the top, each before the sources it feeds), ``unreached``
   (sources no chain of feeders reaches from a top: they are in a loop), ``position``
-  {run id: index of its first run in the file}; these three are worked out when first read.
+  {run id: index of its first run in the file}, ``transformers`` (the ids of the transformer
+  sources); these four are worked out when first read.
 - ``roots()``, ``is_feeder(run)``, ``runs_below(source_id)``, ``sources_below(source_id,
   follow)``, ``feeder_loops()``; ``shape()`` and ``fits(job, run, shape)`` for the incremental
   recomputation.
@@ -94,6 +95,11 @@ class SupplyGraph:
         """Sources no chain of feeders reaches from a top: they are in a loop."""
         reached = set(self.order)
         return [sid for sid in self.sources if sid not in reached]
+
+    @cached_property
+    def transformers(self) -> frozenset[str]:
+        """Ids of the transformers among the sources (a run from one is on its secondary)."""
+        return frozenset(sid for sid, s in self.sources.items() if s.kind == "transformer")
 
     @cached_property
     def position(self) -> dict[str, int]:
