@@ -544,7 +544,11 @@ class WalkState:
         return None
 
     # -- top-down: sizing ------------------------------------------------------------------
-    def evaluate_run(self, r: Run, upstream: float) -> None:
+    def evaluate_run(self, r: Run, upstream: float, moved: RunSpec | None = None) -> None:
+        """Size ``r`` below a bus at ``upstream`` [%] and store it. ``moved``: for a run that
+        did not change, its stored spec with only the drop up to its source made ``upstream``
+        (``gaugewalk.model.walk.recompute``), taken as its spec where the run is a branch on a
+        panel or service, whose spec nothing else above it enters."""
         res = self.result
         res._run_problems.pop(r.id, None)
         circuit = res._circuits.get(r.id)
@@ -559,7 +563,8 @@ class WalkState:
             # a branch run on a panel or service: its own load, no feeder rule, no motors fed,
             # no shared raceway (the rest of this method with all of those None)
             try:
-                spec = _spec(self.spec_base, self.job, r, upstream, circuit, False, None)
+                spec = (moved if moved is not None
+                        else _spec(self.spec_base, self.job, r, upstream, circuit, False, None))
                 result, passed = evaluate_picked(spec)
             except (LoadError, CircuitError, ValueError) as exc:
                 self.forget(r)

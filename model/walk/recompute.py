@@ -120,7 +120,7 @@ def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: 
                 state.store(r, with_fields(old, total_drop_pct=total, margins=margins),
                             is_feeder, spec)
             else:
-                state.evaluate_run(r, upstream)
+                state.evaluate_run(r, upstream, new)
             if is_feeder and r.to not in dirty:
                 stack.append(r.to)
 
