@@ -135,6 +135,8 @@ class JobResult:
     _place_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _sum_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _chain_problems: list[Problem] = field(default_factory=list, repr=False)
+    _source_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
+    """{source id: its problems in ``_chain_problems``: its sums' and its lugs'}."""
     _raceway_problems: list[Problem] = field(default_factory=list, repr=False)
     _shape: tuple = field(default=(), repr=False)
     _touched: set[str] | None = field(default=None, repr=False, compare=False)
@@ -671,7 +673,11 @@ class WalkState:
             else:
                 res.source_drop_pct[r.to] = result.total_drop_pct
 
-    def chain_problems(self) -> None:
+    def chain_problems(self, changed: set[str] | None = None) -> None:
+        """The walk's problems about its chains: runs from no source, sources in a loop, and,
+        source by source from the top, those of its sums and its main lugs (NEC 408.36).
+        ``changed``: after an update in place, the only sources whose sums or feeder were
+        done again (``gaugewalk.model.walk.recompute``); the others' are kept."""
         walk, res = self.walk, self.result
         found: list[Problem] = []
         for r in walk.orphans:
@@ -680,13 +686,19 @@ class WalkState:
         for sid in walk.unreached:
             found.append(Problem("", None, "source", sid, None, "this source is in a loop of "
                                  "feeders, so it cannot be followed up to the service"))
-        for sid in walk.order:
-            found.extend(res._sum_problems.get(sid, ()))
+        parts = res._source_problems
+        if changed is None:
+            parts.clear()
+        for sid in (walk.order if changed is None else changed):
+            mine = list(res._sum_problems.get(sid, ()))
             feeder = walk.feeder.get(sid)
             fed = res.runs.get(feeder.id) if feeder is not None else None
             why = lugs_problem(walk.sources[sid], fed.ocpd_a if fed is not None else None)
             if why is not None:
-                found.append(Problem("", None, "source", sid, "main_a", why))
+                mine.append(Problem("", None, "source", sid, "main_a", why))
+            parts[sid] = mine
+        for sid in walk.order:
+            found.extend(parts[sid])
         res._chain_problems = found
 
     def count_shared(self) -> None:

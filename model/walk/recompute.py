@@ -63,6 +63,7 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
     chain: list[Run] = []
     sid = run.from_
     changed = state.sum_source(sid)
+    redone = {sid}   # the sources summed again or below a feeder done again
     touched.update(r.id for r in walk.children[sid])
     while changed:
         f = walk.feeder.get(sid)
@@ -73,6 +74,7 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
             break  # sized for its own load: evaluated again only to weigh it against its source's
         sid = f.from_
         changed = state.sum_source(sid)
+        redone.add(sid)
         touched.update(r.id for r in walk.children[sid])
     # re-evaluate top-down: the feeders whose load changed, then the run itself
     is_feeder = walk.feeder.get(run.to) is run
@@ -83,19 +85,23 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
     state.evaluate_run(run, result.source_drop_pct.get(run.from_, 0.0))
     if is_feeder:
         dirty.append(run.to)
-    _refresh_below(state, dirty, skip={f.id for f in chain} | {run.id}, touched=touched)
-    state.chain_problems()
+    _refresh_below(state, dirty, skip={f.id for f in chain} | {run.id}, touched=touched,
+                   redone=redone)
+    state.chain_problems(redone)
     state.assemble_problems()
     return result
 
 
-def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: set[str]) -> None:
+def _refresh_below(state: WalkState, dirty: list[str], skip: set[str], touched: set[str],
+                   redone: set[str]) -> None:
     """Carry new bus drops down: shift the total where the size cannot change, else
-    re-evaluate the run. The runs of every source visited are added to ``touched``."""
+    re-evaluate the run. The runs of every source visited are added to ``touched``, and the
+    source to ``redone`` (the source a feeder done again feeds is visited after it)."""
     walk, result = state.walk, state.result
     stack = list(reversed(dirty))
     while stack:
         sid = stack.pop()
+        redone.add(sid)
         upstream = result.source_drop_pct.get(sid, 0.0)
         children = walk.children[sid]
         touched.update(r.id for r in children)

@@ -248,3 +248,19 @@ def test_the_drop_through_a_transformer_follows_ieee_141():
     named = compute_job(_at_pf_08(_transformer_job(transformer={"impedance_pct": 3.0})))
     assert not named.transformers["T1"].impedance_assumed
     assert named.transformers["T1"].drop_pct == pytest.approx(t1.drop_pct * 3.0 / 4.5)
+
+
+def test_a_main_lugs_problem_comes_and_goes_with_an_edit_as_in_a_full_compute():
+    from gaugewalk.model.walk.recompute import recompute_run
+
+    # 30,000 / (sqrt(3) x 208) = 83.3 A: a 90 A feeder device over the 60 A bus (NEC 408.36);
+    # 10,000 VA: 27.8 A, a 30 A device, within it
+    job = _panel_job(run_table("R1", "LP1", "Oven", "40", load=(10, "kVA"), connection="3P"),
+                     panel={"rating_a": 60})
+    result = compute_job(job)
+    for kva, lugs in ((30, True), (10, False)):
+        job.run("R1").load = Load(value=kva, unit="kVA")
+        result = recompute_run(job, result, "R1")
+        said = [str(p) for p in result.problems]
+        assert said == [str(p) for p in compute_job(job).problems]
+        assert any("main lugs only" in m for m in said) is lugs
