@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from gaugewalk.tui.app.widgets.runsheet import SheetColumn
+from gaugewalk.tui.app.sheet.shape import SheetColumn
 
 COLUMNS: tuple[SheetColumn, ...] = (
     SheetColumn("id", "Run", 7),

@@ -14,7 +14,7 @@ from pathlib import Path
 
 from gaugewalk.model.walk.plain_text import shown
 from gaugewalk.model.walkfile.toml_parse import parse_toml
-from gaugewalk.tui.app.widgets.runsheet import SheetRow
+from gaugewalk.tui.app.sheet.shape import SheetRow
 
 SIZING = "… sizing"
 

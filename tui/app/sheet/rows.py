@@ -24,7 +24,7 @@ from gaugewalk.model.walk.plausible import long_length
 from gaugewalk.tables.conductor.ampacity import rooftop_words
 from gaugewalk.tables.conductor.sizes import size_index
 from gaugewalk.tables.equipment.horsepower import hp_text
-from gaugewalk.tui.app.widgets.runsheet import SheetRow
+from gaugewalk.tui.app.sheet.shape import SheetRow
 
 
 def load_text(run: Run) -> str:

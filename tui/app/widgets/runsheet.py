@@ -7,7 +7,7 @@ already formatted cells; the sheet keeps a view order (filtered and sorted indic
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+from dataclasses import replace
 from typing import Callable, Sequence
 
 from rich.cells import cell_len
@@ -20,34 +20,7 @@ from textual.scroll_view import ScrollView
 from textual.strip import Strip
 from textual.widget import Widget
 
-
-@dataclass(frozen=True)
-class SheetColumn:
-    """One column: key, heading, width [cells], right-aligned or not; a ``grow`` column takes
-    the room a wider terminal gives."""
-
-    key: str
-    title: str
-    width: int
-    right: bool = False
-    grow: bool = False
-
-
-@dataclass
-class SheetRow:
-    """One row of the sheet.
-
-    ``cells`` are formatted strings in column order; ``flag`` marks a row that fails a limit
-    (drawn in the warning style, but the words are in the cells too); ``sort`` holds the raw
-    values used for sorting by column key; ``search`` is the lower-case text the filter matches.
-    """
-
-    key: str
-    cells: tuple[str, ...]
-    flag: bool = False
-    sort: dict[str, object] = field(default_factory=dict)
-    search: str = ""
-    group: str = ""
+from gaugewalk.tui.app.sheet.shape import SheetColumn, SheetRow
 
 
 def _fit(text: str, width: int, right: bool) -> str:
