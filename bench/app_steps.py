@@ -3,7 +3,10 @@
 
 "First paint" is the moment the run sheet draws its first row of the walk; "sized" the moment it
 first draws a row with its computed result (the app sizes the runs in the background after the
-first paint, and the status column says so meanwhile).
+first paint, and the status column says so meanwhile). The app process starts as the command
+line starts it (``tui/app/launch.py``): the head start's child is forked before Textual is
+imported, and sizes the walk on another processor meanwhile (``gaugewalk.tui.app.headstart``);
+its largest resident set is reported beside the app's.
 
 Storing a run: the run under the cursor is opened on the run card (``e``), its load retyped key by
 key, and Enter pressed. The step runs from Enter to the later of two moments: the run sheet drawing
@@ -128,7 +131,12 @@ class DiskWatch:
 
 def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> dict:
     """The walk app on ``path``: first paint; with ``keys`` scrolling and filtering; with
-    ``stores`` that many runs stored from the run card."""
+    ``stores`` that many runs stored from the run card. Started as the command line starts it:
+    the head start's child forked first, before Textual is imported
+    (``gaugewalk.tui.app.headstart``)."""
+    from gaugewalk.tui.app.headstart import HeadStart
+
+    head_start = HeadStart.begin(str(path))
     from textual.app import App
 
     from gaugewalk.tui.app.app import make_app
@@ -274,7 +282,7 @@ def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> d
         }
 
     async def main() -> dict:
-        app = make_app(str(path), config_dir=config)
+        app = make_app(str(path), config_dir=config, head_start=head_start)
         heart = Heartbeat()
         async with app.run_test(size=(100, 30)) as pilot:
             heart.start()
@@ -304,6 +312,8 @@ def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> d
                 out.update(await store_runs(app, pilot, heart))
             heart.stop()
             out["peak_mb"] = maxrss_mb()
+            # the head start's child, ended (and waited for) once it sent its rows
+            out["head_start_mb"] = maxrss_mb(children=True) if head_start is not None else 0.0
         return out
 
     return asyncio.run(main())

@@ -154,7 +154,8 @@ def measure(n: int, repeat: int, starts: int, app: bool, stores: int, whole: boo
         out["worst_key_ms"] = max(out["worst_scroll_ms"], out["worst_filter_ms"],
                                   out["worst_card_ms"], out["worst_typing_ms"])
         out["app_rss_mb"] = max(o["peak_mb"] for o in opens)
-        out["peak_mb"] = max(out["model_rss_mb"], out["app_rss_mb"])
+        out["head_start_rss_mb"] = max(o["head_start_mb"] for o in opens)
+        out["peak_mb"] = max(out["model_rss_mb"], out["app_rss_mb"], out["head_start_rss_mb"])
     ratios(out)
     return out
 

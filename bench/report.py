@@ -33,6 +33,8 @@ DETAIL = {
                                f"{_ms(r['worst_filter_ms'])}, open card {_ms(r['worst_card_ms'])}, "
                                f"type {_ms(r['worst_typing_ms'])}"),
     "peak_mb": lambda r: (f"app {r['app_rss_mb']:.0f} MB, " if "app_rss_mb" in r else "")
+                         + (f"its head start {r['head_start_rss_mb']:.0f} MB, "
+                            if r.get("head_start_rss_mb") else "")
                          + f"model only {r['model_rss_mb']:.0f} MB "
                          + f"(traced {r['traced_peak_mb']:.0f} MB)",
 }

@@ -71,8 +71,10 @@ def compile_package() -> None:
             raise RuntimeError(f"{top}/ does not compile")
 
 
-def maxrss_mb() -> float:
-    """The largest resident set of this process so far [MB]."""
+def maxrss_mb(children: bool = False) -> float:
+    """The largest resident set of this process so far [MB]; with ``children``, the largest of
+    its child processes ended and waited for."""
     import resource
 
-    return resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0  # Linux: KiB
+    who = resource.RUSAGE_CHILDREN if children else resource.RUSAGE_SELF
+    return resource.getrusage(who).ru_maxrss / 1024.0  # Linux: KiB

@@ -24,6 +24,8 @@ from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScree
 
 if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is already up
     from gaugewalk.model.session.session import WalkSession
+    from gaugewalk.tui.app.headstart import HeadStart
+    from gaugewalk.tui.app.sheet.shape import SheetRow
 
 
 SIZE_BEFORE_SHOWING = 20_000
@@ -34,6 +36,11 @@ SIZE_BEFORE_SHOWING = 20_000
 FIRST_PAINT_WAIT_S = 2.0
 """Longest the walk's reading waits for the first paint of its runs as written [s]."""
 
+HEAD_START_WAIT_S = 0.5
+"""Longest the walk's reading then waits for the head start's first rows on screen [s]: the
+reading would take turns with the event loop that shows them (about 0.15 s after the first
+paint at 5,000 runs here; a walk of tens of thousands of runs takes seconds)."""
+
 
 def light_terminal() -> bool:
     """Guess a light terminal from ``COLORFGBG`` ("fg;bg", bg 7 or 15 is light)."""
@@ -43,16 +50,19 @@ def light_terminal() -> bool:
 
 
 class WalkApp(App[int]):
-    """gaugewalk's app. ``path`` is the walk to open (None: offer recent walks)."""
+    """gaugewalk's app. ``path`` is the walk to open (None: offer recent walks); ``head_start``
+    the child sizing it since the process began (``gaugewalk.tui.app.headstart``), if any."""
 
     CSS_PATH = "app.tcss"
     TITLE = "gaugewalk"
     BINDINGS = bindings_for("app")
     ENABLE_COMMAND_PALETTE = False
 
-    def __init__(self, path: str | None = None, *, config_dir: Path | None = None) -> None:
+    def __init__(self, path: str | None = None, *, config_dir: Path | None = None,
+                 head_start: HeadStart | None = None) -> None:
         super().__init__()
         self.start_path = path
+        self.head_start = head_start if head_start is not None and head_start.path == path else None
         self.recent = RecentWalks.load(config_dir)
         self.session: WalkSession | None = None
         self.exit_message: str | None = None
@@ -101,17 +111,43 @@ class WalkApp(App[int]):
         from gaugewalk.tui.app.screens.walk import WalkScreen
         from gaugewalk.tui.app.sheet.rawrows import raw_rows
 
-        # the walk screen at once, with the runs as written; the walk is read, checked and sized
-        # behind them (``_load``), then attached (``_show``)
-        shown = threading.Event()
-        self.push_screen(WalkScreen(None, raw_rows(p), when_shown=shown.set))
-        self._load(str(p), shown)
+        # the walk screen at once, with the runs as written (the bytes the head start read, if
+        # there is one: it sends the sized rows meanwhile, ``_take_head_start``); the walk is
+        # read, checked and sized behind them (``_load``), then attached (``_show``)
+        shown, sized = threading.Event(), threading.Event()
+        head = self.head_start if path == self.start_path else None
+        text = head.text() if head is not None else None
+        self.push_screen(WalkScreen(None, raw_rows(p, text=text), when_shown=shown.set))
+        if head is not None:
+            self._take_head_start(head, sized)
+        else:
+            sized.set()
+        self._load(str(p), shown, sized)
+
+    @work(thread=True, group="head-start")
+    def _take_head_start(self, head: HeadStart, sized: threading.Event) -> None:
+        """The head start's rows onto the walk screen as they come (a thread: it waits);
+        ``sized`` is set once the first of them are painted, or the child ended without."""
+        try:
+            for rows in head.parts():
+                self.call_from_thread(self._head_rows, rows, sized)
+        finally:
+            sized.set()
+
+    def _head_rows(self, rows: list[SheetRow], sized: threading.Event) -> None:
+        from gaugewalk.tui.app.screens.walk import WalkScreen
+
+        for screen in self.screen_stack:
+            if isinstance(screen, WalkScreen) and not screen.attached:
+                screen.show_head_start(rows)
+        self.call_after_refresh(sized.set)
 
     @work(thread=True, exclusive=True, group="open")
-    def _load(self, path: str, shown: threading.Event) -> None:
-        # not before the runs as written are on screen (``shown``): the thread would take turns
-        # with the event loop, which is making that first paint
+    def _load(self, path: str, shown: threading.Event, sized: threading.Event) -> None:
+        # not before the runs as written are on screen (``shown``), nor the head start's first
+        # rows (``sized``): the thread would take turns with the event loop, which paints them
         shown.wait(FIRST_PAINT_WAIT_S)
+        sized.wait(HEAD_START_WAIT_S)
         from gaugewalk.model.session.session import WalkSession
         from gaugewalk.model.walkfile.read import WalkFileError
 
@@ -125,14 +161,20 @@ class WalkApp(App[int]):
         # the runs as written are on screen meanwhile (raw_rows); a walk of up to
         # SIZE_BEFORE_SHOWING runs is sized here first, so its sheet is built once, sized
         size_first = len(session.job.runs) <= SIZE_BEFORE_SHOWING
+        rows = None
         if size_first:
-            from gaugewalk.tui.app.sheet import rows  # noqa: F401  # off the event loop
+            from gaugewalk.tui.app.sheet.rows import all_rows  # off the event loop
 
             try:
                 session.recompute()
             finally:
                 session.busy = False
-        self.call_from_thread(self._show, session)
+            if self.head_start is not None:   # to compare with the head start's (``attach``)
+                rows = all_rows(session)
+        if rows is None:
+            self.call_from_thread(self._show, session)
+        else:
+            self.call_from_thread(self._show, session, rows)
         if said:
             self.call_from_thread(self.notify, said, severity="warning", timeout=12)
         comments = session.comment_warning()
@@ -238,6 +280,8 @@ class WalkApp(App[int]):
             look()
 
     def on_unmount(self) -> None:
+        if self.head_start is not None:
+            self.head_start.stop()
         self._release_collector()
         if self._froze:   # a process that goes on (the tests) collects them as before
             gc.unfreeze()
@@ -247,7 +291,9 @@ class WalkApp(App[int]):
             if left and not self.exit_message:  # said on stderr after the app has gone
                 self.exit_message = f"gaugewalk: {shown(self.session.path.name)}: {left}"
 
-    def _show(self, session: WalkSession) -> None:
+    def _show(self, session: WalkSession, rows: list[SheetRow] | None = None) -> None:
+        """The walk open: attached to the walk screen that shows it as written (``rows``: its
+        sheet's rows, made in the reading thread), else on a new one."""
         from gaugewalk.tui.app.screens.walk import WalkScreen
 
         self.session = session
@@ -259,7 +305,10 @@ class WalkApp(App[int]):
         opening = next((s for s in self.screen_stack
                         if isinstance(s, WalkScreen) and not s.attached), None)
         if opening is not None:
-            opening.attach(session)   # its rows made again in place, sized
+            if rows is None:
+                opening.attach(session)   # its rows made again in place, sized
+            else:
+                opening.attach(session, rows)
         else:
             self.push_screen(WalkScreen(session))
         self.refresh_title()
@@ -369,6 +418,7 @@ class WalkApp(App[int]):
         self.push_screen(AskScreen(f"Quitting now loses {lose}. Quit anyway?", "quit", "stay"), answer)
 
 
-def make_app(path: str | None = None, *, config_dir: Path | None = None) -> WalkApp:
+def make_app(path: str | None = None, *, config_dir: Path | None = None,
+             head_start: HeadStart | None = None) -> WalkApp:
     """The one way to build the app (command line and tests alike)."""
-    return WalkApp(path, config_dir=config_dir)
+    return WalkApp(path, config_dir=config_dir, head_start=head_start)

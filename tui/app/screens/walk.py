@@ -67,6 +67,10 @@ class WalkScreen(Screen):
         self._card: RunCard | None = None   # the run card, once made (``open_card``, ``_card_ahead``)
         self._card_ahead_on = False   # a step of building the card ahead is waiting
         self._restyle = False   # the theme changed while another screen was on top
+        self._sheet_up = False   # the runs as written are in the sheet (``on_mount``)
+        self._head_parts: list[list[SheetRow]] = []   # the head start's rows come so far
+        self._head: list[SheetRow] | None = None   # all of them, once shown as the sheet
+        self.head_start_kept = False   # attached with the head start's rows (equal to its own)
 
     def compose(self) -> ComposeResult:
         yield TitleLine()
@@ -85,6 +89,9 @@ class WalkScreen(Screen):
         self.query_one("#find").display = False
         if self._session is None:
             self.query_one(RunSheet).set_rows(self._raw_rows or [])
+            self._sheet_up = True
+            if self._head_parts:   # the head start's rows came before the screen was up
+                self._show_head_parts()
             self._bar()
             self.query_one("#detail", Static).update(
                 "Reading, checking and sizing the walk; the runs are shown as written meanwhile.",
@@ -114,15 +121,44 @@ class WalkScreen(Screen):
         """The walk is open here (not only its runs as written)."""
         return self._session is not None
 
-    def attach(self, session: WalkSession) -> None:
+    def show_head_start(self, rows: list[SheetRow]) -> None:
+        """Sized rows from the head start (``gaugewalk.tui.app.headstart``) while the walk is
+        being opened: the first part in place of the same runs as written, the second with them
+        as the whole sheet. Not once the walk is attached (its own rows are shown then)."""
+        if self._session is not None:
+            return
+        self._head_parts.append(rows)
+        if self._sheet_up:   # else mounting shows them, after the runs as written
+            self._show_head_parts()
+
+    def _show_head_parts(self) -> None:
+        sheet = self.query_one(RunSheet)
+        parts = self._head_parts
+        if len(parts) == 1:
+            sheet.update_rows(parts[0])   # False, nothing changed: not the runs as written
+        elif len(parts) == 2:
+            self._head = parts[0] + parts[1]
+            sheet.set_rows(self._head)
+            self._bar()
+
+    def attach(self, session: WalkSession, rows: list[SheetRow] | None = None) -> None:
         """The walk read and checked (and, up to ``SIZE_BEFORE_SHOWING`` runs, sized): its rows
-        take the place of the runs as written, and its keys work. When the runs as written are
-        the walk's runs in order, the rows on screen are made first and painted, and every row
-        right after that paint (``reload``); otherwise every row at once."""
+        take the place of the runs as written, and its keys work. ``rows``, its sheet's rows
+        made already (``all_rows``), replace the sheet's, unless those are the head start's and
+        equal to them. Otherwise, when the runs as written are the walk's runs in order, the
+        rows on screen are made first and painted, and every row right after that paint
+        (``reload``); else every row at once."""
         self._session = session
         sheet = self.query_one(RunSheet)
         on_screen = sheet.rows_on_screen()
-        if (on_screen and len(on_screen) < len(sheet.rows)
+        if rows is not None:
+            self.head_start_kept = sheet.rows is self._head and self._head == rows
+            if not self.head_start_kept:   # no head start, a part of it, or other rows
+                sheet.set_rows(rows)
+            self._head = None
+            self._shown = session.version
+            self.reload()
+        elif (on_screen and len(on_screen) < len(sheet.rows)
                 and sheet.visible_keys() == [run.id for run in session.job.runs]):
             from gaugewalk.tui.app.sheet.rows import changed_rows
 

@@ -40,15 +40,21 @@ def _load(raw: object, feeds_source: bool) -> str:
     return "panel" if feeds_source else ""
 
 
-def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024) -> list[SheetRow] | None:
-    """Rows for the run sheet straight from the file, or None if it cannot be read that way.
-    Files over ``max_bytes`` (about 25,000 runs) are left to the background reader alone, so
-    the parse never holds up the first paint for long [bytes]."""
+def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024,
+             text: str | None = None) -> list[SheetRow] | None:
+    """Rows for the run sheet straight from the file (or from ``text``, the file's text read
+    already), or None if it cannot be read that way. Files over ``max_bytes`` (about 25,000
+    runs) are left to the background reader alone, so the parse never holds up the first paint
+    for long [bytes]."""
     try:
-        p = Path(path)
-        if p.stat().st_size > max_bytes:
+        if text is None:
+            p = Path(path)
+            if p.stat().st_size > max_bytes:
+                return None
+            text = p.read_text(encoding="utf-8-sig")
+        elif len(text) > max_bytes:
             return None
-        data = parse_toml(p.read_text(encoding="utf-8-sig"))
+        data = parse_toml(text)
     except (OSError, ValueError, RecursionError):  # the real reader says what is wrong
         return None
     runs = data.get("run")

@@ -1,0 +1,62 @@
+"""The app opened as the command line opens it, with the head start's child forked first, in a
+process of its own (a fork belongs at the start of a process with one thread, never in a test
+worker): ``python -m tests.support.head_start_app WALK CONFIG [--stop]`` prints one JSON line.
+
+``--stop`` ends the child before the app starts (as if it had died). The line says how the walk
+opened: ``kept`` (the sheet kept the head start's rows), ``same`` (the sheet's rows are those
+the app makes from its own reading, ``all_rows``), ``parts`` (head-start parts shown),
+``code`` and ``message`` (the app's exit), ``reaped`` (no child left behind).
+"""
+
+from __future__ import annotations
+
+import asyncio
+import json
+import os
+import sys
+from pathlib import Path
+
+
+def main(argv: list[str]) -> int:
+    from gaugewalk.tui.app.headstart import HeadStart
+
+    path, config = argv[0], Path(argv[1])
+    head = HeadStart.begin(path)
+    if head is None:
+        print(json.dumps({"head_start": False}))
+        return 0
+    if "--stop" in argv:
+        head.stop()
+    from gaugewalk.tui.app.app import make_app
+    from gaugewalk.tui.app.screens.walk import WalkScreen
+    from gaugewalk.tui.app.sheet.rows import all_rows
+    from gaugewalk.tui.app.widgets.runsheet import RunSheet
+    from tests.support.app_helpers import opened
+
+    out: dict = {"head_start": True}
+
+    async def run() -> None:
+        app = make_app(path, config_dir=config, head_start=head)
+        async with app.run_test(size=(80, 24)) as pilot:
+            await opened(app, pilot)
+            screen = app.screen
+            if isinstance(screen, WalkScreen) and app.session is not None:
+                out["kept"] = screen.head_start_kept
+                out["parts"] = len(screen._head_parts)
+                out["same"] = screen.query_one(RunSheet).rows == all_rows(app.session)
+            await pilot.press("ctrl+q")
+        out["code"] = app.return_code
+        out["message"] = app.exit_message
+
+    asyncio.run(run())
+    try:
+        os.waitpid(head._pid, os.WNOHANG)
+        out["reaped"] = False
+    except ChildProcessError:
+        out["reaped"] = True
+    print(json.dumps(out))
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main(sys.argv[1:]))
