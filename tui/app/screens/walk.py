@@ -75,7 +75,7 @@ class WalkScreen(Screen):
     def compose(self) -> ComposeResult:
         yield TitleLine()
         yield Static("", id="view-bar")
-        yield Input(placeholder="find runs: type words, Enter to go back to the list", id="find", compact=True)
+        # the find box comes after the first paint (``_find_box``)
         with ContentSwitcher(initial="runs", id="views"):
             with Vertical(id="runs"):
                 sheet = RunSheet(COLUMNS, id="sheet")
@@ -86,16 +86,15 @@ class WalkScreen(Screen):
         yield KeyFooter()
 
     def on_mount(self) -> None:
-        self.query_one("#find").display = False
         if self._session is None:
             self.query_one(RunSheet).set_rows(self._raw_rows or [])
             self._sheet_up = True
-            if self._head_parts:   # the head start's rows came before the screen was up
-                self._show_head_parts()
             self._bar()
             self.query_one("#detail", Static).update(
                 "Reading, checking and sizing the walk; the runs are shown as written meanwhile.",
                 layout=False)
+            if self._head_parts:   # the head start's rows came before the screen was up
+                self._show_head_parts()
             if self._when_shown is not None:
                 self.call_after_refresh(self._when_shown)
         else:
@@ -104,9 +103,26 @@ class WalkScreen(Screen):
         self.query_one(RunSheet).focus()
         self.set_interval(DISK_LOOK_S, self.look_at_disk)
         self.app.theme_changed_signal.subscribe(self, self._theme_changed)
+        self.call_after_refresh(self._find_box)
 
     def _theme_changed(self, _theme: object) -> None:
         self._restyle = True
+
+    async def _find_box(self) -> Input:
+        """The find box (hidden until ``/``), mounted once the first paint is made: it is not
+        part of that paint."""
+        found = self.query("#find")
+        if found:
+            return found.first(Input)
+        find = Input(placeholder="find runs: type words, Enter to go back to the list", id="find",
+                     compact=True)
+        find.display = False
+        await self.mount(find, before="#views")
+        return find
+
+    def _find_text(self) -> str:
+        found = self.query("#find")
+        return found.first(Input).value if found else ""
 
     @property
     def session(self) -> WalkSession:
@@ -132,14 +148,18 @@ class WalkScreen(Screen):
             self._show_head_parts()
 
     def _show_head_parts(self) -> None:
+        """The head start's rows come so far onto the sheet (``show_head_start``)."""
         sheet = self.query_one(RunSheet)
         parts = self._head_parts
-        if len(parts) == 1:
-            sheet.update_rows(parts[0])   # False, nothing changed: not the runs as written
-        elif len(parts) == 2:
+        if len(parts) >= 2:
             self._head = parts[0] + parts[1]
             sheet.set_rows(self._head)
             self._bar()
+        elif not sheet.update_rows(parts[0]):
+            return   # not the runs as written: they all come with the second part
+        # the walk's keys still wait for it, and the sheet looks ready: say so
+        self.query_one("#detail", Static).update(
+            "Sized; the walk is being read for editing, its keys work in a moment.", layout=False)
 
     def attach(self, session: WalkSession, rows: list[SheetRow] | None = None) -> None:
         """The walk read and checked (and, up to ``SIZE_BEFORE_SHOWING`` runs, sized): its rows
@@ -373,14 +393,13 @@ class WalkScreen(Screen):
                 return False
             return True
 
-        text = self.query_one("#find", Input).value
-        sheet.set_filter(text, pred if (src or problems) else None)
+        sheet.set_filter(self._find_text(), pred if (src or problems) else None)
         self._bar()
 
-    def action_find(self) -> None:
+    async def action_find(self) -> None:
         if self.view != "runs":
             self._switch("runs")
-        find = self.query_one("#find", Input)
+        find = await self._find_box()
         find.display = True
         find.focus()
 
@@ -413,12 +432,14 @@ class WalkScreen(Screen):
         self._apply_filter()
 
     def action_clear_filters(self) -> None:
-        find = self.query_one("#find", Input)
-        if find.has_focus and find.value:
+        found = self.query("#find")
+        if found:
+            find = found.first(Input)
+            if find.has_focus and find.value:
+                find.value = ""
+                return
             find.value = ""
-            return
-        find.value = ""
-        find.display = False
+            find.display = False
         self.problems_only = False
         self.source_filter = None
         self._apply_filter()
