@@ -2,10 +2,12 @@
 process of its own (a fork belongs at the start of a process with one thread, never in a test
 worker): ``python -m tests.support.head_start_app WALK CONFIG [--stop]`` prints one JSON line.
 
-``--stop`` ends the child before the app starts (as if it had died). The line says how the walk
-opened: ``kept`` (the sheet kept the head start's rows), ``same`` (the sheet's rows are those
-the app makes from its own reading, ``all_rows``), ``parts`` (head-start parts shown),
-``code`` and ``message`` (the app's exit), ``reaped`` (no child left behind).
+``--stop`` ends the child before the app starts (as if it had died). The app's own reading
+waits for the child's rows (``HEAD_START_WAIT_S``), so the outcome is the same on a busy
+machine. The line says how the walk opened: ``kept`` (the sheet kept the head start's rows),
+``same`` (the sheet's rows are those the app makes from its own reading, ``all_rows``),
+``parts`` (head-start parts shown), ``code`` and ``message`` (the app's exit), ``reaped`` (no
+child left behind).
 """
 
 from __future__ import annotations
@@ -27,6 +29,7 @@ def main(argv: list[str]) -> int:
         return 0
     if "--stop" in argv:
         head.stop()
+    from gaugewalk.tui.app import app as app_module
     from gaugewalk.tui.app.app import make_app
     from gaugewalk.tui.app.screens.walk import WalkScreen
     from gaugewalk.tui.app.sheet.rows import all_rows
@@ -34,6 +37,9 @@ def main(argv: list[str]) -> int:
     from tests.support.app_helpers import opened
 
     out: dict = {"head_start": True}
+    # the app's own reading waits for the child's rows however busy the machine is, so what is
+    # shown does not depend on which of the two processes is first
+    app_module.HEAD_START_WAIT_S = 600.0
 
     async def run() -> None:
         app = make_app(path, config_dir=config, head_start=head)

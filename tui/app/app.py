@@ -37,9 +37,9 @@ FIRST_PAINT_WAIT_S = 2.0
 """Longest the walk's reading waits for the first paint of its runs as written [s]."""
 
 HEAD_START_WAIT_S = 0.5
-"""Longest the walk's reading then waits for the head start's first rows on screen [s]: the
-reading would take turns with the event loop that shows them (about 0.15 s after the first
-paint at 5,000 runs here; a walk of tens of thousands of runs takes seconds)."""
+"""Longest the walk's reading then waits for the head start's rows on screen [s]: the reading
+would take turns with the event loop that shows them (they come about 0.15 s after the first
+paint at 5,000 runs here; at tens of thousands of runs, seconds)."""
 
 
 def light_terminal() -> bool:
@@ -127,20 +127,23 @@ class WalkApp(App[int]):
     @work(thread=True, group="head-start")
     def _take_head_start(self, head: HeadStart, sized: threading.Event) -> None:
         """The head start's rows onto the walk screen as they come (a thread: it waits);
-        ``sized`` is set once the first of them are painted, or the child ended without."""
+        ``sized`` is set once the last of them are painted, or the child ended without."""
+        painted = False
         try:
             for rows in head.parts():
-                self.call_from_thread(self._head_rows, rows, sized)
+                self.call_from_thread(self._head_rows, rows)
+            self.call_from_thread(self.call_after_refresh, sized.set)
+            painted = True
         finally:
-            sized.set()
+            if not painted:   # the app ended meanwhile
+                sized.set()
 
-    def _head_rows(self, rows: list[SheetRow], sized: threading.Event) -> None:
+    def _head_rows(self, rows: list[SheetRow]) -> None:
         from gaugewalk.tui.app.screens.walk import WalkScreen
 
         for screen in self.screen_stack:
             if isinstance(screen, WalkScreen) and not screen.attached:
                 screen.show_head_start(rows)
-        self.call_after_refresh(sized.set)
 
     @work(thread=True, exclusive=True, group="open")
     def _load(self, path: str, shown: threading.Event, sized: threading.Event) -> None:
