@@ -5,8 +5,8 @@
 first draws a row with its computed result (the app sizes the runs in the background after the
 first paint, and the status column says so meanwhile). The app process starts as the command
 line starts it (``tui/app/launch.py``): the head start's child is forked before Textual is
-imported, and sizes the walk on another processor meanwhile (``gaugewalk.tui.app.headstart``);
-its largest resident set is reported beside the app's.
+imported (with the collector held off), and sizes the walk on another processor meanwhile
+(``gaugewalk.tui.app.headstart``); its largest resident set is reported beside the app's.
 
 Storing a run: the run under the cursor is opened on the run card (``e``), its load retyped key by
 key, and Enter pressed. The step runs from Enter to the later of two moments: the run sheet drawing
@@ -131,15 +131,14 @@ class DiskWatch:
 
 def child_app(t0: float, path: Path, config: Path, keys: bool, stores: int) -> dict:
     """The walk app on ``path``: first paint; with ``keys`` scrolling and filtering; with
-    ``stores`` that many runs stored from the run card. Started as the command line starts it:
-    the head start's child forked first, before Textual is imported
-    (``gaugewalk.tui.app.headstart``)."""
-    from gaugewalk.tui.app.headstart import HeadStart
+    ``stores`` that many runs stored from the run card. Started as the command line starts it
+    (``gaugewalk.tui.app.launch.start``): the head start's child forked first, then the app
+    imported."""
+    from gaugewalk.tui.app.launch import start
 
-    head_start = HeadStart.begin(str(path))
+    head_start, make_app = start(str(path))
     from textual.app import App
 
-    from gaugewalk.tui.app.app import make_app
     from gaugewalk.tui.app.widgets.runsheet import RunSheet
 
     disk = DiskWatch(path)

@@ -20,17 +20,16 @@ from pathlib import Path
 
 
 def main(argv: list[str]) -> int:
-    from gaugewalk.tui.app.headstart import HeadStart
+    from gaugewalk.tui.app.launch import start
 
     path, config = argv[0], Path(argv[1])
-    head = HeadStart.begin(path)
+    head, make_app = start(path)   # as the command line starts the app
     if head is None:
         print(json.dumps({"head_start": False}))
         return 0
     if "--stop" in argv:
         head.stop()
     from gaugewalk.tui.app import app as app_module
-    from gaugewalk.tui.app.app import make_app
     from gaugewalk.tui.app.screens.walk import WalkScreen
     from gaugewalk.tui.app.sheet.rows import all_rows
     from gaugewalk.tui.app.widgets.runsheet import RunSheet
