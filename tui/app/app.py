@@ -37,9 +37,10 @@ FIRST_PAINT_WAIT_S = 2.0
 """Longest the walk's reading waits for the first paint of its runs as written [s]."""
 
 HEAD_START_WAIT_S = 0.5
-"""Longest the walk's reading then waits for the head start's rows on screen [s]: the reading
-would take turns with the event loop that shows them (they come about 0.15 s after the first
-paint at 5,000 runs here; at tens of thousands of runs, seconds)."""
+"""Longest the walk's reading then waits for the head start's rows on screen, when the head start
+keeps pace (``HeadStart.keeping_pace``) [s]: the reading would take turns with the event loop
+that shows them (they come about 0.15 s after the first paint at 5,000 runs here; at tens of
+thousands of runs, seconds). A head start far behind (a busy machine) is not waited for."""
 
 
 def light_terminal() -> bool:
@@ -122,7 +123,7 @@ class WalkApp(App[int]):
             self._take_head_start(head, sized)
         else:
             sized.set()
-        self._load(str(p), shown, sized)
+        self._load(str(p), shown, sized, head)
 
     @work(thread=True, group="head-start")
     def _take_head_start(self, head: HeadStart, sized: threading.Event) -> None:
@@ -146,11 +147,14 @@ class WalkApp(App[int]):
                 screen.show_head_start(rows)
 
     @work(thread=True, exclusive=True, group="open")
-    def _load(self, path: str, shown: threading.Event, sized: threading.Event) -> None:
-        # not before the runs as written are on screen (``shown``), nor the head start's first
-        # rows (``sized``): the thread would take turns with the event loop, which paints them
+    def _load(self, path: str, shown: threading.Event, sized: threading.Event,
+              head: HeadStart | None) -> None:
+        # not before the runs as written are on screen (``shown``), nor the rows of a head
+        # start that keeps pace (``sized``): the thread would take turns with the event loop,
+        # which paints them
         shown.wait(FIRST_PAINT_WAIT_S)
-        sized.wait(HEAD_START_WAIT_S)
+        if head is not None and head.keeping_pace():
+            sized.wait(HEAD_START_WAIT_S)
         from gaugewalk.model.session.session import WalkSession
         from gaugewalk.model.walkfile.read import WalkFileError
 

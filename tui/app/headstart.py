@@ -43,6 +43,7 @@ CHILD_NICENESS = 10
 (its first paint) comes first, and the child takes what processor time is left [nice]."""
 
 _SIZE = struct.Struct("<Q")   # each message: its length [bytes], then the pickled rows
+_IMPORTED = _SIZE.pack(0)     # an empty message: the child has imported the model
 
 
 class HeadStart:
@@ -56,6 +57,7 @@ class HeadStart:
         self._fd = fd
         self._lock = threading.Lock()
         self._reaped = False
+        self._imported = threading.Event()
 
     @classmethod
     def begin(cls, path: str | None) -> HeadStart | None:
@@ -105,6 +107,9 @@ class HeadStart:
                     if len(head) < _SIZE.size:
                         return
                     (size,) = _SIZE.unpack(head)
+                    if size == 0:
+                        self._imported.set()
+                        continue
                     body = pipe.read(size)
                     if len(body) < size:
                         return
@@ -113,6 +118,12 @@ class HeadStart:
             return
         finally:
             self._reap(wait=True)
+
+    def keeping_pace(self) -> bool:
+        """The child has imported the model (pydantic, the walk's models): asked at the app's
+        first paint, which comes about as long after the start as that import when a processor
+        is free for the child; on a machine too busy for it, the child is far behind."""
+        return self._imported.is_set()
 
     def stop(self) -> None:
         """The child ended if it still runs (the app is leaving): its rows are not wanted."""
@@ -139,6 +150,7 @@ def sized_rows(raw: bytes, path: str) -> Iterator[list[SheetRow]]:
     messages) read, checked and sized as the app's own opening does (``WalkSession``,
     ``sheet.rows.all_rows``): those of the first ``FIRST_ROWS`` runs, then the rest. Raises
     what the reader raises for a walk it refuses."""
+    _import_model()
     from gaugewalk.model.session.hold import WalkHold
     from gaugewalk.model.session.session import WalkSession
     from gaugewalk.model.walkfile.read import loads_walk
@@ -152,16 +164,29 @@ def sized_rows(raw: bytes, path: str) -> Iterator[list[SheetRow]]:
     yield [sheet_row(session, run, sources) for run in runs[FIRST_ROWS:]]
 
 
+def _import_model() -> None:
+    """What ``sized_rows`` imports: the model (most of the child's time on a small walk)."""
+    import gaugewalk.model.session.session  # noqa: F401
+    import gaugewalk.model.walkfile.read  # noqa: F401
+    import gaugewalk.tui.app.sheet.rows  # noqa: F401
+
+
 def _child(fd: int, path: str, raw: bytes) -> None:
     """The child's whole life: the rows written to ``fd``, then out at once (no cleanup of the
     parent's copied state, no output: the parent says everything)."""
     code = 1
     try:
         signal.signal(signal.SIGINT, signal.SIG_DFL)
+        quiet = os.open(os.devnull, os.O_RDWR)   # the terminal is the app's: nothing of ours
+        for std in (0, 1, 2):                     # (a library's warning) may reach it
+            os.dup2(quiet, std)
         with contextlib.suppress(OSError):
             os.nice(CHILD_NICENESS)
         gc.disable()   # what it builds lives until it ends, a moment later
         with os.fdopen(fd, "wb") as pipe:
+            _import_model()
+            pipe.write(_IMPORTED)
+            pipe.flush()
             for rows in sized_rows(raw, path):
                 body = pickle.dumps(rows, protocol=pickle.HIGHEST_PROTOCOL)
                 pipe.write(_SIZE.pack(len(body)) + body)
