@@ -114,5 +114,6 @@ def test_what_the_first_paint_imports_holds_no_model_and_no_command_line():
     assert {m for m in loaded if m.split(".")[0] in {"pydantic", "pydantic_core", "argparse"}
             or m.startswith(("gaugewalk.model.session", "gaugewalk.model.walk.job",
                              "gaugewalk.model.engine.sizing", "gaugewalk.tui.cli",
-                             "gaugewalk.tui.app.widgets.views", "gaugewalk.tui.app.sheet.rows"))
+                             "gaugewalk.tui.app.widgets.views", "gaugewalk.tui.app.sheet.rows",
+                             "gaugewalk.tui.app.screens.info"))
             } == set()

@@ -20,7 +20,6 @@ from gaugewalk.model.walk.plain_text import shown, shown_lines
 from gaugewalk.tui.app.keyorder import deliver_in_order
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.recent import RecentWalks
-from gaugewalk.tui.app.screens.info import AboutScreen, AskScreen, KeyGuideScreen
 
 if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is already up
     from gaugewalk.model.session.session import WalkSession
@@ -320,6 +319,8 @@ class WalkApp(App[int]):
             self.push_screen(WalkScreen(session))
         self.refresh_title()
         if not self.recent.caution_seen:
+            from gaugewalk.tui.app.screens.info import AboutScreen
+
             self.push_screen(AboutScreen(first_start=True))
             self.recent.mark_caution_seen()
         self._release_collector(freeze=True)
@@ -390,10 +391,14 @@ class WalkApp(App[int]):
 
     # ----- app-wide actions -------------------------------------------------------------
     def action_key_guide(self) -> None:
+        from gaugewalk.tui.app.screens.info import KeyGuideScreen
+
         if not isinstance(self.screen, KeyGuideScreen):
             self.push_screen(KeyGuideScreen())
 
     def action_about(self) -> None:
+        from gaugewalk.tui.app.screens.info import AboutScreen
+
         if not isinstance(self.screen, AboutScreen):
             self.push_screen(AboutScreen())
 
@@ -421,6 +426,8 @@ class WalkApp(App[int]):
         def answer(yes: bool | None) -> None:
             if yes:
                 self.exit(0)
+
+        from gaugewalk.tui.app.screens.info import AskScreen
 
         self.push_screen(AskScreen(f"Quitting now loses {lose}. Quit anyway?", "quit", "stay"), answer)
 

@@ -19,7 +19,6 @@ from textual.widgets import ContentSwitcher, Input, Static
 
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
-from gaugewalk.tui.app.screens.info import AskScreen
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
 from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
@@ -577,6 +576,8 @@ class WalkScreen(Screen):
                 if yes:
                     self._delete(key)
 
+            from gaugewalk.tui.app.screens.info import AskScreen
+
             self.app.push_screen(AskScreen(msg, "delete both", "keep"), answer)
             return
         self._delete(key)
@@ -656,6 +657,8 @@ class WalkScreen(Screen):
             self.notify(said, severity="information" if session.state.saved else "error",
                         timeout=12)
 
+        from gaugewalk.tui.app.screens.info import AskScreen
+
         self.app.push_screen(AskScreen(question, "take it in, mine on top", "not now"), answer)
 
     def action_unlock(self) -> None:
@@ -685,6 +688,8 @@ class WalkScreen(Screen):
             self.notify(said, severity="warning" if session.read_only else "information",
                         timeout=10)
             self.reload()
+
+        from gaugewalk.tui.app.screens.info import AskScreen
 
         self.app.push_screen(AskScreen(question, "clear it", "leave it"), answer)
 
