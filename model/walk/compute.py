@@ -434,9 +434,19 @@ class WalkState:
         children = walk.children[sid]
         place_problems = res._place_problems
         placements = res.placements
-        for r in children:
-            place_problems.pop(r.id, None)
-            placements.pop(r.id, None)
+        own, feeds, run_va = res._own, res._feeds, res.run_va
+        feeder_of = walk.feeder
+        for r in children:   # what was placed before (an update in place), and each run's VA
+            rid = r.id
+            place_problems.pop(rid, None)
+            placements.pop(rid, None)
+            mine = own.get(rid)
+            if mine is not None:
+                run_va[rid] = mine.load.va
+            elif feeder_of.get(r.to) is r and r.to in feeds:
+                run_va[rid] = feeds[r.to].load.va
+            else:
+                run_va.pop(rid, None)
         placements.update(outcome.placements)
         for rid, field_name, message in outcome.problems:
             place_problems.setdefault(rid, []).append(
@@ -458,15 +468,6 @@ class WalkState:
         res.loadings[sid] = ld
         problems += [Problem("", None, "source", sid, f, m) for f, m in ld.problems]
         res._sum_problems[sid] = problems
-        own, feeds, run_va = res._own, res._feeds, res.run_va
-        for r in children:
-            mine = own.get(r.id)
-            if mine is not None:
-                run_va[r.id] = mine.load.va
-            elif walk.feeder.get(r.to) is r and r.to in feeds:
-                run_va[r.id] = feeds[r.to].load.va
-            else:
-                run_va.pop(r.id, None)
         old = feeds.get(sid)
         feeds[sid] = feed
         return self.group_motors(sid) or old != feed

@@ -334,7 +334,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
     u = line_phasors(source.system)
     n = len(u)
     items: list[PlaceItem] = []
-    whose: list[tuple[Run, OwnLoad | None]] = []   # each item's run and own load
+    whose: list[tuple[Run, OwnLoad | None]] = []   # each item's run and own load (groups)
     va = cva = watts = 0.0
     feeder = graph.feeder
     for r in graph.children[source_id]:
@@ -368,7 +368,8 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         cva += load.continuous_va
         watts += load.watts
         poles = min(circuit.hots, n) if n > 1 else 1
-        whose.append((r, mine))
+        if groups:
+            whose.append((r, mine))
         items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size, mags,
                                mine is not None and poles == n, one))
     outcome = place(items, n, source.spaces)
