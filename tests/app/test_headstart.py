@@ -150,3 +150,31 @@ async def test_the_sheet_ends_with_the_apps_own_rows_whatever_the_head_start_sen
         assert isinstance(screen, WalkScreen) and screen.attached
         assert screen.head_start_kept is not altered
         assert screen.query_one(RunSheet).rows == own
+
+
+async def test_a_walk_sized_once_open_keeps_the_head_starts_rows_until_it_is(tmp_path,
+                                                                           monkeypatch):
+    from gaugewalk.tui.app import app as app_module
+    from gaugewalk.tui.app.app import make_app
+    from gaugewalk.tui.app.sheet.rawrows import SIZING
+
+    # a walk over SIZE_BEFORE_SHOWING runs is attached before the app sizes it itself
+    monkeypatch.setattr(app_module, "SIZE_BEFORE_SHOWING", 10)
+    walk = _synthetic(tmp_path, FIRST_ROWS + 30)
+    own = _own_rows(walk)
+    at_attach = []
+    attach = WalkScreen.attach
+
+    def attached(self, session, *rows) -> None:
+        attach(self, session, *rows)
+        at_attach.append((session.result is None,
+                          [r.cells[-1] for r in self.query_one(RunSheet).rows]))
+
+    monkeypatch.setattr(WalkScreen, "attach", attached)
+    head = _Scripted(str(walk), [own[:FIRST_ROWS], own[FIRST_ROWS:]])
+    app = make_app(str(walk), config_dir=tmp_path / "cfg", head_start=head)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        (unsized, status), = at_attach
+        assert unsized and SIZING not in status   # the head start's sized rows, not "sizing"
+        assert app.screen.query_one(RunSheet).rows == own   # then the app's own

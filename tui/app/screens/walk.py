@@ -164,7 +164,7 @@ class WalkScreen(Screen):
         """The walk read and checked (and, up to ``SIZE_BEFORE_SHOWING`` runs, sized): its rows
         take the place of the runs as written, and its keys work. ``rows``, its sheet's rows
         made already (``all_rows``), replace the sheet's, unless those are the head start's and
-        equal to them. Otherwise, when the runs as written are the walk's runs in order, the
+        equal to them; a walk not sized yet keeps the head start's rows until it is. Otherwise, when the runs as written are the walk's runs in order, the
         rows on screen are made first and painted, and every row right after that paint
         (``reload``); else every row at once."""
         self._session = session
@@ -175,6 +175,11 @@ class WalkScreen(Screen):
             if not self.head_start_kept:   # no head start, a part of it, or other rows
                 sheet.set_rows(rows)
             self._head = None
+            self._shown = session.version
+            self.reload()
+        elif self._head is not None and session.result is None:
+            # a walk sized once it is open (over SIZE_BEFORE_SHOWING runs): the head start's
+            # sized rows stay until the app's own sizing replaces them (``reload``)
             self._shown = session.version
             self.reload()
         elif (on_screen and len(on_screen) < len(sheet.rows)
