@@ -179,7 +179,8 @@ class RunCard(TypedInOrder, Screen):
         """One step of a rehearsal of the first open while the built card is not shown, each a
         few milliseconds: lay it out for the app's size (as ``Screen._on_screen_resume`` does on
         an open), fill it in as a new card (its fields sized by that layout) and build its key
-        line, lay it out again for what that changed, and draw it, the drawing thrown away. That first open then finds
+        line, lay it out again until nothing asks for a layout, and draw it, the drawing thrown
+        away. That first open then finds
         its rows shown or hidden, its layout and its widgets' drawings made, as every later open
         does. Nothing is focused, typed or said; the open fills it in again for its run. True
         when there is nothing left to rehearse (done, or the card was opened meanwhile)."""
@@ -189,14 +190,16 @@ class RunCard(TypedInOrder, Screen):
             return False
         step = self._rehearsal
         self._rehearsal += 1
-        if step in (0, 2):
-            self._refresh_layout(self.app.size)
-            self._layout_required = False   # what the building or filling in asked for: done
-        elif step == 1:
+        if step == 1:
             if self.form.start() is not None:
                 self._show_values()
                 self.recheck()
             self.query_one(KeyFooter).show_keys_ahead()
+        elif step == 0 or (step < 6 and (self._layout_required or self._layout_widgets)):
+            # laid out until nothing asks for it again (a layout makes some widgets ask once
+            # more, the keys of the key line as they get their size)
+            self._refresh_layout(self.app.size)
+            self._layout_required = False   # what was asked for until now: done
         else:
             self._compositor.render_strips()
             self._rehearsed = True
