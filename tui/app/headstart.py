@@ -7,10 +7,10 @@ interpreter they run one after the other. Forked at the very start of the proces
 Textual is imported and while the process has one thread, the child does the model's part on
 another processor (at a lower priority: it never holds up the app's own start), from the same
 bytes of the file the app shows as written, and sends the rows back through a pipe: first those
-of the first runs (the rows on screen), then the rest. The app
-still reads, checks and sizes the walk itself, for editing, and keeps the child's rows only
-where they equal its own (``WalkScreen.attach``); a child that fails, is killed or cannot be
-started leaves the app opening as it does without one.
+of the first runs (the rows on screen), then the rest. The app still reads, checks and sizes the
+walk itself, for editing, and keeps the child's rows only where they equal its own
+(``WalkScreen.attach``); a child that fails, is killed or cannot be started leaves the app
+opening as it does without one.
 
 Only the standard library at the top: the process imports this before anything else.
 """
