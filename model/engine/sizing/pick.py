@@ -97,6 +97,8 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
     mina = spec.min_ampacity_a
     allow_tot = cols.allowable_total
     passed = math.inf   # the least drop of a size meeting rules 1, 2 and 4 but not the limit
+    own = spec.max_drop_pct + _EPS   # this run's own target: the limit, unless the total is
+    own_i = None   # the first size passed over that meets it (the total was the tighter)
     for i in range(cols.first, len(z)):
         if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
             continue
@@ -116,6 +118,8 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
                 break
             if pct < passed:
                 passed = pct
+            if own_i is None and pct <= own:
+                own_i = i
 
     # the size and what governed it
     if spec.size is not None:
@@ -130,8 +134,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
     elif pick_i is not None:
         i = pick_i
         governed_by = _governed(i, floor_i, min_amp_i, ocpd_i, sizes, mat, notes)
-    elif (own_i := _own_target_index(spec, cols, z, protect, design, amps, ocpd, floor_i,
-                                     ocpd_i, volts_per_ohm_kft * pct_per_volt)) is not None:
+    elif own_i is not None:
         # The total target is what no size meets, because of the drop up to the source: a
         # larger conductor here cannot cure that, so the run keeps the size its own target asks
         i = own_i
@@ -178,27 +181,6 @@ def _governed(i: int, floor_i: int, min_amp_i: int | None, ocpd_i: int | None,
     if i == ocpd_i:
         return "overcurrent device"
     return "voltage drop"
-
-
-def _own_target_index(spec: RunSpec, cols, z: tuple[float | None, ...],
-                      protect: tuple[float, ...], design: float, amps: float, ocpd: int,
-                      floor_i: int, ocpd_i: int | None, pct_per_ohm_kft: float) -> int | None:
-    """Where no size meets rule 3 because the total target, less the drop up to the source, is
-    the tighter limit: the smallest size meeting rules 1, 2 and 4 and this run's own drop target
-    (None when the total is not what fails, or no size meets even the run's own target)."""
-    own = spec.max_drop_pct + _EPS
-    if ocpd_i is None or spec.max_total_drop_pct - spec.upstream_drop_pct + _EPS >= own:
-        return None
-    mina = spec.min_ampacity_a
-    for i in range(max(ocpd_i, floor_i), len(z)):
-        if (cols.term_total[i] + _EPS < design or cols.corrected_total[i] + _EPS < amps
-                or (mina is not None and cols.allowable_total[i] + _EPS < mina)
-                or protect[i] < ocpd):
-            continue
-        zi = z[i]
-        if zi is not None and pct_per_ohm_kft * zi <= own:
-            return i
-    return None
 
 
 def _upstream_words(spec: RunSpec) -> str:
