@@ -35,7 +35,7 @@ from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.walk.job import Load, Run, Source
 from gaugewalk.model.walk.plain_text import shown as shown_plain
 from gaugewalk.model.walk.plausible import long_length
-from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C, ROOFTOP_EXCEPTED
+from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C, rooftop_excepted
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 
@@ -577,9 +577,9 @@ def _check_rooftop(r: _Reading) -> None:
     _check_yes_no("rooftop", "rooftop")(r)
     if r.got["rooftop"]:
         run = r.job.run(r.form.run_id) if r.form.run_id is not None else None
-        insulation = (run.insulation if run is not None and run.insulation
-                      else r.job.defaults.insulation)
-        r.hints["rooftop"] = ("XHHW-2: no adder" if insulation in ROOFTOP_EXCEPTED
+        excepted = rooftop_excepted(r.job.effective(run, "insulation") if run is not None
+                                    else r.job.defaults.insulation)
+        r.hints["rooftop"] = (f"{excepted}: no adder" if excepted
                               else f"+{ROOFTOP_ADDER_C}C 310.15(B)(2)")
 
 
@@ -741,7 +741,8 @@ def _run_data(r: _Reading) -> dict:
         "load": g["load"], "continuous": g["continuous"], "distributed": g["distributed"],
         "connection": g["connection"], "sets": g["sets"], "size": g["size"],
         "material": g["material"], "raceway": g["raceway"], "raceway_id": g["raceway_id"],
-        "rooftop": g["rooftop"], "notes": r.v["notes"].strip(), "position": g["position"], "phase": g["phase"],
+        "rooftop": g["rooftop"], "notes": r.v["notes"].strip(), "position": g["position"],
+        "phase": g["phase"],
     }
 
 

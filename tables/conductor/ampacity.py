@@ -186,11 +186,18 @@ the correction of Table 310.15(B)(1)(1). Type XHHW-2 is excepted (its exception)
 ROOFTOP_EXCEPTED = frozenset({"XHHW-2"})
 
 
+def rooftop_excepted(insulation: str) -> str | None:
+    """The insulation's name where the exception to NEC 310.15(B)(2) spares it the rooftop
+    adder, else None. ``insulation`` as typed (``parse_insulation`` reads it)."""
+    name = parse_insulation(insulation)
+    return name if name in ROOFTOP_EXCEPTED else None
+
+
 def rooftop_ambient(ambient_c: float, insulation: str) -> tuple[float, str]:
     """The ambient [C] a rooftop run is corrected at (NEC 310.15(B)(2)), with the note saying
-    so. ``insulation`` as typed (``parse_insulation`` reads it)."""
-    name = parse_insulation(insulation)
-    if name in ROOFTOP_EXCEPTED:
+    so."""
+    name = rooftop_excepted(insulation)
+    if name is not None:
         return ambient_c, (f"NEC 310.15(B)(2) Exception: {name} takes no rooftop adder; "
                            f"{ambient_c:g} C ambient")
     hot = ambient_c + ROOFTOP_ADDER_C
@@ -201,8 +208,8 @@ def rooftop_ambient(ambient_c: float, insulation: str) -> tuple[float, str]:
 
 def rooftop_words(insulation: str) -> str:
     """Said beside the raceway of a run marked ``rooftop`` (report, app)."""
-    name = parse_insulation(insulation)
-    if name in ROOFTOP_EXCEPTED:
+    name = rooftop_excepted(insulation)
+    if name is not None:
         return f"rooftop: {name}, no adder (NEC 310.15(B)(2) Exception)"
     return f"rooftop: +{ROOFTOP_ADDER_C} C ambient (NEC 310.15(B)(2))"
 
