@@ -114,6 +114,13 @@ class RunSpec:
                                            # with no next size up (e.g. NEC 240.21(C): transformer
                                            # secondary conductors not below the device they end
                                            # in); None: no such rule
+    motor_feeder_max_a: float | None = None  # [A] a feeder supplying motors alone: the most its
+                                           # device may be (NEC 430.62(A)); set, the device is
+                                           # picked up to it and protects the conductors by
+                                           # Article 430 Part V (240.4(G)); None: not such a feeder
+    lugs_bus_a: int | None = None          # [A] the bus of the main-lugs-only panel a feeder of
+                                           # motors feeds: its picked device stays at or below it
+                                           # (NEC 408.36)
 
 
 @dataclass(frozen=True)

@@ -78,6 +78,7 @@ from gaugewalk.model.walk.ratings import (
     Loading,
     equipment_rule,
     loading,
+    lugs_bus,
     lugs_problem,
 )
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
@@ -587,6 +588,11 @@ class WalkState:
         try:
             spec = _spec(self.spec_base, self.job, r, upstream, circuit, is_feeder, feed, rule,
                          motors, ccc)
+            if motors is not None and motors.only_motors and rule is None:
+                # NEC 430.62(A), 240.4(G): the device picked up to what the motors permit
+                design = spec.amps + 0.25 * (spec.continuous_amps or 0.0)
+                spec = with_fields(spec, motor_feeder_max_a=device_limit(motors, design),
+                                   lugs_bus_a=lugs_bus(self.walk.sources[r.to]))
             result, passed = evaluate_picked(spec)
             beside = None
             if rule is not None and rule.beside:

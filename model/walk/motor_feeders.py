@@ -13,8 +13,11 @@ the heaviest line's load. The kinds themselves are read by ``gaugewalk.model.wal
 - Device (430.62(A), 430.63): not above the largest branch short-circuit and ground-fault
   device of any motor supplied plus the other loads on the heaviest line: the other motors'
   full-load currents and the rest as 215.3 counts them (125 % of the continuous). For a feeder
-  of motors alone (430.62(A): "shall not be greater than") a device above that is a problem; a
-  feeder with other loads too (430.63, worded as a floor) has the figure in its notes only.
+  of motors alone (430.62(A): "shall not be greater than") a device above that is a problem, and
+  the device picked is the largest standard rating within it (and within the bus of a
+  main-lugs-only panel, 408.36), protecting the 430.24 conductors by 240.4(G)
+  (``gaugewalk.model.engine.sizing.currents.motor_feeder``); a feeder with other loads too
+  (430.63, worded as a floor) has the figure in its notes only.
 - Motors below a transformer are the transformer's load: the feeder into its primary is sized
   by the primary device (Table 450.3(B)), and no motor group passes through it.
 

@@ -11,7 +11,7 @@
   the device is the panel's main, else its bus rating, and the conductors are protected by it;
   the connected-load answer is kept beside it.
 
-Public API: ``Loading``, ``loading(source, lines)``, ``lugs_problem(source, feeder_ocpd_a)``,
+Public API: ``Loading``, ``loading(source, lines)``, ``lugs_bus(source)``, ``lugs_problem(source, feeder_ocpd_a)``,
 ``FeederRule``, ``equipment_rule(run, target)``.
 """
 
@@ -64,12 +64,19 @@ def loading(source: Source, lines: Lines) -> Loading:
     return Loading(design, line, limit, util, tuple(problems))
 
 
+def lugs_bus(source: Source) -> int | None:
+    """NEC 408.36: the bus rating [A] a panel with main lugs only holds its feeder's device to;
+    None where the source has a main, is no panel or switchboard, or gives no rating."""
+    if source.kind in ("panel", "switchboard") and source.main_a is None:
+        return source.rating_a
+    return None
+
+
 def lugs_problem(source: Source, feeder_ocpd_a: int | None) -> str | None:
     """NEC 408.36: a panel with main lugs only is protected by its feeder's device, which must
     not be larger than its bus rating."""
-    if (source.kind in ("panel", "switchboard") and source.main_a is None
-            and source.rating_a is not None and feeder_ocpd_a is not None
-            and feeder_ocpd_a > source.rating_a):
+    bus = lugs_bus(source)
+    if bus is not None and feeder_ocpd_a is not None and feeder_ocpd_a > bus:
         return (f"main lugs only: its feeder's {feeder_ocpd_a} A device is larger than its "
                 f"{source.rating_a} A bus rating (NEC 408.36)")
     return None

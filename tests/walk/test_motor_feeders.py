@@ -39,9 +39,35 @@ def test_a_feeder_of_three_motors_takes_125_percent_of_the_largest_and_a_device_
     # 430.62(A): the feeder device not above 90 + 21 + 14 = 125 A
     assert result.runs["M1"].ocpd_a == 90
     assert result.feeders["F1"].max_ocpd_a == pytest.approx(125.0)
-    # the device picked for 77.5 A: the next standard rating, 80 A (240.6(A)), within 125 A
-    assert f1.ocpd_a == 80 and result.ok
+    # the device picked: the largest standard rating not above 125 A (240.6(A)): 125 A; the
+    # next rating over 77.5 A (80 A) would sit below M1's own 90 A breaker
+    assert f1.ocpd_a == 125 and result.ok
     assert any("430.62(A)" in n and "125 A" in n for n in f1.notes)
+    # 240.4(G): the device protects the 430.24 conductors of Article 430 Part V, so they are not
+    # raised to 125 A: 4 AWG Cu, 85 A in the 75 C column (NEC 2023 Table 310.16; the circuit is
+    # rated over 100 A, 110.14(C)(1)(b)); EGC for 125 A: 6 AWG Cu (NEC 2023 Table 250.122)
+    assert f1.size == "4 AWG" and f1.ampacity_a == pytest.approx(85.0)
+    assert f1.egc_size == "6 AWG"
+    assert any("240.4(G)" in n for n in f1.notes)
+
+
+def test_a_fixed_motor_feeder_device_within_430_62_keeps_the_430_24_conductors():
+    job = _motors_job(_motor("M1", 25), _motor("M2", 15), _motor("M3", 10))
+    job.runs[0].ocpd_a = 110   # within the 125 A of 430.62(A)
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    # 240.4(G): 4 AWG Cu (85 A, NEC 2023 Table 310.16) stays on the 110 A device
+    assert f1.ocpd_a == 110 and f1.size == "4 AWG" and result.ok
+
+
+def test_a_main_lugs_panel_holds_the_picked_motor_feeder_device_to_its_bus():
+    job = _motors_job(_motor("M1", 25), _motor("M2", 15), _motor("M3", 10))
+    job.sources[1].rating_a = 100   # MCC: main lugs only, 100 A bus
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    # NEC 408.36: the feeder's device protects the bus, so 100 A, not the 125 A of 430.62(A)
+    assert f1.ocpd_a == 100 and result.ok
+    assert any("408.36" in n and "100 A bus" in n for n in f1.notes)
 
 
 def test_a_fixed_feeder_device_over_the_430_62_limit_is_a_problem():
@@ -95,3 +121,21 @@ def test_motors_below_a_transformer_do_not_reach_the_feeder_into_its_primary():
     # the panel's feeder below the transformer takes 430.24: 125 % of 30.8 A (Table 430.250,
     # 10 hp at 208 V)
     assert result.runs["F-LP1"].design_amps >= 1.25 * 30.8 - 1e-6
+
+
+def test_a_motor_edit_recomputes_its_feeder_device_as_a_full_compute_does():
+    from gaugewalk.model.walk.job import Load
+    from gaugewalk.model.walk.recompute import recompute_run
+
+    job = _motors_job(_motor("M1", 25), _motor("M2", 15), _motor("M3", 10))
+    result = compute_job(job)
+    for rid, hp in (("M2", 40), ("M1", 5), ("M3", 60), ("M2", 15)):
+        job.run(rid).load = Load(value=hp, unit="hp", kind="motor")
+        result = recompute_run(job, result, rid)
+        full = compute_job(job)
+        assert result.runs["F1"].ocpd_a == full.runs["F1"].ocpd_a, (rid, hp)
+        assert result.runs["F1"].size == full.runs["F1"].size, (rid, hp)
+        assert result.feeders["F1"].max_ocpd_a == pytest.approx(full.feeders["F1"].max_ocpd_a)
+    # NEC 2023 Table 430.250, 460 V: 5 hp 7.6 A, 15 hp 21 A, 60 hp 77 A; 430.52(C)(1): 250 %
+    # of 77 A = 192.5 A, next standard 200 A; 430.62(A): 200 + 7.6 + 21 = 228.6 A -> 225 A
+    assert result.runs["F1"].ocpd_a == 225

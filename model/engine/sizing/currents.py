@@ -19,8 +19,12 @@ device; where its article lets the device exceed the conductor's ampacity (240.4
 also says how the device limits the pick (``Currents.protection``). ``evaluate`` asks the rule
 and picks the conductor from what it answers.
 
+A feeder supplying motors alone is sized by Article 430 Part V instead (``motor_feeder``): its
+device is picked from the largest the code permits for it (430.62(A)), and it protects the
+conductors without 240.4's limit (240.4(G)).
+
 Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``forget_general_loads()``,
-``next_rating(amps)``, the protection modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
+``motor_feeder(...)``, ``next_rating(amps)``, the protection modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
 """
 
 from __future__ import annotations
@@ -125,3 +129,42 @@ class _GeneralRule:
 
 
 GENERAL: LoadRule = _GeneralRule()
+
+
+def motor_feeder(amps: float, cont: float, ocpd_a: int | None, limit_a: float,
+                 bus_a: int | None) -> Currents:
+    """A feeder supplying motors alone (NEC 430.24, 430.62(A), 240.4(G)). Its conductors carry
+    430.24's current (``cont`` holds the largest motor's, taken at 125 %). Its device, unless the
+    user fixed one, is the largest standard rating not above ``limit_a`` [A] (430.62(A): the
+    largest branch device of any motor supplied plus the other motors' currents) nor above
+    ``bus_a`` [A] (the bus of a main-lugs-only panel it feeds, 408.36), and never below the next
+    standard rating over the design current: a feeder device smaller than a motor's own branch
+    device would open first when that motor starts (common practice). As the short-circuit and
+    ground-fault device of Article 430 Part V it protects the conductors from faults while the
+    motors' overload devices protect them from overload, so 240.4's limit does not apply
+    (240.4(G)). A device over ``limit_a`` is the caller's problem to say (it knows the motors)."""
+    design = amps - cont + 1.25 * cont
+    floor = next_rating(design)
+    base = _general(amps, cont, ocpd_a if ocpd_a is not None else floor)
+    notes = list(base.notes)
+    ocpd = base.ocpd_a
+    if ocpd_a is None:
+        cap = limit_a if bus_a is None else min(limit_a, bus_a)
+        most = t_ocpd.next_rating_down(cap + _EPS)
+        if most is not None and most > floor:
+            ocpd = most
+            why = (f"the {limit_a:.0f} A it permits" if cap == limit_a else
+                   f"the {bus_a} A bus of the main-lugs-only panel it feeds (NEC 408.36; 430.62(A) "
+                   f"permits {limit_a:.0f} A)")
+            notes.append(f"NEC 430.62(A): {ocpd} A feeder device, the largest standard rating not "
+                         f"above {why}; a smaller one could open before the largest motor's own "
+                         f"device when that motor starts (common practice)")
+        else:
+            notes.append(f"NEC 215.3, 430.62(A): {ocpd} A device, the next standard rating over "
+                         f"the {amps_text(design)} the feeder needs (240.6(A))")
+    notes.append("NEC 240.4(G), Article 430 Part V: the feeder device protects conductors sized "
+                 "by 430.24 from short circuit and ground fault, the motors' overload devices "
+                 "from overload; 240.4's limit does not apply")
+    return Currents(design, ocpd, tuple(notes), base.problems, protection=BY_ARTICLE,
+                    device_max_a=limit_a, rule="NEC 430.24, 430.62(A), 240.4(G) (a feeder of "
+                    "motors)")

@@ -28,6 +28,7 @@ from gaugewalk.model.engine.sizing.currents import (
     GENERAL,
     PROTECTED,
     WELDER_CONDUCTORS,
+    motor_feeder,
 )
 from gaugewalk.model.engine.sizing.egc import egc_for
 from gaugewalk.model.engine.sizing.kinds import STARTING_PF, locked_rotor, rule_for
@@ -121,7 +122,9 @@ def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
     else:
         cont = amps if spec.continuous else 0.0
     eq = spec.equipment
-    if eq is None:
+    if eq is None and spec.motor_feeder_max_a is not None:  # NEC 430.62(A), 240.4(G)
+        cur = motor_feeder(amps, cont, spec.ocpd_a, float(spec.motor_feeder_max_a), spec.lugs_bus_a)
+    elif eq is None:
         cur = GENERAL.currents(amps, cont, spec.ocpd_a)
     else:
         cur = rule_for(eq, circuit.volts, circuit.phases).currents(amps, cont, spec.ocpd_a)

@@ -67,7 +67,8 @@ def check_spec(spec: RunSpec) -> None:
             and -40 <= spec.conductor_temp_c <= 250
             and (ms is None or (ms.__class__ is str and _size_known(ms)))
             and (oc is None or (oc.__class__ is int and oc > 0))
-            and spec.min_ampacity_a is None and spec.neutral_amps is None):
+            and spec.min_ampacity_a is None and spec.neutral_amps is None
+            and spec.motor_feeder_max_a is None and spec.lugs_bus_a is None):
         return
     _check_spec_fields(spec)
 
@@ -115,3 +116,9 @@ def _check_spec_fields(spec: RunSpec) -> None:
     mina = spec.min_ampacity_a
     if mina is not None and _bad_positive(mina):
         raise SizingError(f"min_ampacity_a must be a number above zero, not {mina!r}")
+    mfm = spec.motor_feeder_max_a
+    if mfm is not None and _bad_positive(mfm):
+        raise SizingError(f"motor_feeder_max_a must be a number above zero, not {mfm!r}")
+    bus = spec.lugs_bus_a
+    if bus is not None and (bus.__class__ is not int or bus <= 0):
+        raise SizingError(f"lugs_bus_a must be a whole number of amperes, not {bus!r}")
