@@ -363,3 +363,13 @@ def test_the_report_lists_stated_feeder_loads_and_values_to_check(tmp_path):
 def test_a_walk_with_nothing_to_say_has_no_warnings_section(page):
     html, _ = page
     assert "Warnings and stated assumptions" not in html
+
+
+def test_a_raceway_cell_keeps_its_trade_size_whole_and_lets_the_words_after_it_wrap():
+    # kept whole, a rooftop run's words squeezed the run table's other columns to a letter a
+    # line on a portrait page (seen printing a walk of our own)
+    from gaugewalk.tui.report.html import _cell
+
+    assert _cell("Raceway", "EMT 1-1/4") == '<td class="nw">EMT 1-1/4</td>'
+    assert _cell("Raceway", "EMT 3/4, rooftop: +33 C ambient (NEC 310.15(B)(2))") == (
+        '<td><span class="nw">EMT 3/4</span>, rooftop: +33 C ambient (NEC 310.15(B)(2))</td>')

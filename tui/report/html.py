@@ -33,7 +33,7 @@ th, td { border: 1px solid #bbb; padding: 2px 4px; text-align: left; vertical-al
          overflow-wrap: anywhere; }
 th { background: #eee; overflow-wrap: normal; }
 td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
-td.nw { white-space: nowrap; }
+td.nw, span.nw { white-space: nowrap; }
 tr.problem td { background: #fde8e8; }
 tr.why td { font-size: .92em; }
 .caution { border: 2px solid #a00; padding: .5em .8em; font-weight: bold; }
@@ -57,13 +57,18 @@ _NUMERIC = {"Length [ft]", "Drop [%]", "Total drop [%]", "Net [ft]", "With waste
             "Drop at bus [%]", "Conductors", "Current-carrying", "Adjustment"}
 _NO_BREAK = {"Size", "EGC", "Raceway", "Trade size", "Circuit", "Rating", "Insulation", "System",
              "Kind"}
-"""Columns whose cells are never broken across lines (``3/0 AWG``, ``EMT 1-1/4``)."""
+"""Columns whose cells are never broken across lines (``3/0 AWG``, ``EMT 1-1/4``); where words
+follow the first comma (``EMT 3/4, rooftop: ...``), those may wrap: kept whole, they would
+squeeze the other columns to a letter a line."""
 
 
 def _cell(column: str, value: str) -> str:
     if column in _NUMERIC:
         return f"<td class=\"num\">{escape(value)}</td>"
     if column in _NO_BREAK:
+        head, sep, rest = value.partition(", ")
+        if sep:  # what follows the size (a rooftop's words, a shared raceway) may wrap
+            return f"<td><span class=\"nw\">{escape(head)}</span>{escape(sep + rest)}</td>"
         return f"<td class=\"nw\">{escape(value)}</td>"
     return f"<td>{escape(value)}</td>"
 
