@@ -76,6 +76,7 @@ from gaugewalk.model.engine.vocabulary import (
     WelderType,
 )
 from gaugewalk.model.walk.plain_text import no_control
+from gaugewalk.model.walk.pydantic_plugins import spare_the_loader
 from gaugewalk.model.walk.vocabulary import (
     MAX_POSITION,
     Demand,
@@ -155,6 +156,9 @@ def _no_items() -> list:
     ``list``: pydantic reads the signature of every default factory, and a builtin's comes from
     parsing its text signature (about 1.5 ms at import, paid by every command that reads a walk)."""
     return []
+
+
+spare_the_loader()  # before the first model is built: see its module
 
 
 class _Strict(BaseModel):
