@@ -36,7 +36,7 @@ follows. The structure is checked here field by field; references, cycles and wh
 supply are checked by ``gaugewalk.model.walk.checks``.
 """
 
-from __future__ import annotations
+
 
 import re
 import warnings
@@ -372,7 +372,7 @@ class Load(_Strict):
         return value
 
     @model_validator(mode="after")
-    def _value_and_unit(self) -> Load:
+    def _value_and_unit(self) -> "Load":
         if (self.value is None) != (self.unit is None):
             raise ValueError("give the load's value and its unit together, e.g. 16A or 10hp")
         if self.value is None and not self._nameplate_stands_in():
@@ -403,22 +403,6 @@ _MOTOR_RATINGS = frozenset(horsepowers(1)) | frozenset(horsepowers(3))
 """[hp] the ratings of NEC Tables 430.248 and 430.250."""
 
 
-class Segment(_Strict):
-    """One stretch of a run's route, with a note on where it goes."""
-
-    length: LengthText
-    """Length as typed (same grammar as the run's length)."""
-    note: OneLine = ""
-    """Where this stretch goes."""
-    raceway_id: str | None = None
-    """Id of the shared raceway (``[[raceway]]``) this stretch runs in; None: the run's own."""
-
-    @field_validator("raceway_id")
-    @classmethod
-    def _raceway_is_id(cls, value: str | None) -> str | None:
-        return None if value is None else _check_id(value)
-
-
 def _length_text(value):
     if isinstance(value, bool):
         return value
@@ -445,6 +429,22 @@ LengthText = Annotated[
 ]
 """A route length as typed (``85+12+2*6``; a bare number is kept as its text), which the length
 grammar of ``gaugewalk.model.engine.lengths`` must read."""
+
+
+class Segment(_Strict):
+    """One stretch of a run's route, with a note on where it goes."""
+
+    length: LengthText
+    """Length as typed (same grammar as the run's length)."""
+    note: OneLine = ""
+    """Where this stretch goes."""
+    raceway_id: str | None = None
+    """Id of the shared raceway (``[[raceway]]``) this stretch runs in; None: the run's own."""
+
+    @field_validator("raceway_id")
+    @classmethod
+    def _raceway_is_id(cls, value: str | None) -> str | None:
+        return None if value is None else _check_id(value)
 
 
 class Source(_Strict):
@@ -491,7 +491,7 @@ class Source(_Strict):
     __setattr__ = _noting_renames
 
     @model_validator(mode="after")
-    def _transformer_keys(self) -> Source:
+    def _transformer_keys(self) -> "Source":
         if self.kind != "transformer":
             given = [k for k in ("impedance_pct", "secondary_ocpd_a") if getattr(self, k)
                      is not None]
@@ -548,7 +548,7 @@ class Raceway(_Strict):
         return _check_id(value)
 
     @model_validator(mode="after")
-    def _size_made(self) -> Raceway:
+    def _size_made(self) -> "Raceway":
         if self.type is not None and self.size is not None and \
                 self.size not in trade_sizes(self.type):
             raise ValueError(f"{self.type} is not made in trade size {self.size}; its sizes are "
@@ -666,7 +666,7 @@ class Run(_Strict):
         return None if value is None else _check_id(value)
 
     @model_validator(mode="after")
-    def _feet(self) -> Run:
+    def _feet(self) -> "Run":
         feet = parse_length(self.length)
         if self.segments:
             total = sum(parse_length(s.length) for s in self.segments)
