@@ -17,7 +17,7 @@ from __future__ import annotations
 
 import math
 import re
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.vocabulary import CONNECTIONS
@@ -25,8 +25,7 @@ from gaugewalk.model.engine.vocabulary import CONNECTIONS
 SQRT3 = math.sqrt(3.0)
 
 
-@dataclass(frozen=True)
-class System:
+class System(NamedTuple):
     """A supply system. ``line_to_line_v`` is the voltage between ungrounded conductors (for a
     2-wire system, between its two wires) [V]; ``line_to_neutral_v`` is None without a neutral
     [V]; ``wires`` counts the neutral."""

@@ -11,7 +11,7 @@ that consumes it: the walk file's job computation, the app, the takeoff, the rep
 from __future__ import annotations
 
 from dataclasses import asdict, dataclass, field
-from typing import Literal, TypeVar
+from typing import Literal, NamedTuple, TypeVar
 
 from gaugewalk.model.engine.vocabulary import (
     LoadKind,
@@ -23,8 +23,7 @@ from gaugewalk.model.engine.vocabulary import (
 )
 
 
-@dataclass(frozen=True)
-class Circuit:
+class Circuit(NamedTuple):
     """How a load is connected, resolved to what the drop formula and the raceway need.
 
     ``volts`` is the nominal voltage the load is connected at; percent drop is against it.
@@ -49,8 +48,7 @@ class Circuit:
     notes: tuple[str, ...] = ()  # what the connection implies (NEC 210.4(B), 110.15)
 
 
-@dataclass(frozen=True)
-class Equipment:
+class Equipment(NamedTuple):
     """What a load is, with the nameplate values its kind's rules read (NEC Articles 422, 424,
     430, 440, 625, 630); see ``gaugewalk.model.engine.sizing.kinds``. None of a field: not given.
     Units in brackets."""

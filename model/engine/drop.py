@@ -34,7 +34,7 @@ Ze = R cos(theta) + XL sin(theta)).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.vocabulary import METHODS
@@ -48,8 +48,7 @@ uncoated copper and aluminum near 75 C operating temperature)."""
 
 
 
-@dataclass(frozen=True)
-class Drop:
+class Drop(NamedTuple):
     """A computed drop: ``volts`` [V], ``pct`` [%] of the circuit voltage, ``z_ohm_per_kft``
     the impedance per conductor used [ohm/kft], ``length_ft`` the length the formula used [ft]."""
 

@@ -20,7 +20,6 @@ Public API:
 from __future__ import annotations
 
 import os
-from dataclasses import replace
 
 from gaugewalk.model.walk.checks import check_references
 from gaugewalk.model.walk.job import Job
@@ -116,7 +115,7 @@ class WalkHold:
         placed = check_references(job, Locator(dumps_walk(job)), self.file)
         out = [p for p, q in zip(placed, found, strict=True) if _key(q) in new]
         out.sort(key=lambda p: (p.line is None, p.line or 0))
-        return [replace(p, line=None) for p in out]
+        return [p._replace(line=None) for p in out]
 
     def save(self, job: Job, *, allow_comment_loss: bool = True,
              written: dict | None = None) -> SaveNotice | None:

@@ -13,7 +13,7 @@ from __future__ import annotations
 import math
 import os
 from collections.abc import Callable
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field
 from datetime import datetime
 from pathlib import Path
 from typing import TYPE_CHECKING
@@ -273,7 +273,7 @@ class WalkSession:
             if p.is_about("run", (run.id,)):
                 out.append(p)
             elif p.is_about("source", (run.to, run.from_)):
-                out.append(replace(p, field="to"))
+                out.append(p._replace(field="to"))
         return out
 
     def preview(self, run: Run, *, replaces: str | None = None,

@@ -34,7 +34,8 @@ once every run is sized (``gaugewalk.model.walk.raceways``).
 from __future__ import annotations
 
 import math
-from dataclasses import MISSING, dataclass, field, fields, replace
+from dataclasses import MISSING, dataclass, field, fields
+from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.collector import collector_held
@@ -88,8 +89,7 @@ _EPS = 1e-9
 _GONE = object()
 
 
-@dataclass(frozen=True)
-class FeederInfo:
+class FeederInfo(NamedTuple):
     """What a feeder is sized for: ``basis`` in words, ``amps`` the current [A] (its load on
     its heaviest line, or the device or rating the basis names), ``load_amps`` [A] the load on
     its heaviest ``line`` (None for a feeder with its own load), and for an equipment basis the
@@ -406,7 +406,7 @@ class WalkState:
                 return None
             note = unstated_circuit_note(source.system, conn) if unstated else None
             if note is not None:
-                c = replace(c, notes=(note, *c.notes))
+                c = c._replace(notes=(note, *c.notes))
             self._circuit_cache[key] = c
         self.result._circuits[run.id] = c
         self.result._own[run.id] = (own_load(run, c, self.job.defaults.pf)
@@ -494,7 +494,7 @@ class WalkState:
                 groups.append(below)
         group = largest(groups)
         if group is not None and not only and group.only_motors:
-            group = replace(group, only_motors=False)
+            group = group._replace(only_motors=False)
         old = res.motor_groups.get(sid)
         if group is None:
             res.motor_groups.pop(sid, None)
@@ -622,8 +622,8 @@ class WalkState:
             if r.load is not None and feed is not None and rule is None:
                 need, words = _served_beyond_stated(self, r, result.design_amps, feed)
                 if need is not None:
-                    info = replace(info, basis=info.basis + words, served_a=need)
-            res.feeders[r.id] = replace(info, demand=steps) if steps else info
+                    info = info._replace(basis=info.basis + words, served_a=need)
+            res.feeders[r.id] = info._replace(demand=steps) if steps else info
         self.store(r, result, is_feeder, spec)
 
     def with_demand(self, r: Run, feed: Feed) -> tuple[Feed, tuple[DemandStep, ...]]:

@@ -19,14 +19,13 @@ Public API: ``DemandStep``; ``apply_demand(feed) -> (Feed, steps)``.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.model.walk.feeder_loads import Feed, feeder_load
 from gaugewalk.tables.demand import receptacle_demand_va
 
 
-@dataclass(frozen=True)
-class DemandStep:
+class DemandStep(NamedTuple):
     """One demand factor taken on a feeder: its code ``section``, the ``group`` of loads it
     reads, their ``connected_va`` and what is counted of them, ``demand_va`` [VA], and a
     sentence (``text``)."""

@@ -28,7 +28,7 @@ continuous as its kind and the run say.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit, Equipment
 from gaugewalk.model.engine.loads import load_amps
@@ -78,8 +78,7 @@ def run_continuous(run: Run) -> bool:
     return bool(run.continuous) if eq is None else continuous_of(eq)
 
 
-@dataclass(frozen=True)
-class LoadFacts:
+class LoadFacts(NamedTuple):
     """A run's load as its sizing uses it: ``amps`` running [A], ``pf``, ``continuous`` and the
     ``equipment`` (None: a general load)."""
 

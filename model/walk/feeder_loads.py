@@ -46,6 +46,7 @@ import cmath
 import math
 from collections.abc import Mapping
 from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import SYSTEMS
 from gaugewalk.model.engine.contract import Circuit
@@ -173,8 +174,7 @@ class _OwnShare:
         return [(k, p * u[k], 0j) for k in lines]
 
 
-@dataclass(frozen=True)
-class Lines:
+class Lines(NamedTuple):
     """What a source's lines carry [A, phasors in its frame: line A's voltage at 0 degrees],
     with the connected ``load``."""
 
@@ -217,8 +217,7 @@ def _heaviest(total, continuous) -> tuple[int, float]:
     return line, max(best, 0.0)
 
 
-@dataclass(frozen=True)
-class Feed:
+class Feed(NamedTuple):
     """What a source's feeder carries [A, phasors]: per line of the feeder (``frame`` ``lines``:
     in the source's frame, to be rotated onto the lines the feeder takes upstream) or one
     winding current (``frame`` ``winding``: a single-phase transformer's primary, in phase with

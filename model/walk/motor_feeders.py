@@ -28,7 +28,7 @@ Public API: ``MotorGroup``, ``run_motor(run, circuit, default_pf)``, ``largest(g
 from __future__ import annotations
 
 from collections.abc import Iterable
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.loads import LoadError
@@ -36,8 +36,7 @@ from gaugewalk.model.walk.equipment import HVAC_RLA_FACTOR, run_kind_load
 from gaugewalk.model.walk.job import Run
 
 
-@dataclass(frozen=True)
-class MotorGroup:
+class MotorGroup(NamedTuple):
     """The motors a feeder supplies, as its rules need them: the ``largest_a`` motor current [A]
     (run ``largest_run``), the largest branch device ``device_a`` [A] of any of them and the
     current of the motor it protects (``device_motor_a``) [A], whether an HVAC unit's

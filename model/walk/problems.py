@@ -20,8 +20,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass
-from typing import Any
+from typing import Any, NamedTuple
 
 from gaugewalk.model.walk.plain_text import shown
 
@@ -31,8 +30,7 @@ ABOUT = ("file", "job", "defaults", "source", "raceway", "run", "option")
 option."""
 
 
-@dataclass(frozen=True)
-class Problem:
+class Problem(NamedTuple):
     """One thing wrong with a walk, and where."""
 
     file: str

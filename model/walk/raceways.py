@@ -25,7 +25,7 @@ Public API: ``SharedRaceway`` (one raceway's answer, ``to_dict()``);
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import (
     CircuitError,
@@ -44,8 +44,7 @@ from gaugewalk.tables.raceway import fill as t_fill
 _EPS = 1e-9
 
 
-@dataclass(frozen=True)
-class SharedRaceway:
+class SharedRaceway(NamedTuple):
     """One shared raceway worked out: what is in it, its adjustment and its fill."""
 
     id: str
@@ -62,7 +61,7 @@ class SharedRaceway:
     fill_pct: float                 # [%] of the trade size's internal area (Table 4)
     fill_limit_pct: float           # [%] Ch. 9 Table 1 for that many conductors
     notes: tuple[str, ...] = ()
-    problems: tuple[str, ...] = field(default=())
+    problems: tuple[str, ...] = ()
 
     def to_dict(self) -> dict:
         return {

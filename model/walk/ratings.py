@@ -17,15 +17,14 @@ Public API: ``Loading``, ``loading(source, lines)``, ``lugs_bus(source)``, ``lug
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.model.walk.feeder_loads import Lines
 from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.model.walk.vocabulary import LINE_NAMES
 
 
-@dataclass(frozen=True)
-class Loading:
+class Loading(NamedTuple):
     """A source's loading: the heaviest line's design current ``design_a`` [A] on ``line``,
     over ``limit_a`` (the smaller of the bus rating and the main given) [A] as a percent, and
     the problems as (field, sentence)."""
@@ -82,8 +81,7 @@ def lugs_problem(source: Source, feeder_ocpd_a: int | None) -> str | None:
     return None
 
 
-@dataclass(frozen=True)
-class FeederRule:
+class FeederRule(NamedTuple):
     """What a feeder is sized for, when a rule other than its load sets it: the ``basis`` in
     words, the device ``ocpd_a`` [A], the least ampacity [A] with no next size up, the current
     it is sized for ``amps`` [A] (None: its load), whether the connected-load answer is kept

@@ -34,7 +34,7 @@ Public API: ``TransformerInfo``; ``transformer_info(source, lines, primary, feed
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
+from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import SYSTEMS
 from gaugewalk.model.engine.contract import Circuit
@@ -48,8 +48,7 @@ from gaugewalk.tables.protection.ocpd import ALL_RATINGS
 _METHOD = {"primary": "primary-only", "both": "primary-and-secondary"}
 
 
-@dataclass(frozen=True)
-class TransformerInfo:
+class TransformerInfo(NamedTuple):
     """What the walk makes of one transformer; currents [A], voltages [V], percents [%]. None
     where the walk lacks what it needs (said in ``problems``)."""
 
@@ -204,11 +203,10 @@ def transformer_info(source: Source, lines: Lines, primary: Circuit | None, feed
 
 def _with(info: TransformerInfo, notes: list[str],
           problems: list[tuple[str, str]]) -> TransformerInfo:
-    return replace(info, notes=tuple(notes), problems=tuple(problems))
+    return info._replace(notes=tuple(notes), problems=tuple(problems))
 
 
-@dataclass(frozen=True)
-class SecondaryRule:
+class SecondaryRule(NamedTuple):
     """How the conductors of a run from a transformer's secondary are sized: the device they
     end in [A], the least ampacity [A] (no next size up), the basis, notes and problems."""
 

@@ -15,7 +15,7 @@ Temperature: NEC Ch. 9 Table 8 note 2, R2 = R1 [1 + alpha (T2 - 75)], alpha per 
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.tables.conductor.sizes import SIZES, canonical
 from gaugewalk.tables.errors import TableLookupError, choices
@@ -26,8 +26,7 @@ ALPHA: dict[str, float] = {"cu": 0.00323, "al": 0.00330}
 MATERIALS = ("cu", "al")
 
 
-@dataclass(frozen=True)
-class Wire:
+class Wire(NamedTuple):
     """One form of a conductor in Table 8 (solid or stranded)."""
 
     strands: int            # 1 for solid
@@ -39,8 +38,7 @@ class Wire:
     r_al: float             # [ohm/kft] aluminum at 75 C
 
 
-@dataclass(frozen=True)
-class Table8Row:
+class Table8Row(NamedTuple):
     size: str
     area_mm2: float          # [mm^2]
     cmil: float              # [cmil] circular mils

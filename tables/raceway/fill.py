@@ -11,7 +11,7 @@ pi/4 * d^2 of its own diameter and every Table 5 conductor against the bare one 
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass, field
+from typing import NamedTuple
 
 from gaugewalk.tables.conductor.sizes import canonical
 from gaugewalk.tables.errors import TableLookupError, choices
@@ -69,8 +69,7 @@ LFMC_350 = _t4((0.632, 0.314), (0.830, 0.541), (1.054, 0.873), (1.395, 1.528), (
                (2.033, 3.246), (2.493, 4.881), (3.085, 7.475), (3.520, 9.731), (4.020, 12.692))
 
 
-@dataclass(frozen=True)
-class RacewayType:
+class RacewayType(NamedTuple):
     """A raceway type: its NEC article, its Table 9 family and its Table 4 rows."""
 
     name: str                 # canonical name, e.g. "PVC-40"
@@ -78,7 +77,7 @@ class RacewayType:
     article: str              # NEC article, e.g. "358"
     family: str               # Table 9 family: "pvc", "aluminum" or "steel"
     # trade size -> (internal diameter [in], area [in^2])
-    table4: dict[str, tuple[float, float]] = field(repr=False)
+    table4: dict[str, tuple[float, float]]
 
 
 RACEWAY_TYPES: dict[str, RacewayType] = {r.name: r for r in (

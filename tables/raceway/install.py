@@ -9,7 +9,7 @@ sizes as written in NEC Chapter 9 Table 4 ("1/2", "1-1/4").
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.raceway.fill import parse_raceway
@@ -36,16 +36,14 @@ PULL_BOX_SIZING_RULE = ("NEC 314.28(A): for conductors 4 AWG and larger, a strai
                         "least 8 x the trade size long, an angle pull 6 x")
 
 
-@dataclass(frozen=True)
-class Spacing:
+class Spacing(NamedTuple):
     """Support spacing for trade sizes up to ``up_to`` (inclusive) [ft]."""
 
     up_to: float        # largest trade size this row covers, as a number (1-1/4 -> 1.25)
     max_ft: float       # [ft] largest distance between supports
 
 
-@dataclass(frozen=True)
-class InstallRule:
+class InstallRule(NamedTuple):
     """Installation data for one raceway family."""
 
     family: str                     # "EMT", "RMC", ...

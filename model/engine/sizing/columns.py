@@ -19,8 +19,8 @@ runs alike share the work.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from functools import lru_cache
+from typing import NamedTuple
 
 from gaugewalk.model.engine.drop import (
     conductor_z,
@@ -49,8 +49,7 @@ MAT = {"cu": "Cu", "al": "Al"}
 _LARGEST_RATING = t_ocpd.STANDARD_RATINGS[-1]
 
 
-@dataclass(frozen=True)
-class MaterialTable:
+class MaterialTable(NamedTuple):
     sizes: tuple[str, ...]                          # START_SIZE .. 2000 kcmil
     cmil: tuple[float, ...]                         # [cmil]
     amp: dict[int, tuple[float | None, ...]]        # column [C] -> ampacity [A]
@@ -77,8 +76,7 @@ def protect_limit(allowable_a: float) -> float:
     return float(nxt) if nxt <= 800 else allowable_a
 
 
-@dataclass(frozen=True)
-class AmpacityColumns:
+class AmpacityColumns(NamedTuple):
     first: int                               # first size usable (310.10(G) for parallel sets)
     term_total: tuple[float, ...]            # [A] terminal-column ampacity x sets, unadjusted
     corrected_total: tuple[float, ...]       # [A] insulation column x corrections x sets
@@ -171,8 +169,7 @@ _ambient = lru_cache(maxsize=1024)(t_amp.ambient_factor)
 _ccc_factor = lru_cache(maxsize=256)(t_amp.ccc_factor)
 
 
-@dataclass(frozen=True)
-class Setting:
+class Setting(NamedTuple):
     """What follows from the device, the insulation and the installation, the same for every
     run that shares them: columns, corrections, ampacity and impedance tables, raceway."""
     insulation: str

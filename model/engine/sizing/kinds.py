@@ -55,8 +55,8 @@ phases)``, what a feeder's rules need of a branch run (``gaugewalk.model.walk.eq
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from functools import lru_cache
+from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit, Equipment
 from gaugewalk.model.engine.loads import LoadError, load_amps
@@ -529,8 +529,7 @@ def rule_for(eq: Equipment, volts: float, phases: int) -> LoadRule:
 
 # -- for a feeder's rules -------------------------------------------------------------------------
 
-@dataclass(frozen=True)
-class KindLoad:
+class KindLoad(NamedTuple):
     """What a feeder's rules need to know of a branch run's load (NEC 430.24, 430.62, 440.33,
     630.11(B), 215.2(A)(1)): its ``kind``; ``is_motor`` (Article 430); ``running_a`` the current
     it draws running [A]; ``basis_a`` the current its branch conductors are sized from before
