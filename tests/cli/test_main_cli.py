@@ -52,14 +52,16 @@ def test_each_command_shows_its_own_options(capsys):
 def loaded_by(argv: list[str]) -> set[str]:
     """Modules a fresh interpreter has loaded after running ``gaugewalk ARGV`` (output dropped)."""
     code = (
-        "import contextlib, io, json, sys\n"
+        "import contextlib, io, sys\n"
         "from gaugewalk.tui.cli.main import main\n"
         "with contextlib.redirect_stdout(io.StringIO()):\n"
         "    try:\n"
         f"        code = main({argv!r})\n"
         "    except SystemExit as exc:\n"
         "        code = exc.code\n"
-        "print(json.dumps([code, sorted(sys.modules)]))\n"
+        "loaded = sorted(sys.modules)\n"
+        "import json  # after the list: the command's own imports only\n"
+        "print(json.dumps([code, loaded]))\n"
     )
     done = subprocess.run([sys.executable, "-c", code], cwd=REPO, capture_output=True, text=True,
                           check=True)
@@ -92,6 +94,7 @@ def test_check_loads_no_face_and_nothing_its_output_does_not_use():
               "gaugewalk.model.session", "gaugewalk.model.walk.takeoff",
               "gaugewalk.model.walk.schedule")  # the schedules only for --json
     assert {m for m in loaded if m.startswith(unused)} == set()
+    assert "json" not in loaded  # only --json writes it
     if toml_parse.COMPILED is not None:  # tomllib only for text the compiled parser refuses
         assert "tomllib" not in loaded
 

@@ -8,7 +8,6 @@ file is only read, never written.
 from __future__ import annotations
 
 import argparse
-import json
 import sys
 from typing import Any
 
@@ -192,6 +191,8 @@ def run(args: argparse.Namespace) -> int:
         return EXIT_INVALID
     result = compute_job(job)
     if args.json:
+        import json  # only --json writes it
+
         # one write: json.dump would hand the stream every token, each passing shown_lines
         sys.stdout.write(json.dumps(results_json(args.file, job, result), indent=1) + "\n")
     else:
