@@ -13,8 +13,6 @@ high-leg delta (phase B, about 208 V to neutral, is marked orange, NEC 110.15, a
 are fed: the neutral of a multiwire circuit on it carries about the phase current).
 """
 
-from __future__ import annotations
-
 import math
 import re
 from typing import NamedTuple

@@ -8,8 +8,6 @@ that consumes it: the walk file's job computation, the app, the takeoff, the rep
 ``gaugewalk calc --json``. Units are in the field names or comments: [A], [V], [ft], [%], [C].
 """
 
-from __future__ import annotations
-
 from dataclasses import asdict, dataclass, field
 from typing import Literal, NamedTuple, TypeVar
 

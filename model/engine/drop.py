@@ -31,8 +31,6 @@ correction) and Table 9 (AC resistance and reactance at 75 C, 60 Hz, with note 2
 Ze = R cos(theta) + XL sin(theta)).
 """
 
-from __future__ import annotations
-
 import math
 from typing import NamedTuple
 

@@ -15,8 +15,6 @@ pulled); the total must stay above zero. Parsing is one left-to-right pass: time
 input, whose length is capped at ``MAX_LENGTH_CHARS``.
 """
 
-from __future__ import annotations
-
 import math
 import re
 from typing import NamedTuple

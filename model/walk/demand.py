@@ -17,8 +17,6 @@ keeps its primary device (Table 450.3(B)): no demand factor is taken there.
 Public API: ``DemandStep``; ``apply_demand(feed) -> (Feed, steps)``.
 """
 
-from __future__ import annotations
-
 from typing import NamedTuple
 
 from gaugewalk.model.walk.feeder_loads import Feed, feeder_load

@@ -26,8 +26,6 @@ load is given; a welder its 630.11(A) current; every other kind its running curr
 continuous as its kind and the run say.
 """
 
-from __future__ import annotations
-
 from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit, Equipment

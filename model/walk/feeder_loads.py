@@ -40,8 +40,6 @@ Public API:
   cooling; ``Lines.kinds``, ``Feed.kinds``), for ``gaugewalk.model.walk.demand``.
 """
 
-from __future__ import annotations
-
 import cmath
 import math
 from collections.abc import Mapping
@@ -182,7 +180,7 @@ class Lines(NamedTuple):
     continuous: tuple[complex, ...]
     load: FeederLoad
     has_neutral: bool
-    kinds: tuple[tuple[str, Lines], ...] = ()
+    kinds: tuple[tuple[str, "Lines"], ...] = ()
     """The part of the sums from the loads of each demand group (``DEMAND_GROUPS``), below
     this source too; only when asked for (``sum_source(..., groups=True)``)."""
 
@@ -227,7 +225,7 @@ class Feed(NamedTuple):
     continuous: tuple[complex, ...]
     frame: str
     load: FeederLoad
-    kinds: tuple[tuple[str, Feed], ...] = ()
+    kinds: tuple[tuple[str, "Feed"], ...] = ()
     """The part of it from each demand group's loads (``Lines.kinds``), in the same frame."""
 
     def heaviest(self) -> tuple[int, float, float, float]:

@@ -25,8 +25,6 @@ Public API: ``MotorGroup``, ``run_motor(run, circuit, default_pf)``, ``largest(g
 ``device_limit(group, load_amps)``, ``notes_for(group, extra_a)``.
 """
 
-from __future__ import annotations
-
 from collections.abc import Iterable
 from typing import NamedTuple
 

@@ -32,8 +32,6 @@ Public API:
   problems (two runs on one position, a position past the spaces, a phase that disagrees).
 """
 
-from __future__ import annotations
-
 import cmath
 import math
 from collections.abc import Callable, Sequence

@@ -16,8 +16,6 @@ Public API:
   words and runs of spaces shortened): the one way problems echo user text.
 """
 
-from __future__ import annotations
-
 import re
 from collections.abc import Mapping, Sequence
 from typing import Any, NamedTuple

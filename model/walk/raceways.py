@@ -23,8 +23,6 @@ Public API: ``SharedRaceway`` (one raceway's answer, ``to_dict()``);
 ``shared_raceways(job, runs) -> (dict of SharedRaceway by id, list of Problem)``.
 """
 
-from __future__ import annotations
-
 from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import (

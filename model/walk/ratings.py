@@ -15,8 +15,6 @@ Public API: ``Loading``, ``loading(source, lines)``, ``lugs_bus(source)``, ``lug
 ``FeederRule``, ``equipment_rule(run, target)``.
 """
 
-from __future__ import annotations
-
 from typing import NamedTuple
 
 from gaugewalk.model.walk.feeder_loads import Lines

@@ -31,8 +31,6 @@ Public API: ``TransformerInfo``; ``transformer_info(source, lines, primary, feed
 ``primary_device(rated_a, method)``; ``secondary_rule(...)``.
 """
 
-from __future__ import annotations
-
 import math
 from typing import NamedTuple
 

@@ -13,8 +13,6 @@ gauge formula, IACS resistivity with the stranding increment, and each row's own
 Temperature: NEC Ch. 9 Table 8 note 2, R2 = R1 [1 + alpha (T2 - 75)], alpha per ``ALPHA``.
 """
 
-from __future__ import annotations
-
 from typing import NamedTuple
 
 from gaugewalk.tables.conductor.sizes import SIZES, canonical

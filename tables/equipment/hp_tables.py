@@ -1,8 +1,6 @@
 """Tables keyed by horsepower (NEC Tables 430.247-430.251): building their rows and reading a cell,
 shared by ``motors`` and ``locked_rotor`` so both refuse the same way."""
 
-from __future__ import annotations
-
 from fractions import Fraction
 from typing import Callable, NamedTuple
 

@@ -24,8 +24,6 @@ the 2008 edition; Table 430.7(B) from memory, checked against the 2008 text and 
 charts. The values have not changed in the 2011-2023 editions as far as known (from memory).
 """
 
-from __future__ import annotations
-
 import math
 from fractions import Fraction
 from typing import NamedTuple

@@ -34,8 +34,6 @@ energy-efficient motors (1100 % instantaneous) dates from the 2014 edition, whic
 E (from memory).
 """
 
-from __future__ import annotations
-
 from typing import NamedTuple
 
 from gaugewalk.tables.errors import TableLookupError, choices

@@ -32,8 +32,6 @@ ranges, and modern energy-efficient designs run toward the high end). A typical 
 a stated assumption where the nameplate is unknown; the nameplate always wins.
 """
 
-from __future__ import annotations
-
 import math
 from typing import NamedTuple
 

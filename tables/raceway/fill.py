@@ -8,8 +8,6 @@ least the 2011 edition. Tables 4 and 5 are typed from memory; the tests check ev
 pi/4 * d^2 of its own diameter and every Table 5 conductor against the bare one of Table 8.
 """
 
-from __future__ import annotations
-
 import re
 from typing import NamedTuple
 

@@ -6,8 +6,6 @@ the equivalent of four quarter bends (360 degrees) between pull points. Lengths 
 sizes as written in NEC Chapter 9 Table 4 ("1/2", "1-1/4").
 """
 
-from __future__ import annotations
-
 import math
 from typing import NamedTuple
 

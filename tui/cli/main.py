@@ -13,8 +13,6 @@ so no control character reaches the terminal (a line break and a tab stay what t
 A reader that stops early (``check --json | head``) ends the command quietly.
 """
 
-from __future__ import annotations
-
 import argparse
 import contextlib
 import gc

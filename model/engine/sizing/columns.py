@@ -16,8 +16,6 @@ runs alike share the work.
   (C)(1)), the raceway and the impedance column.
 """
 
-from __future__ import annotations
-
 import math
 from functools import lru_cache
 from typing import NamedTuple

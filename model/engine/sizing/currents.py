@@ -27,8 +27,6 @@ Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``forget_general_loads()``,
 ``motor_feeder(...)``, ``next_rating(amps)``, the protection modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
 """
 
-from __future__ import annotations
-
 from bisect import bisect_left
 from functools import lru_cache
 from typing import NamedTuple, Protocol

@@ -52,8 +52,6 @@ unit, circuit, pf)``; ``welder_current(eq)``; ``locked_rotor(eq, volts, phases)`
 phases)``, what a feeder's rules need of a branch run (``gaugewalk.model.walk.equipment``).
 """
 
-from __future__ import annotations
-
 import math
 from functools import lru_cache
 from typing import NamedTuple
