@@ -28,7 +28,7 @@ from gaugewalk.model.walkfile.atomic import real_path
 from gaugewalk.model.walkfile.fingerprint import Fingerprint, fingerprint
 from gaugewalk.model.walkfile.lock import WalkLock, acquire_lock
 from gaugewalk.model.walkfile.read import loads_walk, read_walk_text
-from gaugewalk.model.walkfile.write import SaveNotice, dumps_walk, save_walk
+from gaugewalk.model.walkfile.write import SaveNotice, Written, dumps_walk, save_walk
 
 
 def _key(problem: Problem) -> tuple:
@@ -118,7 +118,7 @@ class WalkHold:
         return [p._replace(line=None) for p in out]
 
     def save(self, job: Job, *, allow_comment_loss: bool = True,
-             written: dict | None = None) -> SaveNotice | None:
+             written: Written | None = None) -> SaveNotice | None:
         """Write the walk (atomic, with a backup), refused with ``ChangedOnDisk`` when the file
         no longer holds what was read, ``WalkFileError`` past the limits; then note the file
         again. Returns the notice that comments were dropped, if they were. ``written``: as

@@ -25,6 +25,7 @@ from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Defaults, Job, JobHeader, Run, Source
 from gaugewalk.model.walk.merge import Side
 from gaugewalk.model.walk.problems import Problem
+from gaugewalk.model.walkfile.write import Written
 
 if TYPE_CHECKING:
     from gaugewalk.model.walk.compute import JobResult
@@ -131,7 +132,7 @@ class WalkSession:
         self.version = 0
         self.changed: set[str] | None = None
         self._saver: SaveBehind[Job] | None = None   # set by ``save_behind``
-        self._written: dict = {}   # each run's text as last saved (write.dumps_walk)
+        self._written = Written()   # each run's text as last saved (write.dumps_walk)
         self._outcomes: list[_Outcome] = []   # how the writer's saves went, for ``after_save``
         if hold is None:
             hold = WalkHold(self.path, "gaugewalk app")

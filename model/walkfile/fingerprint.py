@@ -2,7 +2,8 @@
 
 Public API:
 
-- ``Fingerprint(size, mtime_ns, sha256)``; ``Fingerprint.of(data)``; ``matches(other)``.
+- ``Fingerprint(size, mtime_ns, data)``; ``Fingerprint.of(data)``; ``matches(other)``;
+  ``holds(data)``.
 - ``fingerprint(path) -> Fingerprint | None``: the file's now (None: no file).
 - ``ChangedOnDisk``: raised by a save whose file no longer holds what was read; nothing is
   written then.
@@ -10,28 +11,32 @@ Public API:
 
 from __future__ import annotations
 
-import hashlib
 import os
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 
 
 @dataclass(frozen=True)
 class Fingerprint:
-    """What a walk file held when it was read: ``size`` [bytes], ``mtime_ns`` and ``sha256``.
-    Two fingerprints match when size and hash do (a touch that changes only the time is not a
-    change of content)."""
+    """What a walk file held when it was read: ``size`` [bytes], ``mtime_ns`` and the bytes
+    themselves (``data``: compared whole, which is quicker than hashing them, and exact). Two
+    fingerprints match when their bytes do (a touch that changes only the time is not a change
+    of content)."""
 
     size: int
     mtime_ns: int
-    sha256: str
+    data: bytes = field(repr=False)
 
     @classmethod
     def of(cls, data: bytes, mtime_ns: int = 0) -> "Fingerprint":
-        return cls(len(data), mtime_ns, hashlib.sha256(data).hexdigest())
+        return cls(len(data), mtime_ns, data)
 
     def matches(self, other: "Fingerprint | None") -> bool:
-        return other is not None and (self.size, self.sha256) == (other.size, other.sha256)
+        return other is not None and self.holds(other.data)
+
+    def holds(self, data: bytes | None) -> bool:
+        """``data`` (None: no file) is what the file held."""
+        return data is not None and len(data) == self.size and data == self.data
 
 
 def fingerprint(path: str | os.PathLike) -> Fingerprint | None:

@@ -4,7 +4,7 @@ Public API:
 
 - ``dumps_walk(job, written=None) -> str``: the file text; keys in a fixed order, defaults left
   out, so saving twice gives the same bytes and a reload gives the same Job. ``written`` (a
-  ``Written`` dict the caller keeps) spares writing again the runs written last time.
+  ``Written`` the caller keeps) spares writing again the runs written last time.
 - ``save_walk(job, path, *, allow_comment_loss=True, expected=None, written=None)
   -> SaveNotice | None``: an
   atomic write (``gaugewalk.model.walkfile.atomic``) with a backup of the previous file at
@@ -32,6 +32,8 @@ import stat
 from dataclasses import dataclass
 from datetime import date
 from functools import lru_cache
+from itertools import compress, count, islice
+from operator import is_not
 from pathlib import Path
 
 import tomli_w
@@ -214,18 +216,54 @@ def _table(model: BaseModel) -> list[str]:
     return lines
 
 
-Written = dict[int, tuple[BaseModel, str]]
-"""Each source's and run's text as last written, by the object's ``id`` (the object kept beside
-it, so an id is never taken for another object's)."""
+class Written:
+    """Each source's, raceway's and run's text as last written, section by section, beside the
+    very objects they were written from (a ``dumps_walk`` of the same lists again makes only
+    the text of an object that is not the one in its place then). Replaced whole by each
+    ``dumps_walk`` (one assignment), so a save in another thread meanwhile never sees half of
+    it."""
+
+    __slots__ = ("sections",)
+
+    def __init__(self) -> None:
+        self.sections: dict[str, tuple[list[BaseModel], list[str]]] = {}
+
+    def __len__(self) -> int:
+        return sum(len(items) for items, _texts in self.sections.values())
+
+
+def _item_text(heading: str, item: BaseModel) -> str:
+    return "\n".join([heading, *_table(item), ""])
+
+
+def _texts(heading: str, items: list[BaseModel],
+           before: tuple[list[BaseModel], list[str]] | None) -> list[str]:
+    """The text of each of ``items`` (ending in a blank line), those written ``before`` taken
+    from there: where the list is as it was but for one object put in place of another (a run
+    stored), only that one's text is made, with no pass over the others in Python; otherwise
+    each is looked up by object."""
+    if before is None:
+        return [_item_text(heading, item) for item in items]
+    old_items, old_texts = before
+    if len(old_items) == len(items):
+        moved = list(islice(compress(count(), map(is_not, items, old_items)), 2))
+        if len(moved) < 2:
+            texts = list(old_texts)
+            for i in moved:
+                texts[i] = _item_text(heading, items[i])
+            return texts
+    # the old objects are alive (held in ``before``): an id names one of them only
+    by_id = {id(item): text for item, text in zip(old_items, old_texts, strict=True)}
+    return [by_id.get(id(item)) or _item_text(heading, item) for item in items]
 
 
 def dumps_walk(job: Job, written: Written | None = None) -> str:
     """The walk file text for ``job``: deterministic, defaults left out.
 
-    With ``written`` (what an earlier call left in it) a source or run that is the very object
-    written then is not written again: its text is taken from there. Only for a caller whose
-    sources and runs are never changed in place once written (the editing session puts new
-    objects in its lists); ``written`` is left holding this walk's texts."""
+    With ``written`` (what an earlier call left in it) a source, raceway or run that is the very
+    object written then is not written again: its text is taken from there. Only for a caller
+    whose sources and runs are never changed in place once written (the editing session puts
+    new objects in its lists); ``written`` is left holding this walk's texts."""
     out = [f"schema = {SCHEMA_VERSION}", ""]
     for name, model in (("job", job.job), ("defaults", job.defaults)):
         lines = _table(model)
@@ -239,24 +277,17 @@ def dumps_walk(job: Job, written: Written | None = None) -> str:
         for run in job.runs:
             out += ["[[run]]", *_table(run), ""]
         return "\n".join(out).rstrip("\n") + "\n"
-    head = "\n".join(out)  # "\n".join(a + b) == "\n".join(a) + "\n" + "\n".join(b)
-    parts = [head]
-    kept: Written = {}
+    parts = ["\n".join(out)]  # "\n".join(a + b) == "\n".join(a) + "\n" + "\n".join(b)
+    before = written.sections
+    sections: dict[str, tuple[list[BaseModel], list[str]]] = {}
     listed: tuple[tuple[str, list[BaseModel]], ...] = (
         ("[[source]]", list(job.sources)), ("[[raceway]]", list(job.raceways)),
         ("[[run]]", list(job.runs)))
     for heading, items in listed:
-        for item in items:
-            key = id(item)
-            hit = written.get(key)
-            if hit is not None and hit[0] is item:
-                text = hit[1]
-            else:
-                text = "\n".join([heading, *_table(item), ""])
-            kept[key] = (item, text)
-            parts.append(text)
-    written.clear()
-    written.update(kept)
+        texts = _texts(heading, items, before.get(heading))
+        sections[heading] = (items, texts)
+        parts += texts
+    written.sections = sections
     return "\n".join(parts).rstrip("\n") + "\n"
 
 
@@ -317,11 +348,12 @@ def save_walk(
         reason = read_only_reason(path)
         if reason is not None:
             raise ReadOnlyWalk(path, reason)
-    if expected is not None and not expected.matches(None if old is None else Fingerprint.of(old)):
+    if expected is not None and not expected.holds(old):
         raise ChangedOnDisk(path)
     notice = None
     if old is not None:
-        n = comment_lines(old.decode("utf-8", errors="replace"))
+        # no ``#`` byte: no comment, and no decoding of the whole file to find none
+        n = comment_lines(old.decode("utf-8", errors="replace")) if b"#" in old else 0
         if n:
             notice = SaveNotice(path, backup_path(path), n)
             if not allow_comment_loss:

@@ -158,6 +158,21 @@ def test_a_touch_that_changes_only_the_time_is_not_a_change(tmp_path):
     assert load_walk(path) == versions[1]
 
 
+def test_a_change_on_disk_that_keeps_the_size_is_still_a_change(tmp_path):
+    path = tmp_path / "walk.toml"
+    versions = walk_versions(2, runs=4)
+    save_walk(versions[0], path)
+    fp = fingerprint(path)
+    data = path.read_bytes()
+    changed = data.replace(b'id = "', b'id = "X', 1).replace(b"\n\n", b"\n", 1)
+    assert len(changed) == len(data) and changed != data
+    path.write_bytes(changed)
+    assert not fp.matches(fingerprint(path)) and not fp.holds(changed) and fp.holds(data)
+    with pytest.raises(ChangedOnDisk):
+        save_walk(versions[1], path, expected=fp)
+    assert path.read_bytes() == changed
+
+
 def test_a_walk_deleted_since_it_was_read_is_not_silently_recreated(tmp_path):
     path = tmp_path / "walk.toml"
     versions = walk_versions(2, runs=4)

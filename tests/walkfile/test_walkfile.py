@@ -18,6 +18,7 @@ from gaugewalk.model.walkfile.migrate import MIGRATIONS, migrate
 from gaugewalk.model.walkfile.read import WalkFileError, load_walk, loads_walk
 from gaugewalk.model.walkfile.write import (
     CommentsWouldBeLost,
+    Written,
     comment_lines,
     dumps_walk,
     pending_notice,
@@ -98,6 +99,39 @@ def test_saving_twice_gives_identical_bytes_and_the_second_save_leaves_the_backu
     save_walk(loads_walk(second.decode()), path)
     assert path.read_bytes() == second
     assert backup_path(path).read_bytes() == first
+
+
+def test_texts_kept_from_the_last_write_give_the_whole_writes_text_making_only_new_ones(
+        monkeypatch):
+    import gaugewalk.model.walkfile.write as write
+
+    job = loads_walk((GOLDEN / "walk_canonical.toml").read_text())
+    written = Written()
+    assert dumps_walk(job, written) == dumps_walk(job)
+    made: list[str] = []
+    table = write._table
+    monkeypatch.setattr(write, "_table", lambda model: made.append(type(model).__name__)
+                        or table(model))
+    run = job.runs[1]
+    changes = [
+        ("one run put in place of itself", lambda: job.runs.__setitem__(
+            1, run.model_copy(update={"notes": "moved"})), ["Run"]),
+        ("a run added at the end", lambda: job.runs.append(
+            run.model_copy(update={"id": "R-NEW"})), ["Run"]),
+        ("the lists in another order", lambda: job.runs.reverse(), []),
+        ("a run taken out", lambda: job.runs.pop(0), []),
+        ("a source put in place", lambda: job.sources.__setitem__(
+            0, job.sources[0].model_copy(update={"notes": "x"})), ["Source"]),
+        ("nothing changed", lambda: None, []),
+    ]
+    for said, change, texts in changes:
+        change()
+        made.clear()
+        text = dumps_walk(job, written)
+        header = made[:]   # the job and its defaults are written every time
+        assert text == dumps_walk(job), said
+        assert [m for m in header if m in ("Run", "Source")] == texts, said
+    assert len(written) == len(job.runs) + len(job.sources)
 
 
 def test_the_backup_sits_beside_the_file_with_a_tilde():
