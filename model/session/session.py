@@ -383,8 +383,10 @@ class WalkSession:
         self.references_clean = not found
         self.history.append(before)
         self.future.clear()
-        self.recompute(edited)
+        # the file holds the runs as given, nothing computed from them: saved behind (the
+        # app), the disk's wait starts now and runs beside the recompute
         self._save_change()
+        self.recompute(edited)
         return None
 
     def put_run(self, run: Run, *, replaces: str | None = None, new_source: Source | None = None,

@@ -137,3 +137,18 @@ async def test_a_walk_within_the_limit_comes_up_sized(tmp_path, monkeypatch):
         await opened(app, pilot)
         assert shown_first == [SIZING]   # one walk screen, with the runs as written
         assert len(attached) == 1 and attached[0] != SIZING
+
+
+async def test_the_writer_takes_turns_with_the_event_loop_while_a_walk_is_open(tmp_path):
+    import sys
+
+    from gaugewalk.tui.app.app import SWITCH_S
+
+    before = sys.getswitchinterval()
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(20), encoding="utf-8")
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(100, 30)) as pilot:
+        await opened(app, pilot)
+        assert sys.getswitchinterval() == SWITCH_S != before
+    assert sys.getswitchinterval() == before   # the process's own once the app is gone

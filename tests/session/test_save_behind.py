@@ -67,6 +67,27 @@ def _edit_load(session: WalkSession, run_id: str, value: float) -> None:
     assert session.put_run(new, replaces=run_id) is None
 
 
+def test_a_change_is_handed_to_the_writer_before_it_is_computed(tmp_path, monkeypatch):
+    # the file holds the runs as given: its save (and the disk's wait) starts first
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(40), encoding="utf-8")
+    session = WalkSession.open(path)
+    session.save_behind()
+    asked: list[int] = []
+    recompute = session.recompute
+
+    def noted(edited=None) -> None:
+        asked.append(session._saver._asked)
+        recompute(edited)
+
+    monkeypatch.setattr(session, "recompute", noted)
+    rid = next(r.id for r in session.job.runs if r.load is not None)
+    _edit_load(session, rid, 7.5)
+    assert asked == [1]
+    assert session.settle(30) and session.state.saved
+    assert load_walk(path) == session.job
+
+
 def test_changes_saved_behind_reach_the_disk_in_order_and_read_back_as_the_walk(tmp_path):
     path = tmp_path / "walk.toml"
     path.write_text(synthetic_walk_text(300), encoding="utf-8")

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import gc
 import os
+import sys
 import threading
 from pathlib import Path
 from typing import TYPE_CHECKING
@@ -34,6 +35,14 @@ SIZE_BEFORE_SHOWING = 20_000
 
 FIRST_PAINT_WAIT_S = 2.0
 """Longest the walk's reading waits for the first paint of its runs as written [s]."""
+
+SWITCH_S = 0.0005
+"""The interpreter's switch interval once a walk is open (``sys.setswitchinterval``; Python's own
+is 5 ms) [s]: how long a thread that wants the interpreter waits before the thread that has it
+is asked to hand it over. The walk's writer thread (``WalkSession.save_behind``) gives the
+interpreter up at each call to the disk (about fifteen in a save); with 5 ms it waited that long
+to take it back after each one while the event loop was drawing the stored run, and the file
+landed long after the row was shown."""
 
 HEAD_START_WAIT_S = 0.5
 """Longest the walk's reading then waits for the head start's rows on screen, when the head start
@@ -64,6 +73,7 @@ class WalkApp(App[int]):
         self.start_path = path
         self.head_start = head_start if head_start is not None and head_start.path == path else None
         self.recent = RecentWalks.load(config_dir)
+        self._switch_before: float | None = None   # the switch interval before ``_show``
         self.session: WalkSession | None = None
         self.exit_message: str | None = None
         self._collector_held: bool | None = None   # see _hold_collector
@@ -289,6 +299,9 @@ class WalkApp(App[int]):
         if self.head_start is not None:
             self.head_start.stop()
         self._release_collector()
+        if self._switch_before is not None:   # the process's own again (``SWITCH_S``)
+            sys.setswitchinterval(self._switch_before)
+            self._switch_before = None
         if self._froze:   # a process that goes on (the tests) collects them as before
             gc.unfreeze()
             self._froze = False
@@ -304,6 +317,9 @@ class WalkApp(App[int]):
 
         self.session = session
         session.save_behind(self._saved_behind)  # storing a run never waits for the disk
+        if self._switch_before is None:   # the writer takes turns with the event loop
+            self._switch_before = sys.getswitchinterval()
+            sys.setswitchinterval(SWITCH_S)
         if not session.read_only:
             self.call_after_refresh(self._warm_save, session)
         # written (and fsynced) once the walk is on screen, not before
