@@ -8,8 +8,8 @@ from bench.walks import deepest_branch
 from gaugewalk.model.walkfile.write import dumps_walk
 from gaugewalk.tui.app.screens.walk import WalkScreen
 from gaugewalk.tui.app.sheet.rows import all_rows
-from gaugewalk.tui.app.widgets.runsheet import RunSheet
-from tests.support.app_helpers import new_app, opened, settle, type_text
+from gaugewalk.tui.app.widgets.runsheet import RunSheet, format_line
+from tests.support.app_helpers import new_app, opened, screen_text, settle, type_text
 from tests.support.synthetic_walk import synthetic_walk_text
 
 
@@ -60,6 +60,10 @@ async def test_a_stored_run_redoes_only_the_rows_it_changed_and_shows_the_whole_
             assert sheet.rows == fresh.rows
             assert sheet.view == fresh.view and sheet.cursor_key == fresh.cursor_key
             assert sheet._longest == fresh._longest
+            assert sheet.flagged == fresh.flagged == sum(row.flag for row in fresh.rows)
+            drawn = screen_text(app)   # every row on screen drawn again where it changed
+            for i in sheet.view[round(sheet.scroll_y):][:sheet.size.height]:
+                assert format_line(sheet.columns, sheet.rows[i].cells) in drawn
             moved = {row.key for row in sheet.rows if row != before[row.key]}
             assert target.id in moved and len(moved) > 1   # the feeders above it moved too
         assert f'"{text[:-1]}' in path.read_text() or f"= {text[:-1]}" in path.read_text()

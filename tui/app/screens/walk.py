@@ -63,6 +63,7 @@ class WalkScreen(Screen):
         self._boards_stale = True
         self._told_outside = False   # a change on disk was said (once) while changes here wait
         self._shown = -1   # the session's ``version`` the sheet shows
+        self._bar_text: str | None = None   # the view bar's text now
         self._card: RunCard | None = None   # the run card, once made (``open_card``, ``_card_ahead``)
         self._card_ahead_on = False   # a step of building the card ahead is waiting
         self._restyle = False   # the theme changed while another screen was on top
@@ -276,7 +277,7 @@ class WalkScreen(Screen):
             t = VIEW_TITLES[v]
             parts.append(f"[reverse b] {t} [/]" if v == self.view else f" {t} ")
         total = len(sheet.rows)
-        flagged = sum(1 for r in sheet.rows if r.flag)
+        flagged = sheet.flagged
         info = f"{total} run" if total == 1 else f"{total} runs"
         if flagged:
             info += f", ▲ {flagged} with a problem"
@@ -289,8 +290,11 @@ class WalkScreen(Screen):
             filt.append(f"'{sheet.filter_text}'")
         if filt:
             info += f" · showing {len(sheet.view)}: " + ", ".join(filt)
-        # both have a fixed height (app.tcss): a new text needs no layout pass over the screen
-        self.query_one("#view-bar", Static).update("".join(parts) + "  " + escape(info), layout=False)
+        text = "".join(parts) + "  " + escape(info)
+        if text != self._bar_text:   # the same text is not drawn again
+            self._bar_text = text
+            # a fixed height (app.tcss): a new text needs no layout pass over the screen
+            self.query_one("#view-bar", Static).update(text, layout=False)
 
     def _detail(self, key: str | None) -> None:
         if self._session is None:

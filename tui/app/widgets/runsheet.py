@@ -39,6 +39,17 @@ def line_width(columns: Sequence[SheetColumn]) -> int:
     return 2 + sum(c.width for c in columns) + max(len(columns) - 1, 0)
 
 
+def _longest_cell(rows: Sequence[SheetRow], c: int, was: int) -> int:
+    """The longest entry [cells] of column ``c`` after its entry of length ``was`` (the
+    longest then) changed: ``was`` while another row still has one that long (most often found
+    early in the rows), else the longest counted again."""
+    for r in rows:
+        cells = r.cells
+        if c < len(cells) and len(cells[c]) == was:
+            return was
+    return max((len(r.cells[c]) for r in rows if c < len(r.cells)), default=0)
+
+
 MAX_FIT = 40
 """Widest a column grows to show its longest entry (an id is at most 40 characters) [cells]."""
 
@@ -135,6 +146,7 @@ class RunSheet(ScrollView, can_focus=True):
         self.filter_pred: Callable[[SheetRow], bool] | None = None
         self._index: dict[str, int] = {}
         self._longest: list[int] = []  # each column's longest entry [cells]
+        self.flagged = 0   # rows flagged (``SheetRow.flag``)
 
     # ----- data -------------------------------------------------------------------------
     def set_rows(self, rows: list[SheetRow], keep_key: str | None = None) -> None:
@@ -143,6 +155,7 @@ class RunSheet(ScrollView, can_focus=True):
             keep_key = self.cursor_key
         self.rows = rows
         self._index = {r.key: i for i, r in enumerate(rows)}
+        self.flagged = sum(1 for r in rows if r.flag)
         self._longest = [max((len(r.cells[i]) for r in rows if i < len(r.cells)), default=0)
                          for i in range(len(self.columns))]
         if self.is_mounted:
@@ -152,30 +165,42 @@ class RunSheet(ScrollView, can_focus=True):
     def update_rows(self, changed: Sequence[SheetRow]) -> bool:
         """Put each row in place of the row of its key, the rest as they are; the columns, the
         view (filtered, sorted) and the cursor then as ``set_rows`` of the whole would leave
-        them. False, changing nothing, when a key is not in the sheet."""
+        them. Only the lines of the rows that changed are drawn again when the columns stay
+        and the view is neither filtered nor sorted. False, changing nothing, when a key is not
+        in the sheet."""
         index = self._index
         if any(row.key not in index for row in changed):
             return False
         rows, longest = self.rows, self._longest
         shrunk: set[int] = set()
+        redraw: list[int] = []
         for row in changed:
             i = index[row.key]
-            old = rows[i].cells
+            old = rows[i]
             rows[i] = row
+            if row.cells != old.cells or row.flag != old.flag:
+                redraw.append(i)
+                self.flagged += row.flag - old.flag
             for c, text in enumerate(row.cells[: len(longest)]):
                 n = len(text)
                 if n > longest[c]:
                     longest[c] = n
-                elif n < longest[c] and c < len(old) and len(old[c]) == longest[c]:
+                elif n < longest[c] and c < len(old.cells) and len(old.cells[c]) == longest[c]:
                     shrunk.add(c)  # it may have been the longest: count that column again
         for c in shrunk:
-            longest[c] = max((len(r.cells[c]) for r in rows if c < len(r.cells)), default=0)
+            longest[c] = _longest_cell(rows, c, longest[c])
+        columns = self.columns
         if self.is_mounted:
             self._fit_columns()
         if self.filter_text or self.filter_pred is not None or self.sort_key:
             self._rebuild_view(self.cursor_key)  # a changed row may now match, or sort apart
-        else:
-            self.refresh()
+        elif self.is_mounted and self.columns is columns:  # every row in order: row i, line i
+            top = round(self.scroll_y)
+            height = self.scrollable_content_region.height or self.size.height
+            for i in redraw:
+                if top <= i < top + height:
+                    self.refresh_line(i)
+        # else ``_fit_columns`` drew every line again
         return True
 
     def set_filter(self, text: str = "", pred: Callable[[SheetRow], bool] | None = None) -> None:
