@@ -87,7 +87,7 @@ async def test_hostile_entries_in_the_card_are_refused_at_the_field_and_nothing_
                 card._show_values()
                 card.recheck(store_tried=True)
                 assert key in card.errors, (key, text[:20])
-                card.action_store()
+                await card.action_store()
                 await pilot.pause()
                 assert isinstance(app.screen, RunCard)
                 assert len(app.session.job.runs) == runs_before

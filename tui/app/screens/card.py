@@ -8,6 +8,7 @@ next one; a run with an invalid field is not stored.
 
 from __future__ import annotations
 
+import asyncio
 from datetime import date
 
 from textual import events, on
@@ -495,7 +496,7 @@ class RunCard(TypedInOrder, Screen):
         key = (focused.id or "")[2:] if isinstance(focused, Input) else ""
         self._focus_field("panel" if key in MAIN_KEYS else self._last_main)
 
-    def action_store(self) -> None:
+    async def action_store(self) -> None:
         if self.session.busy:
             self._sticky = "Not stored yet — the walk is still being sized; press Enter again in a moment."
             self._message_for_focus()
@@ -518,6 +519,10 @@ class RunCard(TypedInOrder, Screen):
             self._message_for_focus()
             return
         self.session.keep_draft(None)
+        # the event loop runs once between the store (the recompute) and what shows it (the
+        # walk screen's rows, or this card again), so a frame waiting meanwhile is drawn; the
+        # keys typed behind Enter wait in the app's queue until this action is done
+        await asyncio.sleep(0)
         state = self.session.state
         if self.run_id is None:
             # the card stays: its title says how the save went (a card that closes leaves that
