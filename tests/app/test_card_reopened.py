@@ -283,3 +283,18 @@ async def test_a_theme_changed_while_the_card_was_open_is_on_the_walk_screen_whe
         assert app.screen is walk
         assert walk.styles.background != before
         assert walk.styles.background == card.styles.background   # both in the new look
+
+
+async def test_a_card_offers_no_completion_for_what_it_filled_in_and_one_as_keys_come(tmp_path):
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("n")   # From filled in with LP1, the source of the last run
+        await settle(app, pilot)
+        card = app.screen
+        assert isinstance(card, RunCard) and card.values()["from"] == "LP1"
+        # nothing typed yet: the walk's names were not gathered to complete the card's own text
+        assert card._choices is None and card._input("from")._suggestion == ""
+        await pilot.press(*"Pro")
+        await settle(app, pilot)
+        assert card._input("to")._suggestion == "Proofer"   # R1 goes to the Proofer

@@ -67,6 +67,16 @@ class CardInput(Input):
             self._scroll_update(width)
         super()._watch_value(value)   # its virtual size already set: no layout asked for
 
+    def show_text(self, value: str) -> None:
+        """Put in a text the card filled in itself (not typed): no completion is offered for it
+        (one is as the person types), so an open of the card does not gather the names of every
+        run of the walk (a few milliseconds at thousands of runs) to complete what it filled in."""
+        suggester, self.suggester = self.suggester, None
+        try:
+            self.value = value
+        finally:
+            self.suggester = suggester
+
 
 class FieldSuggest(Suggester):
     """The completion a card field shows: the first of what it completes from that starts
@@ -259,8 +269,8 @@ class RunCard(TypedInOrder, Screen):
                             f"Type where the run goes.{like}")
         self.start_typing(self._input(focus))
 
-    def _input(self, key: str) -> Input:
-        return self.query_one(f"#f-{key}", Input)
+    def _input(self, key: str) -> CardInput:
+        return self.query_one(f"#f-{key}", CardInput)
 
     def _focus_field(self, key: str) -> None:
         """Focus a field with its text selected, so typing replaces it."""
@@ -279,7 +289,7 @@ class RunCard(TypedInOrder, Screen):
     def _show(self, key: str, value: str) -> None:
         """Show a text the form put in a field (not typed by the person)."""
         self._seen[key] = value
-        self._input(key).value = value
+        self._input(key).show_text(value)
 
     def _show_values(self) -> None:
         for k in FIELD_KEYS:
