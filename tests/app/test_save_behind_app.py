@@ -149,10 +149,14 @@ async def test_the_writer_takes_turns_with_the_event_loop_while_a_walk_is_open(t
     from gaugewalk.tui.app.app import SWITCH_S
 
     before = sys.getswitchinterval()
-    path = tmp_path / "walk.toml"
-    path.write_text(synthetic_walk_text(20), encoding="utf-8")
-    app = new_app(path, tmp_path / "cfg")
-    async with app.run_test(size=(100, 30)) as pilot:
-        await opened(app, pilot)
-        assert sys.getswitchinterval() == SWITCH_S != before
-    assert sys.getswitchinterval() == before   # the process's own once the app is gone
+    sys.setswitchinterval(0.005)   # Python's own, whatever an earlier test left
+    try:
+        path = tmp_path / "walk.toml"
+        path.write_text(synthetic_walk_text(20), encoding="utf-8")
+        app = new_app(path, tmp_path / "cfg")
+        async with app.run_test(size=(100, 30)) as pilot:
+            await opened(app, pilot)
+            assert sys.getswitchinterval() == SWITCH_S
+        assert sys.getswitchinterval() == 0.005   # the process's own once the app is gone
+    finally:
+        sys.setswitchinterval(before)
