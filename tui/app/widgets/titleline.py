@@ -1,28 +1,43 @@
-"""The title line at the top of a screen, whose new title costs no layout pass.
+"""The title line at the top of a screen: the app's title and subtitle, one widget on one line.
 
-Textual's ``Header`` sets a changed title with a layout pass over the whole screen, though the
-title's box never changes size; the app changes the title on every run stored (saved or not) and
-every run card opened, which made each of them lay out the screen anew (several milliseconds on
-the run card's 80-odd widgets).
+Textual's ``Header`` is four widgets (the line, an icon, the title, a clock's space), with their
+styles parsed and applied and their layout made before the walk screen's first paint, and it sets
+a changed title with a layout pass over the whole screen, though the title's box never changes
+size. The app changes the title on every run stored and every run card opened; this line is
+repainted then, never laid out.
 """
 
 from __future__ import annotations
 
-from textual.app import ComposeResult
-from textual.widgets import Header
-from textual.widgets._header import HeaderTitle
+from textual.content import Content
+from textual.events import Mount
+from textual.widget import Widget
 
 
-class _FixedTitle(HeaderTitle):
-    """The title text in its fixed box: a new text is repainted, never laid out."""
+class TitleLine(Widget):
+    """The app's title and subtitle (``App.format_title``: plain text, never markup), centred on
+    one line docked at the top of its screen."""
 
-    def update(self, content="", *, layout: bool = False) -> None:
-        super().update(content, layout=False)
+    DEFAULT_CSS = """
+    TitleLine {
+        dock: top;
+        width: 100%;
+        height: 1;
+        background: $panel;
+        color: $foreground;
+        content-align: center middle;
+        text-wrap: nowrap;
+        text-overflow: ellipsis;
+    }
+    """
 
+    def _on_mount(self, _event: Mount) -> None:
+        self.watch(self.app, "title", self._retitle, init=False)
+        self.watch(self.app, "sub_title", self._retitle, init=False)
 
-class TitleLine(Header):
-    """A ``Header`` whose title changes repaint the title only."""
+    def _retitle(self) -> None:
+        self.refresh()
 
-    def compose(self) -> ComposeResult:
-        for widget in super().compose():
-            yield _FixedTitle() if type(widget) is HeaderTitle else widget
+    def render(self) -> Content:
+        app = self.app
+        return app.format_title(app.title, app.sub_title)
