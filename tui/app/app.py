@@ -23,8 +23,11 @@ from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.recent import RecentWalks
 
 if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is already up
+    from textual.screen import Screen
+
     from gaugewalk.model.session.session import WalkSession
     from gaugewalk.tui.app.headstart import HeadStart
+    from gaugewalk.tui.app.screens.walk import WalkScreen
     from gaugewalk.tui.app.sheet.shape import SheetRow
 
 
@@ -78,6 +81,7 @@ class WalkApp(App[int]):
         self.exit_message: str | None = None
         self._collector_held: bool | None = None   # see _hold_collector
         self._froze = False
+        self._opening: tuple[str, threading.Event] | None = None   # _walk_screen's
         self.theme = "textual-light" if light_terminal() else "textual-dark"
 
     async def on_event(self, event: events.Event) -> None:
@@ -89,11 +93,22 @@ class WalkApp(App[int]):
         await super().on_event(event)
 
     # ----- opening ----------------------------------------------------------------------
+    def get_default_screen(self) -> Screen:
+        """The walk file given at the start is the first screen (its runs as written: the
+        first paint is the walk screen's, with no empty screen made, drawn and replaced before
+        it); otherwise Textual's empty screen, under the start screen or a message."""
+        path = self.start_path
+        if path is not None and Path(path).expanduser().is_file():
+            return self._walk_screen(path)
+        return super().get_default_screen()
+
     def on_mount(self) -> None:
         if self.start_path is None:
             from gaugewalk.tui.app.screens.start import StartScreen
 
             self.push_screen(StartScreen(self.recent.paths), self._picked)
+        elif self._opening is not None:   # the walk screen is up already (``get_default_screen``)
+            self._open_behind(self.start_path)
         else:
             self.open_path(self.start_path)
 
@@ -115,24 +130,40 @@ class WalkApp(App[int]):
         if not p.exists():
             self._ask_create(str(p), missing=True)
             return
-        self.title = p.name
-        self.sub_title = "opening…"
-        self._hold_collector()
+        self.push_screen(self._walk_screen(path))
+        self._open_behind(path)
+
+    def _walk_screen(self, path: str) -> WalkScreen:
+        """The walk screen of ``path`` with its runs as written (the bytes the head start read,
+        if there is one: it sends the sized rows meanwhile, ``_take_head_start``); the walk is
+        read, checked and sized behind them (``_open_behind``)."""
         from gaugewalk.tui.app.screens.walk import WalkScreen
         from gaugewalk.tui.app.sheet.rawrows import raw_rows
 
-        # the walk screen at once, with the runs as written (the bytes the head start read, if
-        # there is one: it sends the sized rows meanwhile, ``_take_head_start``); the walk is
-        # read, checked and sized behind them (``_load``), then attached (``_show``)
-        shown, sized = threading.Event(), threading.Event()
+        p = Path(path).expanduser()
+        self.title = p.name
+        self.sub_title = "opening…"
+        self._hold_collector()
         head = self.head_start if path == self.start_path else None
         text = head.text() if head is not None else None
-        self.push_screen(WalkScreen(None, raw_rows(p, text=text), when_shown=shown.set))
+        shown = threading.Event()
+        self._opening = (path, shown)
+        return WalkScreen(None, raw_rows(p, text=text), when_shown=shown.set)
+
+    def _open_behind(self, path: str) -> None:
+        """The walk on the screen ``_walk_screen`` made read, checked and sized (``_load``),
+        then attached (``_show``); the head start's rows shown meanwhile."""
+        opening, self._opening = self._opening, None
+        if opening is None or opening[0] != path:
+            raise RuntimeError(f"no walk screen was made for {path}")   # a bug, not the user's
+        shown = opening[1]
+        sized = threading.Event()
+        head = self.head_start if path == self.start_path else None
         if head is not None:
             self._take_head_start(head, sized)
         else:
             sized.set()
-        self._load(str(p), shown, sized, head)
+        self._load(str(Path(path).expanduser()), shown, sized, head)
 
     @work(thread=True, group="head-start")
     def _take_head_start(self, head: HeadStart, sized: threading.Event) -> None:

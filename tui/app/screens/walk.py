@@ -20,7 +20,6 @@ from textual.widgets import ContentSwitcher, Input, Static
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
-from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
 from gaugewalk.tui.app.widgets.runsheet import RunSheet, SheetHeading, SheetRow
 from gaugewalk.tui.app.widgets.titleline import TitleLine
 
@@ -75,7 +74,7 @@ class WalkScreen(Screen):
     def compose(self) -> ComposeResult:
         yield TitleLine()
         yield Static("", id="view-bar")
-        # the find box comes after the first paint (``_find_box``)
+        # the find box comes after the first paint (``_after_first_paint``)
         with ContentSwitcher(initial="runs", id="views"):
             with Vertical(id="runs"):
                 sheet = RunSheet(COLUMNS, id="sheet")
@@ -83,7 +82,7 @@ class WalkScreen(Screen):
                 yield sheet
                 yield Static("", id="detail")
             # the other views are made when first shown (``action_show_view``)
-        yield KeyFooter()
+        # the key line comes after the first paint (``_after_first_paint``)
 
     def on_mount(self) -> None:
         if self._session is None:
@@ -103,7 +102,18 @@ class WalkScreen(Screen):
         self.query_one(RunSheet).focus()
         self.set_interval(DISK_LOOK_S, self.look_at_disk)
         self.app.theme_changed_signal.subscribe(self, self._theme_changed)
-        self.call_after_refresh(self._find_box)
+        self.call_after_refresh(self._after_first_paint)
+
+    async def _after_first_paint(self) -> None:
+        """What the first paint does without: the key line (its keys are made after that
+        paint in any case: they follow the focus) and the find box."""
+        from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
+
+        if self.is_attached and not self.query(KeyFooter):
+            await self.mount(KeyFooter())
+            self.refresh_bindings()   # its keys made now: the focus moved before it was there
+        if self.is_attached:   # not when the app ended meanwhile (a walk that cannot be read)
+            await self._find_box()
 
     def _theme_changed(self, _theme: object) -> None:
         self._restyle = True
