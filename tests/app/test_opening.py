@@ -41,6 +41,26 @@ async def test_the_rows_on_screen_are_sized_first_and_every_row_right_after(tmp_
         assert app.screen.query_one(RunSheet).rows == all_rows(app.session)
 
 
+async def test_the_walk_is_the_first_screen_with_its_title_key_line_and_find_box(tmp_path):
+    from textual.widgets._footer import FooterKey
+
+    from gaugewalk.tui.app.widgets.titleline import TitleLine
+
+    path = tmp_path / "walk.toml"
+    path.write_text(synthetic_walk_text(12), encoding="utf-8")
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        first = app.screen_stack[0]
+        assert isinstance(first, WalkScreen)   # no empty screen made and drawn before it
+        await opened(app, pilot)
+        assert app.screen is first and first.attached and len(app.screen_stack) == 1
+        title = str(first.query_one(TitleLine).render())
+        assert title.startswith("walk.toml · ✓ saved — ") and app.sub_title in title
+        keys = {key.description for key in first.query(FooterKey)}
+        assert {"Quit", "New run", "Edit", "Find"} <= keys
+        assert len(first.query("#find")) == 1
+
+
 async def test_the_walk_keys_wait_until_the_walk_is_open(tmp_path, monkeypatch):
     path = tmp_path / "walk.toml"
     path.write_text(synthetic_walk_text(12), encoding="utf-8")

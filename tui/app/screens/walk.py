@@ -37,6 +37,9 @@ VIEW_TITLES = {"runs": "1 Runs", "tree": "2 Supply tree", "footage": "3 Footage"
                "boards": "4 Boards"}
 DISK_LOOK_S = 2.0
 """How often the walk screen looks whether its file changed on disk [s]."""
+FINISH_AFTER_S = 0.25
+"""Longest the key line and the find box wait for the sized rows after the walk screen is up
+(``WalkScreen._finish_soon``) [s]."""
 CARD_AHEAD_S = 0.05
 """How long the app must have waited for a key before the run card is built ahead of its first
 open, each step of it (``WalkScreen._card_ahead``) [s]."""
@@ -69,12 +72,13 @@ class WalkScreen(Screen):
         self._sheet_up = False   # the runs as written are in the sheet (``on_mount``)
         self._head_parts: list[list[SheetRow]] = []   # the head start's rows come so far
         self._head: list[SheetRow] | None = None   # all of them, once shown as the sheet
+        self._finishing = False   # the key line and the find box are asked for (``_finish_soon``)
         self.head_start_kept = False   # attached with the head start's rows (equal to its own)
 
     def compose(self) -> ComposeResult:
         yield TitleLine()
         yield Static("", id="view-bar")
-        # the find box comes after the first paint (``_after_first_paint``)
+        # the find box and the key line come after the first sized rows (``_finish_soon``)
         with ContentSwitcher(initial="runs", id="views"):
             with Vertical(id="runs"):
                 sheet = RunSheet(COLUMNS, id="sheet")
@@ -82,7 +86,6 @@ class WalkScreen(Screen):
                 yield sheet
                 yield Static("", id="detail")
             # the other views are made when first shown (``action_show_view``)
-        # the key line comes after the first paint (``_after_first_paint``)
 
     def on_mount(self) -> None:
         if self._session is None:
@@ -102,11 +105,23 @@ class WalkScreen(Screen):
         self.query_one(RunSheet).focus()
         self.set_interval(DISK_LOOK_S, self.look_at_disk)
         self.app.theme_changed_signal.subscribe(self, self._theme_changed)
-        self.call_after_refresh(self._after_first_paint)
+        if self._session is None:   # opening: once its sized rows are shown, or in a moment
+            self.set_timer(FINISH_AFTER_S, self._finish_soon)
+        else:
+            self._finish_soon()
 
-    async def _after_first_paint(self) -> None:
-        """What the first paint does without: the key line (its keys are made after that
-        paint in any case: they follow the focus) and the find box."""
+    def _finish_soon(self) -> None:
+        """``_finish`` once the screen is painted, the first time it is asked: when the sheet
+        shows the head start's sized rows or the walk is attached (the walk's keys work from
+        then), or ``FINISH_AFTER_S`` after the screen came up, whichever is first."""
+        if not self._finishing:
+            self._finishing = True
+            self.call_after_refresh(self._finish)
+
+    async def _finish(self) -> None:
+        """What the first paints do without: the key line (its keys follow the focus; they are
+        made after it is mounted) and the find box. Built between the runs as written and the
+        sized rows, they held the sized rows back by their building (about 15 ms here)."""
         from gaugewalk.tui.app.widgets.keyfooter import KeyFooter
 
         if self.is_attached and not self.query(KeyFooter):
@@ -156,6 +171,16 @@ class WalkScreen(Screen):
         self._head_parts.append(rows)
         if self._sheet_up:   # else mounting shows them, after the runs as written
             self._show_head_parts()
+            if len(self._head_parts) == 1:
+                self._paint_now()
+
+    def _paint_now(self) -> None:
+        """What changed on this screen painted now rather than at its next frame: Textual paints
+        a changed screen on a timer at 60 frames a second, so the first sized rows waited up to
+        1/60 s (most often about 10 ms here) after they were in the sheet, for nothing else to
+        do. What that frame would do is done here (``Screen._on_timer_update``: the layout if
+        one is asked for, then the changed widgets drawn); the frame then finds nothing left."""
+        self._on_timer_update()
 
     def _show_head_parts(self) -> None:
         """The head start's rows come so far onto the sheet (``show_head_start``)."""
@@ -165,6 +190,7 @@ class WalkScreen(Screen):
             self._head = parts[0] + parts[1]
             sheet.set_rows(self._head)
             self._bar()
+            self._finish_soon()
         elif not sheet.update_rows(parts[0]):
             return   # not the runs as written: they all come with the second part
         # the walk's keys still wait for it, and the sheet looks ready: say so
@@ -205,6 +231,7 @@ class WalkScreen(Screen):
         else:
             self.reload()
         self.refresh_bindings()
+        self._finish_soon()
 
     def on_screen_resume(self, event: events.ScreenResume) -> None:
         """Back from another screen (the run card, most often): its widgets keep the styles they
