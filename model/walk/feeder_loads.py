@@ -43,7 +43,6 @@ Public API:
 import cmath
 import math
 from collections.abc import Mapping
-from dataclasses import dataclass
 from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import SYSTEMS
@@ -66,8 +65,7 @@ SQRT3 = math.sqrt(3.0)
 _SHIFT = cmath.rect(1.0, math.pi / 6)   # e^{j30}: a delta-wye secondary leads by 30 degrees
 
 
-@dataclass(frozen=True)
-class FeederLoad:
+class FeederLoad(NamedTuple):
     """Connected load: apparent power [VA], its continuous part [VA] and real power [W]."""
 
     va: float
@@ -75,16 +73,12 @@ class FeederLoad:
     watts: float
 
 
-_new_object = object.__new__
-_set_attr = object.__setattr__
+_tuple_new = tuple.__new__
 
 
 def feeder_load(va: float, continuous_va: float, watts: float) -> FeederLoad:
-    """``FeederLoad(va, continuous_va, watts)`` without the per-field ``object.__setattr__`` of
-    a frozen dataclass's ``__init__``."""
-    load = _new_object(FeederLoad)
-    _set_attr(load, "__dict__", {"va": va, "continuous_va": continuous_va, "watts": watts})
-    return load
+    """``FeederLoad(va, continuous_va, watts)`` without the keyword handling of its ``__new__``."""
+    return _tuple_new(FeederLoad, (va, continuous_va, watts))
 
 
 def add(a: FeederLoad, b: FeederLoad, sign: float = 1.0) -> FeederLoad:
