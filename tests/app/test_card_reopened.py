@@ -298,3 +298,28 @@ async def test_a_card_offers_no_completion_for_what_it_filled_in_and_one_as_keys
         await pilot.press(*"Pro")
         await settle(app, pilot)
         assert card._input("to")._suggestion == "Proofer"   # R1 goes to the Proofer
+
+
+async def test_the_card_built_ahead_has_its_frame_clock_started_and_waits_paused(
+        tmp_path, monkeypatch):
+    # A screen's update timer starts its clock at its first resume and draws one period (1/60 s)
+    # after it; a card whose clock first starts when it opens waits that long for its first
+    # paint. The rehearsal starts it unseen and leaves it paused for the open.
+    from textual.timer import Timer
+
+    resumed: list[object] = []
+    resume = Timer.resume
+
+    def noted(timer: Timer) -> None:
+        if timer.name == "screen_update":
+            resumed.append(timer._target())
+        resume(timer)
+
+    monkeypatch.setattr(Timer, "resume", noted)
+    app = new_app(write_walk(tmp_path), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        walk = app.screen
+        card = await _card_built_ahead(app, pilot)
+        assert app.screen is walk and card in resumed   # started, never shown
+        assert not card._update_timer._active.is_set()    # and paused until it opens

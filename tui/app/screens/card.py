@@ -213,6 +213,12 @@ class RunCard(TypedInOrder, Screen):
             self._layout_required = False   # what was asked for until now: done
         else:
             self._compositor.render_strips()
+            # Textual's update timer of a screen starts its clock when it is first resumed and
+            # ticks one period (1/60 s) after that: started here, unseen (it waits paused for
+            # the open), the first open is drawn on its first turn, as every later one is
+            timer = self._update_timer
+            timer.resume()
+            timer.pause()
             self._rehearsed = True
         return self._rehearsed
 
