@@ -120,6 +120,17 @@ def _type_text(field: Input, text: str) -> None:
         field.replace(text, *selection)
 
 
+class BoundInOrder:
+    """Mixin for a ``Screen`` of lists (the walk screen: its run sheet and supply tree) whose
+    bound keys must act in order. Some of its keys act on the run under the cursor (``e``,
+    Enter) and are bound with priority, so Textual runs them as the app takes them; the keys
+    that move the cursor belong to the list and ran later, from its queue: typed fast, ``down``
+    then ``e`` edited the run the cursor had left. Here every key bound along the focus chain
+    acts as the app takes it. The screen moves the focus with ``set_focus`` (now, not after the
+    keys waiting). With a field focused (the find box) keys go Textual's way: the field takes
+    them in order from its own queue."""
+
+
 async def deliver_in_order(app: App, event: events.Key | events.Paste) -> bool:
     """Hand a key or a paste taken from ``app``'s queue to the screen that takes typing, once it
     is ready; True when it was applied (else Textual routes it as usual)."""
@@ -127,6 +138,12 @@ async def deliver_in_order(app: App, event: events.Key | events.Paste) -> bool:
     while isinstance(screen, TypedInOrder) and not screen.typing_ready.is_set():
         await screen.typing_ready.wait()
         screen = app.screen
+    if isinstance(screen, BoundInOrder):
+        if isinstance(event, events.Paste) or isinstance(screen.focused, Input):  # type: ignore[attr-defined]
+            return False
+        if await app._check_bindings(event.key, priority=True):
+            return True
+        return bool(await app._check_bindings(event.key))
     if not isinstance(screen, TypedInOrder):
         return False
     if isinstance(event, events.Paste):

@@ -17,6 +17,7 @@ from textual.screen import Screen
 from textual.widget import Widget
 from textual.widgets import ContentSwitcher, Input, Static
 
+from gaugewalk.tui.app.keyorder import BoundInOrder
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
 from gaugewalk.tui.app.sheet.columns import COLUMNS, SORT_KEYS
@@ -45,7 +46,7 @@ CARD_AHEAD_S = 0.05
 open, each step of it (``WalkScreen._card_ahead``) [s]."""
 
 
-class WalkScreen(Screen):
+class WalkScreen(BoundInOrder, Screen):
     """One open walk; ``session`` None while it is being opened (``rows``: the runs as written,
     shown meanwhile; ``when_shown`` is called once they are on screen), then ``attach``."""
 
@@ -102,7 +103,7 @@ class WalkScreen(Screen):
         else:
             self.reload()
         self._raw_rows = None
-        self.query_one(RunSheet).focus()
+        self.set_focus(self.query_one(RunSheet))
         self.set_interval(DISK_LOOK_S, self.look_at_disk)
         self.app.theme_changed_signal.subscribe(self, self._theme_changed)
         if self._session is None:   # opening: once its sized rows are shown, or in a moment
@@ -419,7 +420,7 @@ class WalkScreen(Screen):
         self._refresh_view()
         target = {"runs": "#sheet", "tree": "#tree", "footage": "#footage",
                   "boards": "#boards"}[view]
-        self.query_one(target).focus()
+        self.set_focus(self.query_one(target))  # now: the keys behind find it (keyorder)
         self._bar()
 
     async def action_next_view(self) -> None:
@@ -446,7 +447,7 @@ class WalkScreen(Screen):
             self._switch("runs")
         find = await self._find_box()
         find.display = True
-        find.focus()
+        self.set_focus(find)
 
     @on(Input.Changed, "#find")
     def _find_changed(self) -> None:
@@ -457,7 +458,7 @@ class WalkScreen(Screen):
         find = self.query_one("#find", Input)
         if not find.value:
             find.display = False
-        self.query_one(RunSheet).focus()
+        self.set_focus(self.query_one(RunSheet))
 
     def action_toggle_problems(self) -> None:
         self.problems_only = not self.problems_only
@@ -489,7 +490,7 @@ class WalkScreen(Screen):
         self.source_filter = None
         self._apply_filter()
         if self.view == "runs":
-            self.query_one(RunSheet).focus()
+            self.set_focus(self.query_one(RunSheet))
 
     def action_cycle_sort(self) -> None:
         sheet = self.query_one(RunSheet)
