@@ -8,7 +8,6 @@ import json
 import subprocess
 import sys
 import threading
-from dataclasses import replace
 
 import pytest
 
@@ -141,7 +140,7 @@ async def test_the_sheet_ends_with_the_apps_own_rows_whatever_the_head_start_sen
     own = _own_rows(walk)
     sent = list(own)
     if altered:   # a child that sized one run otherwise than the app does
-        sent[3] = replace(sent[3], cells=sent[3].cells[:-1] + ("✓ ok?",))
+        sent[3] = sent[3]._replace(cells=sent[3].cells[:-1] + ("✓ ok?",))
     head = _Scripted(str(walk), [sent[:FIRST_ROWS], sent[FIRST_ROWS:]])
     app = make_app(str(walk), config_dir=tmp_path / "cfg", head_start=head)
     async with app.run_test(size=(80, 24)) as pilot:

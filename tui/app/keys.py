@@ -8,13 +8,15 @@ the key guide and the place it works: ``"app"`` (everywhere), ``"walk"`` (the ma
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from typing import NamedTuple
 
 from textual.binding import Binding
 
 
-@dataclass(frozen=True)
-class KeyAction:
+class KeyAction(NamedTuple):
+    """One key of ``KEYS`` (a named tuple: the app imports this table before its first paint, and
+    a frozen dataclass's generated methods cost about as much as the rest of the module)."""
+
     id: str
     key: str
     action: str

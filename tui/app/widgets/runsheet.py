@@ -7,7 +7,6 @@ already formatted cells; the sheet keeps a view order (filtered and sorted indic
 
 from __future__ import annotations
 
-from dataclasses import replace
 from typing import Callable, Sequence
 
 from rich.cells import cell_len
@@ -66,13 +65,13 @@ def fit_columns(base: Sequence[SheetColumn], longest: Sequence[int], width: int)
         want = min(longest[i] if i < len(longest) else 0, MAX_FIT) - c.width
         if want > 0 and not c.grow:
             add = min(want, room)
-            columns[i] = replace(c, width=c.width + add)
+            columns[i] = c._replace(width=c.width + add)
             room -= add
     growers = [i for i, c in enumerate(base) if c.grow]
     if room > 0 and growers:
         share, extra = divmod(room, len(growers))
         for n, i in enumerate(growers):
-            columns[i] = replace(columns[i], width=columns[i].width + share + (1 if n < extra else 0))
+            columns[i] = columns[i]._replace(width=columns[i].width + share + (1 if n < extra else 0))
     return columns
 
 
