@@ -20,13 +20,13 @@ from textual.message import Message
 from gaugewalk.model.walk.plain_text import shown, shown_lines
 from gaugewalk.tui.app.keyorder import deliver_in_order
 from gaugewalk.tui.app.keys import bindings_for
-from gaugewalk.tui.app.recent import RecentWalks
 
 if TYPE_CHECKING:  # the model (pydantic) is imported while the first screen is already up
     from textual.screen import Screen
 
     from gaugewalk.model.session.session import WalkSession
     from gaugewalk.tui.app.headstart import HeadStart
+    from gaugewalk.tui.app.recent import RecentWalks
     from gaugewalk.tui.app.screens.walk import WalkScreen
     from gaugewalk.tui.app.sheet.shape import SheetRow
 
@@ -75,7 +75,8 @@ class WalkApp(App[int]):
         super().__init__()
         self.start_path = path
         self.head_start = head_start if head_start is not None and head_start.path == path else None
-        self.recent = RecentWalks.load(config_dir)
+        self._config_dir = config_dir
+        self._recent: RecentWalks | None = None   # read when first asked for (``recent``)
         self._switch_before: float | None = None   # the switch interval before ``_show``
         self.session: WalkSession | None = None
         self.exit_message: str | None = None
@@ -83,6 +84,17 @@ class WalkApp(App[int]):
         self._froze = False
         self._opening: tuple[str, threading.Event] | None = None   # _walk_screen's
         self.theme = "textual-light" if light_terminal() else "textual-dark"
+
+    @property
+    def recent(self) -> RecentWalks:
+        """The walks opened lately and whether the caution was shown, read when first asked for:
+        opening a walk, once it is open (its JSON, the module and its atomic writer are not part
+        of the first paint)."""
+        if self._recent is None:
+            from gaugewalk.tui.app.recent import RecentWalks
+
+            self._recent = RecentWalks.load(self._config_dir)
+        return self._recent
 
     async def on_event(self, event: events.Event) -> None:
         """A key or a paste for a screen of fields is applied at once, in the order it came

@@ -11,8 +11,6 @@ import os
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from gaugewalk.model.walkfile.atomic import atomic_write
-
 MAX_RECENT = 12
 
 
@@ -66,6 +64,8 @@ class RecentWalks:
 
     def store(self) -> bool:
         """Write the file atomically; False (and nothing raised) if the folder is not writable."""
+        from gaugewalk.model.walkfile.atomic import atomic_write  # not needed to read the file
+
         try:
             self.folder.mkdir(parents=True, exist_ok=True)
             data = json.dumps({"recent": self.paths, "caution_seen": self.caution_seen}, indent=1)
