@@ -131,6 +131,18 @@ class _Scripted(HeadStart):
         pass
 
 
+def test_the_app_waits_a_moment_for_a_head_start_about_to_have_imported_the_model(tmp_path):
+    head = _Scripted(str(_synthetic(tmp_path, 3)), [])
+    assert not head.keeping_pace()       # it has not said so
+    assert not head.keeping_pace(0.01)   # nor within a moment
+    said = threading.Timer(0.02, head._imported.set)
+    said.start()
+    try:
+        assert head.keeping_pace(60.0)   # said while the app waited
+    finally:
+        said.join()
+
+
 @pytest.mark.parametrize("altered", [False, True], ids=["same rows", "other rows"])
 async def test_the_sheet_ends_with_the_apps_own_rows_whatever_the_head_start_sent(tmp_path,
                                                                                   altered):

@@ -39,7 +39,7 @@ def main(argv: list[str]) -> int:
     # the app's own reading waits for the child's rows however busy the machine is, so what is
     # shown does not depend on which of the two processes is first
     app_module.HEAD_START_WAIT_S = 600.0
-    head.keeping_pace = lambda: True   # type: ignore[method-assign]
+    head.keeping_pace = lambda wait=0.0: True   # type: ignore[method-assign]
 
     async def run() -> None:
         app = make_app(path, config_dir=config, head_start=head)

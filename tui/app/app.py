@@ -53,6 +53,14 @@ keeps pace (``HeadStart.keeping_pace``) [s]: the reading would take turns with t
 that shows them (they come about 0.15 s after the first paint at 5,000 runs here; at tens of
 thousands of runs, seconds). A head start far behind (a busy machine) is not waited for."""
 
+HEAD_START_IMPORT_WAIT_S = 0.05
+"""Longest the walk's reading waits, after the first paint, for the head start to say it has
+imported the model (``HeadStart.keeping_pace``) [s]. With a processor free for it the child has
+imported the model by about the first paint; on the sample walk the paint can come first by a
+few milliseconds, and then the reading would import the model itself, taking turns with the
+event loop as the head start's rows come. A child that has not imported it by then is far
+behind (a busy machine), and the app reads and sizes the walk itself."""
+
 
 def light_terminal() -> bool:
     """Guess a light terminal from ``COLORFGBG`` ("fg;bg", bg 7 or 15 is light)."""
@@ -205,7 +213,7 @@ class WalkApp(App[int]):
         # start that keeps pace (``sized``): the thread would take turns with the event loop,
         # which paints them
         shown.wait(FIRST_PAINT_WAIT_S)
-        if head is not None and head.keeping_pace():
+        if head is not None and head.keeping_pace(HEAD_START_IMPORT_WAIT_S):
             sized.wait(HEAD_START_WAIT_S)
         from gaugewalk.model.session.session import WalkSession
         from gaugewalk.model.walkfile.read import WalkFileError

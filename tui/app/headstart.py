@@ -119,11 +119,12 @@ class HeadStart:
         finally:
             self._reap(wait=True)
 
-    def keeping_pace(self) -> bool:
-        """The child has imported the model (pydantic, the walk's models): asked at the app's
-        first paint, which comes about as long after the start as that import when a processor
-        is free for the child; on a machine too busy for it, the child is far behind."""
-        return self._imported.is_set()
+    def keeping_pace(self, wait: float = 0.0) -> bool:
+        """The child has imported the model (pydantic, the walk's models), or does within
+        ``wait`` [s]: asked at the app's first paint, which comes about as long after the start
+        as that import when a processor is free for the child; on a machine too busy for it,
+        the child is far behind."""
+        return self._imported.wait(wait)
 
     def stop(self) -> None:
         """The child ended if it still runs (the app is leaving): its rows are not wanted."""
