@@ -183,9 +183,11 @@ class WalkScreen(BoundInOrder, Screen):
         1/60 s (most often about 10 ms here) after they were in the sheet, for nothing else to
         do. What that frame would do is done here (``Screen._on_timer_update``: the layout if
         one is asked for, then the changed widgets drawn); the frame then finds nothing left.
-        Not while another screen is over this one (the key guide): nothing of this is shown."""
-        if self.is_current:
-            self._on_timer_update()
+        Not while another screen is over this one (the key guide): nothing of this is shown.
+        A Textual without that method (it is Textual's own) leaves the paint to the frame."""
+        frame = getattr(self, "_on_timer_update", None)
+        if frame is not None and self.is_current:
+            frame()
 
     def _show_head_parts(self) -> None:
         """The head start's rows come so far onto the sheet (``show_head_start``)."""
