@@ -60,6 +60,7 @@ from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.motor_feeders import (
     MotorGroup,
+    below_branch_device,
     device_limit,
     largest,
     notes_for,
@@ -613,6 +614,8 @@ class WalkState:
             problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "
                          f"{limit:.0f} A it permits for the motors it supplies",)
                         if motors.only_motors and result.ocpd_a > limit + _EPS else ())
+            if result.ocpd_a + _EPS < motors.device_a:
+                problems += (below_branch_device(motors, result.ocpd_a, limit),)
             result = with_fields(result, notes=result.notes + notes,
                                  problems=result.problems + problems)
         res._specs[r.id] = spec

@@ -17,12 +17,15 @@ the heaviest line's load. The kinds themselves are read by ``gaugewalk.model.wal
   the device picked is the largest standard rating within it (and within the bus of a
   main-lugs-only panel, 408.36), protecting the 430.24 conductors by 240.4(G)
   (``gaugewalk.model.engine.sizing.currents.motor_feeder``); a feeder with other loads too
-  (430.63, worded as a floor) has the figure in its notes only.
+  (430.63, worded as a floor) has the figure in its notes. Either way a feeder device below
+  the branch device of a motor it supplies is a problem: it would open first when that motor
+  starts or faults (common practice; 430.63's floor is above it).
 - Motors below a transformer are the transformer's load: the feeder into its primary is sized
   by the primary device (Table 450.3(B)), and no motor group passes through it.
 
 Public API: ``MotorGroup``, ``run_motor(run, circuit, default_pf)``, ``largest(groups)``,
-``device_limit(group, load_amps)``, ``notes_for(group, extra_a)``.
+``device_limit(group, load_amps)``, ``below_branch_device(group, ocpd_a, limit_a)``,
+``notes_for(group, extra_a)``.
 """
 
 from collections.abc import Iterable
@@ -38,8 +41,9 @@ class MotorGroup(NamedTuple):
     """The motors a feeder supplies, as its rules need them: the ``largest_a`` motor current [A]
     (run ``largest_run``), the largest branch device ``device_a`` [A] of any of them and the
     current of the motor it protects (``device_motor_a``) [A], whether an HVAC unit's
-    current was taken from its MCA (``hvac_assumed``), and whether the feeder supplies motors
-    and HVAC equipment alone (``only_motors``)."""
+    current was taken from its MCA (``hvac_assumed``), whether the feeder supplies motors
+    and HVAC equipment alone (``only_motors``), and the run of that largest device
+    (``device_run``)."""
 
     largest_a: float
     largest_run: str
@@ -47,6 +51,7 @@ class MotorGroup(NamedTuple):
     device_motor_a: float
     hvac_assumed: bool = False
     only_motors: bool = True
+    device_run: str = ""
 
 
 def run_motor(run: Run, circuit: Circuit, default_pf: float) -> MotorGroup | None:
@@ -63,12 +68,13 @@ def run_motor(run: Run, circuit: Circuit, default_pf: float) -> MotorGroup | Non
         return None
     if kl.is_motor:
         current = kl.flc_a if kl.flc_a is not None else kl.running_a
-        return MotorGroup(current, run.id, float(kl.branch_device_a), current)
+        return MotorGroup(current, run.id, float(kl.branch_device_a), current,
+                          device_run=run.id)
     if kl.mca_a is None:
         return None
     current = kl.mca_a / HVAC_RLA_FACTOR
     device = float(kl.mocp_a if kl.mocp_a is not None else kl.branch_device_a)
-    return MotorGroup(current, run.id, device, current, True)
+    return MotorGroup(current, run.id, device, current, True, device_run=run.id)
 
 
 def largest(groups: Iterable[MotorGroup | None]) -> MotorGroup | None:
@@ -83,7 +89,8 @@ def largest(groups: Iterable[MotorGroup | None]) -> MotorGroup | None:
         big = g if g.largest_a > out.largest_a else out
         dev = g if g.device_a > out.device_a else out
         out = MotorGroup(big.largest_a, big.largest_run, dev.device_a, dev.device_motor_a,
-                         out.hvac_assumed or g.hvac_assumed, out.only_motors and g.only_motors)
+                         out.hvac_assumed or g.hvac_assumed, out.only_motors and g.only_motors,
+                         dev.device_run)
     return out
 
 
@@ -93,6 +100,18 @@ def device_limit(group: MotorGroup, design_a: float) -> float:
     design current with the motors (430.24: the largest at 125 %), so the rest is it less the
     largest motor's 25 % and the current of the motor whose device is counted."""
     return group.device_a + max(0.0, design_a - 0.25 * group.largest_a - group.device_motor_a)
+
+
+def below_branch_device(group: MotorGroup, ocpd_a: int, limit_a: float) -> str:
+    """The problem of a feeder device below the branch device of a motor it supplies: it would
+    open before that motor's own device when the motor starts or faults (common practice);
+    430.62(A) permits, and 430.63 asks, at least ``limit_a`` [A] with the other loads."""
+    rule = ("NEC 430.62(A) permits up to" if group.only_motors
+            else "NEC 430.63 asks not less than")
+    return (f"the {ocpd_a} A feeder device is below the {group.device_a:.0f} A branch device of "
+            f"{group.device_run} it supplies: it would open first when that motor starts "
+            f"(common practice); {rule} {limit_a:.0f} A; give the feeder a larger device "
+            "('ocpd_a') or the motor a smaller one")
 
 
 def notes_for(group: MotorGroup, extra_a: float, limit_a: float) -> tuple[str, ...]:

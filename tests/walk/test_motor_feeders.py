@@ -85,8 +85,13 @@ def test_a_motor_among_other_loads_still_adds_its_25_percent_but_sets_no_device_
     f1 = result.runs["F1"]
     # 215.2(A)(1) and 430.24: 1.25 x 20 + 1.25 x 34 = 25 + 42.5 = 67.5 A
     assert f1.design_amps == pytest.approx(67.5)
-    # 430.63 words the combined figure as a floor: said in the notes, never a problem
-    assert any("430.63" in n for n in f1.notes) and result.ok
+    # 430.63 words the combined figure as a floor: said in the notes; the 70 A device picked
+    # for 67.5 A is a problem only because it sits below M1's own 90 A breaker
+    assert any("430.63" in n for n in f1.notes)
+    assert [p for p in f1.problems] == [p for p in f1.problems if "90 A branch device" in p]
+    assert len(f1.problems) == 1
+    job.runs[0].ocpd_a = 90
+    assert compute_job(job).ok
 
 
 def test_hvac_units_known_by_mca_count_mca_over_1_25_and_the_largest_once_more_at_25_percent():
@@ -139,3 +144,31 @@ def test_a_motor_edit_recomputes_its_feeder_device_as_a_full_compute_does():
     # NEC 2023 Table 430.250, 460 V: 5 hp 7.6 A, 15 hp 21 A, 60 hp 77 A; 430.52(C)(1): 250 %
     # of 77 A = 192.5 A, next standard 200 A; 430.62(A): 200 + 7.6 + 21 = 228.6 A -> 225 A
     assert result.runs["F1"].ocpd_a == 225
+
+
+def test_a_feeder_device_below_a_motor_branch_device_it_supplies_is_a_problem():
+    # NEC 2023 Table 430.250, 460 V: 40 hp 52 A; Table 430.52(C)(1) inverse-time breaker 250 %:
+    # 130 A, next standard 150 A (430.52(C)(1) Exception No. 1)
+    job = _motors_job(_motor("M1", 40),
+                      run_table("H1", "MCC", "Heater", "40", load=(10, "A"), connection="3P",
+                                continuous=True))
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    assert result.runs["M1"].ocpd_a == 150
+    # 430.24 and 215.2(A)(1): 1.25 x 52 + 1.25 x 10 = 77.5 A: the next standard device, 80 A,
+    # would sit above a 150 A motor breaker and open first when the motor starts
+    assert f1.design_amps == pytest.approx(77.5) and f1.ocpd_a == 80
+    assert any("below the 150 A branch device of M1" in p and "430.63" in p
+               for p in f1.problems)
+    assert not result.ok
+    # a device of at least the motor's own clears it
+    job.runs[0].ocpd_a = 175
+    assert not any("branch device" in p for p in compute_job(job).runs["F1"].problems)
+
+
+def test_a_fixed_motor_feeder_device_below_the_largest_motor_breaker_is_a_problem():
+    job = _motors_job(_motor("M1", 25), _motor("M2", 15), _motor("M3", 10))
+    job.runs[0].ocpd_a = 80    # M1's own breaker is 90 A (250 % of 34 A, next standard)
+    result = compute_job(job)
+    assert any("below the 90 A branch device of M1" in p and "430.62(A)" in p
+               for p in result.runs["F1"].problems)
