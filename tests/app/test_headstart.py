@@ -8,6 +8,7 @@ import json
 import subprocess
 import sys
 import threading
+from types import SimpleNamespace
 
 import pytest
 
@@ -189,3 +190,52 @@ async def test_a_walk_sized_once_open_keeps_the_head_starts_rows_until_it_is(tmp
         (unsized, status), = at_attach
         assert unsized and SIZING not in status   # the head start's sized rows, not "sizing"
         assert app.screen.query_one(RunSheet).rows == own   # then the app's own
+
+
+async def test_head_start_rows_that_come_after_an_unsized_attach_show_until_the_app_sizes(
+        tmp_path, monkeypatch):
+    # At tens of thousands of runs the app attaches the walk, not yet sized, before the child's
+    # first rows come. Held here without timing: every walk attached unsized, and the app's own
+    # sizing held until the test runs it.
+    import gaugewalk.tui.app.app as app_module
+    from tests.support.app_helpers import new_app
+
+    path = _synthetic(tmp_path, 300)
+    held: list[WalkSession] = []
+    monkeypatch.setattr(app_module, "SIZE_BEFORE_SHOWING", 0)
+    monkeypatch.setattr(app_module.WalkApp, "_size_walk",
+                        lambda self, session: held.append(session))
+    parts = list(sized_rows(path.read_bytes(), str(path)))
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(100, 30)) as pilot:
+        while not held:
+            await pilot.pause(0.01)
+        await opened(app, pilot)
+        # the head start as the app sees it once the walk is attached: the bytes its child read
+        head = SimpleNamespace(raw=b"", stop=lambda: None)
+        app.head_start = head
+        screen = app.screen
+        assert isinstance(screen, WalkScreen) and screen.attached
+        sheet = screen.query_one(RunSheet)
+        assert all(row.cells[-1] == "… sizing" for row in sheet.rows)
+        # rows of a child that read other bytes than the app did are not taken
+        other_walk = tmp_path / "other" / path.name
+        other_walk.parent.mkdir()
+        other_walk.write_text(path.read_text().replace('length = "64"', 'length = "640"', 1))
+        head.raw = other_walk.read_bytes()
+        for part in sized_rows(head.raw, str(other_walk)):
+            app._head_rows(part)
+        await pilot.pause()
+        assert all(row.cells[-1] == "… sizing" for row in sheet.rows)
+        head.raw = path.read_bytes()
+        for part in parts:
+            app._head_rows(part)
+        await pilot.pause()
+        assert sheet.rows == parts[0] + parts[1]
+        # the app's own sizing replaces them, with the same rows
+        session = held[0]
+        session.recompute()
+        session.busy = False
+        app._computed()
+        await pilot.pause()
+        assert sheet.rows == all_rows(session) == parts[0] + parts[1]

@@ -202,9 +202,15 @@ class WalkApp(App[int]):
     def _head_rows(self, rows: list[SheetRow]) -> None:
         from gaugewalk.tui.app.screens.walk import WalkScreen
 
+        head = self.head_start
         for screen in self.screen_stack:
-            if isinstance(screen, WalkScreen) and not screen.attached:
-                screen.show_head_start(rows)
+            if not isinstance(screen, WalkScreen):
+                continue
+            if screen.attached:   # read already (not sized yet): only rows of the bytes it read
+                known = screen.session.hold.fingerprint
+                if head is None or known is None or not known.holds(head.raw):
+                    continue
+            screen.show_head_start(rows)
 
     @work(thread=True, exclusive=True, group="open")
     def _load(self, path: str, shown: threading.Event, sized: threading.Event,

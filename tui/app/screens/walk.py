@@ -168,8 +168,12 @@ class WalkScreen(BoundInOrder, Screen):
     def show_head_start(self, rows: list[SheetRow]) -> None:
         """Sized rows from the head start (``gaugewalk.tui.app.headstart``) while the walk is
         being opened: the first part in place of the same runs as written, the second with them
-        as the whole sheet. Not once the walk is attached (its own rows are shown then)."""
-        if self._session is not None:
+        as the whole sheet. Also once the walk is attached but not yet sized (a walk of more than
+        ``SIZE_BEFORE_SHOWING`` runs is attached first, and at tens of thousands of runs that
+        comes before the child's rows): its own sizing replaces them (``reload``). Not once the
+        walk is sized (its own rows are shown then)."""
+        s = self._session
+        if s is not None and s.result is not None:
             return
         self._head_parts.append(rows)
         if self._sheet_up:   # else mounting shows them, after the runs as written
@@ -193,16 +197,21 @@ class WalkScreen(BoundInOrder, Screen):
         """The head start's rows come so far onto the sheet (``show_head_start``)."""
         sheet = self.query_one(RunSheet)
         parts = self._head_parts
+        s = self._session
         if len(parts) >= 2:
-            self._head = parts[0] + parts[1]
+            head = parts[0] + parts[1]
+            if s is not None and [r.key for r in head] != [run.id for run in s.job.runs]:
+                return   # attached: only rows of the walk it read, run for run
+            self._head = head
             sheet.set_rows(self._head)
             self._bar()
             self._finish_soon()
         elif not sheet.update_rows(parts[0]):
             return   # not the runs as written: they all come with the second part
-        # the walk's keys still wait for it, and the sheet looks ready: say so
-        self.query_one("#detail", Static).update(
-            "Sized; the walk is being read for editing, its keys work in a moment.", layout=False)
+        if s is None:   # the walk's keys still wait for it, and the sheet looks ready: say so
+            self.query_one("#detail", Static).update(
+                "Sized; the walk is being read for editing, its keys work in a moment.",
+                layout=False)
 
     def attach(self, session: WalkSession, rows: list[SheetRow] | None = None) -> None:
         """The walk read and checked (and, up to ``SIZE_BEFORE_SHOWING`` runs, sized): its rows
