@@ -42,6 +42,7 @@ from gaugewalk.model.engine.collector import collector_held
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fields
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
+from gaugewalk.model.engine.sizing.currents import design_current
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
@@ -589,11 +590,13 @@ class WalkState:
         try:
             spec = _spec(self.spec_base, self.job, r, upstream, circuit, is_feeder, feed, rule,
                          motors, ccc)
-            if motors is not None and motors.only_motors and rule is None:
-                # NEC 430.62(A), 240.4(G): the device picked up to what the motors permit
-                design = spec.amps + 0.25 * (spec.continuous_amps or 0.0)
-                spec = with_fields(spec, motor_feeder_max_a=device_limit(motors, design),
-                                   lugs_bus_a=lugs_bus(self.walk.sources[r.to]))
+            limit = None
+            if motors is not None:   # NEC 430.62(A), 430.63, on the design current the engine
+                limit = device_limit(    # takes (a feeder of motors has no load of its own)
+                    motors, design_current(spec.amps, spec.continuous_amps or 0.0))
+                if motors.only_motors and rule is None:  # the device picked up to it (240.4(G))
+                    spec = with_fields(spec, motor_feeder_max_a=limit,
+                                       lugs_bus_a=lugs_bus(self.walk.sources[r.to]))
             result, passed = evaluate_picked(spec)
             beside = None
             if rule is not None and rule.beside:
@@ -606,9 +609,7 @@ class WalkState:
         result = _with_rule(result, rule)
         if steps:
             result = with_fields(result, notes=result.notes + tuple(s.text for s in steps))
-        limit = None
-        if motors is not None:
-            limit = device_limit(motors, result.design_amps)
+        if motors is not None and limit is not None:
             extra = (spec.continuous_amps or 0.0) - (feed.heaviest()[3] if feed else 0.0)
             notes = notes_for(motors, extra, limit)
             problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "

@@ -75,7 +75,7 @@ def lugs_problem(source: Source, feeder_ocpd_a: int | None) -> str | None:
     bus = lugs_bus(source)
     if bus is not None and feeder_ocpd_a is not None and feeder_ocpd_a > bus:
         return (f"main lugs only: its feeder's {feeder_ocpd_a} A device is larger than its "
-                f"{source.rating_a} A bus rating (NEC 408.36)")
+                f"{bus} A bus rating (NEC 408.36)")
     return None
 
 

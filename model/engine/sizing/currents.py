@@ -24,7 +24,7 @@ device is picked from the largest the code permits for it (430.62(A)), and it pr
 conductors without 240.4's limit (240.4(G)).
 
 Public API: ``Currents``, ``LoadRule``, ``GENERAL``, ``forget_general_loads()``,
-``motor_feeder(...)``, ``next_rating(amps)``, the protection modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
+``motor_feeder(...)``, ``design_current(amps, cont)``, ``next_rating(amps)``, the protection modes ``PROTECTED``, ``BY_ARTICLE``, ``WELDER_CONDUCTORS``.
 """
 
 from bisect import bisect_left
@@ -90,12 +90,18 @@ class LoadRule(Protocol):
         ...
 
 
+def design_current(amps: float, cont: float) -> float:
+    """NEC 210.19(A)(1), 215.2(A)(1): the noncontinuous load [A] plus 125 % of the continuous
+    share ``cont`` [A] of ``amps``."""
+    return amps - cont + 1.25 * cont
+
+
 @lru_cache(maxsize=4096)
 def _general(amps: float, cont: float, ocpd_a: int | None) -> Currents:
     """``GENERAL.currents``, cached per load, continuous share and given device."""
     notes: list[str] = []
     problems: list[str] = []
-    design = amps - cont + 1.25 * cont
+    design = design_current(amps, cont)
     if cont > 0:
         rest = f"{amps_text(amps - cont)} + " if amps - cont > _EPS else ""
         notes.append(f"NEC 210.19(A)(1), 215.2(A)(1): {rest}125% of {amps_text(cont)} continuous "
@@ -141,7 +147,7 @@ def motor_feeder(amps: float, cont: float, ocpd_a: int | None, limit_a: float,
     ground-fault device of Article 430 Part V it protects the conductors from faults while the
     motors' overload devices protect them from overload, so 240.4's limit does not apply
     (240.4(G)). A device over ``limit_a`` is the caller's problem to say (it knows the motors)."""
-    design = amps - cont + 1.25 * cont
+    design = design_current(amps, cont)
     floor = next_rating(design)
     base = _general(amps, cont, ocpd_a if ocpd_a is not None else floor)
     notes = list(base.notes)

@@ -198,11 +198,8 @@ class WalkScreen(BoundInOrder, Screen):
         sheet = self.query_one(RunSheet)
         parts = self._head_parts
         s = self._session
-        if len(parts) >= 2:
-            head = parts[0] + parts[1]
-            if s is not None and [r.key for r in head] != [run.id for run in s.job.runs]:
-                return   # attached: only rows of the walk it read, run for run
-            self._head = head
+        if len(parts) >= 2:   # (attached: of the very bytes it read, ``WalkApp._head_rows``)
+            self._head = parts[0] + parts[1]
             sheet.set_rows(self._head)
             self._bar()
             self._finish_soon()
