@@ -22,7 +22,7 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass, field
 from datetime import date
-from typing import Callable, Iterable
+from typing import Callable, Iterable, cast
 
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.engine.contract import Circuit, RunResult
@@ -111,18 +111,33 @@ def choices(session: WalkSession) -> dict[str, list[str]]:
 
 
 def kind_in(values: dict[str, str]) -> vocab.LoadKind:
-    """The load's kind as the texts say: the kind field, else motor for a load in hp, else
-    general (an unknown word: general, and the kind field says what is wrong)."""
+    """The load's kind as the texts say: the kind field, else motor for a load in hp, else the
+    kind whose nameplate words the load field holds (``mca 38 mocp 50``: hvac), else general
+    (an unknown word: general, and the kind field says what is wrong)."""
     kind = values.get("kind", "").strip().lower()
     if kind in vocab.LOAD_KINDS:
         return kind
     if not kind:
+        words, plate = split_load(values.get("load", ""))
         try:
-            if values.get("load", "").strip() and read_load_text(values["load"]).unit == "hp":
+            if words.strip() and read_load_text(words, value_needed=not plate).unit == "hp":
                 return "motor"
         except LoadError:
             pass
+        try:
+            plate_kind = nameplate_kind(read_nameplate(plate))
+        except ValueError:
+            plate_kind = None
+        if plate_kind is not None:
+            return plate_kind
     return "general"
+
+
+def nameplate_kind(plate: dict[str, object]) -> vocab.LoadKind | None:
+    """The one kind of load that reads every key of ``plate`` (``vocab.NAMEPLATE_KEYS``), or
+    None (no key, or keys of different kinds)."""
+    kinds = {vocab.NAMEPLATE_KEYS[key] for key in plate}
+    return next(iter(kinds))[0] if len(kinds) == 1 and len(next(iter(kinds))) == 1 else None
 
 
 def shown(key: str, values: dict[str, str]) -> bool:
@@ -157,6 +172,27 @@ _PLATE_TEXT = {"mca": "mca", "mocp": "mocp", "code_letter": "code", "design": "d
                "tank_gal": "tank", "yokes": "yokes"}
 """The walk file's key -> the word ``plate_text`` writes."""
 _PLATE_UNITS = re.compile(r"(?<=\d)\s*(?:a|%|gal)$", re.IGNORECASE)
+
+
+def split_load(text: str) -> tuple[str, str]:
+    """The load field as the load and the nameplate words typed after it, as read off the
+    equipment: ``mca 38 mocp 50`` -> ``("", "mca 38 mocp 50")``, ``10hp code G 3P`` ->
+    ``("10hp 3P", "code G")`` (a voltage, poles, phases or power factor stay with the load);
+    a field without a nameplate word is all load."""
+    words = re.sub(r"\s*[=:]\s*", " ", text.strip()).split()
+    first = next((i for i, w in enumerate(words)
+                  if w.lower() in _PLATE_WORDS or w.lower() in _PLATE_FLAGS), None)
+    if first is None:
+        return text, ""
+    load, plate = words[:first], []
+    for word in words[first:]:
+        low = word.lower()
+        if (_VOLTS_WORD.match(low) or _POLES_WORD.match(low) or _PHASES_WORD.match(low)
+                or _PF_WORD.match(low)):
+            load.append(word)
+        else:
+            plate.append(word)
+    return " ".join(load), " ".join(plate)
 
 
 def read_nameplate(text: str) -> dict[str, object]:
@@ -267,8 +303,9 @@ class LoadText:
     """The load field read: the load, its power factor if given, and the voltage [V], poles or
     phases it states for its circuit (None where it says nothing)."""
 
-    value: float
-    unit: str
+    value: float | None
+    """None where the field gives only nameplate words (``split_load``) and a circuit."""
+    unit: str | None
     pf: float | None = None
     volts: float | None = None
     poles: int | None = None
@@ -282,12 +319,14 @@ class LoadText:
 _VOLTS_WORD = re.compile(r"^(\d{2,3})v$")
 _POLES_WORD = re.compile(r"^([123])p(?:ole)?$")
 _PHASES_WORD = re.compile(r"^([13])ph$")
+_PF_WORD = re.compile(r"^pf[\d.]*$")
 
 
-def read_load_text(text: str) -> LoadText:
+def read_load_text(text: str, value_needed: bool = True) -> LoadText:
     """``16A``, ``5kW pf0.9``, ``16A 208V``, ``30A 3P``, ``10kVA 480V 3ph``: the load, then in
     any order its power factor, the voltage it runs at and its poles or phases. Raises
-    LoadError with a sentence."""
+    LoadError with a sentence. ``value_needed`` False: the voltage, poles and power factor
+    alone are read too (a load given by its nameplate, ``split_load``)."""
     t = text.strip()
     pf = None
     low = t.lower()
@@ -304,7 +343,7 @@ def read_load_text(text: str) -> LoadText:
     # "120 V", "2 pole": the number and its word belong together
     words = re.sub(r"(?<=\d)\s+(?=(?:v|p|pole|ph)\b)", "", t, flags=re.IGNORECASE).split()
     volts = poles = phases = None
-    while len(words) > 1:
+    while len(words) > (1 if value_needed else 0):
         last = words[-1].lower()
         if (m := _VOLTS_WORD.match(last)) and volts is None:
             volts = float(m.group(1))
@@ -315,14 +354,16 @@ def read_load_text(text: str) -> LoadText:
         else:
             break
         words.pop()
+    if not words and not value_needed:
+        return LoadText(None, None, pf, volts, poles, phases)
     value, unit = parse_load(" ".join(words))
     return LoadText(value, unit, pf, volts, poles, phases)
 
 
 def parse_load_text(text: str) -> tuple[float, str, float | None]:
     """``16A``, ``5kW pf0.9`` -> (value, unit, pf or None). Raises LoadError."""
-    read = read_load_text(text)
-    return read.value, read.unit, read.pf
+    read = read_load_text(text)  # a value is needed: read, or LoadError
+    return cast(float, read.value), cast(str, read.unit), read.pf
 
 
 BRANCH_CONNECTIONS = ("LN", "LL", "3P")
@@ -365,7 +406,8 @@ def default_branch_circuit(system_id: str, values: dict[str, str] | None = None)
     hp = None
     try:
         if values.get("load", "").strip():
-            read = read_load_text(values["load"])
+            words, plate = split_load(values["load"])
+            read = read_load_text(words, value_needed=not plate)
             hp = read.value if read.unit == "hp" else None
     except LoadError:
         hp = None
@@ -455,9 +497,10 @@ def _check_load(r: _Reading) -> None:
     text = r.v["load"]
     r.got["load"] = None
     r.got["load_text"] = None
+    words, r.got["load_plate"] = split_load(text)
     if text.strip():
         try:
-            r.got["load_text"] = read_load_text(text)
+            r.got["load_text"] = read_load_text(words, value_needed=not r.got["load_plate"])
         except LoadError as exc:
             r.errors["load"] = str(exc)
 
@@ -478,6 +521,15 @@ def _check_kind(r: _Reading) -> None:
     except ValueError as exc:
         r.errors["plate"] = str(exc)
         plate = {}
+    try:
+        in_load = read_nameplate(r.got.get("load_plate", ""))
+    except ValueError as exc:
+        r.errors.setdefault("load", str(exc))
+        in_load = {}
+    twice = [_PLATE_TEXT.get(k, k) for k in plate if k in in_load]
+    if twice:
+        r.errors["plate"] = f"{', '.join(twice)} is typed in Load too; keep one"
+    plate = {**in_load, **plate}
     read = r.got.get("load_text")
     if "load" in r.errors or "kind" in r.errors or "plate" in r.errors:
         return
@@ -502,7 +554,7 @@ def _check_kind(r: _Reading) -> None:
     if plate:
         from gaugewalk.model.walk.equipment import load_words
 
-        r.hints["plate"] = load_words(load)[:40]
+        r.hints["load" if in_load else "plate"] = load_words(load)[:40]
 
 
 def _check_panel(r: _Reading) -> None:
@@ -957,7 +1009,10 @@ class CardForm:
         voltage, poles or phases), else the last branch run's from the same source when it is
         the same kind of load, else the kind's usual circuit (``default_branch_circuit``); the
         card shows it in words. The
-        other fields copy the last branch run from the same source."""
+        other fields copy the last branch run from the same source. A kind the card filled in
+        is not read back: it follows the load (``10hp`` corrected to ``16A`` is general again)."""
+        if "kind" not in self.typed:
+            v = {**v, "kind": ""}
         s = self.session
         source_id = v["from"].strip()
         source = s.job.source(source_id)
@@ -973,7 +1028,8 @@ class CardForm:
         else:
             stated = None
             try:
-                load = read_load_text(v["load"]) if v["load"].strip() else None
+                words, plate = split_load(v["load"])
+                load = read_load_text(words, value_needed=not plate) if v["load"].strip() else None
                 if load is not None and load.states_circuit:
                     stated = circuit_for_load(source.system, load)
             except (LoadError, ValueError):
@@ -984,7 +1040,8 @@ class CardForm:
                                  or default_branch_circuit(source.system, v))
         copied["id"] = self.next_id(same if same is not None and same.from_ == source_id else None, feeder)
         kind = kind_in(v)
-        copied["kind"] = kind if kind == "motor" and not v.get("kind", "").strip() else v.get("kind", "")
+        typed = v.get("kind", "").strip()   # else the kind the load's hp or nameplate says
+        copied["kind"] = v.get("kind", "") if typed else ("" if kind == "general" else kind)
         if kind in vocab.CONTINUOUS_KINDS or kind == "lighting":
             copied["continuous"] = "yes"  # by its article (or common practice for lighting)
         elif kind in ("motor", "hvac", "welder"):

@@ -323,6 +323,65 @@ def test_an_hvac_run_is_typed_by_its_nameplate_alone(session):
     assert "440.22" in checked.hints["kind"]
 
 
+def test_a_nameplate_typed_in_the_load_field_makes_the_load_of_its_kind(session):
+    # what a walker reads off a rooftop unit's plate goes where the load goes
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="RTU-1", length="50", load="MCA 28 MOCP 45").check()
+    assert checked.errors == {} and form.values["kind"] == "hvac"
+    assert form.values["circuit"] == "3P"  # HVAC: every hot (the card's usual circuit)
+    load = checked.run.load
+    assert (load.kind, load.mca, load.mocp, load.value) == ("hvac", 28, 45, None)
+    # the same answer as the Kind and Nameplate fields give: NEC 440.4(B), 440.22(A),
+    # Table 310.16 60 C column, 10 AWG Cu 30 A >= 28 A, on the 45 A maximum device
+    assert (checked.result.size, checked.result.ocpd_a) == ("10 AWG", 45)
+    assert checked.hints["load"] == "MCA 28 A HVAC, MOCP 45 A"
+
+
+@pytest.mark.parametrize("load, kind, got", [
+    ("i1eff 25 i1max 50", "welder", {"i1eff": 25, "i1max": 50}),
+    ("4.5kW tank 50", "water-heater", {"value": 4.5, "unit": "kW", "tank_gal": 50}),
+    ("1-1/2 hp code G", "motor", {"value": 1.5, "code_letter": "G"}),
+    ("yokes 8", "receptacle", {"yokes": 8}),
+])
+def test_the_kind_follows_the_nameplate_words_in_the_load_field(session, load, kind, got):
+    from gaugewalk.model.session.card_form import read_load_text, split_load
+
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Unit", length="40", load=load).check()
+    assert form.values["kind"] == kind
+    assert checked.run is not None and checked.run.load.kind == kind
+    assert {k: getattr(checked.run.load, k) for k in got} == got
+    # a voltage or poles typed after the nameplate stay with the load's circuit
+    assert split_load("mca 38 mocp 50 480V 3P") == ("480V 3P", "mca 38 mocp 50")
+    assert read_load_text("480V 3P", value_needed=False).poles == 3
+
+
+def test_a_kind_the_card_filled_in_follows_a_corrected_load(session):
+    form = CardForm(session)
+    form.start()
+    _typed(form, to="Unit", length="40", load="10hp")
+    assert form.values["kind"] == "motor"
+    checked = _typed(form, load="16A").check()  # a slip corrected: no motor any more
+    assert form.values["kind"] == "" and checked.run.load.kind == "general"
+    _typed(form, kind="heater", load="4kW")  # a kind typed by the person stays
+    _typed(form, load="5kW")
+    assert form.values["kind"] == "heater"
+
+
+@pytest.mark.parametrize("texts, key, reason", [
+    ({"load": "mca 28 mcop 45"}, "load", "'mcop' is not a nameplate word"),
+    ({"load": "mca 28", "kind": "hvac", "plate": "mca 30 mocp 45"}, "plate",
+     "mca is typed in Load too"),
+])
+def test_a_nameplate_in_the_load_field_names_its_mistake(session, texts, key, reason):
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Unit", length="40", **texts).check()
+    assert reason in checked.errors[key] and checked.run is None
+
+
 def test_the_nameplate_field_shows_only_for_a_kind_that_reads_one(session):
     from gaugewalk.model.session.card_form import placeholder, shown
 
