@@ -151,6 +151,8 @@ def shown(key: str, values: dict[str, str]) -> bool:
 def placeholder(key: str, values: dict[str, str]) -> str:
     """The hint an empty field shows; the nameplate's follows the kind."""
     if key == "plate":
+        if split_load(values.get("load", ""))[1]:
+            return "typed in Load"  # not an example beside the real figures
         return PLATE_PLACEHOLDERS.get(kind_in(values), "as the kind needs")
     return next((f.placeholder for f in FIELDS if f.key == key), "")
 
@@ -1042,6 +1044,9 @@ class CardForm:
         kind = kind_in(v)
         typed = v.get("kind", "").strip()   # else the kind the load's hp or nameplate says
         copied["kind"] = v.get("kind", "") if typed else ("" if kind == "general" else kind)
+        like_kind = like.load.kind if like is not None and like.load is not None else None
+        if like_kind is not None and like_kind != kind:
+            copied["continuous"] = "no"  # an EV charger's continuity is its article's, not a choice
         if kind in vocab.CONTINUOUS_KINDS or kind == "lighting":
             copied["continuous"] = "yes"  # by its article (or common practice for lighting)
         elif kind in ("motor", "hvac", "welder"):

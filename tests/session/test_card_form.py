@@ -389,6 +389,8 @@ def test_the_nameplate_field_shows_only_for_a_kind_that_reads_one(session):
     assert shown("plate", {"kind": "hvac", "load": "", "plate": ""})
     assert shown("plate", {"kind": "", "load": "10hp", "plate": ""})  # a motor by its hp
     assert placeholder("plate", {"kind": "welder", "load": "", "plate": ""}) == "i1eff 25 i1max 50"
+    assert placeholder("plate", {"kind": "", "load": "mca 38 mocp 50", "plate": ""}) == (
+        "typed in Load")
 
 
 @pytest.mark.parametrize("texts, key, reason", [
@@ -461,6 +463,24 @@ def test_a_card_like_the_last_run_copies_it_with_to_stepped_and_the_next_id(sess
     form.type("length", "74+10")
     run = form.check().run
     assert run is not None and (run.id, run.to, run.length) == ("R3", "Troffers row 2", "74+10")
+
+
+def test_continuous_is_copied_from_the_last_run_only_for_the_same_kind_of_load(session):
+    form = CardForm(session)
+    form.start()
+    charger = _typed(form, to="EV bay 1", length="60", load="40A", kind="ev-charger",
+                     circuit="LL").check().run
+    assert charger is not None and form.values["continuous"] == "yes"  # NEC 625.42
+    session.put_run(charger)
+    form.next_card(charger, None)
+    # a plain 16 A load typed next is not continuous because the charger was
+    _typed(form, to="Counter", length="30", load="16A")
+    assert form.values["continuous"] == "no"
+    counter = _typed(form, continuous="yes").check().run  # the person says it is
+    session.put_run(counter)
+    form.next_card(counter, None)
+    _typed(form, to="Counter 2", length="32", load="12A")
+    assert form.values["continuous"] == "yes"  # the same kind: copied as before
 
 
 def test_a_card_like_a_run_whose_name_has_nothing_to_step_keeps_the_name(session):
