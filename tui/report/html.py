@@ -29,8 +29,8 @@ body { font-family: system-ui, sans-serif; font-size: 13px; color: #111; margin:
 h1 { font-size: 1.5em; margin: 0 0 .4em; }
 h2 { font-size: 1.15em; margin: 1.4em 0 .4em; border-bottom: 1px solid #999; }
 table { border-collapse: collapse; margin: .3em 0 1em; }
-th, td { border: 1px solid #bbb; padding: 2px 4px; text-align: left; vertical-align: top;
-         overflow-wrap: anywhere; }
+th, td { border: 1px solid #bbb; padding: 2px 3px; text-align: left; vertical-align: top;
+         overflow-wrap: break-word; }
 th { background: #eee; overflow-wrap: normal; }
 td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
 td.nw, span.nw { white-space: nowrap; }
