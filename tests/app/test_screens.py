@@ -449,6 +449,33 @@ async def test_a_transformer_secondary_can_be_tried_at_another_voltage_with_its_
     assert systems == {"SVC": "480Y/277V 3ph 4w", "T1": "120/240V 1ph 3w", "LP1": "120/240V 1ph 3w"}
 
 
+async def test_job_settings_say_whether_the_total_drop_carries_through_transformers(tmp_path):
+    path = write_walk(tmp_path, WITH_TRANSFORMER)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        carried = app.session.result_for("R1").total_drop_pct
+        for text in ("perhaps", "no"):
+            if not app.screen.query("#s-drop_through_transformers"):
+                await pilot.press("j")
+            field = app.screen.query_one("#s-drop_through_transformers")
+            assert field.value in ("yes", "perhaps")
+            field.focus()
+            await pilot.press("ctrl+a", "ctrl+k")
+            await type_text(pilot, text)
+            await pilot.press("enter")
+            await settle(app, pilot)
+            if text == "perhaps":
+                said = shown(app, "#job-msg")
+                assert "Not stored" in said and "yes or no" in said
+        assert isinstance(app.screen, WalkScreen)
+        # restarted at the secondary: the kiln's total is the drop of F2 and its own run alone
+        r1, f2 = app.session.result_for("R1"), app.session.result_for("F2")
+        assert r1.total_drop_pct == pytest.approx(f2.voltage_drop_pct + r1.voltage_drop_pct)
+        assert r1.total_drop_pct < carried
+    assert tomllib.loads(path.read_text())["defaults"]["drop_through_transformers"] is False
+
+
 async def test_unknown_raceway_and_insulation_names_are_refused_at_their_fields(tmp_path):
     path = write_walk(tmp_path)
     before = path.read_bytes()

@@ -11,7 +11,7 @@ from textual.widgets import Footer, Header, Input, Label, Static
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.session.session import WalkSession
 from gaugewalk.model.walk.job import Defaults, JobHeader
-from gaugewalk.model.walk.vocabulary import DEMANDS
+from gaugewalk.model.walk.vocabulary import DEMANDS, FEEDER_BASES
 from gaugewalk.tui.app.keyorder import TypedInOrder
 from gaugewalk.tui.app.keys import bindings_for
 from gaugewalk.tui.app.plain import escape
@@ -31,6 +31,9 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
     ("total_drop_pct", "Total drop %", "215.2 note: 5"),
     ("min_size", "Smallest size", "e.g. 12 (job spec); blank: rules"),
     ("method", "Drop method", "ac, kfactor or dc"),
+    ("starting_drop_pct", "Start drop %", "motors starting; 10 to 15 common practice"),
+    ("drop_through_transformers", "Thru xfmr", "yes: total carries on; no: 0 % at secondary"),
+    ("feeder_basis", "Feeder basis", vocab.or_words(FEEDER_BASES) + " (215.2(A)(1); main/bus)"),
     ("demand", "Feeder load", vocab.or_words(DEMANDS) + " (220.44, 220.60)"),
     ("pf", "Power factor", "for loads without one"),
     ("conductor_temp_c", "Conductor °C", "for resistance, Ch. 9 Table 8"),
@@ -43,6 +46,8 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
 def _text(value) -> str:
     if value is None:
         return ""
+    if isinstance(value, bool):
+        return "yes" if value else "no"
     if isinstance(value, float):
         return f"{value:g}"
     return str(value)
@@ -91,7 +96,9 @@ class JobSettingsScreen(TypedInOrder, Screen):
             elif text == "" and key in ("terminal_temp", "min_size"):
                 defaults[key] = None
             elif text != "":
-                text_keys = ("material", "insulation", "raceway", "method", "min_size", "demand")
+                # the model reads yes/no itself, and names the field when it cannot
+                text_keys = ("material", "insulation", "raceway", "method", "min_size", "demand",
+                             "feeder_basis", "drop_through_transformers")
                 defaults[key] = text if key in text_keys else _number(text)
         return header, defaults
 
@@ -103,7 +110,8 @@ class JobSettingsScreen(TypedInOrder, Screen):
         from gaugewalk.model.engine.sizing import resolve_raceway
         from gaugewalk.tables.conductor.ampacity import parse_insulation
 
-        for key, check in (("raceway", resolve_raceway), ("insulation", parse_insulation)):
+        for key, check in (("raceway", resolve_raceway), ("insulation", parse_insulation),
+                           ("drop_through_transformers", _yes_or_no)):
             try:
                 check(defaults.get(key, ""))
             except ValueError as exc:
@@ -158,6 +166,15 @@ class JobSettingsScreen(TypedInOrder, Screen):
 
     def action_leave(self) -> None:
         self.dismiss()
+
+
+def _yes_or_no(text: str) -> bool:
+    from gaugewalk.model.session.card_form import yes_no
+
+    value = yes_no(text)
+    if value is None:
+        raise ValueError(f"'{text}': yes or no")
+    return value
 
 
 def _number(text: str):
