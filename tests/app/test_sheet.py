@@ -4,7 +4,7 @@ columns say each run's circuit (voltage, poles) and device."""
 from __future__ import annotations
 
 from gaugewalk.tui.app.widgets.runsheet import RunSheet
-from tests.support.app_helpers import new_app, opened, sheet_cells, shown, type_text
+from tests.support.app_helpers import new_app, opened, settle, sheet_cells, shown, type_text
 from tests.support.walks import SMALL_WALK, run_table, tables_text, write_walk
 
 
@@ -27,6 +27,23 @@ async def test_sorting_puts_the_cursor_and_the_view_on_the_first_row_of_the_new_
         await pilot.pause()
         assert sheet.cursor == 0 and sheet.scroll_y == 0
         assert sheet.cursor_key == sheet.visible_keys()[0]
+
+
+async def test_after_a_delete_the_cursor_is_on_the_run_that_took_its_place(tmp_path):
+    app = new_app(write_walk(tmp_path, _many_runs(6)), tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        sheet = app.screen.query_one(RunSheet)
+        keys = sheet.visible_keys()
+        at = keys.index("L3")
+        for _ in range(at):
+            await pilot.press("down")
+        await pilot.press("delete")
+        await settle(app, pilot)
+        assert sheet.cursor_key == "L4" and sheet.cursor == at  # not back on the first run
+        await pilot.press("end", "delete")
+        await settle(app, pilot)
+        assert sheet.cursor_key == "L5"  # the last run gone: the new last
 
 
 async def test_a_filter_that_finds_nothing_says_so_and_how_to_clear_it(tmp_path):

@@ -242,13 +242,14 @@ class RunSheet(ScrollView, can_focus=True):
             view.sort(key=sort_value, reverse=self.sort_reverse)
         self.view = view
         self._set_virtual_size(Size(self._line_width(), len(view)))
-        new_cursor = 0
+        # a run gone (deleted, filtered out): the cursor stays where it was, on the run that
+        # took its place, or the last; never back to the top, where a second Delete would land
+        new_cursor = self.cursor
         if keep_key is not None and keep_key in self._index:
-            pos = self._index[keep_key]
             try:
-                new_cursor = view.index(pos)
+                new_cursor = view.index(self._index[keep_key])
             except ValueError:
-                new_cursor = min(self.cursor, max(len(view) - 1, 0))
+                pass
         self.cursor = min(new_cursor, max(len(view) - 1, 0))
         self.refresh()
         self._scroll_cursor_into_view()
