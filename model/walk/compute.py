@@ -43,6 +43,7 @@ from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fi
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.currents import design_current
+from gaugewalk.model.engine.sizing.evaluate import Prepared
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
@@ -383,6 +384,9 @@ class WalkState:
         self._circuit_cache: dict[tuple[str, str, bool], Circuit] = {}
         self.spec_base = _spec_base(self.job.defaults.__dict__)   # what every run's spec starts as
         self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
+        # what the runs of this computation share, by spec but for length and upstream drop
+        # (``gaugewalk.model.engine.sizing.evaluate_picked``)
+        self.prepared: dict[tuple, Prepared] = {}
 
     def fail(self, run: Run, message: str, field_name: str | None = None) -> None:
         self.result._run_problems[run.id] = [Problem("", None, "run", run.id, field_name, message)]
@@ -571,7 +575,7 @@ class WalkState:
             try:
                 spec = (moved if moved is not None
                         else _spec(self.spec_base, self.job, r, upstream, circuit, False, None))
-                result, passed = evaluate_picked(spec)
+                result, passed = evaluate_picked(spec, self.prepared)
             except (LoadError, CircuitError, ValueError) as exc:
                 self.forget(r)
                 self.fail(r, str(exc))
@@ -597,7 +601,7 @@ class WalkState:
                 if motors.only_motors and rule is None:  # the device picked up to it (240.4(G))
                     spec = with_fields(spec, motor_feeder_max_a=limit,
                                        lugs_bus_a=lugs_bus(self.walk.sources[r.to]))
-            result, passed = evaluate_picked(spec)
+            result, passed = evaluate_picked(spec, self.prepared)
             beside = None
             if rule is not None and rule.beside:
                 beside = evaluate(_spec(self.spec_base, self.job, r, upstream, circuit,

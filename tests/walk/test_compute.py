@@ -293,9 +293,9 @@ def test_runs_picked_for_their_drop_keep_their_size_unevaluated_when_the_drop_ab
     evaluated: list[str] = []
     real = computing.evaluate_picked
 
-    def counting(spec):
+    def counting(spec, prepared=None):
         evaluated.append(spec)
-        return real(spec)
+        return real(spec, prepared)
 
     monkeypatch.setattr(computing, "evaluate_picked", counting)
     rng = random.Random(3)

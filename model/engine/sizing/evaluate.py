@@ -4,15 +4,23 @@ kind's rule, ``kinds``), the installation's columns (``columns``), the conductor
 (``pick``), its drop (``gaugewalk.model.engine.drop``; a motor's starting drop too), then the
 EGC (``egc``) and the raceway (``raceway``).
 
+In two parts, so that runs alike share the first: ``prepare`` (what neither the run's length
+nor the drop up to its source enters: the currents and device, the columns, the sizes rules 1, 2,
+4 and 6 of ``pick`` allow) and ``finish`` (the drop scan of rule 3, the size chosen, its drop and
+what quotes it; what follows from each size picked, kept in the preparation). ``evaluate`` does
+both for one run; ``evaluate_picked`` given a table of preparations (a walk's computation keeps
+one) prepares each kind of run once.
+
 Pure: no I/O. The work runs share (the device, the columns, the EGC and the raceway of a size)
-is cached, so thousands of runs evaluate quickly.
+is cached by table keys too, so thousands of runs evaluate quickly.
 """
 
-from __future__ import annotations
-
 import math
+from collections.abc import Callable
 from dataclasses import MISSING, fields
 from functools import lru_cache
+from operator import itemgetter
+from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import current_carrying_conductors
 from gaugewalk.model.engine.contract import Equipment, RunResult, RunSpec, with_fields
@@ -22,20 +30,35 @@ from gaugewalk.model.engine.drop import (
     drop_volts,
     shifted_z,
 )
-from gaugewalk.model.engine.sizing.columns import MAT, material_table, rx_of, setting, z_table
+from gaugewalk.model.engine.sizing.columns import (
+    MAT,
+    Setting,
+    material_table,
+    rx_of,
+    setting,
+    z_table,
+)
 from gaugewalk.model.engine.sizing.currents import (
     BY_ARTICLE,
     GENERAL,
     PROTECTED,
     WELDER_CONDUCTORS,
+    Currents,
     motor_feeder,
 )
 from gaugewalk.model.engine.sizing.egc import egc_for
 from gaugewalk.model.engine.sizing.kinds import STARTING_PF, locked_rotor, rule_for
 from gaugewalk.model.engine.sizing.neutral import neutral_for
-from gaugewalk.model.engine.sizing.pick import drop_limit, pick_conductor, size_problems
+from gaugewalk.model.engine.sizing.pick import (
+    Candidates,
+    candidates,
+    choose,
+    drop_limit,
+    drop_scan,
+    size_problems,
+)
 from gaugewalk.model.engine.sizing.raceway import raceway_fill
-from gaugewalk.model.engine.sizing.spec import SizingError, check_spec
+from gaugewalk.model.engine.sizing.spec import SizingError, check_run_drop, check_spec
 from gaugewalk.model.engine.sizing.text import amps_text, pct_text
 from gaugewalk.tables.conductor import properties as t_cond
 from gaugewalk.tables.conductor.ampacity import rooftop_ambient
@@ -69,17 +92,40 @@ def evaluate(spec: RunSpec) -> RunResult:
         raise SizingError(str(exc)) from None
 
 
-def evaluate_picked(spec: RunSpec) -> tuple[RunResult, float]:
+def evaluate_picked(spec: RunSpec,
+                    prepared: dict[tuple, "Prepared"] | None = None) -> tuple[RunResult, float]:
     """``evaluate``, with the least drop [%] of the smaller sizes it passed over for their drop
-    alone (rules 1, 2 and 4 allowed them; ``pick.pick_conductor``), infinity where it passed
-    over none: any drop limit below that picks the same size again, which is how
+    alone (rules 1, 2 and 4 allowed them; ``pick.drop_scan``), infinity where it passed over
+    none: any drop limit below that picks the same size again, which is how
     ``gaugewalk.model.walk.recompute`` tells that a run's size stays when the drop up to its
-    source falls. The drop of a size does not depend on that upstream drop."""
-    check_spec(spec)
+    source falls. The drop of a size does not depend on that upstream drop.
+
+    ``prepared``: what the runs of one computation share, by their specs but for the length and
+    the drop up to the source (``prepare``, and what each size picked gives); a run whose spec is
+    already there is only finished (``finish``), its length and upstream drop checked. The
+    result is the same as without it (``tests/engine/test_prepared.py``); the caller keeps it for
+    one computation of specs of one kind (a walk's, from its validated models: the key compares
+    fields by value, so a spec giving ``sets=2.0`` would meet the entry of ``sets=2``)."""
     try:
-        return _evaluate_pick(spec, True)
+        if prepared is None:
+            check_spec(spec)
+            return _evaluate_pick(spec, True)
+        key = _prepared_key(spec.__dict__)
+        prep = prepared.get(key)
+        if prep is None:
+            check_spec(spec)
+            prep = prepared[key] = prepare(spec)
+        else:
+            check_run_drop(spec)
+        return finish(prep, spec)
     except TableLookupError as exc:
         raise SizingError(str(exc)) from None
+
+
+_prepared_key = itemgetter(*(f.name for f in fields(RunSpec)
+                             if f.name not in ("length_ft", "upstream_drop_pct")))
+"""The key of ``evaluate_picked``'s ``prepared``: every field of a spec's ``__dict__`` but the
+length and the drop up to its source, which ``prepare`` does not read."""
 
 
 @lru_cache(maxsize=8192)
@@ -109,11 +155,41 @@ def _evaluate(spec: RunSpec, *, hint: bool = True) -> RunResult:
 
 
 def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
-    """``_evaluate``, with the least drop of the sizes passed over (``evaluate_picked``)."""
+    """``_evaluate``, with the least drop of the sizes passed over (``evaluate_picked``): the run
+    prepared on its own (``prepare``) and finished (``finish``)."""
+    return finish(prepare(spec), spec, hint)
+
+
+class Prepared:
+    """What sizing a run takes that depends neither on its length nor on the drop up to its
+    source (``prepare``): the same for every run whose spec is otherwise equal. ``parts`` holds
+    what follows from each size picked by the rules (``_Part``), made once for all of them."""
+
+    __slots__ = ("amps", "cur", "need", "notes", "problems", "st", "protect", "cand",
+                 "pct_per_volt", "parts")
+
+    def __init__(self, amps: float, cur: Currents, need: float, notes: tuple[str, ...],
+                 st: Setting, protect: tuple[float, ...] | None, cand: Candidates,
+                 pct_per_volt: float) -> None:
+        self.amps = amps                  # [A] the load
+        self.cur = cur                    # the design current and device (the load's rule)
+        self.need = need                  # [A] what the conductors carry after corrections
+        self.notes = notes                # the circuit's, the rule's and the columns' notes
+        self.problems = cur.problems
+        self.st = st                      # the columns (``columns.setting``)
+        self.protect = protect            # [A] the device each size permits; None: 240.4
+        self.cand = cand                  # rules 1, 2, 4 and 6 (``pick.candidates``)
+        self.pct_per_volt = pct_per_volt  # [%/V]
+        self.parts: dict[int, _Part] = {}
+
+
+def prepare(spec: RunSpec) -> Prepared:
+    """The part of a run's sizing its length and the drop up to its source do not enter: the
+    design current and device (``currents``, or the load kind's rule, ``kinds``), the columns
+    (``columns.setting``; the rooftop adder of 310.15(B)(2)), the device limits each size is
+    held to, and the sizes rules 1, 2, 4 and 6 allow (``pick.candidates``)."""
     circuit = spec.circuit
     material = spec.material
-    tab = material_table(material)
-    sets = spec.sets
     amps = float(spec.amps)
 
     # --- currents and device (the load's rule) ---------------------------------------------
@@ -131,7 +207,6 @@ def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
     design, ocpd = cur.design_a, cur.ocpd_a
     need = amps if cur.corrected_a is None else cur.corrected_a
     notes: list[str] = [*circuit.notes, *cur.notes]
-    problems: list[str] = [*cur.problems]
 
     # --- columns, corrections, raceway, impedance ----------------------------------------------
     n_ccc = spec.ccc if spec.ccc is not None else current_carrying_conductors(circuit)
@@ -144,30 +219,147 @@ def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
         notes.append(said)
     st = setting(material, spec.insulation, terminal_temp, ocpd, ambient, n_ccc,
                  spec.raceway, spec.method, float(spec.pf), float(spec.conductor_temp_c),
-                 bool(spec.stranded), sets, bool(spec.distributed), circuit.drop_angle_deg,
+                 bool(spec.stranded), spec.sets, bool(spec.distributed), circuit.drop_angle_deg,
                  terminal_why)
     notes.extend(st.notes)
-    ins_col, term_col = st.ins_col, st.term_col
-    cols = st.cols
-    z = st.z
     protection = cur.protection
     if protection == PROTECTED:
         protect = None
     elif protection == BY_ARTICLE:
-        protect = (math.inf,) * len(z)
+        protect = (math.inf,) * len(st.z)
     else:  # WELDER_CONDUCTORS, NEC 630.12(B)
-        protect = tuple(2.0 * a for a in cols.allowable_total)
+        protect = tuple(2.0 * a for a in st.cols.allowable_total)
+    cand = candidates(spec, material_table(material), st, design, need, ocpd, protect)
+    return Prepared(amps, cur, need, tuple(notes), st, protect, cand, 100.0 / circuit.volts)
 
-    # --- the conductor -------------------------------------------------------------------------
+
+class _Part(NamedTuple):
+    """What follows from the size a run is given, for every length: the result's fields but
+    the drop's (``values``, ``conductors``), its notes and problems (``notes_a``, then any that
+    quote the drop, then ``notes_b``; ``problems_a``, ..., ``problems_b``; ``notes`` and
+    ``problems`` the whole where none quotes it), and what the drop figures read."""
+
+    i: int                             # the size's index in the material's table
+    governed_by: str
+    z: float                           # [ohm/kft] the size's impedance for the drop method
+    start_z: float | None              # [ohm/kft] the same while a motor starts; None: not worked
+    values: dict                       # RunResult's fields, the drop's not yet set
+    conductors: dict[str, int]
+    notes: tuple[str, ...]
+    problems: tuple[str, ...]
+    notes_a: tuple[str, ...]
+    notes_b: tuple[str, ...]
+    problems_a: tuple[str, ...]
+    problems_b: tuple[str, ...]
+    term_total: float                  # [A] the size's terminal-column ampacity, all sets
+    corrected_total: float             # [A] its insulation-column ampacity corrected, all sets
+    allowable_total: float             # [A] the smaller
+    protect_limit: float               # [A] the largest device it permits
+    small_max: int | None              # [A] its 240.4(D) limit
+    margins: tuple[float, float, float, float]   # [A] ampacity, terminal, corrected, device
+
+
+def finish(prep: Prepared, spec: RunSpec, hint: bool = True) -> tuple[RunResult, float]:
+    """The run sized from its ``prep`` (``prepare`` of ``spec``, or of any spec equal to it but
+    for ``length_ft`` and ``upstream_drop_pct``): the drop scan of rule 3
+    (``pick.drop_scan``), the size chosen (``pick.choose``), its drop (a motor's starting drop
+    too), and what a drop target quotes. Returns ``(result, the least drop [%] of the smaller
+    sizes passed over for their drop alone)`` (``evaluate_picked``). ``hint``: when nothing
+    fits, look for a number of parallel sets that would (off while looking, so the search is one
+    pass over 2..12 sets, not a tree of searches)."""
+    circuit = spec.circuit
     # VD = k I z L / 1000 / sets is linear in z: the drop per ohm/kft, once for the run
-    volts_per_z = drop_volts(circuit.drop_factor, amps, 1.0,
-                             drop_length_ft(spec.length_ft, spec.distributed), sets)
-    pct_per_volt = 100.0 / circuit.volts
-    i, governed_by, min_amp_i, ocpd_i, pick_i, sm, passed = pick_conductor(
-        spec, tab, st, design, need, ocpd, volts_per_z, pct_per_volt,
-        _parallel_hint if hint else None, notes, problems, protect, protection == PROTECTED)
+    volts_per_z = drop_volts(circuit.drop_factor, prep.amps, 1.0,
+                             drop_length_ft(spec.length_ft, spec.distributed), spec.sets)
+    pct_per_volt = prep.pct_per_volt
+    pick_i, passed, own_i = drop_scan(prep.cand.sizes, volts_per_z, pct_per_volt, spec)
+    by_rules = spec.size is None and pick_i is not None
+    if by_rules or spec.size is not None:
+        # the size the rules pick, or the fixed size: what follows is the same for every run
+        key = pick_i if pick_i is not None and spec.size is None else -1
+        part = prep.parts.get(key)
+        if part is None:
+            part = prep.parts[key] = _part(prep, spec, pick_i, None, None)
+    else:
+        # the own target's size (a problem quotes the drop up to the source) or none fits (a
+        # hint of parallel sets reads the length): this run's own
+        part = _part(prep, spec, None, own_i, _parallel_hint if hint else None)
+
+    vd_v = volts_per_z * part.z
+    vd_pct = vd_v * pct_per_volt
+    total_pct = spec.upstream_drop_pct + vd_pct
+    notes: list[str] = []
+    problems: list[str] = []
+    if not by_rules:
+        st = prep.st
+        cur = prep.cur
+        eq = spec.equipment
+        size_problems(part.values["size"], spec.material, st.term_col, cur.design_a, prep.need,
+                      cur.ocpd_a, part.term_total, part.corrected_total, part.allowable_total,
+                      part.protect_limit, part.small_max, vd_pct, total_pct, spec.max_drop_pct,
+                      spec.max_total_drop_pct, problems,
+                      cur.rule if eq is not None and eq.kind != "general" and cur.rule
+                      else "NEC 110.14(C)(1), 210.19(A)(1)",
+                      "NEC 630.12(B)" if cur.protection == WELDER_CONDUCTORS else "NEC 240.4")
+    start_pct = None
+    if part.start_z is not None:
+        start_pct = _starting_drop(spec, part.values["locked_rotor_a"], part.start_z, notes,
+                                   problems)
+    if part.governed_by == "voltage drop":
+        cand = prep.cand
+        base = material_table(spec.material).sizes[
+            cand.ocpd_i if cand.ocpd_i is not None else cand.min_amp_i or 0]
+        notes.append(f"upsized from {base} for voltage drop ({pct_text(vd_pct)} of "
+                     f"{circuit.volts:g} V)")
+
+    amp_margin, terminal_margin, corrected_margin, device_margin = part.margins
+    # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (a third
+    # of the engine's time per run): a copy of the part's fields, with the drop's set
+    result = _new_object(RunResult)
+    values = part.values.copy()
+    values["voltage_drop_v"] = vd_v
+    values["voltage_drop_pct"] = vd_pct
+    values["total_drop_pct"] = total_pct
+    values["margins"] = {
+        "ampacity_a": amp_margin,
+        "terminal_a": terminal_margin,
+        "corrected_a": corrected_margin,
+        "ocpd_a": device_margin,
+        "drop_pct": spec.max_drop_pct - vd_pct,
+        "total_drop_pct": spec.max_total_drop_pct - total_pct,
+    }
+    values["conductors"] = part.conductors.copy()
+    if notes:
+        values["notes"] = part.notes_a + tuple(notes) + part.notes_b
+    if problems:
+        values["problems"] = part.problems_a + tuple(problems) + part.problems_b
+    if start_pct is not None:
+        values["starting_drop_pct"] = start_pct
+    _set_attr(result, "__dict__", values)
+    return result, passed
+
+
+def _part(prep: Prepared, spec: RunSpec, pick_i: int | None, own_i: int | None,
+          hint: Callable[[RunSpec, tuple[float | None, ...]], str] | None) -> _Part:
+    """What follows from the size ``pick.choose`` gives (``pick_i`` the size rule 3 picked,
+    ``own_i`` the first meeting the run's own target): its ampacities and device limits, its
+    impedance (Ch. 9 Table 9, or Table 8 DC resistance where Table 9 lacks the size), a motor's
+    locked-rotor current and starting impedance, the EGC, the raceway and the neutral."""
+    material = spec.material
+    tab = material_table(material)
+    sets = spec.sets
+    st, cur = prep.st, prep.cur
+    design, ocpd = cur.design_a, cur.ocpd_a
+    notes = list(prep.notes)
+    problems = list(prep.problems)
+    protect = prep.protect
+    cand = prep.cand
+    i, governed_by, sm = choose(spec, tab, st, cand, ocpd, pick_i, own_i, hint, notes, problems,
+                                cur.protection == PROTECTED)
     size = tab.sizes[i]
     mat = MAT[material]
+    ins_col, term_col = st.ins_col, st.term_col
+    cols = st.cols
     if tab.amp[ins_col][i] is None or tab.amp[term_col][i] is None:
         raise SizingError(f"Table 310.16 has no {mat} {size} in the {ins_col} or {term_col} C "
                           f"column")
@@ -182,16 +374,16 @@ def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
     else:
         protect_limit = protect[i]
         device_max = cur.device_max_a if cur.device_max_a is not None else protect_limit
-        if protection == WELDER_CONDUCTORS:
+        if cur.protection == WELDER_CONDUCTORS:
             device_max = min(device_max, protect_limit)
         device_margin = device_max - ocpd if math.isfinite(device_max) else 0.0
 
     # drop with the method's table, or Table 8 DC resistance where Table 9 lacks the size
-    zi = z[i]
+    zi = st.z[i]
     method_used = spec.method
     if zi is None:
         zi = z_table(material, "dc", st.family, 1.0, float(spec.conductor_temp_c),
-                     bool(spec.stranded), circuit.drop_angle_deg)[i]
+                     bool(spec.stranded), spec.circuit.drop_angle_deg)[i]
         if zi is None:
             raise SizingError(f"NEC Ch. 9 Table 8 lists no solid {mat} {size}; solid conductors "
                               f"are listed up to {t_cond.SOLID_SIZES[-1]}")
@@ -203,54 +395,30 @@ def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
         notes.append(f"NEC Ch. 9 Table 9 lists no {mat} {size}: its AC resistance (Table 8 DC "
                      f"resistance x the AC/DC ratio) and reactance interpolated in circular mils "
                      f"between {lo} and {hi}")
-    vd_v = volts_per_z * zi
-    vd_pct = vd_v * pct_per_volt
-    total_pct = spec.upstream_drop_pct + vd_pct
-
-    if spec.size is not None or pick_i is None:
-        size_problems(size, material, term_col, design, need, ocpd, term_total, corrected_total,
-                      allowable_total, protect_limit, sm, vd_pct, total_pct, spec.max_drop_pct,
-                      spec.max_total_drop_pct, problems,
-                      cur.rule if eq is not None and eq.kind != "general" and cur.rule
-                      else "NEC 110.14(C)(1), 210.19(A)(1)",
-                      "NEC 630.12(B)" if protection == WELDER_CONDUCTORS else "NEC 240.4")
 
     # --- a motor starting --------------------------------------------------------------------
-    lra = start_pct = None
+    eq = spec.equipment
+    lra = start_z = None
     if eq is not None and eq.kind == "motor":
-        lra, start_pct = _starting(spec, eq, i, st.family, z, notes, problems)
-    if governed_by == "voltage drop":
-        base = tab.sizes[ocpd_i] if ocpd_i is not None else tab.sizes[min_amp_i or 0]
-        notes.append(f"upsized from {base} for voltage drop ({pct_text(vd_pct)} of "
-                     f"{circuit.volts:g} V)")
+        lra, start_z = _starting(spec, eq, i, st.family, st.z, notes)
+    notes_a, problems_a = tuple(notes), tuple(problems)
 
     # --- EGC and raceway ------------------------------------------------------------------------
+    circuit = spec.circuit
     hots = circuit.hots
     neutral = 1 if circuit.neutral else 0
     egc_size, n_egc, raceway_size, fill_pct, er_notes, er_problems = _egc_and_raceway(
-        i, cur.egc_basis_a or ocpd, ocpd_i if ocpd_i is not None else min_amp_i, sets, material,
-        spec.egc_material or material, bool(spec.egc), bool(spec.egc_bare), st.insulation,
-        st.rtype, hots, neutral)
-    notes.extend(er_notes)
-    problems.extend(er_problems)
+        i, cur.egc_basis_a or ocpd, cand.ocpd_i if cand.ocpd_i is not None else cand.min_amp_i,
+        sets, material, spec.egc_material or material, bool(spec.egc), bool(spec.egc_bare),
+        st.insulation, st.rtype, hots, neutral)
+    notes_b: tuple[str, ...] = er_notes
     neutral_size = size if neutral else None
     if neutral and spec.neutral_amps is not None:
         neutral_size, n_notes = neutral_for(i, float(spec.neutral_amps), egc_size, material,
                                             cols, tab)
-        notes.extend(n_notes)
+        notes_b += n_notes
 
-    margins = {
-        "ampacity_a": allowable_total - amps,
-        "terminal_a": term_total - design,
-        "corrected_a": corrected_total - amps,
-        "ocpd_a": device_margin,
-        "drop_pct": spec.max_drop_pct - vd_pct,
-        "total_drop_pct": spec.max_total_drop_pct - total_pct,
-    }
-    # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (a third
-    # of the engine's time per run): every field of RunResult is set, in field order, into a copy
-    # of a dict that holds them all (a copy and item sets cost half a dict display of 23 keys).
-    result = _new_object(RunResult)
+    amps = prep.amps
     values = _RESULT_TEMPLATE.copy()
     values["size"] = size
     values["sets"] = sets
@@ -258,39 +426,39 @@ def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
     values["method"] = method_used
     values["amps"] = amps
     values["design_amps"] = design
-    values["required_ampacity_a"] = need
+    values["required_ampacity_a"] = prep.need
     values["ampacity_a"] = allowable_total
-    values["min_ampacity_size"] = tab.sizes[min_amp_i] if min_amp_i is not None else tab.sizes[-1]
+    values["min_ampacity_size"] = (tab.sizes[cand.min_amp_i] if cand.min_amp_i is not None
+                                   else tab.sizes[-1])
     values["ocpd_a"] = ocpd
-    values["voltage_drop_v"] = vd_v
-    values["voltage_drop_pct"] = vd_pct
-    values["total_drop_pct"] = total_pct
     values["egc_size"] = egc_size
     values["neutral_size"] = neutral_size
     values["raceway"] = st.rtype
     values["raceway_size"] = raceway_size
     values["raceway_fill_pct"] = fill_pct
     values["governed_by"] = governed_by
-    values["margins"] = margins
-    values["conductors"] = {"hot": hots, "neutral": neutral, "egc": n_egc}
-    values["problems"] = tuple(problems)
-    values["notes"] = tuple(notes)
+    values["problems"] = problems_a + er_problems
+    values["notes"] = notes_a + notes_b
     if eq is not None:
         values["load_kind"] = eq.kind
         values["flc_a"] = cur.flc_a
         values["locked_rotor_a"] = lra
-        values["starting_drop_pct"] = start_pct
     values["kind_rule"] = cur.rule
-    _set_attr(result, "__dict__", values)
-    return result, passed
+    return _Part(i, governed_by, zi, start_z, values,
+                 {"hot": hots, "neutral": neutral, "egc": n_egc}, values["notes"],
+                 values["problems"], notes_a, notes_b, problems_a, er_problems, term_total,
+                 corrected_total, allowable_total, protect_limit, sm,
+                 (allowable_total - amps, term_total - design, corrected_total - amps,
+                  device_margin))
 
 
 def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
-              notes: list[str], problems: list[str]) -> tuple[float | None, float | None]:
-    """The drop while a motor starts [%], at its locked-rotor current (``kinds.locked_rotor``)
-    and the same conductor impedance at the starting power factor (``kinds.STARTING_PF``; the
-    DC and K-factor methods have no reactance and take R), against the job's starting target:
-    ``(locked-rotor amps, drop %)``, None where no locked-rotor current can be read."""
+              notes: list[str]) -> tuple[float | None, float | None]:
+    """A motor's locked-rotor current (``kinds.locked_rotor``) and the impedance of the size at
+    index ``i`` while it starts: the same conductor at the starting power factor
+    (``kinds.STARTING_PF``; the DC and K-factor methods have no reactance and take R)
+    [ohm/kft]: ``(locked-rotor amps, impedance)``, each None where it cannot be read (no
+    starting drop is then worked)."""
     circuit = spec.circuit
     lra, why = locked_rotor(eq, circuit.volts, circuit.phases)
     notes.append(why)
@@ -302,8 +470,14 @@ def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
                    bool(spec.stranded), i)
         if rx is not None:
             zs = shifted_z(rx[0], rx[1], STARTING_PF, circuit.drop_angle_deg)
-    if zs is None:
-        return lra, None
+    return lra, zs
+
+
+def _starting_drop(spec: RunSpec, lra: float, zs: float, notes: list[str],
+                   problems: list[str]) -> float:
+    """The drop while a motor starts [%], at its locked-rotor current ``lra`` [A] on the
+    starting impedance ``zs`` [ohm/kft] (``_starting``), against the job's starting target."""
+    circuit = spec.circuit
     vd = drop_volts(circuit.drop_factor, lra, zs, drop_length_ft(spec.length_ft, spec.distributed),
                     spec.sets)
     pct = 100.0 * vd / circuit.volts
@@ -315,7 +489,7 @@ def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
         problems.append(f"the motor starting drop {pct_text(pct)} is over the "
                         f"{spec.starting_drop_pct:g}% starting target (a larger size, or a "
                         f"reduced-voltage start, brings it down)")
-    return lra, pct
+    return pct
 
 
 def _parallel_hint(spec: RunSpec, z: tuple[float | None, ...]) -> str:

@@ -18,17 +18,20 @@ every rule it fails named.
    insulation column) with no next size up: transformer secondary conductors are not below the
    device they end in (240.21(C), where 240.4(B) does not apply).
 
-Public API: ``pick_conductor`` (returns ``Pick``: the size index, what governed it, the
-smallest size index meeting rule 1, rules 1-2, rules 1-4, the 240.4(D) limit of the size [A],
-and the least drop [%] of the smaller sizes passed over for rule 3 alone, so that a looser drop
-limit below it is known to pick the same size); ``drop_limit`` (rule 3's limit [%]);
-``size_problems``; ``floor_index``.
+Public API: the pick in three steps, so that what does not depend on a run's length or on the
+drop up to its source is worked out once for every run alike
+(``gaugewalk.model.engine.sizing.evaluate.prepare``): ``candidates`` (rules 1, 2, 4 and 6: the
+smallest size index meeting rule 1, rules 1-2, and the sizes rule 3 is tried on, as
+``Candidates``), ``drop_scan`` (rule 3 on them, for one length and one drop up to the source:
+the size index picked, the least drop [%] of the sizes passed over for rule 3 alone, so that a
+looser limit below it is known to pick the same size, and the first size meeting the run's own
+target), ``choose`` (the size and what governed it, with the notes and problems of the choice);
+``drop_limit`` (rule 3's limit [%]); ``size_problems``; ``floor_index``.
 """
-
-from __future__ import annotations
 
 import math
 from collections.abc import Callable
+from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.sizing.columns import (
@@ -44,9 +47,16 @@ from gaugewalk.tables.conductor.sizes import canonical, parse_size, size_index
 
 _EPS = 1e-9
 
-Pick = tuple[int, str, "int | None", "int | None", "int | None", "int | None", float]
-"""(size index, governed by, min_amp_i, ocpd_i, pick_i, 240.4(D) limit [A] or None, the least
-drop [%] of the sizes passed over for their drop alone: infinity where none was)."""
+class Candidates(NamedTuple):
+    """What rules 1, 2, 4 and 6 leave for rule 3, for every length: ``floor_i`` the job's
+    minimum size index, ``min_amp_i`` the smallest size index meeting rule 1 (and 6), ``ocpd_i``
+    rules 1-2 (None: no size), and ``sizes`` the (index, impedance [ohm/kft]) of each size
+    meeting rules 1, 2, 4 and 6 that the drop method covers, smallest first."""
+
+    floor_i: int
+    min_amp_i: int | None
+    ocpd_i: int | None
+    sizes: tuple[tuple[int, float], ...]
 
 
 def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
@@ -61,44 +71,27 @@ def floor_index(min_size: str | None, sizes: tuple[str, ...]) -> int:
 
 def drop_limit(spec: RunSpec) -> float:
     """The largest drop a size may have to be picked [%]: the run's target and what the total
-    target leaves after the drop up to its source (rule 3), the smaller, with a tolerance (the
-    same expression as in ``pick_conductor``, written out there to spare a call per run)."""
+    target leaves after the drop up to its source (rule 3), the smaller, with a tolerance."""
     return min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct) + _EPS
 
 
-def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float, amps: float,
-                   ocpd: int, volts_per_ohm_kft: float, pct_per_volt: float,
-                   hint: Callable[[RunSpec, tuple[float | None, ...]], str] | None, notes: list[str],
-                   problems: list[str], protect: tuple[float, ...] | None = None,
-                   small_rule: bool = True) -> Pick:
-    """The phase conductor of the run: the size the user fixed (``spec.size``), else the
-    smallest meeting rules 1 to 4, else (nothing meets them all) the largest the drop method
-    covers, with a problem saying so and ``hint(spec, z)`` (how many sets in parallel would;
-    ``z`` the impedance column).
-    ``st`` is the installation's columns (``columns.setting``); ``amps`` what the conductors
-    must carry after the corrections [A] (the load, or what the load's kind asks).
-    ``volts_per_ohm_kft`` is the run's drop per ohm/kft of conductor impedance [V] and
-    ``pct_per_volt`` [%/V]. ``protect``: the largest device each size permits [A] (default the
-    240.4(B)-(D) limits; a load kind's article may set others, ``currents.Currents.protection``),
-    ``small_rule`` False where 240.4(D) does not apply (240.4(G)). Notes and problems of the
-    choice, of 240.4(D) and of 310.10(G) are added to ``notes`` and ``problems``."""
-    material, sets = spec.material, spec.sets
+def candidates(spec: RunSpec, tab: MaterialTable, st: Setting, design: float, amps: float,
+               ocpd: int, protect: tuple[float, ...] | None = None) -> Candidates:
+    """Rules 1, 2, 4 and 6 over the sizes of the run's columns (``st``: ``columns.setting``):
+    ``design`` the design current [A], ``amps`` what the conductors must carry after the
+    corrections [A] (the load, or what the load's kind asks), ``ocpd`` the device [A];
+    ``protect`` the largest device each size permits [A] (default the 240.4(B)-(D) limits; a
+    load kind's article may set others, ``currents.Currents.protection``). None of it depends on
+    the run's length or the drop up to its source."""
     cols, z = st.cols, st.z
-    mat = MAT[material]
-    sizes = tab.sizes
-    floor_i = floor_index(spec.min_size, sizes)
-    limit = min(spec.max_drop_pct, spec.max_total_drop_pct - spec.upstream_drop_pct) + _EPS
-    # rules 1-4: the smallest size with ampacity, then protected by the device, then within
-    # the drop limit and the floor
-    min_amp_i = ocpd_i = pick_i = None
+    floor_i = floor_index(spec.min_size, tab.sizes)
+    min_amp_i = ocpd_i = None
     term_tot, corr_tot = cols.term_total, cols.corrected_total
     if protect is None:
         protect = cols.protect_limit
     mina = spec.min_ampacity_a
     allow_tot = cols.allowable_total
-    passed = math.inf   # the least drop of a size meeting rules 1, 2 and 4 but not the limit
-    own = spec.max_drop_pct + _EPS   # this run's own target: the limit, unless the total is
-    own_i = None   # the first size passed over that meets it (the total was the tighter)
+    found: list[tuple[int, float]] = []
     for i in range(cols.first, len(z)):
         if term_tot[i] + _EPS < design or corr_tot[i] + _EPS < amps:
             continue
@@ -112,16 +105,51 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
             ocpd_i = i
         zi = z[i]
         if i >= floor_i and zi is not None:
-            pct = volts_per_ohm_kft * zi * pct_per_volt
-            if pct <= limit:
-                pick_i = i
-                break
-            if pct < passed:
-                passed = pct
-            if own_i is None and pct <= own:
-                own_i = i
+            found.append((i, zi))
+    return Candidates(floor_i, min_amp_i, ocpd_i, tuple(found))
 
-    # the size and what governed it
+
+def drop_scan(sizes: tuple[tuple[int, float], ...], volts_per_ohm_kft: float,
+              pct_per_volt: float, spec: RunSpec) -> tuple[int | None, float, int | None]:
+    """Rule 3 on the ``sizes`` rules 1, 2, 4 and 6 left (``Candidates.sizes``), for a run whose
+    drop is ``volts_per_ohm_kft`` [V] per ohm/kft of conductor impedance and ``pct_per_volt``
+    [%/V]: ``(the first size index within the limit, the least drop [%] of the sizes before
+    it, infinity where none, the first of those within the run's own target)``; None for the
+    index where no size is within the limit (``drop_limit`` of ``spec``)."""
+    limit = drop_limit(spec)
+    own = spec.max_drop_pct + _EPS   # this run's own target: the limit, unless the total is
+    passed = math.inf   # the least drop of a size meeting rules 1, 2 and 4 but not the limit
+    own_i = None   # the first size passed over that meets the run's own target
+    for i, zi in sizes:
+        pct = volts_per_ohm_kft * zi * pct_per_volt
+        if pct <= limit:
+            return i, passed, own_i
+        if pct < passed:
+            passed = pct
+        if own_i is None and pct <= own:
+            own_i = i
+    return None, passed, own_i
+
+
+def choose(spec: RunSpec, tab: MaterialTable, st: Setting, cand: Candidates, ocpd: int,
+           pick_i: int | None, own_i: int | None,
+           hint: Callable[[RunSpec, tuple[float | None, ...]], str] | None, notes: list[str],
+           problems: list[str], small_rule: bool = True) -> tuple[int, str, int | None]:
+    """The phase conductor of the run: the size the user fixed (``spec.size``), else the
+    smallest meeting rules 1 to 4 (``pick_i`` of ``drop_scan``), else, where the total target is
+    what no size meets because of the drop up to the source, the size the run's own target asks
+    (``own_i``), else (nothing meets them all) the largest the drop method covers, with a
+    problem saying so and ``hint(spec, z)`` (how many sets in parallel would; ``z`` the
+    impedance column). ``ocpd`` is the device [A]; ``small_rule`` False where 240.4(D) does not apply (240.4(G)).
+    Returns ``(size index, governed by, the 240.4(D) limit of the size [A] or None)``; the notes
+    and problems of the choice, of 240.4(D) and of 310.10(G) are added to ``notes`` and
+    ``problems``. Only the last two cases read the run's length and upstream drop."""
+    material, sets = spec.material, spec.sets
+    cols, z = st.cols, st.z
+    mat = MAT[material]
+    sizes = tab.sizes
+    floor_i, min_amp_i, ocpd_i = cand.floor_i, cand.min_amp_i, cand.ocpd_i
+    mina = spec.min_ampacity_a
     if spec.size is not None:
         size = canonical(spec.size)
         if size not in sizes:
@@ -167,7 +195,7 @@ def pick_conductor(spec: RunSpec, tab: MaterialTable, st: Setting, design: float
         else:
             notes.append(f"NEC 310.10(G): {sets} sets in parallel, "
                          f"{amps_text(cols.allowable_total[i] / sets)} each")
-    return i, governed_by, min_amp_i, ocpd_i, pick_i, sm, passed
+    return i, governed_by, sm
 
 
 def _governed(i: int, floor_i: int, min_amp_i: int | None, ocpd_i: int | None,

@@ -1,8 +1,10 @@
 """The engine's own check of a ``RunSpec``: a spec it cannot evaluate is refused with the field
 named, before any table is read.
 
-Public API: ``SizingError``; ``check_spec(spec)``. The words and limits come from
-``gaugewalk.model.engine.vocabulary`` (materials, methods, terminal ratings, sets).
+Public API: ``SizingError``; ``check_spec(spec)``; ``check_run_drop(spec)`` (the two fields a
+spec prepared once for many runs leaves out: ``length_ft``, ``upstream_drop_pct``). The words
+and limits come from ``gaugewalk.model.engine.vocabulary`` (materials, methods, terminal
+ratings, sets).
 """
 
 from __future__ import annotations
@@ -71,6 +73,15 @@ def check_spec(spec: RunSpec) -> None:
             and spec.motor_feeder_max_a is None and spec.lugs_bus_a is None):
         return
     _check_spec_fields(spec)
+
+
+def check_run_drop(spec: RunSpec) -> None:
+    """``check_spec`` for a spec whose other fields passed it already, in a spec equal to it
+    but for ``length_ft`` and ``upstream_drop_pct`` (``evaluate.evaluate_picked``): those two
+    checked, the first bad field named as ``check_spec`` names it."""
+    ln, up = spec.length_ft, spec.upstream_drop_pct
+    if not (ln.__class__ in _NUMBER and 0 < ln < math.inf and 0 <= up < math.inf):
+        _check_spec_fields(spec)
 
 
 def _check_spec_fields(spec: RunSpec) -> None:
