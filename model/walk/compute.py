@@ -35,6 +35,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import MISSING, dataclass, field, fields
+from operator import itemgetter
 from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
@@ -43,7 +44,7 @@ from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fi
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.currents import design_current
-from gaugewalk.model.engine.sizing.evaluate import Prepared
+from gaugewalk.model.engine.sizing.evaluate import Prepared, finish_prepared, prepared_for
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
@@ -286,10 +287,20 @@ def _motors_fed(job: Job, result: JobResult, run: Run, is_feeder: bool) -> Motor
     return result.motor_groups.get(run.to)
 
 
+_NOT_SPEC_INPUTS = frozenset({"id", "from_", "to", "length", "segments", "connection",
+                              "position", "phase", "basis", "bends", "raceway_id", "measured_on",
+                              "notes", "load"})
+"""The fields of a ``Run`` that ``_spec`` does not read for a branch (its length is set apart, its
+connection is in its circuit, its load is read whole): ``WalkState.branch_spec`` keys the
+branches alike on all the others, so a field added to ``Run`` is in that key unless named here."""
+_spec_inputs = itemgetter(*(name for name in Run.model_fields if name not in _NOT_SPEC_INPUTS))
+
+
 def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Circuit,
           feeder: bool, feed: Feed | None, rule: FeederRule | None = None,
           motors: MotorGroup | None = None, ccc: int | None = None) -> RunSpec:
-    """The run's ``RunSpec``, from ``base`` (``_spec_base`` of the job's defaults)."""
+    """The run's ``RunSpec``, from ``base`` (``_spec_base`` of the job's defaults). For a branch
+    it reads no field of the run named in ``_NOT_SPEC_INPUTS`` but its length."""
     # fields read from the models' __dict__: attribute access on a pydantic model passes its
     # __getattr__ hook first, and this runs once per run of every computation
     d = job.defaults.__dict__
@@ -387,6 +398,7 @@ class WalkState:
         # what the runs of this computation share, by spec but for length and upstream drop
         # (``gaugewalk.model.engine.sizing.evaluate_picked``)
         self.prepared: dict[tuple, Prepared] = {}
+        self.branch_specs: dict[tuple, tuple[dict, Prepared]] = {}   # ``branch_spec``
 
     def fail(self, run: Run, message: str, field_name: str | None = None) -> None:
         self.result._run_problems[run.id] = [Problem("", None, "run", run.id, field_name, message)]
@@ -560,28 +572,33 @@ class WalkState:
         (``gaugewalk.model.walk.recompute``), taken as its spec where the run is a branch on a
         panel or service, whose spec nothing else above it enters."""
         res = self.result
-        res._run_problems.pop(r.id, None)
-        circuit = res._circuits.get(r.id)
+        rf = r.__dict__   # the model's fields read from its __dict__, as in ``_spec``
+        rid = rf["id"]
+        # every way on writes the run's problems or clears them (``fail``, ``store``)
+        circuit = res._circuits.get(rid)
         if circuit is None:
             circuit = self.resolve_circuit(r)
             if circuit is None:
                 self.forget(r)
                 return
-        is_feeder = self.walk.feeder.get(r.to) is r
-        from_transformer = r.from_ in self.walk.transformers
+        walk = self.walk
+        is_feeder = walk.feeder.get(rf["to"]) is r
+        from_transformer = rf["from_"] in walk.transformers
         if not (is_feeder or from_transformer or self.shared_ccc):
             # a branch run on a panel or service: its own load, no feeder rule, no motors fed,
             # no shared raceway (the rest of this method with all of those None)
             try:
-                spec = (moved if moved is not None
-                        else _spec(self.spec_base, self.job, r, upstream, circuit, False, None))
-                result, passed = evaluate_picked(spec, self.prepared)
+                if moved is not None:
+                    spec, prep = moved, prepared_for(moved, self.prepared)
+                else:
+                    spec, prep = self.branch_spec(r, upstream, circuit)
+                result, passed = finish_prepared(prep, spec)
             except (LoadError, CircuitError, ValueError) as exc:
                 self.forget(r)
                 self.fail(r, str(exc))
                 return
-            res._specs[r.id] = spec
-            res._passed[r.id] = passed
+            res._specs[rid] = spec
+            res._passed[rid] = passed
             self.store(r, result, False, spec)
             return
         feed = res._feeds.get(r.to) if is_feeder else None
@@ -634,6 +651,29 @@ class WalkState:
             res.feeders[r.id] = info._replace(demand=steps) if steps else info
         self.store(r, result, is_feeder, spec)
 
+    def branch_spec(self, r: Run, upstream: float, circuit: Circuit) -> tuple[RunSpec, Prepared]:
+        """The spec of branch ``r`` below a bus at ``upstream`` [%] (``_spec``), with its
+        preparation (``prepared_for``): made once for the branches alike, those on the same
+        circuit with the same load and the same say on every field ``_spec`` reads (all but
+        ``_NOT_SPEC_INPUTS``), and given each one's own length and upstream drop. Raises
+        ``LoadError``, ``CircuitError`` or ``ValueError`` as ``_spec`` and the engine do."""
+        rf = r.__dict__
+        load = rf["load"]
+        key = (circuit, None if load is None else tuple(load.__dict__.values()),
+               _spec_inputs(rf))
+        alike = self.branch_specs.get(key)
+        if alike is None:
+            spec = _spec(self.spec_base, self.job, r, upstream, circuit, False, None)
+            prep = prepared_for(spec, self.prepared)
+            self.branch_specs[key] = (spec.__dict__, prep)
+            return spec, prep
+        values = alike[0].copy()
+        values["length_ft"] = r.length_ft
+        values["upstream_drop_pct"] = upstream
+        spec = _new_object(RunSpec)
+        _set_attr(spec, "__dict__", values)
+        return spec, alike[1]
+
     def with_demand(self, r: Run, feed: Feed) -> tuple[Feed, tuple[DemandStep, ...]]:
         """What feeder ``r`` carries with the job's demand factors taken (``Defaults.demand``:
         NEC 220.44, 220.60), and the steps; a transformer's primary takes none."""
@@ -670,15 +710,16 @@ class WalkState:
 
     def store(self, r: Run, result: RunResult, is_feeder: bool, spec: RunSpec) -> None:
         res = self.result
-        res.runs[r.id] = result
-        res.run_total_drop_pct[r.id] = result.total_drop_pct
-        if result.problems:
-            res._run_problems[r.id] = [Problem("", None, "run", r.id, None, m)
-                                       for m in result.problems]
+        rid = r.__dict__["id"]
+        res.runs[rid] = result
+        res.run_total_drop_pct[rid] = result.total_drop_pct
+        problems = result.problems
+        if problems:
+            res._run_problems[rid] = [Problem("", None, "run", rid, None, m) for m in problems]
         else:
-            res._run_problems.pop(r.id, None)
+            res._run_problems.pop(rid, None)
         if is_feeder:
-            res.feeder_amps[r.id] = spec.amps
+            res.feeder_amps[rid] = spec.amps
             target = self.walk.sources[r.to]
             if target.kind == "transformer":
                 info = res.transformers.get(r.to)

@@ -106,17 +106,35 @@ def evaluate_picked(spec: RunSpec,
     result is the same as without it (``tests/engine/test_prepared.py``); the caller keeps it for
     one computation of specs of one kind (a walk's, from its validated models: the key compares
     fields by value, so a spec giving ``sets=2.0`` would meet the entry of ``sets=2``)."""
-    try:
-        if prepared is None:
-            check_spec(spec)
+    if prepared is None:
+        check_spec(spec)
+        try:
             return _evaluate_pick(spec, True)
-        key = _prepared_key(spec.__dict__)
-        prep = prepared.get(key)
-        if prep is None:
-            check_spec(spec)
+        except TableLookupError as exc:
+            raise SizingError(str(exc)) from None
+    return finish_prepared(prepared_for(spec, prepared), spec)
+
+
+def prepared_for(spec: RunSpec, prepared: dict[tuple, "Prepared"]) -> "Prepared":
+    """The preparation of ``spec`` in ``prepared`` (``evaluate_picked``), made there (the spec
+    checked) the first time a spec equal to it but for its length and upstream drop comes.
+    Raises ``SizingError``."""
+    key = _prepared_key(spec.__dict__)
+    prep = prepared.get(key)
+    if prep is None:
+        check_spec(spec)
+        try:
             prep = prepared[key] = prepare(spec)
-        else:
-            check_run_drop(spec)
+        except TableLookupError as exc:
+            raise SizingError(str(exc)) from None
+    return prep
+
+
+def finish_prepared(prep: "Prepared", spec: RunSpec) -> tuple[RunResult, float]:
+    """``evaluate_picked`` of ``spec`` from its preparation (``prepared_for``): its length and
+    upstream drop checked, then ``finish``. Raises ``SizingError``."""
+    check_run_drop(spec)
+    try:
         return finish(prep, spec)
     except TableLookupError as exc:
         raise SizingError(str(exc)) from None
@@ -243,6 +261,9 @@ class _Part(NamedTuple):
     governed_by: str
     z: float                           # [ohm/kft] the size's impedance for the drop method
     start_z: float | None              # [ohm/kft] the same while a motor starts; None: not worked
+    upsized: tuple[str, str] | None    # the words of the note of a size upsized for its drop,
+                                       # before and after the drop; None: not upsized for it
+    quotes_drop: bool                  # a note quotes the run's drop (upsized or starting)
     values: dict                       # RunResult's fields, the drop's not yet set
     conductors: dict[str, int]
     notes: tuple[str, ...]
@@ -273,10 +294,10 @@ def finish(prep: Prepared, spec: RunSpec, hint: bool = True) -> tuple[RunResult,
                              drop_length_ft(spec.length_ft, spec.distributed), spec.sets)
     pct_per_volt = prep.pct_per_volt
     pick_i, passed, own_i = drop_scan(prep.cand.sizes, volts_per_z, pct_per_volt, spec)
-    by_rules = spec.size is None and pick_i is not None
-    if by_rules or spec.size is not None:
+    fixed = spec.size is not None
+    if fixed or pick_i is not None:
         # the size the rules pick, or the fixed size: what follows is the same for every run
-        key = pick_i if pick_i is not None and spec.size is None else -1
+        key = -1 if fixed or pick_i is None else pick_i
         part = prep.parts.get(key)
         if part is None:
             part = prep.parts[key] = _part(prep, spec, pick_i, None, None)
@@ -288,35 +309,37 @@ def finish(prep: Prepared, spec: RunSpec, hint: bool = True) -> tuple[RunResult,
     vd_v = volts_per_z * part.z
     vd_pct = vd_v * pct_per_volt
     total_pct = spec.upstream_drop_pct + vd_pct
-    notes: list[str] = []
-    problems: list[str] = []
-    if not by_rules:
-        st = prep.st
-        cur = prep.cur
-        eq = spec.equipment
-        size_problems(part.values["size"], spec.material, st.term_col, cur.design_a, prep.need,
-                      cur.ocpd_a, part.term_total, part.corrected_total, part.allowable_total,
-                      part.protect_limit, part.small_max, vd_pct, total_pct, spec.max_drop_pct,
-                      spec.max_total_drop_pct, problems,
-                      cur.rule if eq is not None and eq.kind != "general" and cur.rule
-                      else "NEC 110.14(C)(1), 210.19(A)(1)",
-                      "NEC 630.12(B)" if cur.protection == WELDER_CONDUCTORS else "NEC 240.4")
-    start_pct = None
-    if part.start_z is not None:
-        start_pct = _starting_drop(spec, part.values["locked_rotor_a"], part.start_z, notes,
-                                   problems)
-    if part.governed_by == "voltage drop":
-        cand = prep.cand
-        base = material_table(spec.material).sizes[
-            cand.ocpd_i if cand.ocpd_i is not None else cand.min_amp_i or 0]
-        notes.append(f"upsized from {base} for voltage drop ({pct_text(vd_pct)} of "
-                     f"{circuit.volts:g} V)")
+    values = part.values.copy()
+    if fixed or pick_i is None or part.quotes_drop:
+        # the notes and problems that quote this run's drop, between the part's
+        notes: list[str] = []
+        problems: list[str] = []
+        if fixed or pick_i is None:
+            st = prep.st
+            cur = prep.cur
+            eq = spec.equipment
+            size_problems(values["size"], spec.material, st.term_col, cur.design_a, prep.need,
+                          cur.ocpd_a, part.term_total, part.corrected_total,
+                          part.allowable_total, part.protect_limit, part.small_max, vd_pct,
+                          total_pct, spec.max_drop_pct, spec.max_total_drop_pct, problems,
+                          cur.rule if eq is not None and eq.kind != "general" and cur.rule
+                          else "NEC 110.14(C)(1), 210.19(A)(1)",
+                          "NEC 630.12(B)" if cur.protection == WELDER_CONDUCTORS
+                          else "NEC 240.4")
+        if part.start_z is not None:
+            values["starting_drop_pct"] = _starting_drop(spec, values["locked_rotor_a"],
+                                                         part.start_z, notes, problems)
+        if part.upsized is not None:
+            notes.append(part.upsized[0] + pct_text(vd_pct) + part.upsized[1])
+        if notes:
+            values["notes"] = part.notes_a + tuple(notes) + part.notes_b
+        if problems:
+            values["problems"] = part.problems_a + tuple(problems) + part.problems_b
 
     amp_margin, terminal_margin, corrected_margin, device_margin = part.margins
     # Built without the per-field object.__setattr__ of a frozen dataclass's __init__ (a third
     # of the engine's time per run): a copy of the part's fields, with the drop's set
     result = _new_object(RunResult)
-    values = part.values.copy()
     values["voltage_drop_v"] = vd_v
     values["voltage_drop_pct"] = vd_pct
     values["total_drop_pct"] = total_pct
@@ -329,12 +352,6 @@ def finish(prep: Prepared, spec: RunSpec, hint: bool = True) -> tuple[RunResult,
         "total_drop_pct": spec.max_total_drop_pct - total_pct,
     }
     values["conductors"] = part.conductors.copy()
-    if notes:
-        values["notes"] = part.notes_a + tuple(notes) + part.notes_b
-    if problems:
-        values["problems"] = part.problems_a + tuple(problems) + part.problems_b
-    if start_pct is not None:
-        values["starting_drop_pct"] = start_pct
     _set_attr(result, "__dict__", values)
     return result, passed
 
@@ -444,7 +461,13 @@ def _part(prep: Prepared, spec: RunSpec, pick_i: int | None, own_i: int | None,
         values["flc_a"] = cur.flc_a
         values["locked_rotor_a"] = lra
     values["kind_rule"] = cur.rule
-    return _Part(i, governed_by, zi, start_z, values,
+    upsized = None
+    if governed_by == "voltage drop":
+        base = tab.sizes[cand.ocpd_i if cand.ocpd_i is not None else cand.min_amp_i or 0]
+        upsized = (f"upsized from {base} for voltage drop (",
+                   f" of {circuit.volts:g} V)")   # the drop's percent between (``pct_text``)
+    return _Part(i, governed_by, zi, start_z, upsized,
+                 upsized is not None or start_z is not None, values,
                  {"hot": hots, "neutral": neutral, "egc": n_egc}, values["notes"],
                  values["problems"], notes_a, notes_b, problems_a, er_problems, term_total,
                  corrected_total, allowable_total, protect_limit, sm,
