@@ -15,7 +15,7 @@ from gaugewalk.model.engine.circuits import circuit_from_volts
 from gaugewalk.model.engine.contract import Equipment, RunResult, RunSpec, with_fields
 from gaugewalk.model.engine.sizing import SizingError, evaluate, evaluate_picked
 from gaugewalk.model.walk import compute as compute_module
-from gaugewalk.model.walk.compute import compute_job
+from gaugewalk.model.walk.compute import WalkState, compute_job
 from gaugewalk.model.walk.job import Job
 from gaugewalk.model.walkfile.read import load_walk
 from tests.support.paths import SAMPLES
@@ -71,25 +71,46 @@ def test_each_run_prepared_once_for_all_alike_is_what_it_is_evaluated_alone(name
         assert len(prepared) < len(specs) / 4
 
 
-@pytest.mark.parametrize("name", ["retail_fitout", "synthetic 500 seed 7",
+@pytest.mark.parametrize("name", ["retail_fitout", "warehouse_dc2", "synthetic 500 seed 7",
                                   "minimum size, DC method, fixed sizes"])
 def test_a_walk_computed_with_its_runs_prepared_is_the_walk_computed_run_by_run(name, monkeypatch):
     job = WALKS[name]()
     warm = compute_job(job)
+    branch_spec = WalkState.branch_spec
 
-    def each_alone(spec, prepared=None):
-        prepared.clear()   # the table the walk keeps, emptied before every run: a cold path
+    # cold: the tables the computation keeps emptied before every run
+    def cold_branch(state, r, upstream, circuit):
+        state.branch_specs.clear()
+        state.prepared.clear()
+        return branch_spec(state, r, upstream, circuit)
+
+    def cold_feeder(spec, prepared=None):
+        prepared.clear()
         return evaluate_picked(spec, prepared)
 
-    monkeypatch.setattr(compute_module, "evaluate_picked", each_alone)
-    cold = compute_job(job)
-    monkeypatch.setattr(compute_module, "evaluate_picked", lambda spec, prepared=None:
-                        evaluate_picked(spec))
-    plain = compute_job(job)
+    with monkeypatch.context() as patch:
+        patch.setattr(WalkState, "branch_spec", cold_branch)
+        patch.setattr(compute_module, "evaluate_picked", cold_feeder)
+        cold = compute_job(job)
+
+    # plain: every run's spec from ``_spec`` and evaluated alone, no table at all
+    def plain_branch(state, r, upstream, circuit):
+        return compute_module._spec(state.spec_base, state.job, r, upstream, circuit, False,
+                                    None), None
+
+    with monkeypatch.context() as patch:
+        patch.setattr(WalkState, "branch_spec", plain_branch)
+        patch.setattr(compute_module, "finish_prepared", lambda prep, spec: evaluate_picked(spec))
+        patch.setattr(compute_module, "evaluate_picked",
+                      lambda spec, prepared=None: evaluate_picked(spec))
+        plain = compute_job(job)
+
     for other in (cold, plain):
         assert other.runs.keys() == warm.runs.keys()
         for rid in warm.runs:
             _same(warm.runs[rid], other.runs[rid], f"{name} {rid}")
+        assert other._specs == warm._specs
+        assert other._passed == warm._passed
         assert other.problems == warm.problems
         assert other.source_drop_pct == warm.source_drop_pct
 

@@ -291,13 +291,18 @@ def test_runs_picked_for_their_drop_keep_their_size_unevaluated_when_the_drop_ab
     job = synthetic_walk(1300, seed=11)
     result = compute_job(job)
     evaluated: list[str] = []
-    real = computing.evaluate_picked
+    real, real_finish = computing.evaluate_picked, computing.finish_prepared
 
     def counting(spec, prepared=None):
         evaluated.append(spec)
         return real(spec, prepared)
 
+    def counting_finish(prep, spec):   # a branch: its spec prepared, then evaluated here
+        evaluated.append(spec)
+        return real_finish(prep, spec)
+
     monkeypatch.setattr(computing, "evaluate_picked", counting)
+    monkeypatch.setattr(computing, "finish_prepared", counting_finish)
     rng = random.Random(3)
     branches = [r for r in job.runs if r.load is not None and not job.is_feeder(r)]
     kept = 0   # runs picked for their drop, upstream fallen, size kept without an evaluation
