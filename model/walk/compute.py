@@ -393,6 +393,7 @@ class WalkState:
         self.job = walk.job if walk is not None else job
         self.result = result
         self._circuit_cache: dict[tuple[str, str, bool], Circuit] = {}
+        self._own_cache: dict[tuple, OwnLoad | None] = {}   # (circuit key, load): its OwnLoad
         self.spec_base = _spec_base(self.job.defaults.__dict__)   # what every run's spec starts as
         self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
         # what the runs of this computation share, by spec but for length and upstream drop
@@ -404,37 +405,62 @@ class WalkState:
         self.result._run_problems[run.id] = [Problem("", None, "run", run.id, field_name, message)]
 
     def resolve_circuit(self, run: Run) -> Circuit | None:
+        """The run's circuit from its source's system and its connection, and its own load
+        (``own_load``), stored in the result; None (and a problem) where the system cannot give
+        that connection. Within one computation each distinct (system, connection) is resolved
+        once, and each distinct general load on it is read once: runs alike share one
+        ``OwnLoad`` (the same object), since ``own_load`` of a general load reads only its value,
+        unit and power factor, whether the run is continuous, the circuit and the job's
+        power factor."""
+        # fields read from the models' __dict__ (as in ``_spec``): once per run
+        rf = run.__dict__
+        rid = rf["id"]
         sources = self.walk.sources
-        source = sources[run.from_]
-        conn = run.connection
+        source = sources[rf["from_"]]
+        system = source.system
+        conn = rf["connection"]
         unstated = False
         if conn is None:
-            target = sources.get(run.to)
-            conn = default_connection(source.system, target is not None and target.kind == "transformer")
+            target = sources.get(rf["to"])
+            conn = default_connection(system, target is not None and target.kind == "transformer")
             unstated = target is None  # a branch run: its circuit was the walker's to state
-        key = (source.system, conn, unstated)
+        key = (system, conn, unstated)
+        res = self.result
         c = self._circuit_cache.get(key)
         if c is None:
             try:
-                c = resolve_circuit(source.system, conn)
+                c = resolve_circuit(system, conn)
             except CircuitError as exc:
                 self.fail(run, str(exc), "connection")
-                self.result._circuits.pop(run.id, None)
-                self.result._own[run.id] = None
+                res._circuits.pop(rid, None)
+                res._own[rid] = None
                 return None
-            note = unstated_circuit_note(source.system, conn) if unstated else None
+            note = unstated_circuit_note(system, conn) if unstated else None
             if note is not None:
                 c = c._replace(notes=(note, *c.notes))
             self._circuit_cache[key] = c
-        self.result._circuits[run.id] = c
-        self.result._own[run.id] = (own_load(run, c, self.job.defaults.pf)
-                                    if run.load is not None else None)
+        res._circuits[rid] = c
+        load = rf["load"]
+        if load is None:
+            res._own[rid] = None
+            return c
+        ld = load.__dict__
+        if ld["kind"] != "general":   # its kind's reading takes more of the run
+            res._own[rid] = own_load(run, c, self.job.defaults.pf)
+            return c
+        alike = (key, ld["value"], ld["unit"], ld["pf"], rf["continuous"])
+        own = self._own_cache.get(alike, _GONE)
+        if own is _GONE:
+            own = self._own_cache[alike] = own_load(run, c, self.job.defaults.pf)
+        res._own[rid] = own
         return c
 
     def resolve_circuits(self) -> None:
+        sources = self.walk.sources
+        resolve = self.resolve_circuit
         for r in self.job.runs:
-            if r.from_ in self.walk.sources:
-                self.resolve_circuit(r)
+            if r.__dict__["from_"] in sources:
+                resolve(r)
 
     # -- bottom-up: placing and summing ------------------------------------------------------
     def sum_all(self) -> None:
@@ -456,14 +482,17 @@ class WalkState:
         own, feeds, run_va = res._own, res._feeds, res.run_va
         feeder_of = walk.feeder
         for r in children:   # what was placed before (an update in place), and each run's VA
-            rid = r.id
+            rf = r.__dict__
+            rid = rf["id"]
             place_problems.pop(rid, None)
             placements.pop(rid, None)
             mine = own.get(rid)
             if mine is not None:
                 run_va[rid] = mine.load.va
-            elif feeder_of.get(r.to) is r and r.to in feeds:
-                run_va[rid] = feeds[r.to].load.va
+                continue
+            to = rf["to"]
+            if feeder_of.get(to) is r and to in feeds:
+                run_va[rid] = feeds[to].load.va
             else:
                 run_va.pop(rid, None)
         placements.update(outcome.placements)
@@ -498,11 +527,16 @@ class WalkState:
         pf = self.job.defaults.pf
         groups: list[MotorGroup | None] = []
         only = True
+        circuits = res._circuits
         for r in walk.children[sid]:
-            if r.load is not None:
-                circuit = res._circuits.get(r.id)
-                mine = (run_motor(r, circuit, pf) if circuit is not None
-                        and r.load.kind in ("motor", "hvac") else None)
+            rf = r.__dict__
+            load = rf["load"]
+            if load is not None:
+                if load.__dict__["kind"] not in ("motor", "hvac"):
+                    only = False   # a load of another kind: no motor of this run
+                    continue
+                circuit = circuits.get(rf["id"])
+                mine = run_motor(r, circuit, pf) if circuit is not None else None
                 only = only and mine is not None
                 groups.append(mine)
             elif walk.feeder.get(r.to) is r:

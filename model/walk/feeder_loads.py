@@ -57,8 +57,8 @@ from gaugewalk.model.walk.phases import (
     Share,
     design_line,
     line_phasors,
-    one_on,
     place,
+    share_on,
 )
 
 SQRT3 = math.sqrt(3.0)
@@ -103,17 +103,23 @@ class OwnLoad:
     """A run's own load on its circuit: the line current ``amps`` [A] as a phasor lagging its
     voltage by the power-factor angle (``phasor``), whether it is ``continuous``, whether it
     lies between two lines (``ll``: line-to-line) or on each line it takes (line-to-neutral,
-    multiwire legs, three-phase), and its ``load`` [VA, VA, W]."""
+    multiwire legs, three-phase), and its ``load`` [VA, VA, W]; for placing it, its circuit's
+    ``hots``, its design current on each (``mags`` [A]: 125 % of a continuous load, NEC
+    215.2(A)(1)) and its ``size`` (the current on all of them [A]), by which the largest loads
+    are placed first."""
 
-    __slots__ = ("amps", "phasor", "continuous", "ll", "load")
+    __slots__ = ("amps", "phasor", "continuous", "ll", "load", "hots", "mags", "size")
 
     def __init__(self, amps: float, phasor: complex, continuous: bool, ll: bool,
-                 load: FeederLoad) -> None:
+                 load: FeederLoad, hots: int) -> None:
         self.amps = amps
         self.phasor = phasor
         self.continuous = continuous
         self.ll = ll
         self.load = load
+        self.hots = hots
+        self.mags = ((1.25 if continuous else 1.0) * amps,) * hots
+        self.size = amps * hots
 
 
 def own_load(run: Run, circuit: Circuit, default_pf: float) -> OwnLoad | None:
@@ -141,11 +147,14 @@ def own_load(run: Run, circuit: Circuit, default_pf: float) -> OwnLoad | None:
     phasor = cmath.rect(amps, -math.acos(min(1.0, pf)))
     ll = circuit.hots == 2 and circuit.phases == 1 and circuit.drop_factor == 2.0
     return OwnLoad(amps, phasor, continuous, ll,
-                   feeder_load(va, va if continuous else 0.0, watts))
+                   feeder_load(va, va if continuous else 0.0, watts), circuit.hots)
 
 
-class _OwnShare:
-    """``PlaceItem.share`` of a run's own load on a source whose lines are ``u``."""
+class _BetweenShare:
+    """``PlaceItem.share`` of a run's own load between its two lines (``OwnLoad.ll``) on a
+    source whose lines are ``u``: +I on the first and -I on the second, at the angle of the
+    voltage between them. (Any other load's current on each line it takes is its phasor at that
+    line's angle: ``PlaceItem.each``.)"""
 
     __slots__ = ("u", "own")
 
@@ -155,15 +164,10 @@ class _OwnShare:
 
     def __call__(self, lines: tuple[int, ...]) -> list[tuple[int, complex, complex]]:
         own, u = self.own, self.u
-        p = own.phasor
-        if own.ll and len(lines) == 2:
-            d = u[lines[0]] - u[lines[1]]
-            cur = p * d / abs(d)
-            c = cur if own.continuous else 0j
-            return [(lines[0], cur, c), (lines[1], -cur, -c)]
-        if own.continuous:
-            return [(k, p * u[k], p * u[k]) for k in lines]
-        return [(k, p * u[k], 0j) for k in lines]
+        d = u[lines[0]] - u[lines[1]]
+        cur = own.phasor * d / abs(d)
+        c = cur if own.continuous else 0j
+        return [(lines[0], cur, c), (lines[1], -cur, -c)]
 
 
 class Lines(NamedTuple):
@@ -329,24 +333,35 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
     va = cva = watts = 0.0
     feeder = graph.feeder
     for r in graph.children[source_id]:
-        circuit = circuits.get(r.id)
+        rf = r.__dict__   # fields read from the model's __dict__, once per run (as in compute)
+        rid = rf["id"]
+        circuit = circuits.get(rid)
         if circuit is None:
             continue
-        mine = own.get(r.id)
-        one = None
+        mine = own.get(rid)
+        each = None
         share: Share | None
+        position, phase = rf["position"], rf["phase"]
         if mine is not None:
-            size = mine.amps * circuit.hots
+            hots = mine.hots
             load = mine.load
-            mags = ((1.25 if mine.continuous else 1.0) * mine.amps,) * circuit.hots
-            if circuit.hots == 1 and r.position is None and r.phase is None:
-                # placed by the fast path for one pole, which needs no share
-                one = (mine.phasor, mine.continuous, u)
+            poles = (hots if hots < n else n) if n > 1 else 1
+            if mine.ll and poles == 2:
+                share = _BetweenShare(u, mine)
+            else:   # its current on each line it takes is its phasor at that line's angle
+                each = (mine.phasor, mine.continuous, u)
                 share = None
-            else:
-                share = _OwnShare(u, mine)
-        elif feeder.get(r.to) is r and r.to in feeds:
-            f = feeds[r.to]
+            va += load.va
+            cva += load.continuous_va
+            watts += load.watts
+            items.append(PlaceItem(rid, poles, position, phase, share, mine.size, mine.mags,
+                                   poles == n, each))
+            if groups:
+                whose.append((r, mine))
+            continue
+        to = rf["to"]
+        if feeder.get(to) is r and to in feeds:
+            f = feeds[to]
             share = _FeedShare(u, f)
             mags = tuple(design_line(t, c) for t, c in zip(f.total, f.continuous, strict=True))
             if f.frame == "winding":
@@ -361,8 +376,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         poles = min(circuit.hots, n) if n > 1 else 1
         if groups:
             whose.append((r, mine))
-        items.append(PlaceItem(r.id, poles, r.position, r.phase, share, size, mags,
-                               mine is not None and poles == n, one))
+        items.append(PlaceItem(rid, poles, position, phase, share, size, mags))
     outcome = place(items, n, source.spaces)
     has_neutral = SYSTEMS[source.system].has_neutral
     kinds = _group_sums(items, whose, outcome, feeds, u, has_neutral) if groups else ()
@@ -402,12 +416,7 @@ def _group_sums(items: list[PlaceItem], whose: list[tuple[Run, OwnLoad | None]],
             group = DEMAND_GROUPS.get(r.load.kind) if r.load is not None else None
             if group is None:
                 continue
-            if it.share is not None:
-                share = it.share(placed.lines)
-            else:
-                t, c = one_on(it.one, placed.lines[0])
-                share = ((placed.lines[0], t, c),)
-            add_to(group, share, mine.load)
+            add_to(group, share_on(it, placed.lines), mine.load)
             continue
         fed = feeds.get(r.to)
         for group, part in fed.kinds if fed is not None else ():

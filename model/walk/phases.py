@@ -36,6 +36,7 @@ import cmath
 import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass, field
+from operator import attrgetter
 from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import SYSTEMS
@@ -76,7 +77,11 @@ def position_lines(position: int, poles: int, n_lines: int) -> tuple[int, ...]:
 
 def position_span(position: int, poles: int) -> tuple[int, ...]:
     """Positions a ``poles``-pole circuit at ``position`` takes: p, p+2, ..."""
-    return tuple(position + 2 * k for k in range(poles))
+    if poles == 1:
+        return (position,)
+    if poles == 2:
+        return (position, position + 2)
+    return tuple(range(position, position + 2 * poles, 2))
 
 
 _PAIRS = {frozenset((0, 1)): "AB", frozenset((1, 2)): "BC", frozenset((0, 2)): "CA"}
@@ -113,18 +118,19 @@ class PlaceItem:
     them (None: not given); ``share(lines)`` its line currents; ``size`` orders the greedy
     (largest first); ``mags`` its design current on each of its poles [A], by which the greedy
     weighs the lines; ``balanced``: every rotation of its lines loads them alike (a balanced
-    three-phase load), so only the first with a free space is tried; ``one``: for a one-pole
-    run without a share, (its current [A, phasor against its line's voltage], whether it is
-    continuous, the source's line phasors), its current on line k being ``phasor * u[k]``,
-    worked out only for the lines it is tried on (the usual run, placed fastest)."""
+    three-phase load), so only the first with a free space is tried; ``each``: for a run
+    without a share, whose current on each line k it takes is ``phasor * u[k]`` (a run's own
+    load, unless it lies between its two lines), (``phasor`` [A, against its line's
+    voltage], whether it is continuous, ``u`` the source's line phasors), worked out only for
+    the lines it is placed on (the usual run, placed fastest)."""
 
     __slots__ = ("key", "poles", "position", "phase", "share", "size", "mags", "balanced",
-                 "one")
+                 "each")
 
     def __init__(self, key: str, poles: int, position: int | None, phase: str | None,
                  share: Share | None, size: float, mags: tuple[float, ...],
                  balanced: bool = False,
-                 one: tuple[complex, bool, tuple[complex, ...]] | None = None) -> None:
+                 each: tuple[complex, bool, tuple[complex, ...]] | None = None) -> None:
         self.key = key
         self.poles = poles
         self.position = position
@@ -133,14 +139,21 @@ class PlaceItem:
         self.size = size
         self.mags = mags
         self.balanced = balanced
-        self.one = one
+        self.each = each
 
 
-def one_on(one: tuple[complex, bool, tuple[complex, ...]], k: int) -> tuple[complex, complex]:
-    """A one-pole run's (current, continuous part) on line ``k`` [A, phasors]."""
-    phasor, continuous, u = one
-    t = phasor * u[k]
-    return t, (t if continuous else 0j)
+def share_on(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, complex, complex]]:
+    """The line currents of ``it`` on ``lines``: (line, current, continuous part) [A, phasors],
+    from its share, or from ``each``."""
+    if it.share is not None:
+        return it.share(lines)
+    assert it.each is not None, "a run to place has a share or its current on each line"
+    phasor, continuous, u = it.each
+    out = []
+    for k in lines:
+        t = phasor * u[k]
+        out.append((k, t, t if continuous else 0j))
+    return out
 
 
 @dataclass
@@ -202,7 +215,8 @@ class _Spaces:
             if spaces is not None and p + last > spaces:
                 self._next[key] = index
                 return None
-            if p not in taken and (poles == 1 or self._fits(p, poles)):
+            if p not in taken and (poles == 1 or (p + 2 not in taken and (
+                    poles == 2 or p + 4 not in taken))):   # ``_fits``, written out
                 self._next[key] = index
                 return p
             index += 1
@@ -235,15 +249,6 @@ def _add(total: list[complex], cont: list[complex],
         cont[k] += c
 
 
-def _share(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, complex, complex]]:
-    """The line currents of ``it`` on ``lines``: its share, or its worked-out one-pole lines."""
-    if it.share is not None:
-        return it.share(lines)
-    assert it.one is not None, "a run to place has a share or its one-pole current"
-    t, c = one_on(it.one, lines[0])
-    return ((lines[0], t, c),)
-
-
 def _heaviest(total: Sequence[complex], cont: Sequence[complex]) -> float:
     return max(design_line(t, c) for t, c in zip(total, cont, strict=True))
 
@@ -257,6 +262,9 @@ def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> Place
     rest: list[PlaceItem] = []
     by_phase: list[tuple[PlaceItem, tuple[int, ...]]] = []
     for it in items:
+        if it.phase is None and it.position is None:   # the usual run: placed here
+            rest.append(it)
+            continue
         stated = _stated_lines(it, n_lines, out.problems)
         if it.position is None:
             if stated is not None:
@@ -281,7 +289,7 @@ def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> Place
         for q in span:
             owner.setdefault(q, it.key)
         out.placements[it.key] = Placement(lines, span, phase_name(lines), "position")
-        _add(total, cont, _share(it, lines))
+        _add(total, cont, share_on(it, lines))
     free = _Spaces(n_lines, spaces, set(owner))
     for it, lines in by_phase:
         p = free.first_free(lines[0], it.poles)
@@ -292,7 +300,7 @@ def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> Place
             free.take(p, it.poles)
             positions = position_span(p, it.poles)
         out.placements[it.key] = Placement(lines, positions, phase_name(lines), "phase")
-        _add(total, cont, _share(it, lines))
+        _add(total, cont, share_on(it, lines))
     if rest:
         _place_rest(rest, n_lines, spaces, free, out)
     return out
@@ -366,75 +374,130 @@ def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[comp
     singles = _SINGLES[n_lines]
     limited = free.spaces is not None
     lines_of = range(n_lines)
-    for it in sorted(rest, key=_by_size):  # stable: file order among equals
+    taken, resume = free.taken, free._next
+    for it in sorted(rest, key=_SIZE, reverse=True):  # stable: file order among equals
         poles = it.poles
-        one = it.one
-        if one is not None:
+        each = it.each
+        if poles == 1 and each is not None and it.phase is None:
             # one pole: the least loaded line with a free position, the first of equals
-            k = -1
-            at_k = None   # the free position on line k, looked up once
-            for j in lines_of:
-                if k < 0 or load[j] < load[k] - _EPS:
-                    at_j = first_free(j, 1) if limited else None
-                    if limited and at_j is None:
-                        continue
-                    k, at_k = j, at_j
-            if k < 0:
-                problems.append((it.key, "position", _no_space(1, (0,), free.spaces)))
-                k, at = 0, ()
+            if limited:
+                k = -1
+                at_k = None   # the free position on line k, looked up once
+                for j in lines_of:
+                    if k < 0 or load[j] < load[k] - _EPS:
+                        at_j = first_free(j, 1)
+                        if at_j is None:
+                            continue
+                        k, at_k = j, at_j
+                if k < 0:
+                    problems.append((it.key, "position", _no_space(1, (0,), free.spaces)))
+                    k, at = 0, ()
+                else:
+                    taken.add(at_k)
+                    at = (at_k,)
             else:
-                p = at_k if limited else first_free(k, 1)
-                free.taken.add(p)
+                # the same choice without a limit on the spaces, and ``first_free(k, 1)``
+                # written out (every run of a walk that places none itself comes here)
+                k = 0
+                if n_lines > 1:
+                    if load[1] < load[0] - _EPS:
+                        k = 1
+                    if n_lines > 2 and load[2] < load[k] - _EPS:
+                        k = 2
+                index = resume.get(k * 4 + 1, 0)
+                while True:
+                    p = 2 * (k + n_lines * (index >> 1)) + 1 + (index & 1)
+                    if p not in taken:
+                        break
+                    index += 1
+                resume[k * 4 + 1] = index
+                taken.add(p)
                 at = (p,)
             load[k] += it.mags[0]
-            phasor, continuous, u = one
+            phasor, continuous, u = each
             t = phasor * u[k]
             total[k] += t
             cont[k] += t if continuous else 0j
-            placements[it.key] = Placement(singles[k], at, LINE_NAMES[k], "placed")
+            placements[it.key] = _tuple_new(Placement, (singles[k], at, LINE_NAMES[k], "placed"))
             continue
-        choices = options(poles, n_lines)
+        choices = _OPTIONS[poles][n_lines] if poles <= 3 else options(poles, n_lines)
         mags = it.mags
         best = None
-        best_worst = best_touched = 0.0
-        for lines in choices:
-            if it.balanced and best is not None:
-                break  # every rotation loads the lines alike: the first with a space will do
-            p = first_free(lines[0], poles)
-            if p is None:
-                continue
-            new = load[:]
-            touched = 0.0
-            for k, m in zip(lines, mags, strict=False):
-                new[k] += m
-                touched += new[k]
-            worst = max(new)
-            if (best is None or worst < best_worst - _EPS
-                    or (worst < best_worst + _EPS and touched < best_touched - _EPS)):
-                best = (lines, p)
-                best_worst, best_touched = worst, touched
+        if not limited:
+            # every choice has a free position: weigh the lines alone, then find the position
+            # of the one chosen
+            if it.balanced:
+                lines = choices[0]   # every rotation loads the lines alike: the first
+            else:
+                best_worst = best_touched = 0.0
+                for option in choices:
+                    new = load[:]
+                    touched = 0.0
+                    for k, m in zip(option, mags, strict=False):
+                        new[k] += m
+                        touched += new[k]
+                    worst = max(new)
+                    if (best is None or worst < best_worst - _EPS
+                            or (worst < best_worst + _EPS and touched < best_touched - _EPS)):
+                        best = option
+                        best_worst, best_touched = worst, touched
+                lines = best
+            best = (lines, first_free(lines[0], poles))
+        elif it.balanced:
+            # every rotation loads the lines alike: the first with a space will do
+            for lines in choices:
+                p = first_free(lines[0], poles)
+                if p is not None:
+                    best = (lines, p)
+                    break
+        else:
+            best_worst = best_touched = 0.0
+            for lines in choices:
+                p = first_free(lines[0], poles)
+                if p is None:
+                    continue
+                new = load[:]
+                touched = 0.0
+                for k, m in zip(lines, mags, strict=False):
+                    new[k] += m
+                    touched += new[k]
+                worst = max(new)
+                if (best is None or worst < best_worst - _EPS
+                        or (worst < best_worst + _EPS and touched < best_touched - _EPS)):
+                    best = (lines, p)
+                    best_worst, best_touched = worst, touched
         if best is None:
             lines = choices[0]
             problems.append((it.key, "position", _no_space(poles, lines, free.spaces)))
             positions: tuple[int, ...] = ()
         else:
             lines, p = best
-            free.take(p, poles)
-            positions = tuple(range(p, p + 2 * poles, 2))
+            positions = position_span(p, poles)
+            taken.update(positions)   # ``free.take``
         for k, m in zip(lines, mags, strict=False):
             load[k] += m
-        for k, t, c in _share(it, lines):
-            total[k] += t
-            cont[k] += c
-        placements[it.key] = Placement(lines, positions, _name(lines), "placed")
+        if each is not None:
+            phasor, continuous, u = each
+            for k in lines:
+                t = phasor * u[k]
+                total[k] += t
+                cont[k] += t if continuous else 0j
+        else:
+            for k, t, c in share_on(it, lines):
+                total[k] += t
+                cont[k] += c
+        placements[it.key] = _tuple_new(Placement, (lines, positions, _name(lines), "placed"))
     return _heaviest(total, cont), placements, total, cont, problems
 
 
 _SINGLES = {1: ((0,),), 2: ((0,), (1,)), 3: ((0,), (1,), (2,))}
-
-
-def _by_size(item: PlaceItem) -> float:
-    return -item.size
+_OPTIONS = {poles: {n: options(poles, n) for n in (1, 2, 3)} for poles in (1, 2, 3)}
+"""``options(poles, n_lines)`` of the usual circuits, looked up."""
+_ROTATED = {n: {poles: tuple(tuple((start + j) % n for j in range(poles)) for start in range(n))
+                for poles in (1, 2, 3)} for n in (1, 2, 3)}
+"""{n_lines: {poles: the lines of a circuit whose first pole is on each line}}, looked up."""
+_SIZE = attrgetter("size")
+_tuple_new = tuple.__new__
 
 
 def _file_order(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[complex],
@@ -443,26 +506,48 @@ def _file_order(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[
     current, the position of each (None: no space) and the line sums."""
     at: list[int | None] = []
     lowest_free, take = free.lowest_free, free.take
+    taken, resume = free.taken, free._any
+    limited = free.spaces is not None
     for it in rest:
         poles = it.poles
-        p = lowest_free(poles)
-        at.append(p)
-        if p is not None:
-            take(p, poles)
-            start = (p - 1) // 2
+        if limited:
+            p = lowest_free(poles)
+            if p is not None:
+                take(p, poles)
         else:
-            start = 0
-        if it.one is not None:
+            # ``lowest_free`` and ``take`` written out, without a limit on the spaces
+            p = resume.get(poles, 1)
+            if poles == 1:
+                while p in taken:
+                    p += 1
+                taken.add(p)
+            else:
+                while p in taken or p + 2 in taken or (poles > 2 and p + 4 in taken):
+                    p += 1
+                taken.update(position_span(p, poles))
+            resume[poles] = p
+        at.append(p)
+        start = (p - 1) // 2 if p is not None else 0
+        each = it.each
+        if poles == 1 and each is not None:
             k = start % n_lines
-            phasor, continuous, u = it.one
+            phasor, continuous, u = each
             t = phasor * u[k]
             total[k] += t
             cont[k] += t if continuous else 0j
             continue
-        lines = tuple((start + j) % n_lines for j in range(poles))
-        for k, t, c in _share(it, lines):
-            total[k] += t
-            cont[k] += c
+        lines = _ROTATED[n_lines][poles][start % n_lines] if poles <= 3 else tuple(
+            (start + j) % n_lines for j in range(poles))
+        if each is not None:
+            phasor, continuous, u = each
+            for k in lines:
+                t = phasor * u[k]
+                total[k] += t
+                cont[k] += t if continuous else 0j
+        else:
+            for k, t, c in share_on(it, lines):
+                total[k] += t
+                cont[k] += c
     return _heaviest(total, cont), at, total, cont
 
 
@@ -470,5 +555,7 @@ def _name(lines: tuple[int, ...]) -> str:
     return _NAMES.get(lines) or phase_name(lines)
 
 
-_NAMES = {lines: name for name, lines in PHASES.items()}
+_NAMES = {lines: phase_name(lines) for by_n in _ROTATED.values() for by_poles in by_n.values()
+          for lines in by_poles if len(set(lines)) == len(lines)}
+_NAMES.update((lines, name) for name, lines in PHASES.items())
 """Phase words of the usual line tuples, looked up before ``phase_name`` works one out."""

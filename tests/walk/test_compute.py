@@ -321,3 +321,48 @@ def test_runs_picked_for_their_drop_keep_their_size_unevaluated_when_the_drop_ab
                     if k in before and s.upstream_drop_pct < before[k].upstream_drop_pct
                     and result.runs[k].governed_by == "voltage drop" and id(s) not in again)
     assert kept > 20
+
+
+def _walks_to_share_loads_on():
+    from gaugewalk.model.walkfile.read import load_walk
+    from tests.support.paths import SAMPLES
+    from tests.support.synthetic_walk import synthetic_walk
+
+    walks = [(path.name, load_walk(path)) for path in sorted(SAMPLES.glob("*.toml"))]
+    # runs that differ in one thing each that their own load reads (invented)
+    loads = [{"value": 1500, "unit": "VA"}, {"value": 1500, "unit": "VA", "pf": 0.9},
+             {"value": 1500, "unit": "W"}, {"value": 1500, "unit": "VA", "kind": "receptacle"}]
+    runs = [run_table(f"R{i}{c}", "LP1", f"Load {i}", "40", load=load, continuous=c,
+                      connection=conn)
+            for i, load in enumerate(loads) for c in (None, False, True)
+            for conn in (None, "LN", "LLN")]
+    odd = make_job("Alike but for one thing", sources=[source_table("LP1", "service")],
+                   runs=runs)
+    return [*walks, ("alike but for one thing", odd),
+            ("synthetic 1300", synthetic_walk(1300, seed=3))]
+
+
+@pytest.mark.parametrize(("name", "job"), _walks_to_share_loads_on())
+def test_runs_alike_share_one_own_load_equal_to_each_runs_own_read_alone(name, job):
+    # a computation reads each distinct general load on each circuit once; what every run is
+    # given must be what reading its own load alone gives, field by field
+    from gaugewalk.model.walk.feeder_loads import OwnLoad, own_load
+
+    result = compute_job(job)
+    shared = 0
+    seen: dict[int, OwnLoad] = {}
+    for run in job.runs:
+        if run.id not in result._own:
+            continue
+        mine = result._own[run.id]
+        alone = own_load(run, result._circuits[run.id], job.defaults.pf)
+        if alone is None:
+            assert mine is None, (name, run.id)
+            continue
+        assert mine is not None, (name, run.id)
+        for slot in OwnLoad.__slots__:
+            assert getattr(mine, slot) == getattr(alone, slot), (name, run.id, slot)
+        shared += id(mine) in seen
+        seen[id(mine)] = mine
+    if name.startswith("synthetic"):
+        assert shared > 1000, "rows of alike circuits share their load"
