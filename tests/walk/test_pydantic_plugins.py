@@ -63,13 +63,16 @@ def test_a_plugin_installed_is_still_loaded_and_used(tmp_path):
     _install_plugin(tmp_path / "site")
     out = _python(
         "import json, sys\n"
-        "from gaugewalk.model.walk.job import Run\n"
+        "from gaugewalk.model.walk.job import Job, Run\n"
         "Run(id='R1', **{'from': 'LP1'}, to='Dock door', length='85')\n"
         "import gw_probe_plugin\n"
+        "print(json.dumps(gw_probe_plugin.seen))\n"
+        "Job()  # a model built on first use (defer_build) is built now\n"
         "print(json.dumps(gw_probe_plugin.seen))\n", cwd=tmp_path, extra_path=tmp_path / "site")
-    seen = json.loads(out)
-    assert "Run" in seen and "Job" in seen  # consulted for every model built
-    assert "validated" in seen  # and called as the run was validated
+    first, then = (json.loads(line) for line in out.splitlines())
+    assert "Run" in first  # consulted for every model built as it is made
+    assert "validated" in first  # and called as the run was validated
+    assert "Job" not in first and "Job" in then  # and for a model built when first used
 
 
 _ANSWERS = (
