@@ -79,7 +79,10 @@ class Problem(NamedTuple):
         }
 
 
-_LONG_WORD = re.compile(r"\S{61,}|\s{61,}")
+# The patterns of this module are compiled where a problem is first reported (``re`` keeps them
+# compiled after that): a walk with no problem never needs them, and compiling them at import
+# cost every command that reads a walk about 0.2 ms.
+_LONG_WORD = r"\S{61,}|\s{61,}"
 
 
 def clip(text: str) -> str:
@@ -87,12 +90,12 @@ def clip(text: str) -> str:
     value are shown escaped (``\\n``, ``gaugewalk.model.walk.plain_text.shown``), and any word
     or gap over 60 characters (a pasted id or value, a run of spaces) is shortened."""
     text = shown(text)
-    return _LONG_WORD.sub(lambda m: f"{m.group(0)[:40]}…({len(m.group(0)):,} characters)", text)
+    return re.sub(_LONG_WORD, lambda m: f"{m.group(0)[:40]}…({len(m.group(0)):,} characters)", text)
 
 
 # -- locating tables and keys in the text ------------------------------------------------------
-_HEADER_RE = re.compile(r"^\s*(\[\[?)\s*([A-Za-z0-9_.\"' -]+?)\s*(\]\]?)\s*(#.*)?$")
-_KEY_RE = re.compile(r"^\s*(\"[^\"]*\"|'[^']*'|[A-Za-z0-9_-]+)\s*(\.|=)")
+_HEADER = r"^\s*(\[\[?)\s*([A-Za-z0-9_.\"' -]+?)\s*(\]\]?)\s*(#.*)?$"
+_KEY = r"^\s*(\"[^\"]*\"|'[^']*'|[A-Za-z0-9_-]+)\s*(\.|=)"
 
 
 class Locator:
@@ -105,12 +108,13 @@ class Locator:
         current: tuple[str, int | None] = ("", None)
         self._keys[current] = {}
         in_multiline: str | None = None
+        header_re, key_re = re.compile(_HEADER), re.compile(_KEY)
         for number, line in enumerate(text.splitlines(), start=1):
             if in_multiline:
                 if line.count(in_multiline) % 2 == 1:
                     in_multiline = None
                 continue
-            header = _HEADER_RE.match(line)
+            header = header_re.match(line)
             if header and header.group(1) == header.group(3)[::-1].replace("]", "["):
                 name = header.group(2).strip().strip("\"'")
                 base, _, sub = name.partition(".")
@@ -128,7 +132,7 @@ class Locator:
                     self._tables.setdefault(current, number)
                     self._keys.setdefault(current, {})
                 continue
-            key = _KEY_RE.match(line)
+            key = key_re.match(line)
             if key:
                 self._keys[current].setdefault(key.group(1).strip("\"'"), number)
                 for quote in ('"""', "'''"):

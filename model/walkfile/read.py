@@ -82,16 +82,17 @@ class WalkFileError(Exception):
         return "\n".join(str(p) for p in self.problems)
 
 
-_TOML_LINE_RE = re.compile(r"\(at line (\d+), column (\d+)\)")
+_TOML_LINE = r"\(at line (\d+), column (\d+)\)"  # compiled only for a file that is not TOML
 _TOP_KEYS = ("schema", "job", "defaults", "source", "raceway", "run")
 
 
 def _syntax_problem(exc: ValueError, file: str) -> Problem:
     """A ``tomllib.TOMLDecodeError`` as one problem, with its line."""
     text = str(exc)
-    match = _TOML_LINE_RE.search(text)
+    toml_line = re.compile(_TOML_LINE)
+    match = toml_line.search(text)
     line = int(match.group(1)) if match else None
-    sentence = _TOML_LINE_RE.sub("", text).strip()
+    sentence = toml_line.sub("", text).strip()
     column = f" (column {match.group(2)})" if match else ""
     return Problem(file, line, "file", None, None, f"this is not valid TOML{column}: {sentence}")
 
