@@ -25,7 +25,6 @@ Public API: ``CONTROL_CHARS``, ``first_control(text)``, ``no_control(text)``, ``
 from __future__ import annotations
 
 import re
-import unicodedata
 
 _BIDI = (*range(0x202A, 0x202F), *range(0x2066, 0x206A))
 CONTROL_CHARS: frozenset[str] = frozenset(
@@ -67,6 +66,8 @@ def first_control(text: str) -> str | None:
 
 def describe_char(ch: str) -> str:
     """A control character in words: ``ESC (U+001B)``, ``a line break (U+000A)``."""
+    import unicodedata  # an extension module, loaded only to name a character in a message
+
     code = ord(ch)
     name = _NAMES.get(code) or unicodedata.name(ch, "") or "a control character"
     return f"{name} (U+{code:04X})"
