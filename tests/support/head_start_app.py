@@ -2,7 +2,9 @@
 process of its own (a fork belongs at the start of a process with one thread, never in a test
 worker): ``python -m tests.support.head_start_app WALK CONFIG [--stop]`` prints one JSON line.
 
-``--stop`` ends the child before the app starts (as if it had died). The app's own reading
+``--stop``: the child dies at once, before it writes a row (as if it had died), and is ended
+and reaped before the app starts; it is made to die rather than killed from here, because on a
+busy machine a child killed at once could still have written its first part. The app's own reading
 waits for the child's rows (``keeping_pace``, ``HEAD_START_WAIT_S``), so the outcome is the
 same on a busy machine. The line says how the walk opened: ``kept`` (the sheet kept the head
 start's rows), ``same`` (the sheet's rows are those the app makes from its own reading,
@@ -19,10 +21,19 @@ import sys
 from pathlib import Path
 
 
+def _dies_at_once(fd: int, path: str, raw: bytes) -> None:
+    """The child of ``--stop``: out before it reads the walk, no row written."""
+    os._exit(1)
+
+
 def main(argv: list[str]) -> int:
     from gaugewalk.tui.app.launch import start
 
     path, config = argv[0], Path(argv[1])
+    if "--stop" in argv:
+        from gaugewalk.tui.app import headstart
+
+        headstart._child = _dies_at_once   # looked up when the child is forked
     head, make_app = start(path)   # as the command line starts the app
     if head is None:
         print(json.dumps({"head_start": False}))
