@@ -392,7 +392,7 @@ class WalkState:
         self.walk = walk   # None: a state that only reads ``result`` (``run_spec_for``)
         self.job = walk.job if walk is not None else job
         self.result = result
-        self._circuit_cache: dict[tuple[str, str, bool], Circuit] = {}
+        self._circuit_cache: dict[tuple[str, str | None, int], Circuit] = {}
         self._own_cache: dict[tuple, OwnLoad | None] = {}   # (circuit key, load): its OwnLoad
         self.spec_base = _spec_base(self.job.defaults.__dict__)   # what every run's spec starts as
         self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
@@ -416,18 +416,21 @@ class WalkState:
         rf = run.__dict__
         rid = rf["id"]
         sources = self.walk.sources
-        source = sources[rf["from_"]]
-        system = source.system
+        system = sources[rf["from_"]].system
         conn = rf["connection"]
-        unstated = False
-        if conn is None:
+        if conn is None:   # by what it feeds: a load (0), a source (1), a transformer (2)
             target = sources.get(rf["to"])
-            conn = default_connection(system, target is not None and target.kind == "transformer")
-            unstated = target is None  # a branch run: its circuit was the walker's to state
-        key = (system, conn, unstated)
+            to = 0 if target is None else 2 if target.kind == "transformer" else 1
+        else:
+            to = 0
+        key = (system, conn, to)
         res = self.result
         c = self._circuit_cache.get(key)
         if c is None:
+            unstated = False
+            if conn is None:
+                conn = default_connection(system, to == 2)
+                unstated = to == 0  # a branch run: its circuit was the walker's to state
             try:
                 c = resolve_circuit(system, conn)
             except CircuitError as exc:
@@ -464,13 +467,17 @@ class WalkState:
 
     # -- bottom-up: placing and summing ------------------------------------------------------
     def sum_all(self) -> None:
-        """Bottom-up: every source placed and summed (children before the sources above)."""
-        for sid in reversed(self.walk.order):
-            self.sum_source(sid)
+        """Bottom-up: every source placed and summed (children before the sources above), into
+        a result that holds no placement yet."""
+        walk = self.walk
+        fresh = len(walk.position) == len(self.job.runs)   # and no run id repeated
+        for sid in reversed(walk.order):
+            self.sum_source(sid, fresh)
 
-    def sum_source(self, sid: str) -> bool:
+    def sum_source(self, sid: str, fresh: bool = False) -> bool:
         """Place and sum one source's runs; its transformer and loading; what its feeder
-        carries. Returns True when that changed."""
+        carries. Returns True when that changed. ``fresh``: no run of it was placed before (a
+        computation from the start, every run id its own), so there is nothing to take out."""
         res, walk = self.result, self.walk
         outcome, lines = sum_source(walk, sid, res._circuits, res._own, res._feeds,
                                     self.job.defaults.demand == "nec-220")
@@ -484,8 +491,9 @@ class WalkState:
         for r in children:   # what was placed before (an update in place), and each run's VA
             rf = r.__dict__
             rid = rf["id"]
-            place_problems.pop(rid, None)
-            placements.pop(rid, None)
+            if not fresh:
+                place_problems.pop(rid, None)
+                placements.pop(rid, None)
             mine = own.get(rid)
             if mine is not None:
                 run_va[rid] = mine.load.va

@@ -335,29 +335,28 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
     for r in graph.children[source_id]:
         rf = r.__dict__   # fields read from the model's __dict__, once per run (as in compute)
         rid = rf["id"]
-        circuit = circuits.get(rid)
-        if circuit is None:
-            continue
-        mine = own.get(rid)
-        each = None
+        mine = own.get(rid)   # a run has its own load only with its circuit
         share: Share | None
-        position, phase = rf["position"], rf["phase"]
         if mine is not None:
             hots = mine.hots
             load = mine.load
             poles = (hots if hots < n else n) if n > 1 else 1
             if mine.ll and poles == 2:
                 share = _BetweenShare(u, mine)
+                each = None
             else:   # its current on each line it takes is its phasor at that line's angle
                 each = (mine.phasor, mine.continuous, u)
                 share = None
             va += load.va
             cva += load.continuous_va
             watts += load.watts
-            items.append(PlaceItem(rid, poles, position, phase, share, mine.size, mine.mags,
-                                   poles == n, each))
+            items.append(_tuple_new(PlaceItem, (rid, poles, rf["position"], rf["phase"], share,
+                                                mine.size, mine.mags, poles == n, each)))
             if groups:
                 whose.append((r, mine))
+            continue
+        circuit = circuits.get(rid)
+        if circuit is None:
             continue
         to = rf["to"]
         if feeder.get(to) is r and to in feeds:
@@ -376,7 +375,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         poles = min(circuit.hots, n) if n > 1 else 1
         if groups:
             whose.append((r, mine))
-        items.append(PlaceItem(rid, poles, position, phase, share, size, mags))
+        items.append(PlaceItem(rid, poles, rf["position"], rf["phase"], share, size, mags))
     outcome = place(items, n, source.spaces)
     has_neutral = SYSTEMS[source.system].has_neutral
     kinds = _group_sums(items, whose, outcome, feeds, u, has_neutral) if groups else ()

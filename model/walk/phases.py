@@ -113,7 +113,7 @@ Share = Callable[[tuple[int, ...]], Sequence[tuple[int, complex, complex]]]
 phasors in the source's frame."""
 
 
-class PlaceItem:
+class PlaceItem(NamedTuple):
     """One run to place. ``poles`` from its circuit; ``position`` and ``phase`` as the walk gives
     them (None: not given); ``share(lines)`` its line currents; ``size`` orders the greedy
     (largest first); ``mags`` its design current on each of its poles [A], by which the greedy
@@ -124,22 +124,15 @@ class PlaceItem:
     voltage], whether it is continuous, ``u`` the source's line phasors), worked out only for
     the lines it is placed on (the usual run, placed fastest)."""
 
-    __slots__ = ("key", "poles", "position", "phase", "share", "size", "mags", "balanced",
-                 "each")
-
-    def __init__(self, key: str, poles: int, position: int | None, phase: str | None,
-                 share: Share | None, size: float, mags: tuple[float, ...],
-                 balanced: bool = False,
-                 each: tuple[complex, bool, tuple[complex, ...]] | None = None) -> None:
-        self.key = key
-        self.poles = poles
-        self.position = position
-        self.phase = phase
-        self.share = share
-        self.size = size
-        self.mags = mags
-        self.balanced = balanced
-        self.each = each
+    key: str
+    poles: int
+    position: int | None
+    phase: str | None
+    share: Share | None
+    size: float
+    mags: tuple[float, ...]
+    balanced: bool = False
+    each: tuple[complex, bool, tuple[complex, ...]] | None = None
 
 
 def share_on(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, complex, complex]]:
@@ -405,12 +398,11 @@ def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[comp
                     if n_lines > 2 and load[2] < load[k] - _EPS:
                         k = 2
                 index = resume.get(k * 4 + 1, 0)
-                while True:
-                    p = 2 * (k + n_lines * (index >> 1)) + 1 + (index & 1)
-                    if p not in taken:
-                        break
+                p = 2 * (k + n_lines * (index >> 1)) + 1 + (index & 1)
+                while p in taken:
                     index += 1
-                resume[k * 4 + 1] = index
+                    p = 2 * (k + n_lines * (index >> 1)) + 1 + (index & 1)
+                resume[k * 4 + 1] = index + 1   # p is taken now: the next search starts past it
                 taken.add(p)
                 at = (p,)
             load[k] += it.mags[0]
@@ -472,8 +464,9 @@ def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[comp
             positions: tuple[int, ...] = ()
         else:
             lines, p = best
-            positions = position_span(p, poles)
-            taken.update(positions)   # ``free.take``
+            # ``position_span`` and ``free.take``
+            positions = (p, p + 2, p + 4) if poles == 3 else position_span(p, poles)
+            taken.update(positions)
         for k, m in zip(lines, mags, strict=False):
             load[k] += m
         if each is not None:
@@ -486,7 +479,9 @@ def _greedy(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[comp
             for k, t, c in share_on(it, lines):
                 total[k] += t
                 cont[k] += c
-        placements[it.key] = _tuple_new(Placement, (lines, positions, _name(lines), "placed"))
+        placements[it.key] = _tuple_new(Placement, (lines, positions,
+                                                    _NAMES.get(lines) or phase_name(lines),
+                                                    "placed"))
     return _heaviest(total, cont), placements, total, cont, problems
 
 
@@ -525,7 +520,7 @@ def _file_order(rest: list[PlaceItem], n_lines: int, free: _Spaces, total: list[
                 while p in taken or p + 2 in taken or (poles > 2 and p + 4 in taken):
                     p += 1
                 taken.update(position_span(p, poles))
-            resume[poles] = p
+            resume[poles] = p + 1   # p is taken now: the next search starts past it
         at.append(p)
         start = (p - 1) // 2 if p is not None else 0
         each = it.each
