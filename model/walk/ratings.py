@@ -44,14 +44,17 @@ def loading(source: Source, lines: Lines) -> Loading:
     if source.kind == "transformer":
         return Loading(design, line, None, None, ())
     service = source.kind == "service"
-    said = (f"its heaviest line ({line}) needs {design:.1f} A (125 % of the continuous load plus "
-            "the rest")
-    if bus is not None and design > bus + 1e-9:
-        rule = "NEC 230.42(A), 230.79" if service else "NEC 408.30"
-        problems.append(("rating_a", f"{said}, {rule}): over its {bus} A rating"))
-    if main is not None and design > main + 1e-9:
-        rule = "NEC 230.79, 230.90(A)" if service else "NEC 215.3, 408.36"
-        problems.append(("main_a", f"{said}, {rule}): over its {main} A main"))
+    over_bus = bus is not None and design > bus + 1e-9
+    over_main = main is not None and design > main + 1e-9
+    if over_bus or over_main:   # the words, only where they are said
+        said = (f"its heaviest line ({line}) needs {design:.1f} A (125 % of the continuous load "
+                "plus the rest")
+        if over_bus:
+            rule = "NEC 230.42(A), 230.79" if service else "NEC 408.30"
+            problems.append(("rating_a", f"{said}, {rule}): over its {bus} A rating"))
+        if over_main:
+            rule = "NEC 230.79, 230.90(A)" if service else "NEC 215.3, 408.36"
+            problems.append(("main_a", f"{said}, {rule}): over its {main} A main"))
     if main is not None and bus is not None and main > bus:
         problems.append(("main_a", f"its {main} A main is larger than its {bus} A bus rating "
                          "(NEC 408.36)"))
