@@ -423,6 +423,19 @@ WITH_TRANSFORMER = walk_text(
 )
 
 
+async def test_a_feeder_says_what_it_feeds_in_the_load_column_before_and_after_sizing(tmp_path):
+    from gaugewalk.tui.app.sheet.rawrows import raw_rows
+
+    path = write_walk(tmp_path, WITH_TRANSFORMER)
+    raw = {r.key: r.cells[4] for r in raw_rows(path)}
+    assert (raw["F1"], raw["F2"]) == ("transformer", "panel")
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        cells = sheet_cells(app)
+        assert (cells["F1"][4], cells["F2"][4], cells["R1"][4]) == ("transformer", "panel", "24A")
+
+
 async def test_a_transformer_secondary_can_be_tried_at_another_voltage_with_its_panels(tmp_path):
     path = write_walk(tmp_path, WITH_TRANSFORMER)
     app = new_app(path, tmp_path / "cfg")

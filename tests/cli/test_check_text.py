@@ -72,3 +72,17 @@ def test_the_app_says_under_the_sheet_when_a_feeder_keeps_a_stated_load(tmp_path
     assert said == ("ⓘ sized for its stated 120.0 A; the loads on SHOP need 200.1 A "
                     "(NEC 215.2(A)(1))")
     assert len(detail_lines(session, session.job.run("SVC-PUMP")).splitlines()) == 2
+
+
+def test_check_names_what_a_feeder_feeds_in_its_load_column(capsys):
+    import json
+    from pathlib import Path
+
+    sample = str(Path(__file__).parents[2] / "sample_walks" / "warehouse_dc2.toml")
+    main(["check", "--json", sample])
+    runs = {r["id"]: r for r in json.loads(capsys.readouterr().out)["runs"]}
+    # the invented sample: F-T1 feeds transformer T1, F-L1 panel L1
+    assert (runs["F-T1"]["load"], runs["F-L1"]["load"]) == ("(transformer)", "(panel)")
+    main(["check", sample])
+    row = next(line for line in capsys.readouterr().out.splitlines() if line.startswith("F-T1 "))
+    assert "(transformer)" in row

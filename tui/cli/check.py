@@ -29,9 +29,11 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
     parser.add_argument("--json", action="store_true", help="print the results as JSON")
 
 
-def _load_text(run) -> str:
+def _load_text(run, job: Job) -> str:
+    """The load as given, or for a feeder the kind of source it feeds: ``(transformer)``."""
     if run.load is None:
-        return "(panel)"
+        fed = job.source(run.to)
+        return f"({fed.kind if fed is not None else 'panel'})"
     return load_short(run.load)
 
 
@@ -44,7 +46,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         rr = result.runs.get(r.id)
         entry = {
             "id": r.id, "from": r.from_, "to": r.to, "feeder": job.is_feeder(r),
-            "length": r.length, "length_ft": round(r.length_ft, 3), "load": _load_text(r),
+            "length": r.length, "length_ft": round(r.length_ft, 3), "load": _load_text(r, job),
             "load_kind": r.load.kind if r.load is not None else "general",
             "amps": None, "required_ampacity_a": None, "design_amps": None, "size": None,
             "sets": r.sets, "material": None, "ocpd_a": None,
@@ -140,7 +142,8 @@ def _table(path: str, job: Job, result: JobResult) -> str:
             size = f"{rr.sets}x{rr.size}" if rr.sets > 1 else rr.size
             vd, tot = f"{rr.voltage_drop_pct:.2f}", f"{rr.total_drop_pct:.2f}"
             status = "ok" if rr.ok else "OVER"
-        rows.append((r.id, r.from_, to, f"{r.length_ft:.1f}", _load_text(r), size, vd, tot, status))
+        rows.append((r.id, r.from_, to, f"{r.length_ft:.1f}", _load_text(r, job), size, vd, tot,
+                     status))
     wid = max([len("run"), *(len(row[0]) for row in rows)])
     wfrom = max([len("from"), *(len(row[1]) for row in rows)])
 

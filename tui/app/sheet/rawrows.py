@@ -34,10 +34,12 @@ def _feet(text: object) -> str:
     return f"{ft:,.0f}" if ft >= 100 else f"{ft:.1f}".rstrip("0").rstrip(".")
 
 
-def _load(raw: object, feeds_source: bool) -> str:
+def _load(raw: object, fed: str | None) -> str:
+    """The load as written, or for a feeder the kind of source it feeds (``fed``), as the
+    sized row shows it (``rows.load_text``)."""
     if isinstance(raw, dict) and isinstance(raw.get("value"), (int, float)):
         return f"{raw['value']:g}{raw.get('unit', '')}"
-    return "panel" if feeds_source else ""
+    return fed or ""
 
 
 def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024,
@@ -61,14 +63,16 @@ def raw_rows(path: str | Path, max_bytes: int = 4 * 1024 * 1024,
     sources = data.get("source")
     if not isinstance(runs, list):
         return None
-    source_ids = {s.get("id") for s in sources if isinstance(s, dict)} if isinstance(sources, list) else set()
+    fed_kinds = ({s.get("id"): shown(str(s.get("kind") or "panel")) for s in sources
+                  if isinstance(s, dict)}
+                 if isinstance(sources, list) else {})
     rows = []
     for r in runs:
         if not isinstance(r, dict):
             return None
         # not checked yet: shown as plain text, control characters escaped (plain_text)
         rid, frm, to = (shown(str(r.get(k, ""))) for k in ("id", "from", "to"))
-        cells = (rid, frm, to, _feet(r.get("length", "")), _load(r.get("load"), to in source_ids),
+        cells = (rid, frm, to, _feet(r.get("length", "")), _load(r.get("load"), fed_kinds.get(to)),
                  "", "", "", "", "", SIZING)
         rows.append(SheetRow(rid, cells, False, {}, "", frm))
     return rows

@@ -27,9 +27,11 @@ from gaugewalk.tables.equipment.horsepower import hp_text
 from gaugewalk.tui.app.sheet.shape import SheetRow
 
 
-def load_text(run: Run) -> str:
+def load_text(run: Run, fed: str | None = None) -> str:
+    """The load column: the load as given, or for a feeder the kind of source it feeds
+    (``fed``: panel, switchboard, transformer)."""
     if run.load is None:
-        return "panel"
+        return fed or "panel"
     load = run.load
     if load.value is None:
         return load_short(load)  # a nameplate alone: "MCA 28 A"
@@ -113,8 +115,10 @@ def sheet_size_text(res: RunResult | None) -> str:
 def sheet_row(session: WalkSession, run: Run, sources: dict[str, tuple[str, str]] | None = None) -> SheetRow:
     res = session.result_for(run.id)
     st = session.status(run, res)
-    circuit, circuit_sort = circuit_cell(run, sources if sources is not None else source_kinds(session))
-    load = load_text(run)
+    sources = sources if sources is not None else source_kinds(session)
+    circuit, circuit_sort = circuit_cell(run, sources)
+    fed = sources.get(run.to)
+    load = load_text(run, fed[1] if fed is not None else None)
     cells = (
         run.id,
         run.from_,
