@@ -86,3 +86,32 @@ def test_check_names_what_a_feeder_feeds_in_its_load_column(capsys):
     main(["check", sample])
     row = next(line for line in capsys.readouterr().out.splitlines() if line.startswith("F-T1 "))
     assert "(transformer)" in row
+
+
+# An invented walk: two circuits written in at the same breaker position.
+TWICE = WALK.replace('connection = "LN"\n', 'connection = "LN"\nposition = 3\n') + """
+[[run]]
+id = "KETTLE"
+from = "SVC-MAIN-NORTH"
+to = "Kettle"
+length = "30"
+load = { value = 12, unit = "A" }
+connection = "LN"
+position = 3
+"""
+
+
+def test_a_run_whose_breaker_position_is_taken_is_not_ok_in_the_table_or_the_json(tmp_path,
+                                                                                  capsys):
+    import json
+
+    path = tmp_path / "kiosk.toml"
+    path.write_text(TWICE, encoding="utf-8")
+    assert main(["check", "--json", str(path)]) == 1
+    data = json.loads(capsys.readouterr().out)
+    kettle = next(r for r in data["runs"] if r["id"] == "KETTLE")
+    assert "position 3 is already taken" in kettle["problems"][0]
+    assert kettle["ok"] is False and data["summary"]["failing"] == ["KETTLE"]
+    assert main(["check", str(path)]) == 1
+    row = next(line for line in capsys.readouterr().out.splitlines() if line.startswith("KETTLE"))
+    assert row.endswith("PROBLEM")  # within its ampacity and drop, but not where it is written

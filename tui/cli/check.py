@@ -77,7 +77,9 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
                 "governed_by": rr.governed_by, "flc_a": rr.flc_a,
                 "locked_rotor_a": _round(rr.locked_rotor_a, 1),
                 "starting_drop_pct": _round(rr.starting_drop_pct),
-                "kind_rule": rr.kind_rule, "ok": rr.ok,
+                "kind_rule": rr.kind_rule,
+                # a problem of its place in its panel (a position taken twice) is one too
+                "ok": rr.ok and not entry["problems"],
             })
             if feeder is not None:  # the current it is sized for, by its basis
                 entry["amps"] = round(feeder.amps, 3)
@@ -141,7 +143,8 @@ def _table(path: str, job: Job, result: JobResult) -> str:
         else:
             size = f"{rr.sets}x{rr.size}" if rr.sets > 1 else rr.size
             vd, tot = f"{rr.voltage_drop_pct:.2f}", f"{rr.total_drop_pct:.2f}"
-            status = "ok" if rr.ok else "OVER"
+            status = ("OVER" if not rr.ok else "PROBLEM" if result.run_problems(r.id)
+                      else "ok")   # PROBLEM: listed below the table (its breaker position)
         rows.append((r.id, r.from_, to, f"{r.length_ft:.1f}", _load_text(r, job), size, vd, tot,
                      status))
     wid = max([len("run"), *(len(row[0]) for row in rows)])
