@@ -118,14 +118,14 @@ def kind_in(values: dict[str, str]) -> vocab.LoadKind:
     if kind in vocab.LOAD_KINDS:
         return kind
     if not kind:
-        words, plate = split_load(values.get("load", ""))
+        text = values.get("load", "")
         try:
-            if words.strip() and read_load_text(words, value_needed=not plate).unit == "hp":
+            if read_load_field(text).unit == "hp":
                 return "motor"
         except LoadError:
             pass
         try:
-            plate_kind = nameplate_kind(read_nameplate(plate))
+            plate_kind = nameplate_kind(read_nameplate(split_load(text)[1]))
         except ValueError:
             plate_kind = None
         if plate_kind is not None:
@@ -136,8 +136,8 @@ def kind_in(values: dict[str, str]) -> vocab.LoadKind:
 def nameplate_kind(plate: dict[str, object]) -> vocab.LoadKind | None:
     """The one kind of load that reads every key of ``plate`` (``vocab.NAMEPLATE_KEYS``), or
     None (no key, or keys of different kinds)."""
-    kinds = {vocab.NAMEPLATE_KEYS[key] for key in plate}
-    return next(iter(kinds))[0] if len(kinds) == 1 and len(next(iter(kinds))) == 1 else None
+    kinds = {kind for key in plate for kind in vocab.NAMEPLATE_KEYS[key]}
+    return kinds.pop() if len(kinds) == 1 else None
 
 
 def shown(key: str, values: dict[str, str]) -> bool:
@@ -195,6 +195,13 @@ def split_load(text: str) -> tuple[str, str]:
         else:
             plate.append(word)
     return " ".join(load), " ".join(plate)
+
+
+def read_load_field(text: str) -> LoadText:
+    """The load field's load (``read_load_text``) without the nameplate words typed after it
+    (``split_load``), which let the value be left out. Raises LoadError."""
+    words, plate = split_load(text)
+    return read_load_text(words, value_needed=not plate)
 
 
 def read_nameplate(text: str) -> dict[str, object]:
@@ -408,8 +415,7 @@ def default_branch_circuit(system_id: str, values: dict[str, str] | None = None)
     hp = None
     try:
         if values.get("load", "").strip():
-            words, plate = split_load(values["load"])
-            read = read_load_text(words, value_needed=not plate)
+            read = read_load_field(values["load"])
             hp = read.value if read.unit == "hp" else None
     except LoadError:
         hp = None
@@ -1025,27 +1031,25 @@ class CardForm:
         like = same if same is not None and same.from_ == source_id and not s.job.is_feeder(same) else None
         if like is not None:
             copied.update({k: run_to_fields(like)[k] for k in COPIED_FROM_PREVIOUS})
+        kind = kind_in(v)
+        like_kind = like.load.kind if like is not None and like.load is not None else None
+        same_kind = like_kind is None or like_kind == kind
         if feeder or source is None:
             copied["circuit"] = ""
         else:
             stated = None
             try:
-                words, plate = split_load(v["load"])
-                load = read_load_text(words, value_needed=not plate) if v["load"].strip() else None
+                load = read_load_field(v["load"]) if v["load"].strip() else None
                 if load is not None and load.states_circuit:
                     stated = circuit_for_load(source.system, load)
             except (LoadError, ValueError):
                 stated = None  # the load field says what is wrong
-            like_kind = like.load.kind if like is not None and like.load is not None else None
-            same_kind = like_kind is None or like_kind == kind_in(v)
             copied["circuit"] = (stated or (copied["circuit"] if same_kind else "")
                                  or default_branch_circuit(source.system, v))
         copied["id"] = self.next_id(same if same is not None and same.from_ == source_id else None, feeder)
-        kind = kind_in(v)
         typed = v.get("kind", "").strip()   # else the kind the load's hp or nameplate says
         copied["kind"] = v.get("kind", "") if typed else ("" if kind == "general" else kind)
-        like_kind = like.load.kind if like is not None and like.load is not None else None
-        if like_kind is not None and like_kind != kind:
+        if not same_kind:
             copied["continuous"] = "no"  # an EV charger's continuity is its article's, not a choice
         if kind in vocab.CONTINUOUS_KINDS or kind == "lighting":
             copied["continuous"] = "yes"  # by its article (or common practice for lighting)
