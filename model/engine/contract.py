@@ -102,6 +102,8 @@ class RunSpec:
     min_size: str | None = None            # smallest size the job allows (a job specification,
                                            # e.g. 12 AWG for power; common practice), None: no floor
     equipment: Equipment | None = None     # the load's kind and nameplate; None: general
+    load_notes: tuple[str, ...] = ()       # what reading the load took as given (a power
+                                           # factor the run does not give), said in the notes
     starting_drop_pct: float = 15.0        # [%] motor starting-drop target (common practice)
     neutral_amps: float | None = None      # [A] the current the neutral carries, a feeder's
                                            # maximum unbalance (NEC 220.61): the neutral is then

@@ -75,6 +75,23 @@ def parse_load(text: str) -> tuple[float, str]:
     return value, unit
 
 
+REAL_POWER_UNITS = ("W", "kW")
+"""Units of real power: a load in them becomes apparent power through its power factor."""
+
+
+def pf_taken(value: float, unit: str, pf: float, whose: str) -> tuple[str, ...]:
+    """The stated assumption of a load in watts whose power factor the run does not give
+    (S = P / pf), ``whose`` naming where the factor came from; none where nothing was assumed
+    (another unit, or power factor 1, which changes nothing)."""
+    unit = normalize_unit(unit)
+    if unit not in REAL_POWER_UNITS or pf >= 1.0:
+        return ()
+    kva = value * UNITS[unit] / pf / 1000.0
+    return (f"{value:g} {unit} taken at power factor {pf:g}, {whose}, as the load gives none: "
+            f"{kva:.2f} kVA; give its own power factor where it is known (pf 1 for a resistance "
+            f"load)",)
+
+
 def load_amps(value: float, unit: str, circuit: Circuit, pf: float = 1.0) -> float:
     """Line current of a load [A].
 
@@ -105,7 +122,7 @@ def load_amps(value: float, unit: str, circuit: Circuit, pf: float = 1.0) -> flo
     if not (isinstance(pf, (int, float)) and math.isfinite(pf) and 0 < pf <= 1):
         raise LoadError(f"the power factor must be above 0 and at most 1, not {pf!r}")
     va = value * UNITS[unit]
-    if unit in ("W", "kW"):
+    if unit in REAL_POWER_UNITS:
         va /= pf
     if circuit.phases == 3:
         return va / (math.sqrt(3.0) * circuit.line_volts)

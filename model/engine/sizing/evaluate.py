@@ -224,7 +224,7 @@ def prepare(spec: RunSpec) -> Prepared:
         cur = rule_for(eq, circuit.volts, circuit.phases).currents(amps, cont, spec.ocpd_a)
     design, ocpd = cur.design_a, cur.ocpd_a
     need = amps if cur.corrected_a is None else cur.corrected_a
-    notes: list[str] = [*circuit.notes, *cur.notes]
+    notes: list[str] = [*circuit.notes, *spec.load_notes, *cur.notes]
 
     # --- columns, corrections, raceway, impedance ----------------------------------------------
     n_ccc = spec.ccc if spec.ccc is not None else current_carrying_conductors(circuit)
