@@ -12,7 +12,7 @@ from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.report.oneline import Bus, one_line
 from gaugewalk.model.walk.checks import connection_of
-from gaugewalk.model.walk.compute import JobResult
+from gaugewalk.model.walk.compute import FeederInfo, JobResult
 from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.plausible import implausible, stated_loads
@@ -73,6 +73,28 @@ class ReportRun:
                 self.total_drop_pct, self.governed_by)
 
 
+@dataclass(frozen=True)
+class RunRules:
+    """What one run was sized by, in the order applied: a feeder's basis, then the engine's
+    notes (``RunResult.notes``: each rule with its code section, and what was taken as given
+    where the walk does not say)."""
+
+    run_id: str
+    route: str              # "DP1 → Glycol chiller"
+    rules: tuple[str, ...]
+
+
+def rules_applied(result: RunResult, feeder: FeederInfo | None) -> tuple[str, ...]:
+    """What a run was sized by, in the order applied: a feeder's basis (NEC 215.2(A)(1),
+    430.24 ...), then ``result.notes``. The report and the app's rules screen both list this."""
+    return ((f"sized for {feeder.basis}",) if feeder is not None else ()) + tuple(result.notes)
+
+
+RULES_HEADING = "Rules applied to each run"
+RULES_INTRO = ("Each run's sizing, in the order applied: the code section of each rule, and what "
+               "was taken as given where the walk does not say.")
+
+
 NOTES_HEADING = "Warnings and stated assumptions"
 """The section after the runs table: what is said about the walk without counting as a problem."""
 RUN_WARNINGS_HEADING = "Values to check"
@@ -104,6 +126,7 @@ class Report:
     drop_basis: str = ""
     run_warnings: tuple[str, ...] = ()   # values to check (``plausible.implausible``), said only
     stated_loads: tuple[str, ...] = ()   # feeders kept at a stated load below their panel's need
+    rules: tuple[RunRules, ...] = ()     # every sized run's rules (``RULES_HEADING``)
 
 
 @dataclass(frozen=True)
@@ -238,6 +261,8 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
 
     rows = []
     equipment_rows = []
+    rules = []
+    feeders = job_result.feeders if job_result is not None else {}
     failing = 0
     for run in job.runs:
         result = results.get(run.id)
@@ -254,6 +279,8 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
             failing += 1
         if result.load_kind != "general":
             equipment_rows.append(equipment_row(run, result))
+        rules.append(RunRules(run.id, f"{run.from_} → {run.to}",
+                              rules_applied(result, feeders.get(run.id))))
         rows.append(ReportRun(
             run.id, run.from_, run.to, _num(run.length_ft), run.length, circuit,
             str(result.ocpd_a), load_text(run, result), size_text(result),
@@ -302,6 +329,7 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         run_warnings=tuple(p.brief() for p in implausible(job)),
         stated_loads=tuple(f"run {rid}: {basis}" for rid, basis in
                            (stated_loads(job_result) if job_result is not None else ())),
+        rules=tuple(rules),
     )
 
 

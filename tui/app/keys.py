@@ -65,6 +65,7 @@ KEYS: tuple[KeyAction, ...] = (
     KeyAction("walk.boards", "4", "show_view('boards')", "Boards", "Boards: the sources' ratings and loading, and every panel's schedule (positions, phases, load per line).", "walk", footer=False),
     KeyAction("walk.views", "tab", "next_view", "View", "Next view (runs, tree, footage, boards).", "walk", key_display="Tab"),
     KeyAction("walk.keep_positions", "p", "keep_positions", "Keep positions", "Write the breaker positions the tool picked into the walk file (one undo).", "walk", footer=False),
+    KeyAction("walk.why", "w", "why", "Why", "The rules the run under the cursor was sized by: each code section, in order, and what was taken as given where the walk does not say.", "walk", footer=False),
     KeyAction("walk.trial", "t", "trial", "Try", "Trial change: try another material, size or voltage on the run, see the effect, keep it or not.", "walk", priority=True),
     KeyAction("walk.job", "j", "job_settings", "Job", "Job settings: the defaults every run inherits; all runs recompute.", "walk", priority=True),
     KeyAction("walk.save", "ctrl+s", "save_now", "Save", "Save again now (every change is already saved at once).", "walk", footer=False, key_display="^s"),

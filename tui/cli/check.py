@@ -54,6 +54,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             "voltage_drop_pct": None, "total_drop_pct": None, "governed_by": None,
             "flc_a": None, "locked_rotor_a": None, "starting_drop_pct": None, "kind_rule": None,
             "ok": False, "problems": [p.message for p in result.run_problems(r.id)],
+            "notes": [],
         }
         if r.rooftop:  # given only where set, as the file keeps it
             entry["rooftop"] = True   # NEC 310.15(B)(2): 33 C added to the ambient
@@ -80,6 +81,8 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
                 "kind_rule": rr.kind_rule,
                 # a problem of its place in its panel (a position taken twice) is one too
                 "ok": rr.ok and not entry["problems"],
+                # the rules applied and what was taken as given (as calc lists them)
+                "notes": list(rr.notes),
             })
             if feeder is not None:  # the current it is sized for, by its basis
                 entry["amps"] = round(feeder.amps, 3)

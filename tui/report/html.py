@@ -10,6 +10,8 @@ from collections.abc import Set as AbstractSet
 
 from gaugewalk.model.report.content import (
     NOTES_HEADING,
+    RULES_HEADING,
+    RULES_INTRO,
     RUN_COLUMNS,
     RUN_WARNINGS_HEADING,
     SHARED_COLUMNS,
@@ -40,6 +42,10 @@ tr.why td { font-size: .92em; }
 dl.header { display: grid; grid-template-columns: max-content auto; gap: 2px 1em; }
 dl.header dt { font-weight: bold; }
 dl.header dd { margin: 0; }
+dl.rules dt { font-weight: bold; margin-top: .4em; }
+dl.rules dt .route { font-weight: normal; }
+dl.rules dd { margin: 0 0 0 1em; }
+dl.rules ul { margin: 0; padding-left: 1.2em; }
 svg text { font-family: system-ui, sans-serif; font-size: 12px; }
 @media print {
   @page { size: portrait; margin: 12mm; }
@@ -47,7 +53,8 @@ svg text { font-family: system-ui, sans-serif; font-size: 12px; }
   svg text { font-size: 11px; }
   h2 { break-after: avoid; }
   thead { display: table-header-group; }
-  tr, .caution, svg { break-inside: avoid; }
+  tr, .caution, svg, dl.rules li { break-inside: avoid; }
+  dl.rules dt { break-after: avoid; }
   th, tr.problem td { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
 }
 """.strip()
@@ -205,6 +212,15 @@ def render_html(report: Report) -> str:
 
     out.append("<h2>Takeoff assumptions</h2>")
     out.append("<ul>" + "\n".join(f"<li>{escape(a)}</li>" for a in report.assumptions) + "</ul>")
+    if report.rules:
+        out.append(f"<h2>{escape(RULES_HEADING)}</h2>")
+        out.append(f"<p>{escape(RULES_INTRO)}</p>")
+        out.append("<dl class=\"rules\">")
+        for r in report.rules:
+            out.append(f"<dt>{escape(r.run_id)} <span class=\"route\">{escape(r.route)}</span></dt>"
+                       "<dd><ul>" + "".join(f"<li>{escape(n)}</li>" for n in r.rules)
+                       + "</ul></dd>")
+        out.append("</dl>")
     out.append(f"<p class=\"caution\" role=\"note\">{escape(report.caution)}</p>")
     out.append("</body>")
     out.append("</html>")

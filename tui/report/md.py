@@ -8,6 +8,8 @@ from __future__ import annotations
 
 from gaugewalk.model.report.content import (
     NOTES_HEADING,
+    RULES_HEADING,
+    RULES_INTRO,
     RUN_COLUMNS,
     RUN_WARNINGS_HEADING,
     SHARED_COLUMNS,
@@ -112,5 +114,10 @@ def render_md(report: Report) -> str:
     if report.warnings:
         out += ["### Takeoff warnings", ""] + [f"- {md_escape(w)}" for w in report.warnings] + [""]
     out += ["## Takeoff assumptions", ""] + [f"- {md_escape(a)}" for a in report.assumptions]
+    if report.rules:
+        out += ["", f"## {RULES_HEADING}", "", md_escape(RULES_INTRO), ""]
+        for r in report.rules:
+            out.append(f"- **{md_escape(r.run_id)}** {md_escape(r.route)}")
+            out += [f"  - {md_escape(n)}" for n in r.rules]
     out += ["", f"> **Caution:** {md_escape(report.caution)}", ""]
     return "\n".join(out)

@@ -765,6 +765,15 @@ class WalkScreen(BoundInOrder, Screen):
         else:
             self.notify(text + (f" {st.notice}" if st.notice else ""))
 
+    def action_why(self) -> None:
+        key = self._current_run_id()
+        if key is None:
+            self.notify("Move to a run first; w shows the rules it was sized by.", severity="warning")
+            return
+        from gaugewalk.tui.app.screens.rules import RulesScreen
+
+        self.app.push_screen(RulesScreen(self.session, key))
+
     def action_trial(self) -> None:
         if self._busy():
             return
