@@ -110,13 +110,25 @@ def choices(session: WalkSession) -> dict[str, list[str]]:
     }
 
 
+def kind_named(text: str) -> vocab.LoadKind | None:
+    """The kind the Kind field names: a kind's name, or the start of exactly one, as a fast
+    typist leaves it (``ev``: ev-charger, ``rec``: receptacle); None: blank, or no kind or
+    several start so (``h``: hvac and heater)."""
+    t = text.strip().lower()
+    if t in vocab.LOAD_KINDS:
+        return t  # type: ignore[return-value]  # checked: one of the kinds
+    starting = [k for k in vocab.LOAD_KINDS if t and k.startswith(t)]
+    return starting[0] if len(starting) == 1 else None
+
+
 def kind_in(values: dict[str, str]) -> vocab.LoadKind:
-    """The load's kind as the texts say: the kind field, else motor for a load in hp, else the
-    kind whose nameplate words the load field holds (``mca 38 mocp 50``: hvac), else general
-    (an unknown word: general, and the kind field says what is wrong)."""
+    """The load's kind as the texts say: the kind field (``kind_named``), else motor for a load
+    in hp, else the kind whose nameplate words the load field holds (``mca 38 mocp 50``: hvac),
+    else general (an unknown word: general, and the kind field says what is wrong)."""
     kind = values.get("kind", "").strip().lower()
-    if kind in vocab.LOAD_KINDS:
-        return kind
+    named = kind_named(kind)
+    if named is not None:
+        return named
     if not kind:
         text = values.get("load", "")
         try:
@@ -518,12 +530,16 @@ def _check_kind(r: _Reading) -> None:
     at its field)."""
     kind_text = r.v["kind"].strip().lower()
     kind = kind_in(r.v)
-    if kind_text and kind_text not in vocab.LOAD_KINDS:
-        r.errors["kind"] = f"one of {', '.join(vocab.LOAD_KINDS)} (blank: general)"
+    if kind_text and kind_named(kind_text) is None:
+        starting = [k for k in vocab.LOAD_KINDS if k.startswith(kind_text)]
+        said = (f"'{kind_text}' starts {' and '.join(starting)}; " if starting else "")
+        r.errors["kind"] = f"{said}one of {', '.join(vocab.LOAD_KINDS)} (blank: general)"
     else:
         words = vocab.LOAD_KINDS[kind]
         cite = max(words.rfind(" (NEC "), words.rfind(" (common"))
-        r.hints["kind"] = words[cite + 2:-1] if cite >= 0 else words  # its sections
+        sections = words[cite + 2:-1] if cite >= 0 else words
+        # the kind's sections; its whole name first where only its start was typed
+        r.hints["kind"] = sections if kind_text in ("", kind) else f"= {kind}: {sections}"
     try:
         plate = read_nameplate(r.v["plate"])
     except ValueError as exc:

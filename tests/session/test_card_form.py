@@ -393,8 +393,22 @@ def test_the_nameplate_field_shows_only_for_a_kind_that_reads_one(session):
         "typed in Load")
 
 
+def test_the_start_of_one_kind_is_that_kind(session):
+    # typed fast, "ev" and Enter: the one kind it starts is taken, and the card says which
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Charger", length="40", load="48A", kind="ev", circuit="LL").check()
+    assert checked.errors == {} and checked.run.load.kind == "ev-charger"
+    assert checked.hints["kind"].startswith("= ev-charger: NEC 625.41")
+    # NEC 625.42: continuous, 125 % of 48 A = 60 A; 210.20(A): a 60 A device
+    assert (checked.result.design_amps, checked.result.ocpd_a) == (60.0, 60)
+    checked = _typed(form, kind="REC", load="yokes 4", circuit="").check()
+    assert checked.run.load.kind == "receptacle"
+
+
 @pytest.mark.parametrize("texts, key, reason", [
     ({"kind": "blender", "load": "5A"}, "kind", "one of general, motor"),
+    ({"kind": "h", "load": "5A"}, "kind", "'h' starts hvac and heater; one of general"),
     ({"kind": "hvac", "plate": "mca 28 zz 3"}, "plate", "'zz' is not a nameplate word"),
     ({"kind": "hvac", "plate": "mca"}, "plate", "needs its value"),
     ({"kind": "ev-charger", "load": "48A", "circuit": "LL", "continuous": "no"}, "continuous",
