@@ -110,6 +110,15 @@ def choices(session: WalkSession) -> dict[str, list[str]]:
     }
 
 
+_KIND_CONTINUOUS: dict[str, str] = {
+    **{kind: "yes" for kind in vocab.CONTINUOUS_KINDS},   # by their articles
+    "lighting": "yes",                                       # common practice
+    "motor": "no", "hvac": "no", "welder": "no",             # their articles' rules instead
+}
+"""Continuous as the card fills it in for a kind that decides it; other kinds leave it to the
+person (``CardForm._following_values``, ``CardForm._continuous_follows_kind``)."""
+
+
 def kind_named(text: str) -> vocab.LoadKind | None:
     """The kind the Kind field names: a kind's name, or the start of exactly one, as a fast
     typist leaves it (``ev``: ev-charger, ``rec``: receptacle); None: blank, or no kind or
@@ -1008,12 +1017,35 @@ class CardForm:
 
     def type(self, key: str, text: str) -> dict[str, str]:
         """The person typed ``text`` into ``key``. Returns the fields the form changed on their
-        behalf (fields nobody typed in follow the run)."""
+        behalf (fields nobody typed in follow the run; on a stored run, continuous follows a
+        change of kind)."""
         self.values[key] = text
         self.typed.add(key)
         if key in ("from", "to", "panel", "load", "kind") and self.run_id is None:
             return self._follow()
+        if key in ("load", "kind") and "continuous" not in self.typed:
+            return self._continuous_follows_kind()
         return {}
+
+    def _continuous_follows_kind(self) -> dict[str, str]:
+        """A stored run given another kind: continuous as the new kind's article says
+        (``_KIND_CONTINUOUS``), else as the run had it where it was of a kind that leaves it to
+        the person, else no; returns it where it changed."""
+        run = self.session.job.run(self.run_id) if self.run_id is not None else None
+        if run is None:
+            return {}
+        was = run.load.kind if run.load is not None else "general"
+        kind = kind_in(self.values)
+        if kind == was:
+            follows = run_to_fields(run)["continuous"]
+        elif kind in _KIND_CONTINUOUS:
+            follows = _KIND_CONTINUOUS[kind]
+        else:
+            follows = "no" if was in _KIND_CONTINUOUS else run_to_fields(run)["continuous"]
+        if self.values["continuous"] == follows:
+            return {}
+        self.values["continuous"] = follows
+        return {"continuous": follows}
 
     def _follow(self) -> dict[str, str]:
         """Fields nobody typed in follow the run; returns those that changed."""
@@ -1067,10 +1099,7 @@ class CardForm:
         copied["kind"] = v.get("kind", "") if typed else ("" if kind == "general" else kind)
         if not same_kind:
             copied["continuous"] = "no"  # an EV charger's continuity is its article's, not a choice
-        if kind in vocab.CONTINUOUS_KINDS or kind == "lighting":
-            copied["continuous"] = "yes"  # by its article (or common practice for lighting)
-        elif kind in ("motor", "hvac", "welder"):
-            copied["continuous"] = "no"   # their article's rules instead
+        copied["continuous"] = _KIND_CONTINUOUS.get(kind, copied["continuous"])
         return copied
 
     def draft(self) -> dict[str, str] | None:

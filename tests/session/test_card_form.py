@@ -406,6 +406,25 @@ def test_the_start_of_one_kind_is_that_kind(session):
     assert checked.run.load.kind == "receptacle"
 
 
+def test_a_stored_run_given_another_kind_takes_that_kinds_continuous(session):
+    # a 40 A load stored as general, then found to be an EV charger: NEC 625.42 makes it
+    # continuous, which the card fills in (the person typed nothing there in this card)
+    form = CardForm(session)
+    form.start()
+    run = _typed(form, to="Charger", length="40", load="40A", circuit="LL").check().run
+    session.put_run(run)
+    edit = CardForm(session, run.id)
+    edit.start()
+    assert edit.values["continuous"] == "no"
+    assert edit.type("kind", "ev") == {"continuous": "yes"}
+    checked = edit.check()
+    # NEC 625.42: 125 % of 40 A = 50 A; 210.20(A): a 50 A device
+    assert checked.errors == {} and (checked.result.design_amps, checked.result.ocpd_a) == (50, 50)
+    assert edit.type("kind", "") == {"continuous": "no"}  # general again: as it was stored
+    edit.type("continuous", "yes")                        # typed: it stays as typed
+    assert edit.type("kind", "motor") == {} and edit.values["continuous"] == "yes"
+
+
 @pytest.mark.parametrize("texts, key, reason", [
     ({"kind": "blender", "load": "5A"}, "kind", "one of general, motor"),
     ({"kind": "h", "load": "5A"}, "kind", "'h' starts hvac and heater; one of general"),
