@@ -241,10 +241,11 @@ def _defaults(job: Job) -> tuple[tuple[str, str], ...]:
 
 def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeoff, *,
                  file_name: str = "", run_errors: dict[str, str] | None = None,
-                 job_result: JobResult | None = None) -> Report:
+                 job_result: JobResult | None = None, with_rules: bool = True) -> Report:
     """The report of ``job``: ``results`` maps run id to its result (None: not sized, with the
     reason in ``run_errors``); with the whole ``job_result``, the one-line diagram, the sources
-    list, the panel schedules and the shared raceways too."""
+    list, the panel schedules and the shared raceways too; ``with_rules``, the rules applied to
+    each run (``RULES_HEADING``)."""
     run_errors = run_errors or {}
     h = job.job
     header = [("Job", h.name or "(no name)")]
@@ -279,8 +280,9 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
             failing += 1
         if result.load_kind != "general":
             equipment_rows.append(equipment_row(run, result))
-        rules.append(RunRules(run.id, f"{run.from_} → {run.to}",
-                              rules_applied(result, feeders.get(run.id))))
+        if with_rules:
+            rules.append(RunRules(run.id, f"{run.from_} → {run.to}",
+                                  rules_applied(result, feeders.get(run.id))))
         rows.append(ReportRun(
             run.id, run.from_, run.to, _num(run.length_ft), run.length, circuit,
             str(result.ocpd_a), load_text(run, result), size_text(result),

@@ -125,7 +125,7 @@ def kind_named(text: str) -> vocab.LoadKind | None:
     several start so (``h``: hvac and heater)."""
     t = text.strip().lower()
     if t in vocab.LOAD_KINDS:
-        return t  # type: ignore[return-value]  # checked: one of the kinds
+        return t
     starting = [k for k in vocab.LOAD_KINDS if t and k.startswith(t)]
     return starting[0] if len(starting) == 1 else None
 

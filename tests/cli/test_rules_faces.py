@@ -78,7 +78,13 @@ def test_the_report_lists_the_rules_of_every_run(kitchen, tmp_path, capsys):
     assert "- **R3** SVC → Hood fan" in section and "Table 430.250" in section
     page = html.read_text()
     assert '<dl class="rules">' in page
-    assert "<dt>R1 <span class=\"route\">SVC → Oven</span></dt><dd><ul><li>" + TAKEN in page
+    assert "<dt>R1 <span class=\"route\">SVC → Oven</span></dt><dd><span>" + TAKEN in page
+    # --brief: a printout for ordering, the same report without the rules
+    brief = tmp_path / "brief.md"
+    assert main(["report", str(kitchen), "-o", str(brief), "--brief"]) == 0
+    start = text.index("\n\n## Rules applied to each run")
+    end = text.index("\n\n> **Caution:**", start)
+    assert brief.read_text() == text[:start] + text[end:]
 
 
 def test_a_feeder_lists_its_basis_first(tmp_path, capsys):

@@ -27,6 +27,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="report file to write: .html or .md")
     parser.add_argument("--replace", action="store_true",
                         help="write over OUT if it already exists (never over the walk file)")
+    parser.add_argument("--brief", action="store_true",
+                        help="leave out the last section, the rules applied to each run (a "
+                             "printout for ordering)")
 
 
 def _same_file(a: Path, b: Path) -> bool:
@@ -82,7 +85,8 @@ def run(args: argparse.Namespace) -> int:
     fmt = check_output(args.file, args.output, args.replace)
     job, result, takeoff = load_computed(args.file)
     report = build_report(job, result.runs, takeoff, file_name=Path(args.file).name,
-                          run_errors=run_errors_of(result), job_result=result)
+                          run_errors=run_errors_of(result), job_result=result,
+                          with_rules=not args.brief)
     try:
         atomic_write(Path(args.output), render(fmt, report).encode("utf-8"), keep_backup=False)
     except OSError as exc:

@@ -42,10 +42,10 @@ tr.why td { font-size: .92em; }
 dl.header { display: grid; grid-template-columns: max-content auto; gap: 2px 1em; }
 dl.header dt { font-weight: bold; }
 dl.header dd { margin: 0; }
-dl.rules dt { font-weight: bold; margin-top: .4em; }
-dl.rules dt .route { font-weight: normal; }
-dl.rules dd { margin: 0 0 0 1em; }
-dl.rules ul { margin: 0; padding-left: 1.2em; }
+dl.rules { display: grid; grid-template-columns: max-content auto; gap: 3px .8em; }
+dl.rules dt { font-weight: bold; }
+dl.rules dt .route { display: block; font-weight: normal; }
+dl.rules dd { margin: 0; }
 svg text { font-family: system-ui, sans-serif; font-size: 12px; }
 @media print {
   @page { size: portrait; margin: 12mm; }
@@ -53,8 +53,7 @@ svg text { font-family: system-ui, sans-serif; font-size: 12px; }
   svg text { font-size: 11px; }
   h2 { break-after: avoid; }
   thead { display: table-header-group; }
-  tr, .caution, svg, dl.rules li { break-inside: avoid; }
-  dl.rules dt { break-after: avoid; }
+  tr, .caution, svg, dl.rules dd { break-inside: avoid; }
   th, tr.problem td { -webkit-print-color-adjust: exact; print-color-adjust: exact; }
 }
 """.strip()
@@ -218,8 +217,8 @@ def render_html(report: Report) -> str:
         out.append("<dl class=\"rules\">")
         for r in report.rules:
             out.append(f"<dt>{escape(r.run_id)} <span class=\"route\">{escape(r.route)}</span></dt>"
-                       "<dd><ul>" + "".join(f"<li>{escape(n)}</li>" for n in r.rules)
-                       + "</ul></dd>")
+                       "<dd>" + " ".join(f"<span>{escape(n)}.</span>" for n in r.rules)
+                       + "</dd>")
         out.append("</dl>")
     out.append(f"<p class=\"caution\" role=\"note\">{escape(report.caution)}</p>")
     out.append("</body>")
