@@ -133,6 +133,7 @@ def kind_named(text: str) -> vocab.LoadKind | None:
 def kind_in(values: dict[str, str]) -> vocab.LoadKind:
     """The load's kind as the texts say: the kind field (``kind_named``), else motor for a load
     in hp, else the kind whose nameplate words the load field holds (``mca 38 mocp 50``: hvac),
+    else, for a run with a load and no new panel, the kind its name says (``kind_in_name``),
     else general (an unknown word: general, and the kind field says what is wrong)."""
     kind = values.get("kind", "").strip().lower()
     named = kind_named(kind)
@@ -151,7 +152,27 @@ def kind_in(values: dict[str, str]) -> vocab.LoadKind:
             plate_kind = None
         if plate_kind is not None:
             return plate_kind
+        if text.strip() and not values.get("panel", "").strip():
+            return kind_in_name(values.get("to", "")) or "general"
     return "general"
+
+
+_NAME_KINDS: tuple[tuple[re.Pattern[str], vocab.LoadKind], ...] = (
+    (re.compile(r"\bwater[ -]?heaters?\b"), "water-heater"),
+    (re.compile(r"\bheaters?\b"), "heater"),
+    (re.compile(r"\bev[ -]?chargers?\b|\bevse\b|\bev charging\b"), "ev-charger"),
+    (re.compile(r"\blights?\b|\blighting\b|\bluminaires?\b"), "lighting"),
+)
+"""Words of a load's name that say its kind where the article decides more than its current
+(continuous by 422.13, 424.4(B), 625.42, or lighting by common practice), in the order tried."""
+
+
+def kind_in_name(name: str) -> vocab.LoadKind | None:
+    """The kind a load's name says (``_NAME_KINDS``: ``Taproom lights`` is lighting, ``Unit
+    heater 3`` a heater), or None. The card fills it in as it fills in motor for a load in hp:
+    shown in the Kind field, followed while nobody types there."""
+    low = name.lower()
+    return next((kind for words, kind in _NAME_KINDS if words.search(low)), None)
 
 
 def nameplate_kind(plate: dict[str, object]) -> vocab.LoadKind | None:

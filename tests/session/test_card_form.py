@@ -393,6 +393,29 @@ def test_the_nameplate_field_shows_only_for_a_kind_that_reads_one(session):
         "typed in Load")
 
 
+def test_a_load_named_for_lights_or_a_heater_is_filled_in_as_that_kind(session):
+    # what the walker names the load says what it is: the card fills the kind in, as for hp
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Taproom lights", length="40", load="1800VA").check()
+    assert form.values["kind"] == "lighting" and form.values["continuous"] == "yes"
+    # NEC 210.19(A)(1), 210.20(A): 1800 VA / 120 V = 15 A continuous, 125 % = 18.75 A -> 20 A
+    # (240.6(A)), where a load of no kind would have been given the 15 A device
+    assert (checked.result.design_amps, checked.result.ocpd_a) == (18.75, 20)
+    checked = _typed(form, kind="general").check()  # a kind typed by the person decides
+    assert checked.run.load.kind == "general" and checked.result.ocpd_a == 15
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Unit heater 2", length="40", load="4kW", circuit="LL").check()
+    # NEC 424.4(B): continuous; a resistance load, power factor 1: 4000 VA / 208 V = 19.2 A,
+    # 125 % = 24.0 A -> 25 A (240.6(A)) (the invented walk's panel is 208Y/120 V)
+    assert form.values["kind"] == "heater" and checked.result.ocpd_a == 25
+    assert checked.result.design_amps == pytest.approx(4000 / 208 * 1.25)
+    assert not any("taken at power factor" in n for n in checked.result.notes)
+    _typed(form, to="Unit 2")  # renamed: the kind the card filled in follows the name
+    assert form.values["kind"] == ""
+
+
 def test_the_start_of_one_kind_is_that_kind(session):
     # typed fast, "ev" and Enter: the one kind it starts is taken, and the card says which
     form = CardForm(session)

@@ -53,8 +53,8 @@ SAMPLE = Path(__file__).resolve().parents[2] / "sample_walks" / "retail_fitout.t
 COMPARED = ("from", "to", "length", "load", "continuous", "distributed", "connection", "sets",
             "size", "material", "raceway")
 """The run's fields the card records and the stored run is compared on (walk file names)."""
-TYPED = ("from", "to", "length", "load", "circuit", "continuous", "spread", "sets", "size",
-         "material", "raceway")
+TYPED = ("from", "to", "length", "load", "kind", "circuit", "continuous", "spread", "sets",
+         "size", "material", "raceway")
 """The card's fields the typist fills in (the id is taken as suggested; notes left out)."""
 YES_NO = ("continuous", "spread")
 LIKE_LAST_TARGET = 12
