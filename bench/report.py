@@ -83,6 +83,11 @@ def table(r: dict, targets) -> str:
         f"{_ms(r['sheet_rows_ms'])}; save_walk {_ms(r['save_file_ms'])}; footage view "
         f"{_ms(r['footage_ms'])}",
     ]
+    if "pydantic_floor_s" in r:
+        info.append(
+            f"pydantic imported and one model built, a process: "
+            f"{r['pydantic_floor_s'] / r['check_parse_s']:.2f}x the check baseline "
+            f"({_s(r['pydantic_floor_s'])}), the part of check's ratio before any code of ours")
     if "app_edit_ms" in r:
         info.append(
             f"app store step median {_ms(r['app_edit_median_ms'])}, "
