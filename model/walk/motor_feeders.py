@@ -20,6 +20,11 @@ the heaviest line's load. The kinds themselves are read by ``gaugewalk.model.wal
   (430.63, worded as a floor) has the figure in its notes. Either way a feeder device below
   the branch device of a motor it supplies is a problem: it would open first when that motor
   starts or faults (common practice; 430.63's floor is above it).
+- A motor on an instantaneous-trip breaker (430.52(C)(3)) counts in that device figure at no
+  more than the Table 430.52(C)(1) percentage of its full-load current for the feeder's own
+  device type, not at its trip setting (430.62(A) Exception No. 1; from memory: the
+  exception's number). The walk does not say the feeder's device type: an inverse-time breaker
+  is taken (common practice for a feeder from a panel or switchboard), and the note says so.
 - Motors below a transformer are the transformer's load: the feeder into its primary is sized
   by the primary device (Table 450.3(B)), and no motor group passes through it.
 
@@ -35,6 +40,11 @@ from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.loads import LoadError
 from gaugewalk.model.walk.equipment import HVAC_RLA_FACTOR, run_kind_load
 from gaugewalk.model.walk.job import Run
+from gaugewalk.tables.equipment import motor_protection as t_mp
+
+FEEDER_DEVICE = "inverse-time"
+"""The feeder device type taken for 430.62(A) Exception No. 1 (the walk does not give one):
+an inverse-time breaker, as in ``gaugewalk.tables.equipment.motor_protection``."""
 
 
 class MotorGroup(NamedTuple):
@@ -42,8 +52,10 @@ class MotorGroup(NamedTuple):
     (run ``largest_run``), the largest branch device ``device_a`` [A] of any of them and the
     current of the motor it protects (``device_motor_a``) [A], whether an HVAC unit's
     current was taken from its MCA (``hvac_assumed``), whether the feeder supplies motors
-    and HVAC equipment alone (``only_motors``), and the run of that largest device
-    (``device_run``)."""
+    and HVAC equipment alone (``only_motors``), the run of that largest device
+    (``device_run``), and the runs whose instantaneous-trip breaker counts at the feeder
+    device's Table 430.52(C)(1) percentage instead of its setting (``instantaneous``, each with
+    the current it counts at [A]; 430.62(A) Exception No. 1)."""
 
     largest_a: float
     largest_run: str
@@ -52,6 +64,7 @@ class MotorGroup(NamedTuple):
     hvac_assumed: bool = False
     only_motors: bool = True
     device_run: str = ""
+    instantaneous: tuple[tuple[str, float], ...] = ()
 
 
 def run_motor(run: Run, circuit: Circuit, default_pf: float) -> MotorGroup | None:
@@ -68,6 +81,11 @@ def run_motor(run: Run, circuit: Circuit, default_pf: float) -> MotorGroup | Non
         return None
     if kl.is_motor:
         current = kl.flc_a if kl.flc_a is not None else kl.running_a
+        if load.motor_device == "instantaneous":   # NEC 430.62(A) Exception No. 1
+            kind = "single-phase" if circuit.phases == 1 else "squirrel-cage"
+            counted = current * t_mp.branch_device_percent(kind, FEEDER_DEVICE) / 100.0
+            return MotorGroup(current, run.id, counted, current, device_run=run.id,
+                              instantaneous=((run.id, counted),))
         return MotorGroup(current, run.id, float(kl.branch_device_a), current,
                           device_run=run.id)
     if kl.mca_a is None:
@@ -90,7 +108,7 @@ def largest(groups: Iterable[MotorGroup | None]) -> MotorGroup | None:
         dev = g if g.device_a > out.device_a else out
         out = MotorGroup(big.largest_a, big.largest_run, dev.device_a, dev.device_motor_a,
                          out.hvac_assumed or g.hvac_assumed, out.only_motors and g.only_motors,
-                         dev.device_run)
+                         dev.device_run, out.instantaneous + g.instantaneous)
     return out
 
 
@@ -125,6 +143,16 @@ def notes_for(group: MotorGroup, extra_a: float, limit_a: float) -> tuple[str, .
              f"NEC 430.63: with other loads, the motors' part per 430.62(A) plus the other loads "
              f"is {limit_a:.0f} A (the largest branch device, {group.device_a:.0f} A, plus the "
              "rest)"]
+    if group.instantaneous:
+        pct = t_mp.branch_device_percent("squirrel-cage", FEEDER_DEVICE)
+        runs = ", ".join(f"{rid} at {amps:.0f} A" for rid, amps in group.instantaneous[:4])
+        more = len(group.instantaneous) - 4
+        runs += f" and {more} more" if more > 0 else ""
+        notes.append(f"NEC 430.62(A) Exception No. 1: an instantaneous-trip motor breaker counts "
+                     f"in the feeder device's figure at the Table 430.52(C)(1) percentage of its "
+                     f"full-load current for the feeder's device, not at its setting ({runs}; "
+                     f"the feeder device taken as an inverse-time breaker, {pct} %; a fused "
+                     f"feeder reads its fuse's column)")
     if group.hvac_assumed:
         notes.append(f"NEC 440.33: an HVAC unit known by its MCA alone is taken at MCA / "
                      f"{HVAC_RLA_FACTOR:g} as its rated-load current (assumed)")

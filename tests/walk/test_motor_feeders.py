@@ -172,3 +172,23 @@ def test_a_fixed_motor_feeder_device_below_the_largest_motor_breaker_is_a_proble
     result = compute_job(job)
     assert any("below the 90 A branch device of M1" in p and "430.62(A)" in p
                for p in result.runs["F1"].problems)
+
+
+def test_an_instantaneous_trip_motor_breaker_counts_at_the_inverse_time_percentage_on_its_feeder():
+    # NEC 2023 Table 430.250, 460 V column: 25 hp 34 A, 15 hp 21 A, 10 hp 14 A
+    job = _motors_job(_motor("M1", 25), _motor("M2", 15),
+                      run_table("M3", "MCC", "Motor M3", "40", connection="3P",
+                                load={"value": 10, "unit": "hp",
+                                      "motor_device": "instantaneous"}))
+    result = compute_job(job)
+    # Table 430.52(C)(1): the instantaneous-trip breaker of M3 is set at up to 800 % of 14 A,
+    # 112 A; M1's inverse-time breaker is 250 % of 34 A = 85 A, next standard 90 A
+    assert result.runs["M3"].ocpd_a == 112 and result.runs["M1"].ocpd_a == 90
+    # 430.62(A) Exception No. 1 (from memory: the exception's number): for the feeder device,
+    # each instantaneous-trip breaker counts at no more than the Table 430.52(C)(1) percentage
+    # of the feeder's own device type (an inverse-time breaker, 250 %): 250 % of 14 A = 35 A.
+    # The largest is then M1's 90 A: 90 + 21 + 14 = 125 A (not 112 + 34 + 21 = 167 A)
+    assert result.feeders["F1"].max_ocpd_a == pytest.approx(125.0)
+    f1 = result.runs["F1"]
+    assert f1.ocpd_a == 125 and result.ok
+    assert any("Exception No. 1" in n and "M3" in n and "35 A" in n for n in f1.notes)
