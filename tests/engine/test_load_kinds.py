@@ -117,6 +117,19 @@ def test_the_code_letter_gives_the_locked_rotor_current_by_table_430_7_b():
     assert r.locked_rotor_a == pytest.approx(6.29 * 25_000 / (math.sqrt(3) * 460))
 
 
+@pytest.mark.parametrize(("system_v", "phases", "rated_v"),
+                         [(480, 3, 460), (240, 1, 230), (120, 1, 115), (208, 3, 208)])
+def test_the_code_letter_reads_kva_per_hp_at_the_motor_rated_voltage_not_the_system(
+        system_v, phases, rated_v):
+    # NEC 2023 Table 430.7(B) gives kVA per horsepower at the motor's rated voltage; the headnotes
+    # to Tables 430.248 and 430.250 put a 460 V motor on a 480 V system (230 V on 240 V, 115 V on
+    # 120 V; 208 V its own). Code letter G, top of its range 6.29 kVA/hp, 5 hp:
+    # 480 V system: 31,450 / (sqrt(3) x 460) = 39.5 A (not 37.8 A at 480 V)
+    r = size(Equipment(kind="motor", hp=5, code_letter="G"), 5, "hp", system_v, phases)
+    per_v = rated_v * (math.sqrt(3) if phases == 3 else 1.0)
+    assert r.locked_rotor_a == pytest.approx(6.29 * 5_000 / per_v)
+
+
 def test_a_starting_drop_over_its_target_is_a_problem():
     # a long run of a 25 hp motor at a 2 % target: the running drop passes, starting does not
     r = size(Equipment(kind="motor", hp=25), 25, "hp", 460, 3, length_ft=400.0,

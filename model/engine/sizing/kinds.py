@@ -230,22 +230,27 @@ def running_amps(eq: Equipment, value: float | None, unit: str | None, circuit: 
                     + (" or its nameplate" if eq.kind in ("hvac", "welder") else ""))
 
 
+@lru_cache(maxsize=1024)
 def locked_rotor(eq: Equipment, volts: float, phases: int) -> tuple[float | None, str]:
     """A motor's locked-rotor current [A] for the starting drop, and where it came from: the
     nameplate code letter by Table 430.7(B) (the top of its range, the worst case), else Table
     430.251(A) (single-phase) or 430.251(B) (polyphase design B, C, D) by horsepower and voltage
     (a planning estimate: the code prints those tables for disconnect and controller ratings).
-    None, with the reason, when neither can be read."""
+    The code letter's kVA/hp is read at the motor's rated voltage, the column of Table 430.248
+    or 430.250 that the system voltage ``volts`` [V] reads (460 V on a 480 V system, by their
+    headnotes). None, with the reason, when neither can be read."""
     if eq.hp is None:
         return None, "no horsepower given, so no locked-rotor current: starting drop not worked"
     try:
         if eq.code_letter is not None:
+            rated = t_motors.flc_column(volts, phases)
             found = t_lra.locked_rotor_amps_from_code_letter(
-                eq.code_letter, eq.hp, volts, phases, "upper" if eq.code_letter != "V" else
+                eq.code_letter, eq.hp, rated, phases, "upper" if eq.code_letter != "V" else
                 "lower")
             return found.amps, (f"NEC Table 430.7(B): code letter {eq.code_letter}, "
                                 f"{found.kva_per_hp:g} kVA/hp ({found.basis} end of its range) "
-                                f"x {hp_text(eq.hp)} hp = {amps_text(found.amps)} locked-rotor")
+                                f"x {hp_text(eq.hp)} hp at its rated {rated} V = "
+                                f"{amps_text(found.amps)} locked-rotor")
         lra = t_lra.locked_rotor_amps(eq.hp, volts, phases)
     except TableLookupError as exc:
         return None, f"no locked-rotor current ({exc}): starting drop not worked"
@@ -512,9 +517,10 @@ def _cached_currents(rule, eq: Equipment, volts: float, phases: int, amps: float
 
 def forget_loads() -> None:
     """Empty the caches keyed by a run's own load (each load's design current and device, by
-    its kind's rule and by the general rule), so that the next computation is a cold one; the
-    caches keyed by the tables stay."""
+    its kind's rule and by the general rule; a motor's locked-rotor current), so that the next
+    computation is a cold one; the caches keyed by the tables stay."""
     _cached_currents.cache_clear()
+    locked_rotor.cache_clear()
     forget_general_loads()
 
 
