@@ -126,6 +126,10 @@ class JobResult:
     transformers: dict[str, TransformerInfo] = field(default_factory=dict)
     loadings: dict[str, Loading] = field(default_factory=dict)
     motor_groups: dict[str, MotorGroup] = field(default_factory=dict)
+    left_out: dict[str, tuple[str, ...]] = field(default_factory=dict)
+    """{source id: the runs below it (its own and those of the sources it feeds) that give a
+    load the computation could not read, so that what it and its feeder carry leaves them out}
+    (only sources with any)."""
     raceways: dict[str, SharedRaceway] = field(default_factory=dict)
     problems: list[Problem] = field(default_factory=list)
     # kept for recompute_run
@@ -274,6 +278,17 @@ def _load_amps(value: float, unit: str, circuit: Circuit, pf: float) -> float:
                 return va / (SQRT3 * circuit.line_volts)
             return va / circuit.line_volts
     return load_amps(value, unit, circuit, pf)
+
+
+def _left_out_problem(source_id: str, runs: tuple[str, ...]) -> str:
+    """The problem of a feeder whose source's load leaves out ``runs`` (``JobResult.left_out``):
+    NEC 215.2(A)(1) sizes it for the load it serves."""
+    named = ", ".join(runs[:4]) + (f" and {len(runs) - 4} more" if len(runs) > 4 else "")
+    whose = "load" if len(runs) == 1 else "loads"
+    one = len(runs) == 1
+    return (f"the {whose} of {named} below {source_id} could not be read and {'is' if one else 'are'}"
+            f" left out of this feeder's load, so its size may be too small (NEC 215.2(A)(1)): "
+            f"fix {'that run' if one else 'those runs'} first")
 
 
 def _motors_fed(job: Job, result: JobResult, run: Run, is_feeder: bool) -> MotorGroup | None:
@@ -490,6 +505,8 @@ class WalkState:
         placements = res.placements
         own, feeds, run_va = res._own, res._feeds, res.run_va
         feeder_of = walk.feeder
+        left: list[str] = []   # runs whose load could not be read (``JobResult.left_out``)
+        left_out = res.left_out
         for r in children:   # what was placed before (an update in place), and each run's VA
             rf = r.__dict__
             rid = rf["id"]
@@ -505,6 +522,13 @@ class WalkState:
                 run_va[rid] = feeds[to].load.va
             else:
                 run_va.pop(rid, None)
+            if rf["load"] is not None:
+                left.append(rid)
+            elif feeder_of.get(to) is r and to in left_out:
+                left.extend(left_out[to])
+        old_left = left_out.pop(sid, ())
+        if left:
+            left_out[sid] = tuple(left)
         placements.update(outcome.placements)
         for rid, field_name, message in outcome.problems:
             place_problems.setdefault(rid, []).append(
@@ -528,7 +552,7 @@ class WalkState:
         res._sum_problems[sid] = problems
         old = feeds.get(sid)
         feeds[sid] = feed
-        return self.group_motors(sid) or old != feed
+        return self.group_motors(sid) or old != feed or old_left != left_out.get(sid, ())
 
     def group_motors(self, sid: str) -> bool:
         """The motors ``sid`` supplies, its own runs' and those of the panels it feeds (not
@@ -684,6 +708,9 @@ class WalkState:
                 problems += (below_branch_device(motors, result.ocpd_a, limit),)
             result = with_fields(result, notes=result.notes + notes,
                                  problems=result.problems + problems)
+        if is_feeder and r.load is None and r.to in res.left_out:
+            result = with_fields(result, problems=result.problems + (
+                _left_out_problem(r.to, res.left_out[r.to]),))
         res._specs[r.id] = spec
         res._passed[r.id] = passed
         if is_feeder:
