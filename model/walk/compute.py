@@ -126,6 +126,9 @@ class JobResult:
     transformers: dict[str, TransformerInfo] = field(default_factory=dict)
     loadings: dict[str, Loading] = field(default_factory=dict)
     motor_groups: dict[str, MotorGroup] = field(default_factory=dict)
+    welders: dict[str, int] = field(default_factory=dict)
+    """{source id: the arc welders below it, its own runs' and those of the sources it feeds}
+    (only sources with any), for NEC 630.11(B)."""
     left_out: dict[str, tuple[str, ...]] = field(default_factory=dict)
     """{source id: the runs below it (its own and those of the sources it feeds) that give a
     load the computation could not read, so that what it and its feeder carry leaves them out}
@@ -278,6 +281,14 @@ def _load_amps(value: float, unit: str, circuit: Circuit, pf: float) -> float:
                 return va / (SQRT3 * circuit.line_volts)
             return va / circuit.line_volts
     return load_amps(value, unit, circuit, pf)
+
+
+WELDER_GROUP_NOTE = (
+    "NEC 630.11(B) permits the conductors of a feeder of several arc welders at 100 % of the two "
+    "largest welders' 630.11(A) currents, 85 % of the third, 70 % of the fourth and 60 % of the "
+    "rest; not taken here: each welder is summed at 100 % (the larger feeder; give the feeder "
+    "'size' to use the group factors)")
+"""The note of a feeder with two or more welders below it (``JobResult.welders``)."""
 
 
 def _left_out_problem(source_id: str, runs: tuple[str, ...]) -> str:
@@ -556,18 +567,23 @@ class WalkState:
 
     def group_motors(self, sid: str) -> bool:
         """The motors ``sid`` supplies, its own runs' and those of the panels it feeds (not
-        through a transformer); returns True when that changed."""
+        through a transformer), and the welders below it (``JobResult.welders``, through
+        transformers too); returns True when either changed."""
         res, walk = self.result, self.walk
         pf = self.job.defaults.pf
         groups: list[MotorGroup | None] = []
         only = True
         circuits = res._circuits
+        welders = 0
         for r in walk.children[sid]:
             rf = r.__dict__
             load = rf["load"]
             if load is not None:
-                if load.__dict__["kind"] not in ("motor", "hvac"):
+                kind = load.__dict__["kind"]
+                if kind not in ("motor", "hvac"):
                     only = False   # a load of another kind: no motor of this run
+                    if kind == "welder":
+                        welders += 1
                     continue
                 circuit = circuits.get(rf["id"])
                 mine = run_motor(r, circuit, pf) if circuit is not None else None
@@ -578,6 +594,7 @@ class WalkState:
                          if walk.sources[r.to].kind != "transformer" else None)
                 only = only and below is not None and below.only_motors
                 groups.append(below)
+                welders += res.welders.get(r.to, 0)
         group = largest(groups)
         if group is not None and not only and group.only_motors:
             group = group._replace(only_motors=False)
@@ -586,7 +603,10 @@ class WalkState:
             res.motor_groups.pop(sid, None)
         else:
             res.motor_groups[sid] = group
-        return old != group
+        old_welders = res.welders.pop(sid, 0)
+        if welders:
+            res.welders[sid] = welders
+        return old != group or old_welders != welders
 
     # -- the rules a feeder is sized by ------------------------------------------------------
     def feeder_rule(self, r: Run, is_feeder: bool) -> FeederRule | None:
@@ -708,6 +728,8 @@ class WalkState:
                 problems += (below_branch_device(motors, result.ocpd_a, limit),)
             result = with_fields(result, notes=result.notes + notes,
                                  problems=result.problems + problems)
+        if is_feeder and r.load is None and res.welders.get(r.to, 0) > 1 and rule is None:
+            result = with_fields(result, notes=result.notes + (WELDER_GROUP_NOTE,))
         if is_feeder and r.load is None and r.to in res.left_out:
             result = with_fields(result, problems=result.problems + (
                 _left_out_problem(r.to, res.left_out[r.to]),))
