@@ -42,7 +42,7 @@ SHARED_COLUMNS: tuple[str, ...] = (
 
 #: Columns of the equipment table: each run whose load is of a kind its article sizes.
 EQUIPMENT_COLUMNS: tuple[str, ...] = (
-    "Run", "Kind", "Load", "Conductors sized for [A]", "Device [A]", "Starting drop [%]", "Rule",
+    "Run", "Kind", "Load", "Conductors sized for [A]", "Device [A]", "Starting drop on the run [%]", "Rule",
 )
 
 

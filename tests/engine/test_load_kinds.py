@@ -130,6 +130,16 @@ def test_the_code_letter_reads_kva_per_hp_at_the_motor_rated_voltage_not_the_sys
     assert r.locked_rotor_a == pytest.approx(6.29 * 5_000 / per_v)
 
 
+def test_the_starting_drop_is_said_to_be_the_run_alone():
+    # Ohm's law: the locked-rotor current flows through every feeder and transformer above the
+    # motor too, so the dip at its terminals is more than this run's share; the run's figure
+    # says it is its own part only
+    r = size(Equipment(kind="motor", hp=25), 25, "hp", 460, 3)
+    start = [n for n in r.notes if n.startswith("starting drop")]
+    assert len(start) == 1 and "this run alone" in start[0]
+    assert "feeders" in start[0] and "transformer" in start[0]
+
+
 def test_a_starting_drop_over_its_target_is_a_problem():
     # a long run of a 25 hp motor at a 2 % target: the running drop passes, starting does not
     r = size(Equipment(kind="motor", hp=25), 25, "hp", 460, 3, length_ft=400.0,

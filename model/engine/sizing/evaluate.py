@@ -498,8 +498,10 @@ def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
 
 def _starting_drop(spec: RunSpec, lra: float, zs: float, notes: list[str],
                    problems: list[str]) -> float:
-    """The drop while a motor starts [%], at its locked-rotor current ``lra`` [A] on the
-    starting impedance ``zs`` [ohm/kft] (``_starting``), against the job's starting target."""
+    """The drop on this run while a motor starts [%], at its locked-rotor current ``lra`` [A]
+    on the starting impedance ``zs`` [ohm/kft] (``_starting``), against the job's starting
+    target. The feeders and transformers above add their own part of the dip at the motor,
+    which is not worked (the note says so)."""
     circuit = spec.circuit
     vd = drop_volts(circuit.drop_factor, lra, zs, drop_length_ft(spec.length_ft, spec.distributed),
                     spec.sets)
@@ -507,9 +509,11 @@ def _starting_drop(spec: RunSpec, lra: float, zs: float, notes: list[str],
     how = (f"at power factor {STARTING_PF:g} (common practice)" if spec.method == "ac"
            else "on resistance alone (the drop method has no reactance)")
     notes.append(f"starting drop {pct_text(pct)} ({vd:.1f} V) at {amps_text(lra)} locked-rotor, "
-                 f"{how}; target {spec.starting_drop_pct:g}% (common practice: 10 to 15%)")
+                 f"{how}, on this run alone (the feeders and any transformer above it add "
+                 f"their own dip at the motor; not worked); target {spec.starting_drop_pct:g}% "
+                 f"(common practice: 10 to 15%)")
     if pct > spec.starting_drop_pct + 1e-9:
-        problems.append(f"the motor starting drop {pct_text(pct)} is over the "
+        problems.append(f"the motor starting drop {pct_text(pct)} on this run is over the "
                         f"{spec.starting_drop_pct:g}% starting target (a larger size, or a "
                         f"reduced-voltage start, brings it down)")
     return pct
