@@ -65,6 +65,7 @@ from gaugewalk.model.walk.motor_feeders import (
     MotorGroup,
     below_branch_device,
     device_limit,
+    heaviest_with_motor,
     largest,
     notes_for,
     run_motor,
@@ -347,9 +348,11 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
         if feed is None or feed.load.va <= 0:
             raise LoadError(f"{run.to} serves no load yet, so its feeder cannot be sized; "
                             "add its runs or give the feeder a load")
-        _, _, amps, continuous_amps = feed.heaviest()
-        if motors is not None:  # NEC 430.24: the largest motor at 125 %
-            continuous_amps += min(motors.largest_a, max(0.0, amps - continuous_amps))
+        if motors is not None:  # NEC 430.24: the largest motor at 125 %, on the line it loads most
+            _, amps, continuous_amps, motor_a = heaviest_with_motor(feed, motors.largest_a)
+            continuous_amps += motor_a
+        else:
+            _, _, amps, continuous_amps = feed.heaviest()
         pf = min(1.0, max(0.05, feed.load.watts / feed.load.va))
     else:
         raise LoadError(f"the run has no load; give it in {or_words(LOAD_UNITS)}")
@@ -719,7 +722,8 @@ class WalkState:
         if steps:
             result = with_fields(result, notes=result.notes + tuple(s.text for s in steps))
         if motors is not None and limit is not None:
-            extra = (spec.continuous_amps or 0.0) - (feed.heaviest()[3] if feed else 0.0)
+            extra = (heaviest_with_motor(feed, motors.largest_a)[3] if feed is not None
+                     else spec.continuous_amps or 0.0)
             notes = notes_for(motors, extra, limit)
             problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "
                          f"{limit:.0f} A it permits for the motors it supplies",)
@@ -780,6 +784,8 @@ class WalkState:
         line = None
         if r.load is None and feed is not None:
             k, design, _, _ = feed.heaviest()
+            if motors is not None:   # NEC 430.24: the line the largest motor's 25 % makes heaviest
+                k = heaviest_with_motor(feed, motors.largest_a)[0]
             line = LINE_NAMES[k] if feed.frame == "lines" else "winding"
             words = (f"heaviest line {line}: {spec.amps:.1f} A, design {design:.1f} A "
                      "(NEC 215.2(A)(1))" if feed.frame == "lines" else

@@ -4,9 +4,11 @@ the heaviest line's load. The kinds themselves are read by ``gaugewalk.model.wal
 
 - Conductors (430.24, 440.33): the motors' full-load currents are summed per line with the
   other loads (noncontinuous: 430.24 takes them at 100 %), and 125 % of the largest motor's is
-  added: the heaviest line's largest-motor current is counted as continuous. The largest motor
-  is the largest anywhere below the feeder; where it is on another line than the heaviest this
-  adds a little more than 430.24 asks (conservative).
+  added: on each line, up to the largest motor's current of its noncontinuous part is counted
+  as continuous, and the line whose design current is then the greatest sizes the feeder
+  (``heaviest_with_motor``; a line heavier before the 25 % may be lighter after it). The
+  largest motor is the largest anywhere below the feeder; on a line without it this adds a
+  little more than 430.24 asks (conservative).
 - HVAC equipment known by its nameplate MCA alone: its rated-load current is taken as
   MCA / 1.25 (the MCA holds 125 % of the largest motor, 440.33 counts that 25 % once for the
   group; assumed, and said in the feeder's notes).
@@ -29,6 +31,7 @@ the heaviest line's load. The kinds themselves are read by ``gaugewalk.model.wal
   by the primary device (Table 450.3(B)), and no motor group passes through it.
 
 Public API: ``MotorGroup``, ``run_motor(run, circuit, default_pf)``, ``largest(groups)``,
+``heaviest_with_motor(feed, largest_a)``,
 ``device_limit(group, load_amps)``, ``below_branch_device(group, ocpd_a, limit_a)``,
 ``notes_for(group, extra_a)``.
 """
@@ -39,6 +42,7 @@ from typing import NamedTuple
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.loads import LoadError
 from gaugewalk.model.walk.equipment import HVAC_RLA_FACTOR, run_kind_load
+from gaugewalk.model.walk.feeder_loads import Feed
 from gaugewalk.model.walk.job import Run
 from gaugewalk.tables.equipment import motor_protection as t_mp
 
@@ -109,6 +113,22 @@ def largest(groups: Iterable[MotorGroup | None]) -> MotorGroup | None:
         out = MotorGroup(big.largest_a, big.largest_run, dev.device_a, dev.device_motor_a,
                          out.hvac_assumed or g.hvac_assumed, out.only_motors and g.only_motors,
                          dev.device_run, out.instantaneous + g.instantaneous)
+    return out
+
+
+def heaviest_with_motor(feed: Feed, largest_a: float) -> tuple[int, float, float, float]:
+    """NEC 430.24 on a feeder's lines: (line, load current [A], continuous current [A], the
+    largest motor's current counted at 125 % on it [A]) of the line whose design current is
+    the greatest once up to ``largest_a`` [A] of its noncontinuous part is taken at 125 % (the
+    load and continuous currents as ``Feed.heaviest`` reads them, 215.2(A)(1))."""
+    best, out = -1.0, (0, 0.0, 0.0, 0.0)
+    for k, (t, c) in enumerate(zip(feed.total, feed.continuous, strict=True)):
+        cont = abs(c)
+        amps = cont + abs(t - c)
+        motor = min(largest_a, amps - cont)
+        design = amps + 0.25 * (cont + motor)
+        if design > best + 1e-9:
+            best, out = design, (k, amps, cont, motor)
     return out
 
 

@@ -192,3 +192,25 @@ def test_an_instantaneous_trip_motor_breaker_counts_at_the_inverse_time_percenta
     f1 = result.runs["F1"]
     assert f1.ocpd_a == 125 and result.ok
     assert any("Exception No. 1" in n and "M3" in n and "35 A" in n for n in f1.notes)
+
+
+def test_the_line_a_motor_makes_heaviest_with_its_25_percent_sizes_the_feeder():
+    # a 208Y/120 V panel: a 120 V heater of 40 A on line A (continuous, NEC 424.4(B)), and a
+    # 7-1/2 hp single-phase motor line to line on B and C (NEC 2023 Table 430.248, 208 V column:
+    # 44 A). Line A: 1.25 x 40 = 50 A (215.2(A)(1)); lines B and C: 44 A, and 430.24 takes the
+    # largest motor at 125 %: 1.25 x 44 = 55 A. The feeder is sized for 55 A on line B, not for
+    # the 50 A of line A, the heavier before the motor's 25 % was added.
+    job = make_job("line", sources=[source_table("SVC", "service", Y208),
+                                    source_table("LP", "panel", Y208)],
+                   runs=[run_table("F1", "SVC", "LP", "20"),
+                         run_table("H1", "LP", "Heater", "20", load={"kind": "heater",
+                                                                      "value": 40, "unit": "A"},
+                                   connection="LN", phase="A"),
+                         run_table("M1", "LP", "Saw", "20", load={"value": 7.5, "unit": "hp"},
+                                   connection="LL", phase="BC")])
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    assert f1.amps == pytest.approx(44.0)
+    assert f1.design_amps == pytest.approx(55.0)
+    assert result.feeders["F1"].line == "B"
+    assert any("430.24" in n and "44.0 A added at 25 %" in n for n in f1.notes)
