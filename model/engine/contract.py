@@ -105,8 +105,8 @@ class RunSpec:
     load_notes: tuple[str, ...] = ()       # what reading the load took as given (a power
                                            # factor the run does not give), said in the notes
     starting_drop_pct: float = 15.0        # [%] motor starting-drop target (common practice)
-    neutral_amps: float | None = None      # [A] the current the neutral carries, a feeder's
-                                           # maximum unbalance (NEC 220.61): the neutral is then
+    neutral_amps: float | None = None      # [A] a feeder's neutral load, the largest line-to-
+                                           # neutral load on one line (NEC 220.61(A)): it is then
                                            # sized for it; None: the neutral is the phase size
     min_ampacity_a: float | None = None    # [A] the conductors' ampacity must be at least this,
                                            # with no next size up (e.g. NEC 240.21(C): transformer

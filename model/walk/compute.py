@@ -56,6 +56,7 @@ from gaugewalk.model.walk.feeder_loads import (
     Lines,
     OwnLoad,
     feed_of,
+    neutral_load,
     own_load,
     sum_source,
 )
@@ -397,7 +398,7 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
     if load is not None and load.pf is None and load.unit in REAL_POWER_UNITS:
         values["load_notes"] = pf_taken(load.value, load.unit, pf, "the job's")
     if continuous_amps is not None and circuit.neutral and feed.frame == "lines":
-        values["neutral_amps"] = abs(sum(feed.total))   # NEC 220.61: the maximum unbalance
+        values["neutral_amps"] = neutral_load(feed.neutral)   # NEC 220.61(A)
     if rule is not None:
         if rule.ocpd_a is not None:
             values["ocpd_a"] = rule.ocpd_a

@@ -42,7 +42,7 @@ def _less(feed: Feed, part: Feed, x: float) -> Feed:
                        a.watts - x * b.watts)
     return Feed(tuple(t - x * p for t, p in zip(feed.total, part.total, strict=True)),
                 tuple(c - x * p for c, p in zip(feed.continuous, part.continuous, strict=True)),
-                feed.frame, load, feed.kinds)
+                feed.frame, load, feed.kinds, feed.neutral)
 
 
 def _kva(va: float) -> str:

@@ -8,10 +8,18 @@ line-to-neutral load on its line (and back on the neutral); a line-to-line load 
 load, and each leg of a multiwire circuit, on every line it takes at that line's angle. A feeder
 carries what its panel's lines carry (rotated where its poles start on another line); a
 transformer's primary carries its secondary's currents through its windings (below). The
-magnitude of each line's sum is its current; the neutral carries the magnitude of the sum of all
-line currents (Kirchhoff: a line-to-line or balanced load adds nothing to it). So two 16 A, 120 V
-loads on a 208Y/120 V panel put 16 A on two lines, not 10.7 A on three (NEC 215.2(A)(1) and 220.61
-ask the heaviest line and the maximum unbalance, not the average).
+magnitude of each line's sum is its current. So two 16 A, 120 V loads on a 208Y/120 V panel put
+16 A on two lines, not 10.7 A on three (NEC 215.2(A)(1) asks the heaviest line, not the average).
+
+The neutral load (NEC 220.61(A)) is "the maximum net calculated load between the neutral and any
+one ungrounded conductor": each line's sum of the currents of the loads that return on the
+neutral (those whose circuit has one: line-to-neutral loads, multiwire legs, and loads
+line-to-line or three-phase with a neutral, taken in full since their line-to-neutral part is
+not known; a feeder given a stated load carries its panel's), the largest of them. Not the phasor sum of all line currents: a panel of 120 V
+loads balanced on its three lines has nearly nothing on the neutral with all of them on, and
+the full line's current when the others are off. A feeder carries its panel's neutral sums up
+(none through a transformer: the secondary neutral ends at it). Demand factors are not taken
+on them (the conservative side).
 
 Transformers: a three-phase transformer with a four-wire (wye) secondary is taken as delta-wye
 (common practice for general-purpose dry-type units): winding a of the secondary lies on A-B of
@@ -108,11 +116,12 @@ class OwnLoad:
     215.2(A)(1)) and its ``size`` (the current on all of them [A]), by which the largest loads
     are placed first."""
 
-    __slots__ = ("amps", "phasor", "continuous", "ll", "load", "hots", "mags", "size")
+    __slots__ = ("amps", "phasor", "continuous", "ll", "load", "hots", "mags", "size", "neutral")
 
     def __init__(self, amps: float, phasor: complex, continuous: bool, ll: bool,
-                 load: FeederLoad, hots: int) -> None:
+                 load: FeederLoad, hots: int, neutral: bool = False) -> None:
         self.amps = amps
+        self.neutral = neutral   # its circuit has a neutral: its current returns on it
         self.phasor = phasor
         self.continuous = continuous
         self.ll = ll
@@ -147,7 +156,8 @@ def own_load(run: Run, circuit: Circuit, default_pf: float) -> OwnLoad | None:
     phasor = cmath.rect(amps, -math.acos(min(1.0, pf)))
     ll = circuit.hots == 2 and circuit.phases == 1 and circuit.drop_factor == 2.0
     return OwnLoad(amps, phasor, continuous, ll,
-                   feeder_load(va, va if continuous else 0.0, watts), circuit.hots)
+                   feeder_load(va, va if continuous else 0.0, watts), circuit.hots,
+                   circuit.neutral)
 
 
 class _BetweenShare:
@@ -181,6 +191,9 @@ class Lines(NamedTuple):
     kinds: tuple[tuple[str, "Lines"], ...] = ()
     """The part of the sums from the loads of each demand group (``DEMAND_GROUPS``), below
     this source too; only when asked for (``sum_source(..., groups=True)``)."""
+    neutral: tuple[complex, ...] = ()
+    """Each line's sum of the currents that return on the neutral [A, phasors] (NEC 220.61(A));
+    empty without a neutral."""
 
     @property
     def phase_amps(self) -> tuple[float, ...]:
@@ -199,9 +212,15 @@ class Lines(NamedTuple):
 
     @property
     def neutral_amps(self) -> float | None:
-        """The neutral's current [A], |sum of the line currents| (NEC 220.61: the maximum
-        unbalance); None without a neutral."""
-        return abs(sum(self.total)) if self.has_neutral else None
+        """The neutral load [A]: the largest line-to-neutral load on one line (NEC 220.61(A));
+        None without a neutral."""
+        return neutral_load(self.neutral) if self.has_neutral else None
+
+
+def neutral_load(neutral: tuple[complex, ...]) -> float:
+    """NEC 220.61(A): the largest of the lines' sums of the currents returning on the neutral
+    [A]; 0 where nothing does."""
+    return max((abs(x) for x in neutral), default=0.0)
 
 
 def _heaviest(total, continuous) -> tuple[int, float]:
@@ -225,6 +244,9 @@ class Feed(NamedTuple):
     load: FeederLoad
     kinds: tuple[tuple[str, "Feed"], ...] = ()
     """The part of it from each demand group's loads (``Lines.kinds``), in the same frame."""
+    neutral: tuple[complex, ...] = ()
+    """Each line's current returning on the neutral (``Lines.neutral``), in the ``lines``
+    frame; empty through a transformer and without a neutral."""
 
     def heaviest(self) -> tuple[int, float, float, float]:
         """(line, design [A], load current [A], continuous current [A]) of the feeder's
@@ -271,12 +293,12 @@ def feed_of(source: Source, lines: Lines, primary: Circuit | None) -> tuple[Feed
     if not lines.kinds:
         return feed, why
     kinds = tuple((g, _feed_of(source, part, primary)[0]) for g, part in lines.kinds)
-    return Feed(feed.total, feed.continuous, feed.frame, feed.load, kinds), why
+    return Feed(feed.total, feed.continuous, feed.frame, feed.load, kinds, feed.neutral), why
 
 
 def _feed_of(source: Source, lines: Lines, primary: Circuit | None) -> tuple[Feed, str | None]:
     if source.kind != "transformer" or primary is None:
-        return Feed(lines.total, lines.continuous, "lines", lines.load), None
+        return Feed(lines.total, lines.continuous, "lines", lines.load, (), lines.neutral), None
     system = SYSTEMS[source.system]
     t, c = lines.total, lines.continuous
     vp = primary.line_volts
@@ -330,6 +352,9 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
     n = len(u)
     items: list[PlaceItem] = []
     whose: list[tuple[Run, OwnLoad | None]] = []   # each item's run and own load (groups)
+    has_neutral = SYSTEMS[source.system].has_neutral
+    back: list[tuple[str, complex]] = []   # own loads returning on the neutral (220.61(A))
+    back_fed: list[tuple[str, tuple[complex, ...]]] = []   # feeders: their panels' neutral sums
     va = cva = watts = 0.0
     feeder = graph.feeder
     for r in graph.children[source_id]:
@@ -352,6 +377,15 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
             watts += load.watts
             items.append(_tuple_new(PlaceItem, (rid, poles, rf["position"], rf["phase"], share,
                                                 mine.size, mine.mags, poles == n, each)))
+            if has_neutral and mine.neutral:
+                fed = None
+                if hots > 1:   # a feeder at a stated load: its panel's own neutral sums
+                    to = rf["to"]
+                    fed = feeds.get(to) if feeder.get(to) is r else None
+                if fed is not None and fed.frame == "lines":
+                    back_fed.append((rid, fed.neutral))
+                else:
+                    back.append((rid, mine.phasor))
             if groups:
                 whose.append((r, mine))
             continue
@@ -373,15 +407,40 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
         cva += load.continuous_va
         watts += load.watts
         poles = min(circuit.hots, n) if n > 1 else 1
+        if has_neutral and circuit.neutral and f.neutral and f.frame == "lines":
+            back_fed.append((rid, f.neutral))
         if groups:
             whose.append((r, mine))
         items.append(PlaceItem(rid, poles, rf["position"], rf["phase"], share, size, mags))
     outcome = place(items, n, source.spaces)
-    has_neutral = SYSTEMS[source.system].has_neutral
     kinds = _group_sums(items, whose, outcome, feeds, u, has_neutral) if groups else ()
+    neutral = _neutral_sums(back, back_fed, outcome, u) if has_neutral else ()
     lines = Lines(tuple(outcome.total), tuple(outcome.continuous), feeder_load(va, cva, watts),
-                  has_neutral, kinds)
+                  has_neutral, kinds, neutral)
     return outcome, lines
+
+
+def _neutral_sums(back: list[tuple[str, complex]], back_fed: list[tuple[str, tuple[complex, ...]]],
+                  outcome: PlaceOutcome, u: tuple[complex, ...]) -> tuple[complex, ...]:
+    """Each line's sum of the currents returning on the neutral [A, phasors] (``Lines.neutral``):
+    from ``back``, each run's own load's phasor against the voltage of each line it takes (summed
+    per line, then turned to that line's angle), and from ``back_fed``, the neutral sums a feeder
+    carries up (in its panel's frame, rotated onto the lines it takes, as ``_FeedShare``)."""
+    n = len(u)
+    raw = [0j] * n
+    placements = outcome.placements
+    for rid, phasor in back:
+        placed = placements.get(rid)
+        if placed is not None:
+            for line in placed.lines:
+                raw[line] += phasor
+    sums = [raw[k] * u[k] for k in range(n)]
+    for rid, part in back_fed:
+        placed = placements.get(rid)
+        if placed is not None:
+            for k, line in enumerate(placed.lines[:len(part)]):
+                sums[line] += part[k] * u[line] * u[k].conjugate()
+    return tuple(sums)
 
 
 DEMAND_GROUPS = {"receptacle": "receptacle", "heater": "heating", "hvac": "cooling"}

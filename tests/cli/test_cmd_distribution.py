@@ -118,12 +118,11 @@ def test_check_json_lists_the_sources_with_their_loading_and_schedule(tmp_path, 
     assert data["drop_through_transformers"] is True
     sources = {s["id"]: s for s in data["sources"]}
     lp1, t1 = sources["LP1"], sources["T1"]
-    # line currents of 120 V loads given in amps are those amps; the neutral is the phasor sum
-    # of 30, 20 and 10 A at 0, -120 and +120 degrees (all at one power factor, which turns the
-    # sum and leaves its size): 30 + (-10 - j17.32) + (-5 + j8.66) = 15 - j8.66, so
-    # sqrt(15^2 + 8.66^2) = 17.32 A (NEC 220.61)
+    # line currents of 120 V loads given in amps are those amps; the neutral load is the
+    # largest line-to-neutral load on one line, 30 A (NEC 2023 220.61(A)), not the 17.32 A
+    # phasor sum of 30, 20 and 10 A at 0, -120 and +120 degrees with all three on
     assert lp1["phase_amps"] == pytest.approx({"A": 30.0, "B": 20.0, "C": 10.0}, abs=0.01)
-    assert lp1["neutral_amps"] == pytest.approx(math.hypot(15, 10 * SQRT3 / 2), abs=0.01)
+    assert lp1["neutral_amps"] == pytest.approx(30.0, abs=0.01)
     assert (lp1["rating_a"], lp1["main_a"]) == (100, 100)
     assert lp1["utilisation_pct"] == pytest.approx(30.0, abs=0.05)   # 30 A of 100 A
     assert lp1["load_va"] == pytest.approx(60 * 120, abs=0.1)

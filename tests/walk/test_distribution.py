@@ -41,6 +41,38 @@ def test_two_16_a_circuits_put_16_a_on_a_line_not_10_7_a_on_three():
     assert result.lines["LP1"].neutral_amps == pytest.approx(16.0)
 
 
+def test_a_balanced_panel_of_120_v_loads_gets_a_neutral_for_one_line_not_for_the_phasor_sum():
+    # four 15 A, 120 V circuits on each line: 60 A on A, B and C. With all on, the phasor sum
+    # on the neutral is 0 A; but NEC 2023 220.61(A) makes the feeder neutral load "the maximum
+    # net calculated load between the neutral and any one ungrounded conductor": 60 A
+    runs = [run_table(f"R{n}", "LP1", f"Lights {n}", "40", load=(15, "A"), connection="LN",
+                      phase="ABC"[n % 3]) for n in range(12)]
+    result = compute_job(_panel_job(*runs))
+    assert result.lines["LP1"].phase_amps == pytest.approx((60.0, 60.0, 60.0))
+    assert result.lines["LP1"].neutral_amps == pytest.approx(60.0)
+    f1 = result.runs["F1"]
+    assert f1.ocpd_a == 60   # NEC 240.6(A)
+    # NEC 2023 Table 310.16, 60 C column (110.14(C)(1), a circuit of 100 A or less): 6 AWG Cu
+    # 55 A is short of 60 A, 4 AWG Cu 70 A carries it; the neutral carries the same 60 A, so it
+    # is 4 AWG too, not the 10 AWG of the EGC for a 60 A device (Table 250.122)
+    assert f1.size == "4 AWG" and f1.egc_size == "10 AWG"
+    assert f1.neutral_size == "4 AWG"
+
+
+def test_the_neutral_load_is_the_largest_line_to_neutral_load_on_one_line():
+    # 120 V loads of 30, 20 and 10 A on A, B and C: NEC 2023 220.61(A): 30 A on the neutral
+    # (the phasor sum with all three on is 17.3 A, but the 20 A and 10 A may be off)
+    runs = [run_table(f"R{n}", "LP1", f"Load {n}", "40", load=(a, "A"), connection="LN",
+                      phase=ph) for n, (a, ph) in enumerate(((30, "A"), (20, "B"), (10, "C")))]
+    result = compute_job(_panel_job(*runs))
+    assert result.lines["LP1"].neutral_amps == pytest.approx(30.0)
+    # a 208 V line-to-line load is between two ungrounded conductors, none of it on the
+    # neutral (NEC 220.61(A))
+    runs += [run_table("R9", "LP1", "Heater", "40", load=(40, "A"), connection="LL",
+                       phase="BC")]
+    assert compute_job(_panel_job(*runs)).lines["LP1"].neutral_amps == pytest.approx(30.0)
+
+
 def test_a_9_kw_and_a_6_kw_heater_at_208_v_load_one_line_with_62_9_a():
     job = _panel_job(
         run_table("H1", "LP1", "Heater 9 kW", "30", load={"value": 9, "unit": "kW", "pf": 1.0},

@@ -165,9 +165,11 @@ def test_a_short_feeder_no_longer_buys_a_reel_per_conductor():
     assert [(w.colour, [(p.label, p.length_ft, p.count) for p in w.order], w.left_over_ft)
             for w in two] == [(c, [("cut to length", 23, 1)], 0)
                               for c in ("black", "red", "blue")]
-    # its neutral carries only LP1's 12 A of unbalance (NEC 220.61): the 8 AWG floor of its EGC
-    # (215.2(A)(2), Table 250.122 with 250.122(B)), and the takeoff orders it so
-    assert any(w.size == "8 AWG" and w.colour == "white" and any(c.run_id == "F1" for c in w.cuts)
+    # its neutral load is the largest line-to-neutral load on one of LP1's lines (NEC 2023
+    # 220.61(A)): five 12 A, 120 V circuits on one line, 60 A (not the 12 A phasor unbalance);
+    # Table 310.16 60 C column (110.14(C)(1), a 60 A circuit): 6 AWG Cu 55 A is short, 4 AWG Cu
+    # 70 A carries it, above the 8 AWG floor of its EGC (215.2(A)(2)); the takeoff orders it so
+    assert any(w.size == "4 AWG" and w.colour == "white" and any(c.run_id == "F1" for c in w.cuts)
                for w in takeoff.wire_lines)
     # no line of a size the supplier cuts buys a put-up it fills less than half
     for w in takeoff.wire_lines:

@@ -1,5 +1,7 @@
-"""A feeder's neutral sized for the current it carries: NEC 220.61 makes the feeder neutral load
-the maximum unbalance of the load, so the neutral may be smaller than the phase conductors.
+"""A feeder's neutral sized for the current it carries: NEC 220.61(A) makes the feeder neutral
+load the maximum net calculated load between the neutral and any one ungrounded conductor (the
+largest line-to-neutral load on one line, ``gaugewalk.model.walk.feeder_loads``), so the neutral
+may be smaller than the phase conductors where much of the load is line-to-line.
 
 The neutral is the smallest size whose allowable ampacity (the same columns and corrections as
 the phase conductors, ``columns.ampacity_columns``) carries that current, no smaller than the
@@ -29,8 +31,9 @@ def neutral_for(i: int, neutral_amps: float, egc_size: str | None, material: str
         if allow[j] + _EPS >= neutral_amps and tab.cmil[j] + _EPS >= floor:
             size = tab.sizes[j]
             return size, (
-                f"NEC 220.61: the neutral carries {amps_text(neutral_amps)} (the maximum "
-                f"unbalance): {size} {MAT[material]}, not below the EGC (215.2(A)(2)); loads "
+                f"NEC 220.61(A): the neutral load is {amps_text(neutral_amps)} (the largest "
+                f"line-to-neutral load on one line): {size} {MAT[material]}, not below the EGC "
+                "(215.2(A)(2)); loads "
                 "taken as linear (220.61(C): no reduction where most are nonlinear on a "
                 "4-wire wye)",)
     return tab.sizes[i], ()
