@@ -119,6 +119,10 @@ class RunSpec:
     lugs_bus_a: int | None = None          # [A] the bus of the main-lugs-only panel a feeder of
                                            # motors feeds: its picked device stays at or below it
                                            # (NEC 408.36)
+    bonding_jumper: bool = False           # a transformer's secondary conductors ahead of their
+                                           # first device: the wire run with them is the supply-
+                                           # side bonding jumper, and the neutral no smaller
+                                           # (NEC 250.30(A)(2), (3), Table 250.102(C)(1))
 
 
 @dataclass(frozen=True)

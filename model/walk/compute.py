@@ -403,6 +403,8 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
         if rule.ocpd_a is not None:
             values["ocpd_a"] = rule.ocpd_a
         values["min_ampacity_a"] = rule.min_ampacity_a
+        if rule.bonding:
+            values["bonding_jumper"] = True
     values["ccc"] = ccc
     _set_attr(spec, "__dict__", values)
     return spec
@@ -629,7 +631,7 @@ class WalkState:
                 return FeederRule(sec.basis, problems=sec.problems) if sec.problems else None
             device = r.ocpd_a if r.ocpd_a is not None else sec.ocpd_a
             return FeederRule(sec.basis, device, sec.min_ampacity_a, sec.min_ampacity_a, False,
-                              sec.notes, sec.problems)
+                              sec.notes, sec.problems, sec.bonding)
         if target is None:
             return None
         if target.kind == "transformer":

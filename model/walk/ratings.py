@@ -86,7 +86,7 @@ class FeederRule(NamedTuple):
     """What a feeder is sized for, when a rule other than its load sets it: the ``basis`` in
     words, the device ``ocpd_a`` [A], the least ampacity [A] with no next size up, the current
     it is sized for ``amps`` [A] (None: its load), whether the connected-load answer is kept
-    beside it (``beside``), notes and problems."""
+    beside it (``beside``), notes, problems and ``bonding``."""
 
     basis: str
     ocpd_a: int | None = None
@@ -95,6 +95,9 @@ class FeederRule(NamedTuple):
     beside: bool = False
     notes: tuple[str, ...] = ()
     problems: tuple[str, ...] = ()
+    bonding: bool = False
+    """A transformer's secondary conductors ahead of their first device: a supply-side bonding
+    jumper in place of the EGC, the neutral no smaller (``RunSpec.bonding_jumper``)."""
 
 
 def equipment_rule(run: Run, target: Source) -> FeederRule | None:

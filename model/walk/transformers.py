@@ -20,6 +20,10 @@ its secondary conductors follow (240.21(C)), its loading and the drop through it
   (the outside, industrial and feeder-tap cases, 240.21(C)(3)-(5), are not checked here). A
   secondary device at the transformer (``secondary_ocpd_a``) is taken as at its terminals: the
   conductors beyond it are a feeder it protects.
+- Bonding (NEC 250.30(A)(2), (3)): secondary conductors ahead of their first device carry the
+  supply-side bonding jumper, by Table 250.102(C)(1) from their size, in place of a Table
+  250.122 EGC, and their neutral is held to that size too (taken with the system bonding jumper
+  at the first disconnecting means; ``SecondaryRule.bonding``).
 - Loading: the heaviest secondary line against the secondary rated current; over it is a
   problem.
 - Drop through it (IEEE Std 141 approximation): %VD = (I / I_rated) (%R cos(phi) + %X sin(phi)),
@@ -213,6 +217,9 @@ class SecondaryRule(NamedTuple):
     basis: str
     notes: tuple[str, ...]
     problems: tuple[str, ...]
+    bonding: bool = True
+    """Ahead of their first device (no secondary device at the transformer): the wire run with
+    them is the supply-side bonding jumper (NEC 250.30(A)(2), Table 250.102(C)(1))."""
 
 
 def secondary_rule(run: Run, source: Source, info: TransformerInfo,
@@ -223,7 +230,7 @@ def secondary_rule(run: Run, source: Source, info: TransformerInfo,
         dev = source.secondary_ocpd_a
         return SecondaryRule(dev, None, f"the transformer's {dev} A secondary device",
                              (f"NEC 240.21(C): protected by {source.id}'s {dev} A secondary "
-                              "device, taken as at its terminals",), ())
+                              "device, taken as at its terminals",), (), False)
     if target is None:
         return SecondaryRule(None, None, "its load", (), (
             f"NEC 240.21(C): conductors from {source.id}'s secondary must end in an overcurrent "

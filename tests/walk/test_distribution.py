@@ -149,6 +149,44 @@ def test_a_45_kva_transformer_gets_its_450_3_b_primary_device_and_its_conductors
     assert not [p for p in result.problems if p.id in ("T1", "F-T1", "F-LP1")]
 
 
+def _secondary_job(transformer=None):
+    """Service 480Y/277 -> F-T1 (40 ft) -> 112.5 kVA T1 (208Y/120) -> F-LP1 (8 ft) -> LP1 with a
+    400 A main, serving 30 kVA three-phase and a 16 A, 120 V circuit."""
+    return make_job(
+        "secondary", sources=[
+            source_table("SVC", "service", Y480),
+            source_table("T1", "transformer", Y208, kva=112.5, **(transformer or {})),
+            source_table("LP1", "panel", Y208, rating_a=400, main_a=400)],
+        runs=[run_table("F-T1", "SVC", "T1", "40"), run_table("F-LP1", "T1", "LP1", "8"),
+              run_table("R1", "LP1", "Kitchen", "30", load=(30, "kVA"), connection="3P"),
+              run_table("R2", "LP1", "Counter", "25", load=(16, "A"), connection="LN")])
+
+
+def test_secondary_conductors_carry_a_supply_side_bonding_jumper_by_table_250_102_c_1():
+    result = compute_job(_secondary_job())
+    f = result.runs["F-LP1"]
+    # NEC 240.21(C)(2): at least LP1's 400 A main, no next size up; Table 310.16 75 C:
+    # 500 kcmil Cu 380 A is short, 600 kcmil Cu 420 A
+    assert f.size == "600 kcmil" and f.ocpd_a == 400
+    # the wire run with them to LP1's main is the supply-side bonding jumper of the separately
+    # derived system (NEC 2023 250.30(A)(2)), sized by Table 250.102(C)(1) from the ungrounded
+    # conductors: over 350 through 600 kcmil Cu -> 1/0 AWG Cu (from memory); not Table
+    # 250.122's 3 AWG for a 400 A device, which is for the load side of a device
+    assert f.egc_size == "1/0 AWG"
+    # 250.30(A)(3): the neutral (16 A of load) not smaller than Table 250.102(C)(1) either,
+    # where the system bonding jumper is at the first disconnecting means (taken so)
+    assert f.neutral_size == "1/0 AWG"
+    assert any("250.102(C)(1)" in n for n in f.notes)
+    assert any("250.30(A)(3)" in n for n in f.notes)
+
+
+def test_past_a_secondary_device_at_the_transformer_the_feeder_egc_is_table_250_122():
+    # a 400 A secondary device at T1's terminals protects F-LP1 as a feeder: Table 250.122,
+    # 3 AWG Cu for 400 A, and the neutral no smaller than it (215.2(A)(2))
+    f = compute_job(_secondary_job({"secondary_ocpd_a": 400})).runs["F-LP1"]
+    assert f.egc_size == "3 AWG" and f.neutral_size == "3 AWG"
+
+
 def test_secondary_conductors_over_25_ft_or_without_a_device_to_end_in_are_problems():
     # NEC 240.21(C)(6): within 25 ft, ending in one device; 1/3 of the primary device x the
     # voltage ratio: 70 x 480 / 208 / 3 = 53.8 A, under the 150 A main that governs

@@ -46,7 +46,7 @@ from gaugewalk.model.engine.sizing.currents import (
     Currents,
     motor_feeder,
 )
-from gaugewalk.model.engine.sizing.egc import egc_for
+from gaugewalk.model.engine.sizing.egc import bonding_jumper_for, egc_for
 from gaugewalk.model.engine.sizing.kinds import STARTING_PF, locked_rotor, rule_for
 from gaugewalk.model.engine.sizing.neutral import neutral_for
 from gaugewalk.model.engine.sizing.pick import (
@@ -149,11 +149,19 @@ length and the drop up to its source, which ``prepare`` does not read."""
 @lru_cache(maxsize=8192)
 def _egc_and_raceway(i: int, ocpd: int, base_i: int | None, sets: int, material: str,
                      egc_mat: str, egc: bool, egc_bare: bool, insulation: str, rtype: str,
-                     hots: int, neutral: int) -> tuple:
-    """EGC (``egc.egc_for``) and raceway (``raceway.raceway_fill``) for the picked size index
+                     hots: int, neutral: int, bonding: bool = False) -> tuple:
+    """EGC (``egc.egc_for``; ``bonding``: the supply-side bonding jumper,
+    ``egc.bonding_jumper_for``) and raceway (``raceway.raceway_fill``) for the picked size index
     ``i``: ``(egc_size, n_egc, raceway_size, fill_pct, notes, problems)``. Depends on neither
     length nor load, so it is cached."""
-    egc_size, notes = egc_for(i, ocpd, base_i, sets, material, egc_mat) if egc else (None, ())
+    egc_size: str | None
+    notes: tuple[str, ...]
+    if not egc:
+        egc_size, notes = None, ()
+    elif bonding:
+        egc_size, notes = bonding_jumper_for(i, sets, material, egc_mat)
+    else:
+        egc_size, notes = egc_for(i, ocpd, base_i, sets, material, egc_mat)
     raceway_size, fill_pct, race_notes, problems = raceway_fill(
         material_table(material).sizes[i], egc_size, egc_bare, insulation, rtype, hots, neutral,
         sets)
@@ -427,7 +435,7 @@ def _part(prep: Prepared, spec: RunSpec, pick_i: int | None, own_i: int | None,
     egc_size, n_egc, raceway_size, fill_pct, er_notes, er_problems = _egc_and_raceway(
         i, cur.egc_basis_a or ocpd, cand.ocpd_i if cand.ocpd_i is not None else cand.min_amp_i,
         sets, material, spec.egc_material or material, bool(spec.egc), bool(spec.egc_bare),
-        st.insulation, st.rtype, hots, neutral)
+        st.insulation, st.rtype, hots, neutral, spec.bonding_jumper)
     notes_b: tuple[str, ...] = er_notes
     neutral_size = size if neutral else None
     if neutral and spec.neutral_amps is not None:
