@@ -53,7 +53,7 @@ def build() -> Job:
         Source(id="T2", kind="transformer", system="208Y/120V 3ph 4w", kva=150,
                impedance_pct=3.5, name="Dock transformer", notes="Dock wall, beside H3"),
         Source(id="L2", kind="panel", system="208Y/120V 3ph 4w", name="Dock panel L2",
-               rating_a=225, notes="Dock wall, beside T2"),
+               rating_a=225, main_a=225, notes="Dock wall, beside T2"),
         Source(id="L2A", kind="panel", system="208Y/120V 3ph 4w", name="Shipping office L2A",
                rating_a=100, notes="Shipping office mezzanine"),
     ]

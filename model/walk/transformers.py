@@ -14,7 +14,9 @@ its secondary conductors follow (240.21(C)), its loading and the drop through it
 - Secondary conductors (240.21(C)): not protected by the primary device; they end in one device
   no larger than their ampacity, with no next size up (240.21(C), 240.4(B) does not apply):
   within 10 ft (240.21(C)(2)) their ampacity is at least the device they end in (or, main lugs
-  only, the rating of the equipment they supply) and at least the primary device x the
+  only, the rating of the equipment they supply, which is then a problem by 408.36(B): a panel
+  supplied through a transformer is protected on its secondary side, but for the secondaries of
+  240.21(C)(1)) and at least the primary device x the
   primary-to-secondary voltage ratio / 10; within 25 ft (240.21(C)(6)) at least that device and
   one third of the primary device x the ratio, ending in a single device. Longer is a problem
   (the outside, industrial and feeder-tap cases, 240.21(C)(3)-(5), are not checked here). A
@@ -208,6 +210,15 @@ def _with(info: TransformerInfo, notes: list[str],
     return info._replace(notes=tuple(notes), problems=tuple(problems))
 
 
+def _primary_protects(source: Source) -> bool:
+    """NEC 240.21(C)(1), 408.36(B) exception: a single-phase two-wire or a three-phase
+    delta-delta three-wire secondary is protected by the primary device (the transformer's
+    primary is taken as delta, as in ``gaugewalk.model.walk.feeder_loads``)."""
+    system = SYSTEMS[source.system]
+    return (system.phases == 1 and system.hots == 1) or (
+        system.phases == 3 and not system.has_neutral)
+
+
 class SecondaryRule(NamedTuple):
     """How the conductors of a run from a transformer's secondary are sized: the device they
     end in [A], the least ampacity [A] (no next size up), the basis, notes and problems."""
@@ -247,6 +258,12 @@ def secondary_rule(run: Run, source: Source, info: TransformerInfo,
             need, ends = float(device), f"{target.id}'s {device} A main"
         elif target.rating_a is not None:
             need, ends = float(target.rating_a), f"{target.id}'s {target.rating_a} A rating"
+            if not _primary_protects(source):
+                problems.append(
+                    f"NEC 408.36(B): {target.id} has main lugs only and {source.id} no "
+                    "secondary device, but a panel supplied through a transformer is protected "
+                    f"on its secondary side; give {target.id}'s main_a or {source.id}'s "
+                    "secondary_ocpd_a")
         else:
             need, ends = 0.0, ""
             problems.append(f"NEC {section}: give {target.id}'s main_a or rating_a: the "

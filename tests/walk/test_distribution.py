@@ -204,6 +204,22 @@ def test_secondary_conductors_over_25_ft_or_without_a_device_to_end_in_are_probl
     assert fixed.runs["F-LP1"].ocpd_a == 150
 
 
+def test_a_main_lugs_panel_on_a_transformer_secondary_without_a_secondary_device_is_a_problem():
+    # 10 ft of secondary conductors into a 225 A main-lugs panel: 240.21(C)(2) sizes them to
+    # its rating, but NEC 2023 408.36(B) wants the panel's overcurrent protection on the
+    # secondary side of the transformer (the primary device protects it only for the
+    # 240.21(C)(1) secondaries: single-phase two-wire, three-phase delta-delta three-wire)
+    lugs = compute_job(_transformer_job("10", panel={"rating_a": 225}))
+    said = [p.message for p in lugs.run_problems("F-LP1")]
+    assert any("408.36(B)" in m for m in said), said
+    assert not lugs.ok
+    # a main on the panel, or a secondary device at the transformer, is that protection
+    assert not compute_job(_transformer_job("10")).run_problems("F-LP1")
+    fixed = compute_job(_transformer_job("10", panel={"rating_a": 225},
+                                         transformer={"secondary_ocpd_a": 150}))
+    assert not fixed.run_problems("F-LP1")
+
+
 def test_primary_and_secondary_protection_checks_the_secondary_device():
     # NEC Table 450.3(B), primary and secondary: the secondary at most 125 % x 124.9 = 156.1 A,
     # note 1: 175 A; LP1's 150 A main is within it; a 200 A secondary device is not
