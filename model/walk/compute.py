@@ -636,8 +636,13 @@ class WalkState:
             return None
         if target.kind == "transformer":
             info = res.transformers.get(target.id)
-            if info is None or info.primary_ocpd_a is None:
+            if info is None:
                 return None
+            if info.primary_ocpd_a is None:   # its kVA missing (said at the source too)
+                return FeederRule("its load", problems=(
+                    f"NEC Table 450.3(B): {target.id}'s primary device cannot be worked out "
+                    f"({'its kVA is not given' if info.kva is None else 'no standard rating fits'}"
+                    "); this feeder is sized only for the load below it",))
             device = info.primary_ocpd_a
             problems: tuple[str, ...] = ()
             if (r.ocpd_a is not None and info.primary_max_a is not None

@@ -220,6 +220,19 @@ def test_a_main_lugs_panel_on_a_transformer_secondary_without_a_secondary_device
     assert not fixed.run_problems("F-LP1")
 
 
+def test_the_feeder_into_a_transformer_without_a_kva_is_not_ok():
+    # with no kVA, Table 450.3(B) gives no primary device (NEC 2023 450.3(B)); the feeder can
+    # only be sized for the load below, which a reviewer must not read as a checked design
+    job = _transformer_job()
+    t1 = job.source("T1")
+    job.sources[job.sources.index(t1)] = t1.model_copy(update={"kva": None})
+    result = compute_job(job)
+    assert any(p.where == "source T1" and "kVA is not given" in p.message
+               for p in result.problems)
+    said = [p.message for p in result.run_problems("F-T1")]
+    assert any("Table 450.3(B)" in m and "kVA" in m for m in said), said
+
+
 def test_primary_and_secondary_protection_checks_the_secondary_device():
     # NEC Table 450.3(B), primary and secondary: the secondary at most 125 % x 124.9 = 156.1 A,
     # note 1: 175 A; LP1's 150 A main is within it; a 200 A secondary device is not
