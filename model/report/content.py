@@ -389,6 +389,8 @@ def schedules_of(job: Job, result: JobResult) -> tuple[ReportSchedule, ...]:
         ratings = []
         if sch.rating_a is not None:
             ratings.append(f"bus {sch.rating_a} A")
+        elif sch.kind in ("panel", "switchboard"):
+            ratings.append("bus rating not given: NEC 408.30 and 408.36 not checked")
         ratings.append(f"main {sch.main_a} A" if sch.main_a is not None else
                        "no main device given" if sch.kind == "service" else "main lugs only")
         if sch.feeder is not None:

@@ -9,8 +9,10 @@ import math
 
 import pytest
 
+from gaugewalk.model.report.content import schedules_of
 from gaugewalk.model.walk.compute import compute_job
 from gaugewalk.model.walk.job import Load
+from gaugewalk.model.walk.plausible import implausible
 from gaugewalk.model.walk.transformers import primary_device
 from tests.support.walks import make_job, run_table, source_table
 
@@ -289,6 +291,23 @@ def test_a_main_lugs_panel_fed_by_a_larger_device_and_a_main_above_the_bus_are_p
                for p in lugs.problems if p.where == "source LP1")
     big = compute_job(_panel_job(*loads, panel={"rating_a": 100, "main_a": 125}))
     assert any("125 A main is larger than its 100 A bus" in p.message for p in big.problems)
+
+
+def test_a_panel_without_a_bus_rating_is_said_not_checked():
+    # NEC 2023 408.30 (the bus against its load) and 408.36 (a main-lugs panel's feeder device
+    # not above its bus) need the panel's rating: without it they cannot pass, only go unchecked
+    loads = [run_table("R1", "LP1", "Oven", "40", load=(30, "kVA"), connection="3P")]
+    job = _panel_job(*loads)
+    said = [p.brief() for p in implausible(job)]
+    assert any(w.startswith("source LP1:") and "408.30" in w and "408.36" in w for w in said)
+    notes = [n for sch in schedules_of(job, compute_job(job)) if sch.title == "LP1"
+             for n in sch.notes]
+    assert any("bus rating not given" in n and "not checked" in n for n in notes), notes
+    rated = _panel_job(*loads, panel={"rating_a": 100})
+    assert not [p for p in implausible(rated) if p.where == "source LP1"]
+    # the service SVC gives neither a rating nor a main: its loading is not checked either
+    # (NEC 230.42(A), 230.79)
+    assert [p.field for p in implausible(rated) if p.where == "source SVC"] == ["rating_a"]
 
 
 def test_an_equipment_basis_sizes_the_feeder_to_the_panel_and_keeps_the_load_answer_beside():
