@@ -46,6 +46,7 @@ class WalkHold:
         self.tool = tool
         self.lock: WalkLock | None = None
         self.fingerprint: Fingerprint | None = None   # what the file held when it was read
+        self.saved = False                             # a save reached the disk
 
     # -- who holds it -------------------------------------------------------------------------
     def take_lock(self) -> WalkLock:
@@ -126,5 +127,6 @@ class WalkHold:
         self._hold_again()
         notice = save_walk(job, self.path, allow_comment_loss=allow_comment_loss,
                            expected=self.fingerprint, written=written)
+        self.saved = True
         self.fingerprint = fingerprint(self.path)
         return notice

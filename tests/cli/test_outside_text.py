@@ -183,3 +183,30 @@ def test_takeoff_csv_cells_never_start_a_formula(tmp_path):
     for row in rows:
         for cell in row:
             assert not cell.startswith(("=", "+", "-", "@", "\t", "\r")), cell
+
+
+@pytest.mark.parametrize("argv", [
+    ["add", "{walk}", "--from", "LP1", "--to", "Shelf lights", "--amps", "8", "--length", "40"],
+    ["source", "{walk}", "LP9", "--kind", "panel", "--system", "208Y/120", "--from", "LP1",
+     "--length", "30"],
+])
+def test_a_change_saved_before_its_reader_stopped_is_not_reported_lost(tmp_path, argv):
+    """``gaugewalk add WALK ... | head -1``: the run is saved, then the second line of the
+    summary meets a closed pipe. The command said 'not saved, the file is as it was' and exit 2
+    with the change on disk; it ends as a reader stopping early does, exit 0, and the walk has
+    the change."""
+    from tests.support.walks import write_walk
+
+    walk = write_walk(tmp_path)
+    read, write = os.pipe()
+    proc = subprocess.Popen([sys.executable, "-m", "gaugewalk.tui.cli.main",
+                             *(a.format(walk=walk) for a in argv)], cwd=REPO,
+                            stdout=write, stderr=subprocess.PIPE)
+    os.close(write)
+    os.close(read)
+    _, err = proc.communicate(timeout=120)
+    text = err.decode()
+    assert "Traceback" not in text and "not saved" not in text, text[-2000:]
+    assert proc.returncode == 0
+    saved = walk.read_text()
+    assert ('to = "Shelf lights"' in saved) if argv[0] == "add" else ('id = "LP9"' in saved)

@@ -22,7 +22,8 @@ def writes_walk(path_arg: str, tool: str):
     saves take too: refused with exit 2 and who holds it when the app or another command has it;
     a stale lock of a dead process is cleared with a note), note what the file holds before the
     command reads it, give the command ``args.hold`` for ``commit``, and turn a refused or failed
-    save into one line on stderr and exit 2."""
+    save into one line on stderr and exit 2. Output closed by its reader (``| head``) after the
+    save is no failure: the change is on disk (``main`` ends such a command with exit 0)."""
     from gaugewalk.model.session.hold import WalkHold
     from gaugewalk.model.walkfile.fingerprint import ChangedOnDisk
     from gaugewalk.model.walkfile.lock import LockError, WalkLocked
@@ -58,6 +59,11 @@ def writes_walk(path_arg: str, tool: str):
                     print(str(exc), file=sys.stderr)
                 except WalkFileError as exc:
                     print_problems(exc.problems)
+                except BrokenPipeError:
+                    if hold.saved:  # the reader of the output stopped early (``| head``)
+                        raise       # after the change was saved: not an error (``main``)
+                    print(f"{path}: not saved, the file is as it was: the output was closed "
+                          "before the walk was saved", file=sys.stderr)
                 except OSError as exc:
                     print(f"{path}: not saved, the file is as it was: {exc.strerror or exc}",
                           file=sys.stderr)
