@@ -230,7 +230,7 @@ def resolve_circuit(system_id: str, connection: str, *, nonlinear: bool = False)
             return Circuit(f"{ln:g} V multiwire, 2 legs", ln, 1, ll, 1.0, 2, True, False,
                            notes=(_SIMULTANEOUS,) + high_leg)
         return Circuit(f"{ln:g} V multiwire, 3 legs", ln, 3, ll, 1.0, 3, True, nonlinear,
-                       notes=(_SIMULTANEOUS,))
+                       notes=(_SIMULTANEOUS,) + (() if nonlinear else _LINEAR_NEUTRAL))
     if conn == "3P":
         need_three_phase("three-phase")
         return Circuit(f"{ll:g} V 3-phase", ll, 3, ll, SQRT3, 3, False, False, notes=high_leg)
@@ -241,9 +241,15 @@ def resolve_circuit(system_id: str, connection: str, *, nonlinear: bool = False)
         # the neutral carries only the unbalance of the 120 V loads on A and C: 310.15(E)(1)
         return Circuit(f"{ll:g}/{ln:g} V 3-phase 4-wire delta", ll, 3, ll, SQRT3, 3, True,
                        False, notes=high_leg)
-    return Circuit(f"{ll:g}Y/{ln:g} V 3-phase 4-wire", ll, 3, ll, SQRT3, 3, True, nonlinear)
+    return Circuit(f"{ll:g}Y/{ln:g} V 3-phase 4-wire", ll, 3, ll, SQRT3, 3, True, nonlinear,
+                   notes=() if nonlinear else _LINEAR_NEUTRAL)
 
 
+_LINEAR_NEUTRAL = (
+    "NEC 310.15(E)(1): the neutral of a 4-wire wye circuit, carrying only the unbalance, is not "
+    "counted as current-carrying (the loads taken as linear); where the major portion of the "
+    "load is nonlinear (electronic drivers, computers) it counts (310.15(E)(3)), and four "
+    "current-carrying conductors in one raceway are then adjusted to 80 %",)
 _SIMULTANEOUS = ("NEC 210.4(B): the hots of a multiwire branch circuit are opened together "
                  "(a multipole breaker or identified handle ties)")
 _TWO_LEGS_OF_A_WYE = (

@@ -61,6 +61,17 @@ def test_a_balanced_panel_of_120_v_loads_gets_a_neutral_for_one_line_not_for_the
     assert f1.neutral_size == "4 AWG"
 
 
+def test_a_feeder_neutral_taken_as_not_current_carrying_says_the_nonlinear_case():
+    # NEC 2023 310.15(E)(1): a 4-wire wye feeder's neutral carrying only the unbalance is not
+    # counted; 310.15(E)(3): where the major portion of the load is nonlinear (LED drivers,
+    # computers) it is, and four current-carrying conductors take 80 % (Table 310.15(C)(1)).
+    # The walk does not say which, so the note must
+    runs = [run_table(f"R{n}", "LP1", f"Lights {n}", "40", load=(15, "A"), connection="LN",
+                      phase="ABC"[n % 3]) for n in range(6)]
+    f1 = compute_job(_panel_job(*runs)).runs["F1"]
+    assert any("310.15(E)(3)" in n and "not counted" in n for n in f1.notes), f1.notes
+
+
 def test_the_neutral_load_is_the_largest_line_to_neutral_load_on_one_line():
     # 120 V loads of 30, 20 and 10 A on A, B and C: NEC 2023 220.61(A): 30 A on the neutral
     # (the phasor sum with all three on is 17.3 A, but the 20 A and 10 A may be off)
