@@ -921,13 +921,20 @@ def _served_beyond_stated(state: WalkState, r: Run, design_a: float,
     """A feeder given its own load is sized for it, as the person asked (a demand load worked
     out by hand, NEC 220 Parts III-IV, is the usual reason). Where the loads recorded on the
     source it feeds need more on their heaviest line (NEC 215.2(A)(1), with the job's demand
-    setting), its basis says so and states the assumption, so a stale figure cannot pass unseen:
-    (that design current [A], the words); (None, "") where they need no more."""
+    setting; 430.24 where it supplies motors), its basis says so and states the assumption, so
+    a stale figure cannot pass unseen: (that design current [A], the words); (None, "") where
+    they need no more."""
     served, _ = state.with_demand(r, feed)
     k, need, _, _ = served.heaviest()
+    target = state.walk.sources[r.to]
+    motors = (state.result.motor_groups.get(r.to) if target.kind != "transformer" else None)
+    if motors is not None:   # NEC 430.24: the largest motor at 125 %, as a feeder summing them
+        k, amps, cont, motor_a = heaviest_with_motor(served, motors.largest_a)
+        need = amps + 0.25 * (cont + motor_a)
     if need <= design_a + 0.05:
         return None, ""
     line = f"line {LINE_NAMES[k]}" if served.frame == "lines" else "the primary winding"
     return need, (f" ({design_a:.1f} A design), taken as a demand load worked out for {r.to}: the "
-            f"loads recorded there need {need:.1f} A on {line} (NEC 215.2(A)(1)); remove the "
+            f"loads recorded there need {need:.1f} A on {line} (NEC 215.2(A)(1)"
+            f"{', 430.24' if motors is not None else ''}); remove the "
             "feeder's load to size it from them")

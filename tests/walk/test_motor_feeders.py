@@ -214,3 +214,19 @@ def test_the_line_a_motor_makes_heaviest_with_its_25_percent_sizes_the_feeder():
     assert f1.design_amps == pytest.approx(55.0)
     assert result.feeders["F1"].line == "B"
     assert any("430.24" in n and "44.0 A added at 25 %" in n for n in f1.notes)
+
+
+def test_a_feeder_kept_at_a_stated_load_below_its_motors_430_24_current_says_so():
+    from gaugewalk.model.walk.job import Load
+    from gaugewalk.model.walk.plausible import stated_loads
+
+    # NEC 2023 Table 430.250, 460 V column: 25 hp 34 A; 430.24: 1.25 x 34 = 42.5 A
+    job = _motors_job(_motor("M1", 25))
+    job.runs[0].load = Load(value=40, unit="A")   # more than 34 A, less than 42.5 A
+    result = compute_job(job)
+    assert result.runs["F1"].design_amps == pytest.approx(40.0)
+    assert result.feeders["F1"].served_a == pytest.approx(42.5)
+    assert [rid for rid, _ in stated_loads(result)] == ["F1"]
+    # a stated load that covers 430.24's current is kept without a word
+    job.runs[0].load = Load(value=43, unit="A")
+    assert compute_job(job).feeders["F1"].served_a is None
