@@ -732,7 +732,7 @@ class WalkState:
         if motors is not None and limit is not None:
             extra = (heaviest_with_motor(feed, motors.largest_a)[3] if feed is not None
                      else spec.continuous_amps or 0.0)
-            notes = notes_for(motors, extra, limit)
+            notes = notes_for(motors, extra, limit, result.ocpd_a)
             problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "
                          f"{limit:.0f} A it permits for the motors it supplies",)
                         if motors.only_motors and result.ocpd_a > limit + _EPS else ())

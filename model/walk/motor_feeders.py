@@ -152,9 +152,19 @@ def below_branch_device(group: MotorGroup, ocpd_a: int, limit_a: float) -> str:
             "('ocpd_a') or the motor a smaller one")
 
 
-def notes_for(group: MotorGroup, extra_a: float, limit_a: float) -> tuple[str, ...]:
+_BELOW_430_63 = (
+    "; the {} A device is below it: 430.63 words that figure as a floor (\"not less than\"), "
+    "a wording the trade often reads as a ceiling like 430.62(A)'s, so it is taken as neither: "
+    "the device is checked against what the load needs (215.3) and the largest motor branch "
+    "device only; confirm the reading with the authority having jurisdiction")
+"""What a 430.63 note adds where the feeder's device is below the figure (a stated reading)."""
+
+
+def notes_for(group: MotorGroup, extra_a: float, limit_a: float,
+              device_a: int | None = None) -> tuple[str, ...]:
     """The feeder's notes on its motors: the 125 % of the largest (430.24, 440.33), the device
-    limit (430.62(A)) and the HVAC assumption."""
+    limit (430.62(A)) or, with other loads, the 430.63 figure and, where the feeder's
+    ``device_a`` [A] is below it, how that figure was read; and the HVAC assumption."""
     notes = [f"NEC 430.24: 125 % of the largest motor ({group.largest_run}, "
              f"{group.largest_a:.1f} A) plus the other loads: {extra_a:.1f} A added at 25 %",
              f"NEC 430.62(A): feeder device not above {limit_a:.0f} A (the largest branch "
@@ -162,7 +172,8 @@ def notes_for(group: MotorGroup, extra_a: float, limit_a: float) -> tuple[str, .
              if group.only_motors else
              f"NEC 430.63: with other loads, the motors' part per 430.62(A) plus the other loads "
              f"is {limit_a:.0f} A (the largest branch device, {group.device_a:.0f} A, plus the "
-             "rest)"]
+             "rest)" + (_BELOW_430_63.format(device_a) if device_a is not None
+                        and device_a + 1e-9 < limit_a else "")]
     if group.instantaneous:
         pct = t_mp.branch_device_percent("squirrel-cage", FEEDER_DEVICE)
         runs = ", ".join(f"{rid} at {amps:.0f} A" for rid, amps in group.instantaneous[:4])

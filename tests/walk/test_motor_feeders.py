@@ -230,3 +230,23 @@ def test_a_feeder_kept_at_a_stated_load_below_its_motors_430_24_current_says_so(
     # a stated load that covers 430.24's current is kept without a word
     job.runs[0].load = Load(value=43, unit="A")
     assert compute_job(job).feeders["F1"].served_a is None
+
+
+def test_a_feeder_device_below_the_430_63_figure_says_how_that_figure_was_read():
+    job = _motors_job(_motor("M1", 25),
+                      run_table("H1", "MCC", "Heater", "40", load=(20, "A"), connection="3P",
+                                continuous=True))
+    job.runs[0].ocpd_a = 90
+    result = compute_job(job)
+    f1 = result.runs["F1"]
+    # NEC 2023 Table 430.250: 25 hp, 460 V, 34 A; Table 430.52(C)(1): 250 % -> 85 A -> 90 A.
+    # 430.63 (from memory: "not less than" the other loads plus the rating 430.62 permits):
+    # 90 A + 125 % of the 20 A heater (215.3) = 115 A; the 90 A device is below that figure
+    assert result.feeders["F1"].max_ocpd_a == pytest.approx(115.0)
+    note = next(n for n in f1.notes if n.startswith("NEC 430.63"))
+    assert "90 A device" in note and "below" in note and "authority having jurisdiction" in note
+    assert result.ok   # a stated reading, not a problem
+    # a device at or above the figure has nothing more to say
+    job.runs[0].ocpd_a = 125
+    note = next(n for n in compute_job(job).runs["F1"].notes if n.startswith("NEC 430.63"))
+    assert "below" not in note
