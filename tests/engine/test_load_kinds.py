@@ -108,6 +108,10 @@ def test_a_single_phase_motor_reads_table_430_248():
     assert (r.flc_a, r.design_amps, r.size, r.ocpd_a) == (12.0, 15.0, "14 AWG", 30)
     # NEC 2023 Table 430.251(A): 2 hp, 230 V -> 72 A locked-rotor (from memory)
     assert r.locked_rotor_a == 72.0
+    # Table 430.251(A) is the single-phase table: it has no design letters (those are Table
+    # 430.251(B)'s, polyphase design B, C and D; from memory), so its note names none
+    lra_note = next(n for n in r.notes if "430.251(A)" in n)
+    assert "design" not in lra_note
 
 
 def test_the_code_letter_gives_the_locked_rotor_current_by_table_430_7_b():

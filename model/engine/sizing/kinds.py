@@ -254,9 +254,10 @@ def locked_rotor(eq: Equipment, volts: float, phases: int) -> tuple[float | None
         lra = t_lra.locked_rotor_amps(eq.hp, volts, phases)
     except TableLookupError as exc:
         return None, f"no locked-rotor current ({exc}): starting drop not worked"
+    which = "maximum" if phases == 1 else "maximum for design B, C and D"
     return lra.amps, (f"NEC {lra.table}: {hp_text(eq.hp)} hp, {lra.column} V column, "
                       f"{amps_text(lra.amps)} locked-rotor (no code letter given; the table's "
-                      f"maximum for design B, C and D)")
+                      f"{which})")
 
 
 # -- the rules ------------------------------------------------------------------------------------
