@@ -164,6 +164,14 @@ class RunResult:
     def ok(self) -> bool:
         return not self.problems
 
+    @property
+    def within_limits(self) -> bool:
+        """Its ampacity enough and its drop within both targets (``margins``), whatever other
+        problem it has (data missing, a device, a rule of its place)."""
+        m = self.margins
+        return (self.ampacity_a + 1e-9 >= self.required_ampacity_a
+                and m.get("drop_pct", 0.0) >= -1e-9 and m.get("total_drop_pct", 0.0) >= -1e-9)
+
     def to_dict(self) -> dict:
         data = asdict(self)
         data["ok"] = self.ok

@@ -118,3 +118,22 @@ def test_a_run_whose_breaker_position_is_taken_is_not_ok_in_the_table_or_the_jso
     assert main(["check", str(path)]) == 1
     row = next(line for line in capsys.readouterr().out.splitlines() if line.startswith("KETTLE"))
     assert row.endswith("PROBLEM")  # within its ampacity and drop, but not where it is written
+
+
+def test_over_is_for_ampacity_and_drop_and_problem_for_any_other(tmp_path, capsys):
+    """A run whose only problem is its device (an HVAC breaker above the nameplate maximum,
+    NEC 440.22(C)) is within its ampacity and drop: PROBLEM, not OVER. A 12 AWG branch 400 ft
+    long is OVER: 16 A x 2 x 400 ft x 1.98 ohm/kft (NEC Ch. 9 Table 8, 12 AWG stranded Cu,
+    the DC resistance the AC figure sits near) is about 25 V, far over 3 % of 120 V."""
+    walk = tmp_path / "w.toml"
+    assert main(["new", str(walk), "--service", "208Y/120"]) == 0
+    assert main(["add", str(walk), "--from", "SVC", "--to", "RTU", "--kind", "hvac", "--mca",
+                 "20", "--mocp", "30", "--ocpd", "40", "--length", "30",
+                 "--connection", "3P"]) == 0
+    assert main(["add", str(walk), "--from", "SVC", "--to", "Far", "--amps", "16", "--length",
+                 "400", "--size", "12 AWG", "--connection", "LN"]) == 0
+    capsys.readouterr()
+    assert main(["check", str(walk)]) == 1
+    rows = {line.split()[0]: line.split()[-1] for line in capsys.readouterr().out.splitlines()
+            if line.startswith(("R1 ", "R2 "))}
+    assert rows == {"R1": "PROBLEM", "R2": "OVER"}

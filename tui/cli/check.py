@@ -146,8 +146,10 @@ def _table(path: str, job: Job, result: JobResult) -> str:
         else:
             size = f"{rr.sets}x{rr.size}" if rr.sets > 1 else rr.size
             vd, tot = f"{rr.voltage_drop_pct:.2f}", f"{rr.total_drop_pct:.2f}"
-            status = ("OVER" if not rr.ok else "PROBLEM" if result.run_problems(r.id)
-                      else "ok")   # PROBLEM: listed below the table (its breaker position)
+            # OVER: short of ampacity or over a drop target; PROBLEM: any other, listed below
+            # the table (data missing, its device, its breaker position)
+            status = ("OVER" if not rr.within_limits else
+                      "PROBLEM" if not rr.ok or result.run_problems(r.id) else "ok")
         rows.append((r.id, r.from_, to, f"{r.length_ft:.1f}", _load_text(r, job), size, vd, tot,
                      status))
     wid = max([len("run"), *(len(row[0]) for row in rows)])
