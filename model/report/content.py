@@ -227,6 +227,10 @@ def _defaults(job: Job) -> tuple[tuple[str, str], ...]:
         ("Feeder drop target [%]", f"{d.feeder_drop_pct:g} (informational note to NEC 215.2)"),
         ("Total drop target [%]", f"{d.total_drop_pct:g} (informational note to NEC 215.2)"),
         ("Drop through transformers", drop_basis(job)),
+        ("Loads on 4-wire wye circuits",
+         "mostly nonlinear: neutrals counted as current-carrying (NEC 310.15(E)(3)), feeder "
+         "neutrals full size (220.61(C)(2))" if d.nonlinear_loads else
+         "linear: neutrals carry the unbalance only, not counted (NEC 310.15(E)(1))"),
         ("Feeder basis", {"load": "the load served, heaviest line (NEC 215.2(A)(1))",
                           "equipment": "the main or bus rating of the equipment fed "
                                        "(common practice)"}[d.feeder_basis]),

@@ -215,7 +215,8 @@ def run_spec_for(
         source = job.source(run.from_)
         if source is None:
             raise CircuitError(f"the run starts at '{run.from_}', which is not a source of this job")
-        circuit = resolve_circuit(source.system, connection_of(job, run))
+        circuit = resolve_circuit(source.system, connection_of(job, run),
+                                  nonlinear=job.defaults.nonlinear_loads)
     if is_feeder is None:
         is_feeder = job.source(run.to) is not None
     rule = state.feeder_rule(run, is_feeder)
@@ -466,7 +467,8 @@ class WalkState:
                 conn = default_connection(system, to == 2)
                 unstated = to == 0  # a branch run: its circuit was the walker's to state
             try:
-                c = resolve_circuit(system, conn)
+                c = resolve_circuit(system, conn,
+                                    nonlinear=self.job.defaults.nonlinear_loads)
             except CircuitError as exc:
                 self.fail(run, str(exc), "connection")
                 res._circuits.pop(rid, None)

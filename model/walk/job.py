@@ -296,6 +296,12 @@ class Defaults(_Strict):
     """The drop from the service carries through a transformer, its own drop at its load
     included (IEEE Std 141 approximation); false: the drop restarts at 0 % on each secondary
     (as when the taps make up the drop upstream)."""
+    nonlinear_loads: bool = False
+    """The major portion of the load on 3-phase 4-wire wye circuits is nonlinear (electronic
+    drivers, computers, LED lighting): their neutral counts as current-carrying (NEC
+    310.15(E)(3)), four current-carrying conductors in a raceway are adjusted (310.15(C)(1)),
+    and a feeder's neutral is full size (220.61(C)(2): no reduction for that load; common
+    practice). False: the loads taken as linear, which each such circuit says in its notes."""
     feeder_basis: FeederBasis = "load"
     """What a feeder is sized for: ``load`` (the heaviest line of what it serves, NEC
     215.2(A)(1)) or ``equipment`` (the main device, else the bus rating, of the panel it feeds;

@@ -129,7 +129,8 @@ def raceway_ccc(job: Job, raceway_id: str) -> int | None:
         if source is None:
             continue
         try:
-            circuit = resolve_circuit(source.system, connection_of(job, run))
+            circuit = resolve_circuit(source.system, connection_of(job, run),
+                                      nonlinear=job.defaults.nonlinear_loads)
         except CircuitError:
             continue
         total += run_ccc(circuit, run.sets)

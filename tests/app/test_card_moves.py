@@ -6,7 +6,7 @@ import pytest
 
 from gaugewalk.tui.app.screens.card import RunCard
 from gaugewalk.tui.app.screens.job import JobSettingsScreen
-from tests.support.app_helpers import new_app, opened, type_text
+from tests.support.app_helpers import new_app, opened, settle, type_text
 from tests.support.walks import write_walk
 
 
@@ -52,3 +52,25 @@ async def test_job_settings_open_on_the_job_name_and_moving_on_keeps_the_next_fi
         assert field.id == "s-material" and field.selection.is_empty
         await type_text(pilot, "x")  # a stray key does not wipe the setting
         assert field.value == "cux"
+
+
+async def test_job_settings_move_with_the_arrows_and_store_nonlinear_loads(tmp_path):
+    # the arrows move between settings as on the run card (a walker pressed Down and typed
+    # into the job's name); the nonlinear row is stored into the walk (NEC 310.15(E)(3))
+    from gaugewalk.model.walkfile.read import load_walk
+
+    path = write_walk(tmp_path)
+    app = new_app(path, tmp_path / "cfg")
+    async with app.run_test(size=(80, 24)) as pilot:
+        await opened(app, pilot)
+        await pilot.press("j")
+        await pilot.pause()
+        screen = app.screen
+        assert screen.focused.id == "s-job-name"
+        await pilot.press("down", "down", "up")
+        assert screen.focused.id == "s-job-site"
+        screen.query_one("#s-nonlinear_loads").focus()
+        await pilot.press("ctrl+u", "y", "e", "s", "enter")
+        await settle(app, pilot)
+        assert not isinstance(app.screen, JobSettingsScreen)
+    assert load_walk(path).defaults.nonlinear_loads is True

@@ -86,6 +86,8 @@ KEYS: tuple[KeyAction, ...] = (
     # job settings
     KeyAction("job.store", "ctrl+s,enter", "store", "Store", "Store the settings (Enter does the same); every run recomputes.", "job", priority=True, key_display="^s"),
     KeyAction("job.leave", "escape", "leave", "Leave unchanged", "Leave the settings as they were.", "job", key_display="Esc"),
+    KeyAction("job.down", "down", "app.focus_next", "Down", "Next setting (↓), as on the run card; Tab too.", "job", footer=False, priority=True, key_display="↓"),
+    KeyAction("job.up", "up", "app.focus_previous", "Up", "Previous setting (↑); shift+Tab too.", "job", footer=False, priority=True, key_display="↑"),
     # first screen and new walk
     KeyAction("start.go", "enter", "go", "Open", "Open the walk picked, or create the file named.", "start", priority=True, key_display="Enter"),
     KeyAction("start.new", "n", "new", "New walk", "Start a new walk (asks for its file).", "start"),

@@ -105,6 +105,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         "runs": runs,
         "sources": sources,
         "drop_through_transformers": job.defaults.drop_through_transformers,
+        "nonlinear_loads": job.defaults.nonlinear_loads,
         "drop_basis": drop_basis(job),
         "raceways": raceways,
         "demand": job.defaults.demand,

@@ -439,8 +439,9 @@ def _part(prep: Prepared, spec: RunSpec, pick_i: int | None, own_i: int | None,
     notes_b: tuple[str, ...] = er_notes
     neutral_size = size if neutral else None
     if neutral and spec.neutral_amps is not None:
-        neutral_size, n_notes = neutral_for(i, float(spec.neutral_amps), egc_size, material,
-                                            cols, tab)
+        neutral_size, n_notes = neutral_for(
+            i, float(spec.neutral_amps), egc_size, material, cols, tab,
+            circuit.phases == 3 and circuit.neutral_is_ccc)   # 310.15(E)(3): nonlinear loads
         notes_b += n_notes
 
     amps = prep.amps

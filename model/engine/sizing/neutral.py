@@ -8,7 +8,8 @@ the phase conductors, ``columns.ampacity_columns``) carries that current, no sma
 EGC the feeder's device asks (NEC 215.2(A)(2), Table 250.122), no larger than the phase
 conductors, and 1/0 AWG or larger in parallel sets (310.10(G)). The loads are taken as linear:
 where most of them are nonlinear (electronic) on a four-wire wye, 220.61(C) forbids the
-reduction, and the walk does not know that, so the note says so. The 70 % demand factor of
+reduction, and the walk does not know that unless the job says its loads are nonlinear
+(``Defaults.nonlinear_loads``): then the neutral is full size; else the note says so. The 70 % demand factor of
 220.61(B) on the unbalance above 200 A is not taken (conservative).
 
 Public API: ``neutral_for(i, neutral_amps, egc_size, cols, tab) -> (size, notes)``.
@@ -23,8 +24,15 @@ _EPS = 1e-9
 
 
 def neutral_for(i: int, neutral_amps: float, egc_size: str | None, material: str,
-                cols: AmpacityColumns, tab: MaterialTable) -> tuple[str, tuple[str, ...]]:
-    """The neutral for phase conductors of size index ``i`` carrying ``neutral_amps`` [A]."""
+                cols: AmpacityColumns, tab: MaterialTable,
+                nonlinear: bool = False) -> tuple[str, tuple[str, ...]]:
+    """The neutral for phase conductors of size index ``i`` carrying ``neutral_amps`` [A];
+    ``nonlinear``: the neutral of a 4-wire wye whose loads are mostly nonlinear, full size."""
+    if nonlinear:
+        return tab.sizes[i], (
+            f"NEC 220.61(C)(2), 310.15(E)(3): the loads taken as nonlinear (the job's setting): "
+            f"the neutral full size, {tab.sizes[i]} {MAT[material]}, and counted as "
+            "current-carrying (common practice: harmonics add on the neutral)",)
     floor = cmil(egc_size) if egc_size is not None else 0.0
     allow = cols.allowable_total
     for j in range(cols.first, i):

@@ -33,6 +33,7 @@ SETTINGS: tuple[tuple[str, str, str], ...] = (
     ("method", "Drop method", "ac, kfactor or dc"),
     ("starting_drop_pct", "Start drop %", "motors starting; 10 to 15 common practice"),
     ("drop_through_transformers", "Thru xfmr", "yes: total carries on; no: 0 % at secondary"),
+    ("nonlinear_loads", "Nonlinear", "yes: 4-wire wye neutrals count (310.15(E)(3))"),
     ("feeder_basis", "Feeder basis", vocab.or_words(FEEDER_BASES) + " (215.2(A)(1); main/bus)"),
     ("demand", "Feeder load", vocab.or_words(DEMANDS) + " (220.44, 220.60)"),
     ("pf", "Power factor", "for loads without one"),
@@ -98,7 +99,7 @@ class JobSettingsScreen(TypedInOrder, Screen):
             elif text != "":
                 # the model reads yes/no itself, and names the field when it cannot
                 text_keys = ("material", "insulation", "raceway", "method", "min_size", "demand",
-                             "feeder_basis", "drop_through_transformers")
+                             "feeder_basis", "drop_through_transformers", "nonlinear_loads")
                 defaults[key] = text if key in text_keys else _number(text)
         return header, defaults
 
@@ -111,7 +112,8 @@ class JobSettingsScreen(TypedInOrder, Screen):
         from gaugewalk.tables.conductor.ampacity import parse_insulation
 
         for key, check in (("raceway", resolve_raceway), ("insulation", parse_insulation),
-                           ("drop_through_transformers", _yes_or_no)):
+                           ("drop_through_transformers", _yes_or_no),
+                           ("nonlinear_loads", _yes_or_no)):
             try:
                 check(defaults.get(key, ""))
             except ValueError as exc:
