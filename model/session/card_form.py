@@ -488,6 +488,8 @@ class CardCheck:
     feet: float | None = None
     circuit: Circuit | None = None  # what the circuit field means on the source (None: unknown)
     connection: str = ""        # the circuit field's connection ("": every hot and the neutral)
+    taken: tuple[str, ...] = ()  # what sizing the run took as given that the card could say
+    #                              (a load in kW without its power factor: ``pf_assumed``)
 
 
 @dataclass
@@ -1146,6 +1148,10 @@ class CardForm:
             preview = self.session.preview(run, replaces=self.run_id, new_source=out.new_source)
             out.result = preview.result
             out.cannot = preview.cannot_size
+            if run.load is not None and out.result is not None:
+                from gaugewalk.model.walk.equipment import pf_assumed
+
+                out.taken = pf_assumed(run.load, self.session.job.defaults.pf)
             for p in preview.problems:
                 key = _CARD_FIELD.get(p.field or "", "to" if p.field is None else "from")
                 r.errors.setdefault(key, p.message)

@@ -41,7 +41,7 @@ from typing import NamedTuple
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.collector import collector_held
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fields
-from gaugewalk.model.engine.loads import REAL_POWER_UNITS, UNITS, LoadError, load_amps, pf_taken
+from gaugewalk.model.engine.loads import REAL_POWER_UNITS, UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.currents import design_current
 from gaugewalk.model.engine.sizing.evaluate import Prepared, finish_prepared, prepared_for
@@ -49,7 +49,7 @@ from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
 from gaugewalk.model.walk.demand import DemandStep, apply_demand
-from gaugewalk.model.walk.equipment import load_facts
+from gaugewalk.model.walk.equipment import load_facts, pf_assumed
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
     Feed,
@@ -397,7 +397,7 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
     values["upstream_drop_pct"] = upstream_drop_pct
     values["equipment"] = equipment
     if load is not None and load.pf is None and load.unit in REAL_POWER_UNITS:
-        values["load_notes"] = pf_taken(load.value, load.unit, pf, "the job's")
+        values["load_notes"] = pf_assumed(load, d["pf"])
     if continuous_amps is not None and circuit.neutral and feed.frame == "lines":
         values["neutral_amps"] = neutral_load(feed.neutral)   # NEC 220.61(A)
     if rule is not None:

@@ -11,6 +11,8 @@ Public API:
   them. Raises ``LoadError``.
 - ``feeder_share(run, circuit, default_pf) -> FeederLoad``: what the run adds to the panel it
   is on, for its feeder (NEC 215.2(A)(1)).
+- ``pf_assumed(load, default_pf)``: the sentence stating the power factor a load in W or kW
+  was taken at where it gives none (its kind's, else the job's), or nothing.
 - ``load_short(load)`` (``16 A``, ``25 hp``, ``MCA 28 A``) and ``load_words(load)`` (the kind and
   nameplate too: ``25 hp motor, dual-element fuse``): a load in words for every face.
 - ``run_kind_load(run, circuit, default_pf) -> KindLoad | None``: for a feeder's rules (NEC
@@ -29,7 +31,7 @@ continuous as its kind and the run say.
 from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit, Equipment
-from gaugewalk.model.engine.loads import load_amps
+from gaugewalk.model.engine.loads import REAL_POWER_UNITS, load_amps, pf_taken
 from gaugewalk.model.engine.sizing.kinds import (
     KindLoad,
     continuous_of,
@@ -74,6 +76,16 @@ def run_continuous(run: Run) -> bool:
     """Whether the run's load is sized as continuous: the run's own say, else its kind's."""
     eq = equipment_of(run)
     return bool(run.continuous) if eq is None else continuous_of(eq)
+
+
+def pf_assumed(load: Load, default_pf: float) -> tuple[str, ...]:
+    """What a load in W or kW without its own power factor was taken at (S = P / pf): the
+    factor its kind gives (1 for resistance heating, which assumes nothing) else the job's
+    (``loads.pf_taken``); nothing for a load that gives one or is in A, VA, kVA or hp. The
+    run's notes and the run card both say it from here."""
+    if load.pf is not None or load.unit not in REAL_POWER_UNITS or load.value is None:
+        return ()
+    return pf_taken(load.value, load.unit, load_pf(load.kind, None, default_pf), "the job's")
 
 
 class LoadFacts(NamedTuple):

@@ -416,6 +416,19 @@ def test_a_load_named_for_lights_or_a_heater_is_filled_in_as_that_kind(session):
     assert form.values["kind"] == ""
 
 
+def test_the_card_says_the_power_factor_a_load_in_kw_is_taken_at(session):
+    # 10 kW at the job's 0.85: S = P / pf = 11.76 kVA (the power triangle), said as it is typed
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Pizza oven", length="30", load="10kW 3P").check()
+    assert checked.taken == (
+        "10 kW taken at power factor 0.85, the job's, as the load gives none: 11.76 kVA; give "
+        "its own power factor where it is known (pf 1 for a resistance load)",)
+    assert checked.result.notes[0] == checked.taken[0]   # the run's notes say the same
+    assert _typed(form, load="10kW 3P pf1").check().taken == ()
+    assert _typed(form, load="30A 3P").check().taken == ()
+
+
 def test_the_start_of_one_kind_is_that_kind(session):
     # typed fast, "ev" and Enter: the one kind it starts is taken, and the card says which
     form = CardForm(session)

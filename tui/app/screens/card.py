@@ -441,6 +441,8 @@ class RunCard(TypedInOrder, Screen):
             ]
             for p in st.problems[:3]:
                 lines.append("• " + escape(p))
+            for said in checked.taken:  # taken as given: the card could say otherwise
+                lines.append("ⓘ " + escape(said))
         lines.append("")
         lines.append("[dim]Estimates for planning; see F2.[/dim]")
         text = "\n".join(lines)
