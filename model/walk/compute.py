@@ -156,6 +156,13 @@ class JobResult:
     _touched: set[str] | None = field(default=None, repr=False, compare=False)
     """The runs whose rows the last update in place wrote (``recompute_run``); None: any."""
     _walk: SupplyGraph | None = field(default=None, repr=False, compare=False)
+    _prepared: dict[tuple, Prepared] = field(default_factory=dict, repr=False, compare=False)
+    """The preparations this result's computation made (``WalkState.prepared``), which an update
+    in place (``recompute_run``) goes on using: each is keyed by every input it reads. A new
+    computation starts a new result, and so with none."""
+    _branch_specs: dict[tuple, tuple[dict, Prepared]] = field(default_factory=dict, repr=False,
+                                                                compare=False)
+    """The same for ``WalkState.branch_specs``."""
 
     @property
     def ok(self) -> bool:
@@ -432,9 +439,10 @@ class WalkState:
         self.spec_base = _spec_base(self.job.defaults.__dict__)   # what every run's spec starts as
         self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
         # what the runs of this computation share, by spec but for length and upstream drop
-        # (``gaugewalk.model.engine.sizing.evaluate_picked``)
-        self.prepared: dict[tuple, Prepared] = {}
-        self.branch_specs: dict[tuple, tuple[dict, Prepared]] = {}   # ``branch_spec``
+        # (``gaugewalk.model.engine.sizing.evaluate_picked``), kept with its result for the
+        # updates in place that follow it (``JobResult._prepared``)
+        self.prepared: dict[tuple, Prepared] = result._prepared
+        self.branch_specs: dict[tuple, tuple[dict, Prepared]] = result._branch_specs
 
     def fail(self, run: Run, message: str, field_name: str | None = None) -> None:
         self.result._run_problems[run.id] = [Problem("", None, "run", run.id, field_name, message)]

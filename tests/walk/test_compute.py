@@ -238,6 +238,7 @@ def test_recompute_after_load_changes_deep_in_the_synthetic_walk_is_exactly_a_fu
 
     job = synthetic_walk(1300, seed=11)
     result = compute_job(job)
+    prepared = result._prepared   # the updates go on with the computation's preparations
     rng = random.Random(5)
     branches = [r for r in job.runs if r.load is not None and not job.is_feeder(r)]
     moved = 0   # runs picked for their drop whose drop up to the source moved
@@ -255,6 +256,8 @@ def test_recompute_after_load_changes_deep_in_the_synthetic_walk_is_exactly_a_fu
                      if k in before and before[k].upstream_drop_pct != s.upstream_drop_pct
                      and result.runs[k].governed_by == "voltage drop" and result.runs[k].ok)
     assert moved > 20
+    assert result._prepared is prepared and prepared   # and a full compute starts with none
+    assert compute_job(job)._prepared is not prepared
 
 
 def test_a_feeder_given_its_own_load_says_what_its_panel_needs_beyond_it_also_after_an_edit():
