@@ -249,7 +249,8 @@ _LINEAR_NEUTRAL = (
     "NEC 310.15(E)(1): the neutral of a 4-wire wye circuit, carrying only the unbalance, is not "
     "counted as current-carrying (the loads taken as linear); where the major portion of the "
     "load is nonlinear (electronic drivers, computers) it counts (310.15(E)(3)), and four "
-    "current-carrying conductors in one raceway are then adjusted to 80 %",)
+    "current-carrying conductors in one raceway are then adjusted to 80 %: say so in the job's "
+    "settings (Nonlinear, nonlinear_loads)",)
 _SIMULTANEOUS = ("NEC 210.4(B): the hots of a multiwire branch circuit are opened together "
                  "(a multipole breaker or identified handle ties)")
 _TWO_LEGS_OF_A_WYE = (
