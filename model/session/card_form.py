@@ -110,13 +110,18 @@ def choices(session: WalkSession) -> dict[str, list[str]]:
     }
 
 
-_KIND_CONTINUOUS: dict[str, str] = {
-    **{kind: "yes" for kind in vocab.CONTINUOUS_KINDS},   # by their articles
-    "lighting": "yes",                                       # common practice
-    "motor": "no", "hvac": "no", "welder": "no",             # their articles' rules instead
-}
-"""Continuous as the card fills it in for a kind that decides it; other kinds leave it to the
-person (``CardForm._following_values``, ``CardForm._continuous_follows_kind``)."""
+def _continuous_of_kind(kind: str) -> str | None:
+    """The Continuous field as the card fills it in for a kind that decides it (the engine's
+    ``continuous_by_kind``), None for a kind that leaves it to the person."""
+    from gaugewalk.model.engine.sizing.kinds import continuous_by_kind
+
+    said = continuous_by_kind(kind)
+    return None if said is None else "yes" if said else "no"
+
+
+def _kinds_starting(text: str) -> list[vocab.LoadKind]:
+    """The kinds whose names start with ``text`` (stripped, lower case; none for blank)."""
+    return [k for k in vocab.LOAD_KINDS if text and k.startswith(text)]
 
 
 def kind_named(text: str) -> vocab.LoadKind | None:
@@ -126,7 +131,7 @@ def kind_named(text: str) -> vocab.LoadKind | None:
     t = text.strip().lower()
     if t in vocab.LOAD_KINDS:
         return t
-    starting = [k for k in vocab.LOAD_KINDS if t and k.startswith(t)]
+    starting = _kinds_starting(t)
     return starting[0] if len(starting) == 1 else None
 
 
@@ -563,7 +568,7 @@ def _check_kind(r: _Reading) -> None:
     kind_text = r.v["kind"].strip().lower()
     kind = kind_in(r.v)
     if kind_text and kind_named(kind_text) is None:
-        starting = [k for k in vocab.LOAD_KINDS if k.startswith(kind_text)]
+        starting = _kinds_starting(kind_text)
         said = (f"'{kind_text}' starts {' and '.join(starting)}; " if starting else "")
         r.errors["kind"] = f"{said}one of {', '.join(vocab.LOAD_KINDS)} (blank: general)"
     else:
@@ -1052,8 +1057,8 @@ class CardForm:
 
     def _continuous_follows_kind(self) -> dict[str, str]:
         """A stored run given another kind: continuous as the new kind's article says
-        (``_KIND_CONTINUOUS``), else as the run had it where it was of a kind that leaves it to
-        the person, else no; returns it where it changed."""
+        (``_continuous_of_kind``), else as the run had it where it was of a kind that leaves it
+        to the person, else no; returns it where it changed."""
         run = self.session.job.run(self.run_id) if self.run_id is not None else None
         if run is None:
             return {}
@@ -1061,10 +1066,10 @@ class CardForm:
         kind = kind_in(self.values)
         if kind == was:
             follows = run_to_fields(run)["continuous"]
-        elif kind in _KIND_CONTINUOUS:
-            follows = _KIND_CONTINUOUS[kind]
         else:
-            follows = "no" if was in _KIND_CONTINUOUS else run_to_fields(run)["continuous"]
+            follows = (_continuous_of_kind(kind)
+                       or ("no" if _continuous_of_kind(was) is not None
+                           else run_to_fields(run)["continuous"]))
         if self.values["continuous"] == follows:
             return {}
         self.values["continuous"] = follows
@@ -1122,7 +1127,7 @@ class CardForm:
         copied["kind"] = v.get("kind", "") if typed else ("" if kind == "general" else kind)
         if not same_kind:
             copied["continuous"] = "no"  # an EV charger's continuity is its article's, not a choice
-        copied["continuous"] = _KIND_CONTINUOUS.get(kind, copied["continuous"])
+        copied["continuous"] = _continuous_of_kind(kind) or copied["continuous"]
         return copied
 
     def draft(self) -> dict[str, str] | None:

@@ -41,7 +41,7 @@ from typing import NamedTuple
 from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.collector import collector_held
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fields
-from gaugewalk.model.engine.loads import REAL_POWER_UNITS, UNITS, LoadError, load_amps
+from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.currents import design_current
 from gaugewalk.model.engine.sizing.evaluate import Prepared, finish_prepared, prepared_for
@@ -403,7 +403,7 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
     values["max_drop_pct"] = max_drop
     values["upstream_drop_pct"] = upstream_drop_pct
     values["equipment"] = equipment
-    if load is not None and load.pf is None and load.unit in REAL_POWER_UNITS:
+    if load is not None:
         values["load_notes"] = pf_assumed(load, d["pf"])
     if continuous_amps is not None and circuit.neutral and feed.frame == "lines":
         values["neutral_amps"] = neutral_load(feed.neutral)   # NEC 220.61(A)

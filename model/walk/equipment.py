@@ -31,7 +31,7 @@ continuous as its kind and the run say.
 from typing import NamedTuple
 
 from gaugewalk.model.engine.contract import Circuit, Equipment
-from gaugewalk.model.engine.loads import REAL_POWER_UNITS, load_amps, pf_taken
+from gaugewalk.model.engine.loads import load_amps, pf_taken
 from gaugewalk.model.engine.sizing.kinds import (
     KindLoad,
     continuous_of,
@@ -83,8 +83,8 @@ def pf_assumed(load: Load, default_pf: float) -> tuple[str, ...]:
     factor its kind gives (1 for resistance heating, which assumes nothing) else the job's
     (``loads.pf_taken``); nothing for a load that gives one or is in A, VA, kVA or hp. The
     run's notes and the run card both say it from here."""
-    if load.pf is not None or load.unit not in REAL_POWER_UNITS or load.value is None:
-        return ()
+    if load.pf is not None or load.value is None:
+        return ()   # (``pf_taken`` says nothing of a load in A, VA, kVA or hp)
     return pf_taken(load.value, load.unit, load_pf(load.kind, None, default_pf), "the job's")
 
 

@@ -15,9 +15,10 @@ The neutral load (NEC 220.61(A)) is "the maximum net calculated load between the
 one ungrounded conductor": each line's sum of the currents of the loads that return on the
 neutral (those whose circuit has one: line-to-neutral loads, multiwire legs, and loads
 line-to-line or three-phase with a neutral, taken in full since their line-to-neutral part is
-not known; a feeder given a stated load carries its panel's), the largest of them. Not the phasor sum of all line currents: a panel of 120 V
-loads balanced on its three lines has nearly nothing on the neutral with all of them on, and
-the full line's current when the others are off. A feeder carries its panel's neutral sums up
+not known; a feeder given a stated load carries its panel's), the largest of them. Not the
+phasor sum of all line currents: a panel of 120 V loads balanced on its three lines has nearly
+nothing on the neutral with all of them on, and the full line's current when the others are
+off. A feeder carries its panel's neutral sums up
 (none through a transformer: the secondary neutral ends at it). Demand factors are not taken
 on them (the conservative side).
 

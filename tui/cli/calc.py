@@ -14,7 +14,7 @@ import sys
 from gaugewalk.model.engine.circuits import CircuitError, circuit_from_volts
 from gaugewalk.model.engine.contract import RunSpec
 from gaugewalk.model.engine.lengths import LengthError, format_length_ft, parse_length
-from gaugewalk.model.engine.loads import REAL_POWER_UNITS, LoadError, load_amps, pf_taken
+from gaugewalk.model.engine.loads import LoadError, load_amps, pf_taken
 from gaugewalk.model.engine.sizing import SizingError, evaluate, resolve_raceway
 from gaugewalk.model.engine.sizing.kinds import (
     continuous_of,
@@ -252,8 +252,7 @@ def run(args) -> int:
         equipment=eq,
         starting_drop_pct=args.starting_drop,
         load_notes=(pf_taken(value, unit, pf, "the default (--pf)")
-                    if args.pf is None and value is not None and unit in REAL_POWER_UNITS
-                    else ()),
+                    if args.pf is None and value is not None and unit is not None else ()),
     )
     try:
         result = evaluate(spec)

@@ -261,9 +261,10 @@ def prepare(spec: RunSpec) -> Prepared:
 
 class _Part(NamedTuple):
     """What follows from the size a run is given, for every length: the result's fields but
-    the drop's (``values``, ``conductors``), its notes and problems (``notes_a``, then any that
-    quote the drop, then ``notes_b``; ``problems_a``, ..., ``problems_b``; ``notes`` and
-    ``problems`` the whole where none quotes it), and what the drop figures read."""
+    the drop's (``values``, ``conductors``; its notes and problems there the whole where none
+    quotes the drop), its notes and problems around those that quote it (``notes_a``, then
+    those, then ``notes_b``; ``problems_a``, ..., ``problems_b``), and what the drop figures
+    read."""
 
     i: int                             # the size's index in the material's table
     governed_by: str
@@ -274,8 +275,6 @@ class _Part(NamedTuple):
     quotes_drop: bool                  # a note quotes the run's drop (upsized or starting)
     values: dict                       # RunResult's fields, the drop's not yet set
     conductors: dict[str, int]
-    notes: tuple[str, ...]
-    problems: tuple[str, ...]
     notes_a: tuple[str, ...]
     notes_b: tuple[str, ...]
     problems_a: tuple[str, ...]
@@ -477,8 +476,8 @@ def _part(prep: Prepared, spec: RunSpec, pick_i: int | None, own_i: int | None,
                    f" of {circuit.volts:g} V)")   # the drop's percent between (``pct_text``)
     return _Part(i, governed_by, zi, start_z, upsized,
                  upsized is not None or start_z is not None, values,
-                 {"hot": hots, "neutral": neutral, "egc": n_egc}, values["notes"],
-                 values["problems"], notes_a, notes_b, problems_a, er_problems, term_total,
+                 {"hot": hots, "neutral": neutral, "egc": n_egc}, notes_a, notes_b, problems_a,
+                 er_problems, term_total,
                  corrected_total, allowable_total, protect_limit, sm,
                  (allowable_total - amps, term_total - design, corrected_total - amps,
                   device_margin))

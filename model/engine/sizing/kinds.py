@@ -136,6 +136,16 @@ def kind_continuous(kind: str, tank_gal: float | None = None) -> bool:
     return kind in _CONTINUOUS_WHY and not _large_tank(kind, tank_gal)
 
 
+def continuous_by_kind(kind: str) -> bool | None:
+    """What ``kind`` says of a run's ``continuous`` when the run does not: True where its
+    article (or common practice, for lighting) makes it continuous (``kind_continuous``), False
+    where the article sizes it by a rule of its own instead (motors, HVAC, welders), None where
+    it is the person's to say."""
+    if kind_continuous(kind):
+        return True
+    return False if kind in _ARTICLE_OF else None
+
+
 def continuous_refusal(kind: LoadKind, tank_gal: float | None, given: bool | None) -> str | None:
     """Why a run's ``continuous`` cannot be ``given`` for a load of ``kind``, or None: the
     article makes EV chargers, storage water heaters of 120 gal or less and space heating

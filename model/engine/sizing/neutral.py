@@ -6,13 +6,14 @@ may be smaller than the phase conductors where much of the load is line-to-line.
 The neutral is the smallest size whose allowable ampacity (the same columns and corrections as
 the phase conductors, ``columns.ampacity_columns``) carries that current, no smaller than the
 EGC the feeder's device asks (NEC 215.2(A)(2), Table 250.122), no larger than the phase
-conductors, and 1/0 AWG or larger in parallel sets (310.10(G)). The loads are taken as linear:
-where most of them are nonlinear (electronic) on a four-wire wye, 220.61(C) forbids the
-reduction, and the walk does not know that unless the job says its loads are nonlinear
-(``Defaults.nonlinear_loads``): then the neutral is full size; else the note says so. The 70 % demand factor of
-220.61(B) on the unbalance above 200 A is not taken (conservative).
+conductors, and 1/0 AWG or larger in parallel sets (310.10(G)). The loads are taken as linear
+unless the job says they are mostly nonlinear (``Defaults.nonlinear_loads``): then on a
+four-wire wye 220.61(C) forbids the reduction and the neutral is full size; else the note says
+it was taken as linear. The 70 % demand factor of 220.61(B) on the unbalance above 200 A is not
+taken (conservative).
 
-Public API: ``neutral_for(i, neutral_amps, egc_size, cols, tab) -> (size, notes)``.
+Public API: ``neutral_for(i, neutral_amps, egc_size, material, cols, tab, nonlinear=False) ->
+(size, notes)``.
 """
 
 from __future__ import annotations
