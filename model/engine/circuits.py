@@ -86,7 +86,8 @@ def parse_system(text: str) -> str:
 
     Accepts ``208Y/120``, ``480y/277v``, ``120/240``, ``208/120 3ph``, ``480V 3ph 3w``,
     ``120v``, ``277 V 1ph``, ``240/120 delta`` or ``240/120 3ph`` (the high-leg delta),
-    ``120/208 1ph`` (two phases of a wye). A bare ``240`` or ``480`` is ambiguous (single-phase or
+    ``120/208 1ph`` (two phases of a wye), ``480Y`` (the one wye of that voltage). A bare
+    ``240`` or ``480`` is ambiguous (single-phase or
     3-wire three-phase?) unless the phase count is given; ``120/240`` alone is the single-phase
     service and ``120/208`` alone the three-phase wye.
 
@@ -117,12 +118,13 @@ def parse_system(text: str) -> str:
                 continue
         elif v1 != ll and not (sys_.hots == 1 and v1 == ln):
             continue
-        if v2 is None and sys_.hots >= 2 and sys_.has_neutral:
-            continue  # "208" alone is not "208Y/120": the neutral must be written
-        if v2 is None and sys_.phases == 3 and ph is None and wires is None and not delta:
-            continue  # a bare "240" or "480" does not say three-phase
-        if m["y"] and sys_.phases != 3:
-            continue
+        if v2 is None and sys_.hots >= 2 and sys_.has_neutral and not m["y"]:
+            continue  # "208" alone is not "208Y/120": the neutral (or the Y) must be written
+        if (v2 is None and sys_.phases == 3 and ph is None and wires is None and not delta
+                and not m["y"]):
+            continue  # a bare "240" or "480" does not say three-phase (a Y does)
+        if m["y"] and not (sys_.wye and sys_.phases == 3):
+            continue  # a Y is a three-phase wye
         if ph is not None and sys_.phases != ph:
             continue
         if wires is not None and sys_.wires != wires:
@@ -136,7 +138,8 @@ def parse_system(text: str) -> str:
         candidates.append(sys_.id)
     if len(candidates) == 1:
         return candidates[0]
-    near = [s.id for s in SYSTEMS.values() if s.line_to_line_v == v1]
+    near = [s.id for s in SYSTEMS.values()
+            if s.line_to_line_v == v1 and (not m["y"] or (s.wye and s.phases == 3))]
     if not candidates and near and v2 is None:
         raise CircuitError(f"'{text}' is incomplete; did you mean {' or '.join(near)}?")
     if not candidates:

@@ -208,9 +208,11 @@ _PLATE_WORDS: dict[str, str] = {
     "mca": "mca", "mocp": "mocp", "device": "motor_device", "code": "code_letter",
     "letter": "code_letter", "design": "design", "i1eff": "i1eff", "i1max": "i1max",
     "rated": "rated_a", "duty": "duty_cycle_pct", "type": "welder_type", "tank": "tank_gal",
-    "gal": "tank_gal", "yokes": "yokes",
+    "gal": "tank_gal", "yokes": "yokes", "yoke": "yokes", "duplex": "yokes",
 }
 """Nameplate words the card reads -> the walk file's ``[run.load]`` keys."""
+_COUNTED_AFTER = frozenset({"yokes", "yoke", "duplex", "gal"})
+"""Nameplate words people write after their number as well (``8 yokes``, ``50 gal``)."""
 _PLATE_FLAGS: dict[str, tuple[str, str]] = {
     **{d: ("motor_device", d) for d in vocab.MOTOR_DEVICES},
     **{t: ("welder_type", t) for t in vocab.WELDER_TYPES},
@@ -220,6 +222,7 @@ _PLATE_TEXT = {"mca": "mca", "mocp": "mocp", "code_letter": "code", "design": "d
                "i1eff": "i1eff", "i1max": "i1max", "rated_a": "rated", "duty_cycle_pct": "duty",
                "tank_gal": "tank", "yokes": "yokes"}
 """The walk file's key -> the word ``plate_text`` writes."""
+_BARE_NUMBER = re.compile(r"^\d+(?:\.\d+)?$")
 _PLATE_UNITS = re.compile(r"(?<=\d)\s*(?:a|%|gal)$", re.IGNORECASE)
 
 
@@ -227,8 +230,17 @@ def split_load(text: str) -> tuple[str, str]:
     """The load field as the load and the nameplate words typed after it, as read off the
     equipment: ``mca 38 mocp 50`` -> ``("", "mca 38 mocp 50")``, ``10hp code G 3P`` ->
     ``("10hp 3P", "code G")`` (a voltage, poles, phases or power factor stay with the load);
-    a field without a nameplate word is all load."""
+    a field without a nameplate word is all load. A count written before its word (``8 yokes``,
+    ``50 gal``) is read as the word and its count."""
     words = re.sub(r"\s*[=:]\s*", " ", text.strip()).split()
+    i = 1
+    while i < len(words):
+        if words[i].lower() in _COUNTED_AFTER and _BARE_NUMBER.match(words[i - 1]):
+            if i >= 2 and words[i - 2].lower() in _PLATE_WORDS:  # "tank 50 gal": its unit
+                words[i - 1] += words.pop(i)
+                continue
+            words[i - 1], words[i] = words[i], words[i - 1]
+        i += 1
     first = next((i for i, w in enumerate(words)
                   if w.lower() in _PLATE_WORDS or w.lower() in _PLATE_FLAGS), None)
     if first is None:
@@ -628,7 +640,9 @@ def _check_panel(r: _Reading) -> None:
         r.errors["panel"] = f"'{r.got['to']}' is already a {dest.kind}; leave this blank"
         return
     try:
-        new = new_source_from(str(r.got["to"]), text)
+        feeding = r.job.source(str(r.got.get("from", "")))
+        new = new_source_from(str(r.got["to"]), text,
+                              feeding.system if feeding is not None else None)
     except ValueError as exc:
         r.errors["panel"] = str(exc)
         return

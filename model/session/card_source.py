@@ -5,11 +5,13 @@ The field takes, in any order, separated by spaces, commas or semicolons: the ki
 the default; ``switchboard`` or ``swbd``; ``transformer``, ``xfmr`` or ``xf``), the system (as
 ``gaugewalk.model.engine.circuits.parse_system`` reads it; for a transformer its secondary), the
 bus rating in amperes (``225A``, NEC 408.30), the main device's (``main 200A``; ``mlo``: main
-lugs only, NEC 408.36) and a transformer's rating (``75kVA``). Anything
+lugs only, NEC 408.36) and a transformer's rating (``75kVA``, which alone makes the source a
+transformer). A panel or switchboard whose system is left out has the system of the source
+feeding it; a transformer changes the system, so its secondary is always written. Anything
 else is refused with a sentence that names it and repeats the grammar (``GRAMMAR``).
 
-Public API: ``GRAMMAR``, ``ORDER``, ``EXAMPLE``, ``read_source_text(text) -> dict``,
-``new_source_from(source_id, text) -> Source``.
+Public API: ``GRAMMAR``, ``ORDER``, ``EXAMPLE``, ``read_source_text(text, fed_system=None) ->
+dict``, ``new_source_from(source_id, text, fed_system=None) -> Source``.
 """
 
 from __future__ import annotations
@@ -35,9 +37,11 @@ _SEPARATORS = re.compile(r"[\s,;]+")
 _NUMBER_UNIT = re.compile(r"(?<=\d)\s+(?=(?:a|amps?|kva)\b)", re.IGNORECASE)
 
 
-def read_source_text(text: str) -> dict:
+def read_source_text(text: str, fed_system: str | None = None) -> dict:
     """The field read into a source's fields (``kind``, ``system``, and ``rating_a`` or
-    ``kva`` where given). Raises ValueError with a sentence naming what is wrong."""
+    ``kva`` where given); ``fed_system``: the system of the source the run starts at, a panel's
+    or switchboard's when the text gives none. Raises ValueError with a sentence naming what is
+    wrong."""
     from gaugewalk.model.engine.circuits import CircuitError, parse_system
 
     words = [w for w in _SEPARATORS.split(_NUMBER_UNIT.sub("", text.strip())) if w]
@@ -68,8 +72,14 @@ def read_source_text(text: str) -> dict:
             once("kva", float(m.group(1)), word, "kVA rating")
         else:
             system_words.append(word)
+    out = {key: value for key, (value, _) in found.items() if value is not None}
+    out.setdefault("kind", "transformer" if "kva" in out else "panel")
     if not system_words:
-        raise ValueError(f"give the system ({ORDER}), e.g. {EXAMPLE}")
+        if fed_system is None or out["kind"] == "transformer":
+            what = "the secondary system" if out["kind"] == "transformer" else "the system"
+            raise ValueError(f"give {what} ({ORDER}), e.g. {EXAMPLE}")
+        out["system"] = fed_system  # a panel or switchboard on the system that feeds it
+        return out
     said = " ".join(system_words)
     try:
         system = parse_system(said)
@@ -78,8 +88,6 @@ def read_source_text(text: str) -> dict:
             raise ValueError(str(exc)) from None  # incomplete or ambiguous: it says which
         raise ValueError(f"'{said}' is not a system or a word of {ORDER} "
                          "(systems: 208Y/120, 480Y/277, 120/240...)") from None
-    out = {key: value for key, (value, _) in found.items() if value is not None}
-    out.setdefault("kind", "panel")
     out["system"] = system
     if "kva" in out and out["kind"] != "transformer":
         raise ValueError(f"a kVA rating is a transformer's; write xfmr {system} "
@@ -87,9 +95,10 @@ def read_source_text(text: str) -> dict:
     return out
 
 
-def new_source_from(source_id: str, text: str) -> Source:
-    """The source ``source_id`` the field declares. Raises ValueError with a sentence."""
-    fields = read_source_text(text)
+def new_source_from(source_id: str, text: str, fed_system: str | None = None) -> Source:
+    """The source ``source_id`` the field declares (``fed_system``: as ``read_source_text``).
+    Raises ValueError with a sentence."""
+    fields = read_source_text(text, fed_system)
     try:
         return Source(id=source_id, **fields)
     except Exception as exc:  # pydantic: a rating out of range, an id it refuses

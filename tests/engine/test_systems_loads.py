@@ -43,6 +43,22 @@ def test_unknown_or_incomplete_systems_are_refused_with_the_choices(text, words)
         parse_system(text)
 
 
+@pytest.mark.parametrize(("text", "system_id"), [
+    ("480Y", "480Y/277V 3ph 4w"), ("208Y", "208Y/120V 3ph 4w"), ("480 y", "480Y/277V 3ph 4w")])
+def test_a_y_alone_names_the_three_phase_wye_of_that_voltage(text, system_id):
+    # "480Y" is how a wye system is written short (the Y: a wye, three-phase, with its
+    # neutral point; common practice); it is never the 3-wire delta
+    assert parse_system(text) == system_id
+
+
+@pytest.mark.parametrize("text", ["240Y", "480Y 3w", "208Y 1ph"])
+def test_a_y_that_names_no_wye_we_know_is_refused_without_offering_a_delta(text):
+    with pytest.raises(CircuitError) as refused:
+        parse_system(text)
+    assert "delta" not in str(refused.value).split("use one of")[0]
+    assert "3ph 3w or" not in str(refused.value)
+
+
 def test_every_system_offers_the_voltages_of_its_name():
     # nominal voltages of the systems, ANSI C84.1 (from memory)
     assert SYSTEMS["208Y/120V 3ph 4w"].line_to_line_v == 208

@@ -96,6 +96,17 @@ def test_a_panel_declared_on_the_card_is_the_new_source_and_the_next_card_starts
     assert form.values["from"] == "LP2" and form.typed == set()
 
 
+def test_a_panel_declared_by_its_rating_alone_is_on_the_system_of_the_run_s_source(session):
+    # a feeder does not change the system; only a transformer does (common practice)
+    form = CardForm(session)
+    form.start()
+    system = session.job.source("SVC").system
+    _typed(form, **{"from": "SVC", "to": "LP2", "length": "120", "panel": "225A main 200A"})
+    checked = form.check()
+    assert checked.errors == {}
+    assert (checked.new_source.system, checked.new_source.rating_a) == (system, 225)
+
+
 def test_completion_takes_the_first_name_that_starts_with_the_text_in_any_case():
     assert complete("pro", ["Panel", "Proofer", "Prover"]) == "Proofer"
     assert complete("", ["Proofer"]) is None
@@ -343,6 +354,11 @@ def test_a_nameplate_typed_in_the_load_field_makes_the_load_of_its_kind(session)
     ("4.5kW tank 50", "water-heater", {"value": 4.5, "unit": "kW", "tank_gal": 50}),
     ("1-1/2 hp code G", "motor", {"value": 1.5, "code_letter": "G"}),
     ("yokes 8", "receptacle", {"yokes": 8}),
+    # a count written before its word, as people say it (common practice)
+    ("6 yokes", "receptacle", {"yokes": 6}),
+    ("6 duplex", "receptacle", {"yokes": 6}),
+    ("4.5kW 50 gal", "water-heater", {"value": 4.5, "unit": "kW", "tank_gal": 50}),
+    ("4.5kW tank 50 gal", "water-heater", {"value": 4.5, "unit": "kW", "tank_gal": 50}),
 ])
 def test_the_kind_follows_the_nameplate_words_in_the_load_field(session, load, kind, got):
     from gaugewalk.model.session.card_form import read_load_text, split_load

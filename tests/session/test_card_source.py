@@ -25,6 +25,7 @@ from gaugewalk.model.session.card_source import ORDER, new_source_from, read_sou
     ("main 200 A; 208Y/120 225A", {"kind": "panel", "system": "208Y/120V 3ph 4w",
                                    "rating_a": 225, "main_a": 200}),
     ("208Y/120 225A mlo", {"kind": "panel", "system": "208Y/120V 3ph 4w", "rating_a": 225}),
+    ("75kVA 208Y/120", {"kind": "transformer", "system": "208Y/120V 3ph 4w", "kva": 75.0}),
 ])
 def test_kind_system_and_ratings_are_read_in_any_order(text, fields):
     assert read_source_text(text) == fields
@@ -57,3 +58,18 @@ def test_the_declared_source_is_a_walk_source_with_its_rating_and_main():
     source = new_source_from("SWB-1", "480Y/277; switchboard 400A main 400A")
     assert (source.id, source.kind, source.system, source.rating_a, source.main_a) == (
         "SWB-1", "switchboard", "480Y/277V 3ph 4w", 400, 400)
+
+
+def test_a_panel_without_a_system_is_on_the_system_of_the_source_feeding_it():
+    # a panel fed by a feeder is on its feeder's system (common practice: only a transformer
+    # changes it)
+    assert read_source_text("225A main 200A", "208Y/120V 3ph 4w") == {
+        "kind": "panel", "system": "208Y/120V 3ph 4w", "rating_a": 225, "main_a": 200}
+    assert read_source_text("swbd 800A", "480Y/277V 3ph 4w")["system"] == "480Y/277V 3ph 4w"
+
+
+def test_a_transformer_always_names_its_secondary():
+    with pytest.raises(ValueError, match="give the secondary system"):
+        read_source_text("75kVA", "480Y/277V 3ph 4w")
+    with pytest.raises(ValueError, match="give the secondary system"):
+        read_source_text("xfmr", "480Y/277V 3ph 4w")
