@@ -17,6 +17,7 @@ from gaugewalk.model.walk.equipment import load_words, run_continuous
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.plausible import implausible, stated_loads
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
+from gaugewalk.model.walk.starting import StartDip
 from gaugewalk.model.walk.takeoff import SizeFootage, Takeoff, WireLine
 from gaugewalk.model.walk.vocabulary import DEMANDS
 from gaugewalk.tables.conductor.ampacity import rooftop_words
@@ -42,7 +43,8 @@ SHARED_COLUMNS: tuple[str, ...] = (
 
 #: Columns of the equipment table: each run whose load is of a kind its article sizes.
 EQUIPMENT_COLUMNS: tuple[str, ...] = (
-    "Run", "Kind", "Load", "Conductors sized for [A]", "Device [A]", "Starting drop on the run [%]", "Rule",
+    "Run", "Kind", "Load", "Conductors sized for [A]", "Device [A]", "Starting drop on the run [%]",
+    "Starting dip from the service [%]", "Rule",
 )
 
 
@@ -84,10 +86,14 @@ class RunRules:
     rules: tuple[str, ...]
 
 
-def rules_applied(result: RunResult, feeder: FeederInfo | None) -> tuple[str, ...]:
+def rules_applied(result: RunResult, feeder: FeederInfo | None,
+                  walk_notes: tuple[str, ...] = ()) -> tuple[str, ...]:
     """What a run was sized by, in the order applied: a feeder's basis (NEC 215.2(A)(1),
-    430.24 ...), then ``result.notes``. The report and the app's rules screen both list this."""
-    return ((f"sized for {feeder.basis}",) if feeder is not None else ()) + tuple(result.notes)
+    430.24 ...), then ``result.notes``, then what the walk adds (``JobResult.walk_notes``: a
+    motor's starting dip from the service). The report and the app's rules screen both list
+    this."""
+    return (((f"sized for {feeder.basis}",) if feeder is not None else ()) + tuple(result.notes)
+            + walk_notes)
 
 
 RULES_HEADING = "Rules applied to each run"
@@ -158,15 +164,18 @@ def load_text(run: Run, result: RunResult | None) -> str:
     return ""
 
 
-def equipment_row(run: Run, result: RunResult) -> tuple[str, ...]:
+def equipment_row(run: Run, result: RunResult, dip: StartDip | None = None) -> tuple[str, ...]:
     """A run's row of the equipment table (``EQUIPMENT_COLUMNS``): its kind, its load with the
     nameplate, what the kind's rule sized the conductors for and the device it asked for, a
-    motor's starting drop, and the sections applied."""
+    motor's starting drop on its run and its dip from the service (``dip``), and the sections
+    applied."""
     start = ("" if result.starting_drop_pct is None
              else _num(result.starting_drop_pct, 2)
              + (f" at {result.locked_rotor_a:.0f} A" if result.locked_rotor_a else ""))
+    whole = ("" if dip is None else "not worked" if dip.total_pct is None
+             else _num(dip.total_pct, 2))
     return (run.id, result.load_kind, load_text(run, result), _num(result.design_amps),
-            str(result.ocpd_a), start, result.kind_rule)
+            str(result.ocpd_a), start, whole, result.kind_rule)
 
 
 def size_text(result: RunResult) -> str:
@@ -280,13 +289,18 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
                 (run_errors.get(run.id, "could not be sized"),),
             ))
             continue
-        if result.problems:
+        # its own problems, its place in its panel's and a motor's starting dip from the service
+        problems = (tuple(p.message for p in job_result.run_problems(run.id))
+                    if job_result is not None else tuple(result.problems))
+        dip = job_result.start_dips.get(run.id) if job_result is not None else None
+        if problems:
             failing += 1
         if result.load_kind != "general":
-            equipment_rows.append(equipment_row(run, result))
+            equipment_rows.append(equipment_row(run, result, dip))
         if with_rules:
-            rules.append(RunRules(run.id, f"{run.from_} → {run.to}",
-                                  rules_applied(result, feeders.get(run.id))))
+            rules.append(RunRules(run.id, f"{run.from_} → {run.to}", rules_applied(
+                result, feeders.get(run.id),
+                job_result.walk_notes(run.id) if job_result is not None else ())))
         rows.append(ReportRun(
             run.id, run.from_, run.to, _num(run.length_ft), run.length, circuit,
             str(result.ocpd_a), load_text(run, result), size_text(result),
@@ -295,7 +309,7 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
             raceway_text(result) + "".join(f", in {rid}" for rid in shared_ids(run))
             + (f", {rooftop_words(job.effective(run, 'insulation'))}" if run.rooftop else ""),
             result.governed_by,
-            tuple(result.problems),
+            problems,
         ))
 
     summary = (

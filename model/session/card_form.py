@@ -507,6 +507,7 @@ class CardCheck:
     connection: str = ""        # the circuit field's connection ("": every hot and the neutral)
     taken: tuple[str, ...] = ()  # what sizing the run took as given that the card could say
     #                              (a load in kW without its power factor: ``pf_assumed``)
+    dip: object | None = None   # a motor's starting dip from the service (``StartDip``)
 
 
 @dataclass
@@ -1167,6 +1168,7 @@ class CardForm:
             preview = self.session.preview(run, replaces=self.run_id, new_source=out.new_source)
             out.result = preview.result
             out.cannot = preview.cannot_size
+            out.dip = preview.dip
             if run.load is not None and out.result is not None:
                 from gaugewalk.model.walk.equipment import pf_assumed
 

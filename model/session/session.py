@@ -29,6 +29,7 @@ from gaugewalk.model.walkfile.write import Written
 
 if TYPE_CHECKING:
     from gaugewalk.model.walk.compute import JobResult
+    from gaugewalk.model.walk.starting import StartDip
 
 # Statuses shown in the run sheet: a symbol AND words, never colour alone.
 STATUS_OK = "✓ ok"
@@ -67,6 +68,7 @@ class Preview:
     result: RunResult | None
     problems: list[Problem] = field(default_factory=list)
     cannot_size: str | None = None   # why it cannot be sized yet (does not stop storing)
+    dip: StartDip | None = None      # a motor's starting dip from the service
 
 
 @dataclass
@@ -286,7 +288,8 @@ class WalkSession:
         the small change its load makes to the feeders above shows once it is stored."""
         from gaugewalk.model.engine.circuits import CircuitError
         from gaugewalk.model.engine.loads import LoadError
-        from gaugewalk.model.walk.compute import size_run
+        from gaugewalk.model.walk.compute import size_run_spec
+        from gaugewalk.model.walk.starting import dip_at_motor
 
         trial = self._with(run, replaces, new_source)
         problems = self._reference_problems(
@@ -295,12 +298,15 @@ class WalkSession:
             return Preview(None, problems)
         upstream = self.source_drop(run.from_) or 0.0
         try:
-            res = size_run(trial, run, upstream, self.result)
+            res, spec = size_run_spec(trial, run, upstream, self.result)
         except CircuitError as exc:
             return Preview(None, [Problem("", None, "run", run.id, "connection", str(exc))])
         except (LoadError, ValueError) as exc:
             return Preview(None, [], cannot_size=str(exc))
-        return Preview(res)
+        walk = self.result._walk if self.result is not None else None
+        dip = (dip_at_motor(walk, self.result, run, res, spec)
+               if walk is not None and run.to not in walk.sources else None)
+        return Preview(res, dip=dip)
 
     def trial(self, run: Run, sources: tuple[Source, ...] = ()) -> TrialOutcome:
         """Compute the walk with ``run`` in place of the stored run of the same id (and

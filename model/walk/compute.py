@@ -34,6 +34,7 @@ once every run is sized (``gaugewalk.model.walk.raceways``).
 from __future__ import annotations
 
 import math
+from collections.abc import Iterable
 from dataclasses import MISSING, dataclass, field, fields
 from operator import itemgetter
 from typing import NamedTuple
@@ -88,6 +89,7 @@ from gaugewalk.model.walk.ratings import (
     lugs_bus,
     lugs_problem,
 )
+from gaugewalk.model.walk.starting import StartDip, start_dip
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
 from gaugewalk.model.walk.vocabulary import LINE_NAMES
 
@@ -136,6 +138,9 @@ class JobResult:
     load the computation could not read, so that what it and its feeder carry leaves them out}
     (only sources with any)."""
     raceways: dict[str, SharedRaceway] = field(default_factory=dict)
+    start_dips: dict[str, StartDip] = field(default_factory=dict)
+    """{run id: a motor's starting dip from the service} (``gaugewalk.model.walk.starting``;
+    only runs with a starting drop)."""
     problems: list[Problem] = field(default_factory=list)
     # kept for recompute_run
     _specs: dict[str, RunSpec] = field(default_factory=dict, repr=False)
@@ -147,6 +152,7 @@ class JobResult:
     _feeds: dict[str, Feed] = field(default_factory=dict, repr=False)
     _run_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _place_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
+    _start_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _sum_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     _chain_problems: list[Problem] = field(default_factory=list, repr=False)
     _source_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
@@ -170,13 +176,23 @@ class JobResult:
         return not self.problems
 
     def run_problems(self, run_id: str) -> list[Problem]:
-        """Problems of one run (its own, the engine's and its place in its source)."""
+        """Problems of one run (its own, the engine's, its place in its source and a motor's
+        starting dip from the service)."""
         return (list(self._run_problems.get(run_id, ()))
-                + list(self._place_problems.get(run_id, ())))
+                + list(self._place_problems.get(run_id, ()))
+                + list(self._start_problems.get(run_id, ())))
+
+    def walk_notes(self, run_id: str) -> tuple[str, ...]:
+        """What the walk says of a run beyond the engine's notes (``RunResult.notes``): a
+        motor's starting dip from the service."""
+        dip = self.start_dips.get(run_id)
+        return (dip.note,) if dip is not None else ()
 
     def _row_tables(self) -> tuple[dict, ...]:
-        """What a run's row in a sheet is made from, by run id: its result and its problems."""
-        return self.runs, self._run_problems, self._place_problems
+        """What a run's row in a sheet is made from, by run id: its result, its problems and
+        its starting dip."""
+        return (self.runs, self._run_problems, self._place_problems, self._start_problems,
+                self.start_dips)
 
     def marks(self) -> tuple[dict, ...]:
         """What each run's result and problems are now, for ``changed_since`` after an update
@@ -238,11 +254,17 @@ def size_run(job: Job, run: Run, upstream_drop_pct: float,
              result: JobResult | None = None) -> RunResult:
     """``run`` sized in the walk (``run_spec_for`` and the engine), with the notes and problems
     of its feeder rules. Raises ``LoadError``, ``CircuitError`` or ``ValueError``."""
+    return size_run_spec(job, run, upstream_drop_pct, result)[0]
+
+
+def size_run_spec(job: Job, run: Run, upstream_drop_pct: float,
+                  result: JobResult | None = None) -> tuple[RunResult, RunSpec]:
+    """``size_run`` with the engine input it sized (``run_spec_for``)."""
     state = _state_for(job, result)
     is_feeder = job.source(run.to) is not None
     rule = state.feeder_rule(run, is_feeder)
     spec = run_spec_for(job, run, upstream_drop_pct, result=state.result, is_feeder=is_feeder)
-    return _with_rule(evaluate(spec), rule)
+    return _with_rule(evaluate(spec), rule), spec
 
 
 def _state_for(job: Job, result: JobResult | None) -> WalkState:
@@ -822,7 +844,7 @@ class WalkState:
     def forget(self, r: Run) -> None:
         res = self.result
         for table in (res.runs, res.run_total_drop_pct, res.feeder_amps, res._specs,
-                      res._passed, res.feeders):
+                      res._passed, res.feeders, res.start_dips, res._start_problems):
             table.pop(r.id, None)
 
     def store(self, r: Run, result: RunResult, is_feeder: bool, spec: RunSpec) -> None:
@@ -845,6 +867,30 @@ class WalkState:
                     through=self.job.defaults.drop_through_transformers)
             else:
                 res.source_drop_pct[r.to] = result.total_drop_pct
+
+    def start_dips(self, among: Iterable[str] | None = None) -> None:
+        """Each motor's starting dip from the service (``gaugewalk.model.walk.starting``), once
+        every run above it is sized; ``among``: after an update in place, only those runs (every
+        run whose feeders above were done again is among them)."""
+        walk, res = self.walk, self.result
+        dips, problems = res.start_dips, res._start_problems
+        if among is None:   # only motors have a starting drop
+            dips.clear()
+            problems.clear()
+            among = [rid for rid, rr in res.runs.items() if rr.starting_drop_pct is not None]
+        job = self.job
+        for rid in among:
+            r = job.run(rid)
+            dip = start_dip(walk, res, r) if r is not None and rid in res.runs else None
+            if dip is None:
+                dips.pop(rid, None)
+                problems.pop(rid, None)
+                continue
+            dips[rid] = dip
+            if dip.problem is None:
+                problems.pop(rid, None)
+            else:
+                problems[rid] = [Problem("", None, "run", rid, None, dip.problem)]
 
     def chain_problems(self, changed: set[str] | None = None) -> None:
         """The walk's problems about its chains: runs from no source, sources in a loop, and,
@@ -890,14 +936,17 @@ class WalkState:
         position = self.walk.position
         runs = res._run_problems
         placed = res._place_problems
+        starts = res._start_problems
         if len(position) == len(self.job.runs):  # ids unique: only the runs with problems, in order
-            for rid in sorted(set(runs) | set(placed), key=position.__getitem__):
+            for rid in sorted(set(runs) | set(placed) | set(starts), key=position.__getitem__):
                 problems.extend(runs.get(rid, ()))
                 problems.extend(placed.get(rid, ()))
-        elif runs or placed:
+                problems.extend(starts.get(rid, ()))
+        elif runs or placed or starts:
             for r in self.job.runs:
                 problems.extend(runs.get(r.id, ()))
                 problems.extend(placed.get(r.id, ()))
+                problems.extend(starts.get(r.id, ()))
         res.problems = problems
 
 
@@ -919,6 +968,7 @@ def _compute_job(job: Job) -> JobResult:
         for r in walk.children[sid]:
             state.evaluate_run(r, upstream)
     state.check_shared()
+    state.start_dips()
     state.chain_problems()
     state.assemble_problems()
     result._shape = walk.shape()

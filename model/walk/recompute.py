@@ -87,6 +87,7 @@ def recompute_run(job: Job, result: JobResult, run_id: str) -> JobResult:
         dirty.append(run.to)
     _refresh_below(state, dirty, skip={f.id for f in chain} | {run.id}, touched=touched,
                    redone=redone)
+    state.start_dips(touched)   # the runs below every feeder done again are among them
     state.chain_problems(redone)
     state.assemble_problems()
     return result

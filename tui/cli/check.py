@@ -52,7 +52,8 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             "sets": r.sets, "material": None, "ocpd_a": None,
             "egc_size": None, "raceway": None, "raceway_size": None, "raceway_id": r.raceway_id,
             "voltage_drop_pct": None, "total_drop_pct": None, "governed_by": None,
-            "flc_a": None, "locked_rotor_a": None, "starting_drop_pct": None, "kind_rule": None,
+            "flc_a": None, "locked_rotor_a": None, "starting_drop_pct": None,
+            "starting_dip_pct": None, "kind_rule": None,
             "ok": False, "problems": [p.message for p in result.run_problems(r.id)],
             "notes": [],
         }
@@ -68,6 +69,7 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
         entry["phase"] = placed.phase if placed is not None else None
         entry["placed_by"] = placed.by if placed is not None else None
         if rr is not None:
+            dip = result.start_dips.get(r.id)
             entry.update({
                 "amps": round(rr.amps, 3), "required_ampacity_a": round(rr.required_ampacity_a, 3),
                 "design_amps": round(rr.design_amps, 3), "size": rr.size, "sets": rr.sets,
@@ -78,11 +80,13 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
                 "governed_by": rr.governed_by, "flc_a": rr.flc_a,
                 "locked_rotor_a": _round(rr.locked_rotor_a, 1),
                 "starting_drop_pct": _round(rr.starting_drop_pct),
+                # the dip at the motor from the service (gaugewalk.model.walk.starting)
+                "starting_dip_pct": _round(dip.total_pct if dip is not None else None),
                 "kind_rule": rr.kind_rule,
                 # a problem of its place in its panel (a position taken twice) is one too
                 "ok": rr.ok and not entry["problems"],
                 # the rules applied and what was taken as given (as calc lists them)
-                "notes": list(rr.notes),
+                "notes": list(rr.notes) + list(result.walk_notes(r.id)),
             })
             if feeder is not None:  # the current it is sized for, by its basis
                 entry["amps"] = round(feeder.amps, 3)

@@ -57,7 +57,7 @@ from gaugewalk.model.engine.sizing.pick import (
     drop_scan,
     size_problems,
 )
-from gaugewalk.model.engine.sizing.raceway import raceway_fill
+from gaugewalk.model.engine.sizing.raceway import raceway_fill, resolve_raceway
 from gaugewalk.model.engine.sizing.spec import SizingError, check_run_drop, check_spec
 from gaugewalk.model.engine.sizing.text import amps_text, pct_text
 from gaugewalk.tables.conductor import properties as t_cond
@@ -495,13 +495,33 @@ def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
     notes.append(why)
     if lra is None:
         return None, None
-    zs = z[i]
+    zs = _starting_z(spec, family, i, circuit.drop_angle_deg)
+    return lra, (z[i] if zs is None else zs)
+
+
+def _starting_z(spec: RunSpec, family: str, i: int, shift_deg: float) -> float | None:
+    """One conductor of the size at index ``i`` at the starting power factor
+    (``kinds.STARTING_PF``) [ohm/kft]; the DC and K-factor methods have no reactance and take R
+    (as ``columns.z_table``). None where the method's table lacks the size."""
+    rx = rx_of(spec.material, spec.method, family, float(spec.conductor_temp_c),
+               bool(spec.stranded), i)
+    if rx is None:
+        return None
     if spec.method == "ac":
-        rx = rx_of(spec.material, "ac", family, float(spec.conductor_temp_c),
-                   bool(spec.stranded), i)
-        if rx is not None:
-            zs = shifted_z(rx[0], rx[1], STARTING_PF, circuit.drop_angle_deg)
-    return lra, zs
+        return shifted_z(rx[0], rx[1], STARTING_PF, shift_deg)
+    return rx[0] * math.cos(math.radians(shift_deg))
+
+
+def starting_impedance(spec: RunSpec, size: str) -> float | None:
+    """One conductor of ``size`` on the run ``spec`` describes (its material, drop method,
+    raceway and temperature) while a motor it supplies starts [ohm/kft]: what a feeder adds to
+    the dip at a motor below it (``gaugewalk.model.walk.starting``). None where the method's
+    table lacks the size."""
+    family = resolve_raceway(spec.raceway)[1]
+    sizes = material_table(spec.material).sizes
+    if size not in sizes:
+        return None
+    return _starting_z(spec, family, sizes.index(size), 0.0)
 
 
 def _starting_drop(spec: RunSpec, lra: float, zs: float, notes: list[str],
@@ -509,7 +529,7 @@ def _starting_drop(spec: RunSpec, lra: float, zs: float, notes: list[str],
     """The drop on this run while a motor starts [%], at its locked-rotor current ``lra`` [A]
     on the starting impedance ``zs`` [ohm/kft] (``_starting``), against the job's starting
     target. The feeders and transformers above add their own part of the dip at the motor,
-    which is not worked (the note says so)."""
+    which a walk works (``gaugewalk.model.walk.starting``)."""
     circuit = spec.circuit
     vd = drop_volts(circuit.drop_factor, lra, zs, drop_length_ft(spec.length_ft, spec.distributed),
                     spec.sets)
@@ -517,9 +537,9 @@ def _starting_drop(spec: RunSpec, lra: float, zs: float, notes: list[str],
     how = (f"at power factor {STARTING_PF:g} (common practice)" if spec.method == "ac"
            else "on resistance alone (the drop method has no reactance)")
     notes.append(f"starting drop {pct_text(pct)} ({vd:.1f} V) at {amps_text(lra)} locked-rotor, "
-                 f"{how}, on this run alone (the feeders and any transformer above it add "
-                 f"their own dip at the motor; not worked); target {spec.starting_drop_pct:g}% "
-                 f"(common practice: 10 to 15%)")
+                 f"{how}, on this run alone (in a walk, the starting dip from the service adds "
+                 f"the feeders and any transformer above it); target "
+                 f"{spec.starting_drop_pct:g}% (common practice: 10 to 15%)")
     if pct > spec.starting_drop_pct + 1e-9:
         problems.append(f"the motor starting drop {pct_text(pct)} on this run is over the "
                         f"{spec.starting_drop_pct:g}% starting target (a larger size, or a "

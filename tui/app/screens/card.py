@@ -433,13 +433,18 @@ class RunCard(TypedInOrder, Screen):
                   if res.load_kind != "general" else []),
                 *([f"Start     {res.starting_drop_pct:.2f}% at {res.locked_rotor_a or 0:.0f} A"]
                   if res.starting_drop_pct is not None else []),
+                *([f"Start dip {checked.dip.short} from svc"]
+                  if checked.dip is not None else []),
                 f"EGC       {escape(res.egc_size or 'none')}",
                 f"Raceway   {escape(race)}",
                 f"OCPD      {res.ocpd_a} A",
                 "",
                 ("[b]✓ meets its targets[/b]" if not st.flag else f"[b]{escape(st.words)}[/b]"),
             ]
-            for p in st.problems[:3]:
+            said = list(st.problems)
+            if checked.dip is not None and checked.dip.problem:
+                said.append(checked.dip.problem)
+            for p in said[:3]:
                 lines.append("• " + escape(p))
             for said in checked.taken:  # taken as given: the card could say otherwise
                 lines.append("ⓘ " + escape(said))

@@ -40,7 +40,8 @@ def rules_text(session: WalkSession, run_id: str) -> str:
         if st.problems:
             lines.append("")
         feeder = session.result.feeders.get(run.id) if session.result is not None else None
-        for note in rules_applied(res, feeder):
+        more = session.result.walk_notes(run.id) if session.result is not None else ()
+        for note in rules_applied(res, feeder, more):
             lines += _bullet("• ", note)
     lines += ["", "[dim]Estimates for planning; see F2.[/dim]"]
     return "\n".join(lines)
