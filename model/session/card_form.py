@@ -669,7 +669,7 @@ def _check_circuit(r: _Reading) -> None:
     if "from" in r.errors:
         return
     system = r.job.source(r.got["from"]).system
-    dest = r.got.get("dest")
+    dest = r.got.get("dest") or r.got.get("new_source")   # a source of the walk, or declared here
     conn = circuit or default_connection(system, dest is not None and dest.kind == "transformer")
     try:
         c = resolve_circuit(system, conn)

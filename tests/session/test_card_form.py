@@ -107,6 +107,18 @@ def test_a_panel_declared_by_its_rating_alone_is_on_the_system_of_the_run_s_sour
     assert (checked.new_source.system, checked.new_source.rating_a) == (system, 225)
 
 
+def test_a_feeder_to_a_transformer_declared_on_the_card_is_shown_without_a_neutral(session):
+    # a transformer primary takes the hots only (common practice), as the walk sizes it once
+    # stored (``checks.default_connection``): the card says so before, not "and neutral"
+    form = CardForm(session)
+    form.start()
+    _typed(form, **{"from": "SVC", "to": "T9", "length": "30", "panel": "xfmr 120/240 25kVA"})
+    checked = form.check()
+    assert checked.errors == {}
+    assert checked.circuit is not None and not checked.circuit.neutral
+    assert "neutral" not in form.check().hints["circuit"]
+
+
 def test_completion_takes_the_first_name_that_starts_with_the_text_in_any_case():
     assert complete("pro", ["Panel", "Proofer", "Prover"]) == "Proofer"
     assert complete("", ["Proofer"]) is None
