@@ -253,7 +253,7 @@ _LINEAR_NEUTRAL = (
     "counted as current-carrying (the loads taken as linear); where the major portion of the "
     "load is nonlinear (electronic drivers, computers) it counts (310.15(E)(3)), and four "
     "current-carrying conductors in one raceway are then adjusted to 80 %: say so in the job's "
-    "settings (Nonlinear, nonlinear_loads)",)
+    "settings (Nonlinear, nonlinear_loads) or on the panel (its nonlinear_loads)",)
 _SIMULTANEOUS = ("NEC 210.4(B): the hots of a multiwire branch circuit are opened together "
                  "(a multipole breaker or identified handle ties)")
 _TWO_LEGS_OF_A_WYE = (

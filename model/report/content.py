@@ -418,6 +418,14 @@ def schedules_of(job: Job, result: JobResult) -> tuple[ReportSchedule, ...]:
             ratings.append(f"loaded {sch.utilisation_pct:.0f} % (heaviest line's design "
                            "current, NEC 215.2(A)(1))")
         notes.append("; ".join(ratings))
+        source = job.source(sch.source_id)
+        said = source.nonlinear_loads if source is not None else None
+        if said is not None and said != job.defaults.nonlinear_loads:
+            notes.append("its loads mostly nonlinear: neutrals of its 4-wire wye circuits counted "
+                         "as current-carrying, its feeder's neutral full size (NEC 310.15(E)(3), "
+                         "220.61(C)(2))" if said else
+                         "its loads taken as linear, though the job's setting says nonlinear "
+                         "(NEC 310.15(E)(1))")
         fed = result.feeders.get(sch.feeder) if sch.feeder is not None else None
         if fed is not None:   # the demand factors its feeder took (Defaults.demand)
             notes.extend(f"feeder {sch.feeder}: {step.text}" for step in fed.demand)

@@ -651,7 +651,9 @@ def _check_panel(r: _Reading) -> None:
     rating = f" {new.rating_a}A" if new.rating_a is not None else ""
     main = f" main {new.main_a}A" if new.main_a is not None else ""
     kva = f" {new.kva:g}kVA" if new.kva is not None else ""
-    r.hints["panel"] = f"{new.kind} {new.system.split()[0]}{rating}{main}{kva}"
+    said = ("" if new.nonlinear_loads is None
+            else " nonlinear" if new.nonlinear_loads else " linear")
+    r.hints["panel"] = f"{new.kind} {new.system.split()[0]}{rating}{main}{kva}{said}"
 
 
 def _check_circuit(r: _Reading) -> None:

@@ -5,8 +5,9 @@ The field takes, in any order, separated by spaces, commas or semicolons: the ki
 the default; ``switchboard`` or ``swbd``; ``transformer``, ``xfmr`` or ``xf``), the system (as
 ``gaugewalk.model.engine.circuits.parse_system`` reads it; for a transformer its secondary), the
 bus rating in amperes (``225A``, NEC 408.30), the main device's (``main 200A``; ``mlo``: main
-lugs only, NEC 408.36) and a transformer's rating (``75kVA``, which alone makes the source a
-transformer). A panel or switchboard whose system is left out has the system of the source
+lugs only, NEC 408.36), a transformer's rating (``75kVA``, which alone makes the source a
+transformer) and ``nonlinear`` or ``linear`` for its loads (NEC 310.15(E)(3); left out: the job's
+setting). A panel or switchboard whose system is left out has the system of the source
 feeding it; a transformer changes the system, so its secondary is always written. Anything
 else is refused with a sentence that names it and repeats the grammar (``GRAMMAR``).
 
@@ -25,7 +26,7 @@ KIND_WORDS = {
     "switchboard": "switchboard", "swbd": "switchboard",
 }
 """The words for a kind of source the field takes, and the kind each names."""
-ORDER = "kind system amps main kVA, any order"
+ORDER = "kind system amps main kVA nonlinear, any order"
 GRAMMAR = f"{ORDER}: panel 208Y/120 225A main 200A, xfmr 208Y/120 75kVA"
 """The field's grammar in one line, for its hint (``ORDER`` in its refusals)."""
 EXAMPLE = "208Y/120 225A"
@@ -64,6 +65,8 @@ def read_source_text(text: str, fed_system: str | None = None) -> dict:
             once("main_a", int(amps.group(1)), f"main {words.pop()}", "main")
         elif low == "mlo":
             once("main_a", None, word, "main")
+        elif low in ("nonlinear", "linear"):
+            once("nonlinear_loads", low == "nonlinear", word, "load character")
         elif low in KIND_WORDS:
             once("kind", KIND_WORDS[low], word, "kind")
         elif m := _AMPS.match(low):

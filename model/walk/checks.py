@@ -25,6 +25,15 @@ from gaugewalk.model.walk.problems import Locator, Problem
 _FULL_CONNECTION = {(3, True): "3PN", (3, False): "3P", (1, True): "LLN", (1, False): "LL"}
 
 
+def nonlinear_of(job: Job, run: Run) -> bool:
+    """Whether ``run``'s loads are taken as mostly nonlinear (NEC 310.15(E)(3), 220.61(C)(2)):
+    as the source it feeds says (a feeder), else the source it starts at, else the job
+    (``Source.nonlinear_loads``, ``Defaults.nonlinear_loads``)."""
+    source = job.source(run.to) or job.source(run.from_)
+    said = source.nonlinear_loads if source is not None else None
+    return job.defaults.nonlinear_loads if said is None else said
+
+
 def default_connection(system_id: str, to_transformer: bool = False) -> str:
     """The connection a run uses when it names none: every hot the system offers and its
     neutral; a transformer primary takes the hots only (common practice)."""

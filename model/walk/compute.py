@@ -48,7 +48,12 @@ from gaugewalk.model.engine.sizing.currents import design_current
 from gaugewalk.model.engine.sizing.evaluate import Prepared, finish_prepared, prepared_for
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
-from gaugewalk.model.walk.checks import connection_of, default_connection, unstated_circuit_note
+from gaugewalk.model.walk.checks import (
+    connection_of,
+    default_connection,
+    nonlinear_of,
+    unstated_circuit_note,
+)
 from gaugewalk.model.walk.demand import DemandStep, apply_demand
 from gaugewalk.model.walk.equipment import load_facts, pf_assumed
 from gaugewalk.model.walk.feeder_loads import (
@@ -239,7 +244,7 @@ def run_spec_for(
         if source is None:
             raise CircuitError(f"the run starts at '{run.from_}', which is not a source of this job")
         circuit = resolve_circuit(source.system, connection_of(job, run),
-                                  nonlinear=job.defaults.nonlinear_loads)
+                                  nonlinear=nonlinear_of(job, run))
     if is_feeder is None:
         is_feeder = job.source(run.to) is not None
     rule = state.feeder_rule(run, is_feeder)
@@ -456,7 +461,7 @@ class WalkState:
         self.walk = walk   # None: a state that only reads ``result`` (``run_spec_for``)
         self.job = walk.job if walk is not None else job
         self.result = result
-        self._circuit_cache: dict[tuple[str, str | None, int], Circuit] = {}
+        self._circuit_cache: dict[tuple[str, str | None, int, bool], Circuit] = {}
         self._own_cache: dict[tuple, OwnLoad | None] = {}   # (circuit key, load): its OwnLoad
         self.spec_base = _spec_base(self.job.defaults.__dict__)   # what every run's spec starts as
         self.shared_ccc: dict[str, int] = {}   # current-carrying conductors per shared raceway
@@ -481,14 +486,18 @@ class WalkState:
         rf = run.__dict__
         rid = rf["id"]
         sources = self.walk.sources
-        system = sources[rf["from_"]].system
+        start = sources[rf["from_"]]
+        system = start.system
         conn = rf["connection"]
+        target = sources.get(rf["to"])
         if conn is None:   # by what it feeds: a load (0), a source (1), a transformer (2)
-            target = sources.get(rf["to"])
             to = 0 if target is None else 2 if target.kind == "transformer" else 1
         else:
             to = 0
-        key = (system, conn, to)
+        # NEC 310.15(E)(3): as the source it feeds or starts at says, else the job (nonlinear_of)
+        said = (target if target is not None else start).__dict__["nonlinear_loads"]
+        nonlinear = self.job.defaults.nonlinear_loads if said is None else said
+        key = (system, conn, to, nonlinear)
         res = self.result
         c = self._circuit_cache.get(key)
         if c is None:
@@ -497,8 +506,7 @@ class WalkState:
                 conn = default_connection(system, to == 2)
                 unstated = to == 0  # a branch run: its circuit was the walker's to state
             try:
-                c = resolve_circuit(system, conn,
-                                    nonlinear=self.job.defaults.nonlinear_loads)
+                c = resolve_circuit(system, conn, nonlinear=nonlinear)
             except CircuitError as exc:
                 self.fail(run, str(exc), "connection")
                 res._circuits.pop(rid, None)

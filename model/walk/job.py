@@ -498,6 +498,10 @@ class Source(_Strict):
     secondary_ocpd_a: int | None = Field(None, gt=0, le=10000)
     """Transformer secondary device at the transformer [A]; None: the secondary conductors end in
     the main of the panel they feed (NEC 240.21(C))."""
+    nonlinear_loads: bool | None = None
+    """The major portion of the load it serves is nonlinear (electronic drivers, computers, LED
+    lighting), as ``Defaults.nonlinear_loads`` says for the whole job, for its runs and the
+    feeder into it (NEC 310.15(E)(3), 220.61(C)(2)); false: linear; None: the job's setting."""
     notes: str = ""
     """Where it is, what it looks like."""
 

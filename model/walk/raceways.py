@@ -32,7 +32,7 @@ from gaugewalk.model.engine.circuits import (
 )
 from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.engine.sizing.raceway import resolve_raceway
-from gaugewalk.model.walk.checks import connection_of
+from gaugewalk.model.walk.checks import connection_of, nonlinear_of
 from gaugewalk.model.walk.job import Job, Raceway, Run, parse_length, shared_ids
 from gaugewalk.model.walk.problems import Problem
 from gaugewalk.tables.conductor.ampacity import ccc_factor
@@ -130,7 +130,7 @@ def raceway_ccc(job: Job, raceway_id: str) -> int | None:
             continue
         try:
             circuit = resolve_circuit(source.system, connection_of(job, run),
-                                      nonlinear=job.defaults.nonlinear_loads)
+                                      nonlinear=nonlinear_of(job, run))
         except CircuitError:
             continue
         total += run_ccc(circuit, run.sets)

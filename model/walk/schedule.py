@@ -157,6 +157,8 @@ def source_entry(job: Job, result: JobResult, source_id: str) -> dict:
     entry: dict = {
         "id": source.id, "kind": source.kind, "system": source.system,
         "rating_a": source.rating_a, "main_a": source.main_a, "spaces": source.spaces,
+        # NEC 310.15(E)(3) as the source says it (None: the job's, ``nonlinear_loads`` at the top)
+        "nonlinear_loads": source.nonlinear_loads,
         "load_va": round(sch.connected_va, 1),
         "connected_va": _r(result.connected_va.get(source.id)),
         "phase_amps": {name: round(a, 2) for name, a in zip(sch.lines, sch.phase_amps,

@@ -119,3 +119,62 @@ def test_the_setting_is_kept_in_the_file_and_shown_on_every_face(tmp_path, capsy
     assert main(["report", str(path), "-o", str(report)]) == 0
     assert "mostly nonlinear: neutrals counted as current-carrying (NEC 310.15(E)(3))" in (
         report.read_text())
+
+
+def _panel_says(path, panel: str, said: bool):
+    """The walk at ``path`` with ``panel``'s loads said nonlinear (True) or linear (False)."""
+    text = path.read_text(encoding="utf-8").replace(
+        f'id = "{panel}"\nkind = "panel"', f'id = "{panel}"\nkind = "panel"\n'
+        f'nonlinear_loads = {str(said).lower()}')
+    path.write_text(text, encoding="utf-8")
+    return path
+
+
+def test_one_panel_of_nonlinear_loads_changes_its_feeder_and_not_the_other(tmp_path):
+    # the same figures as the job-wide setting above (NEC 2023 Table 310.16, Table
+    # 310.15(C)(1), 220.61(C)(2)), for the panel that says so only
+    result = compute_job(load_walk(_panel_says(_walk(tmp_path, None), "P1", True)))
+    f1, f2 = result.runs["F1"], result.runs["F2"]
+    assert f1.size == "2/0 AWG" and f1.ampacity_a == 156.0 and f1.neutral_size == f1.size
+    assert any(n.startswith("NEC 220.61(A): the neutral load is 16 A") for n in f2.notes)
+    assert f2.neutral_size != f2.size
+    # the other way round: P2's feeder full size, and its note says whose setting it is
+    result = compute_job(load_walk(_panel_says(_walk(tmp_path, None), "P2", True)))
+    f1, f2 = result.runs["F1"], result.runs["F2"]
+    assert f1.size == "1/0 AWG" and f2.neutral_size == f2.size
+    assert any("the loads taken as nonlinear (the job's or its panel's setting)" in n
+               for n in f2.notes)
+
+
+def test_a_panel_said_linear_keeps_the_job_wide_setting_off_its_runs(tmp_path):
+    result = compute_job(load_walk(_panel_says(_walk(tmp_path, True), "P2", False)))
+    assert result.runs["F1"].size == "2/0 AWG"                     # the job's setting
+    f2 = result.runs["F2"]                                           # its panel's
+    assert any(n.startswith("NEC 220.61(A): the neutral load is 16 A") for n in f2.notes)
+
+
+def test_the_panels_setting_is_kept_and_shown_on_every_face(tmp_path, capsys):
+    path = _panel_says(_walk(tmp_path, None), "P1", True)
+    job = load_walk(path)
+    assert job.source("P1").nonlinear_loads is True and job.source("P2").nonlinear_loads is None
+    kept = dumps_walk(job)   # written back in the panel's table
+    assert 'id = "P1"\nkind = "panel"\nsystem = "208Y/120V 3ph 4w"' in kept
+    assert kept.count("nonlinear_loads = true") == 1
+    assert main(["check", str(path), "--json"]) == 0
+    sources = {s["id"]: s for s in json.loads(capsys.readouterr().out)["sources"]}
+    assert sources["P1"]["nonlinear_loads"] is True and sources["P2"]["nonlinear_loads"] is None
+    report = tmp_path / "wing.md"
+    assert main(["report", str(path), "-o", str(report)]) == 0
+    schedule = report.read_text().split("### P1", 1)[1].split("###", 1)[0]
+    assert "its loads mostly nonlinear" in schedule
+
+
+def test_the_source_command_and_the_card_say_it(tmp_path, capsys):
+    from gaugewalk.model.session.card_source import read_source_text
+
+    path = _walk(tmp_path, None)
+    assert main(["source", str(path), "P3", "--kind", "panel", "--system", "208Y/120",
+                 "--nonlinear", "yes", "--from", "SVC", "--length", "20"]) == 0
+    assert load_walk(path).source("P3").nonlinear_loads is True
+    assert read_source_text("208Y/120 225A nonlinear")["nonlinear_loads"] is True
+    assert read_source_text("linear 208Y/120")["nonlinear_loads"] is False

@@ -48,6 +48,9 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                              "(default) or primary and secondary")
     parser.add_argument("--secondary-ocpd", type=int, metavar="A",
                         help="transformer secondary device at the transformer [A]")
+    parser.add_argument("--nonlinear", choices=("yes", "no"),
+                        help="its loads are mostly nonlinear, or linear (default: the job's "
+                             "setting; NEC 310.15(E)(3))")
     parser.add_argument("--notes", default="")
     parser.add_argument("--from", dest="from_", metavar="SOURCE",
                         help="the source feeding it (needed for all but the service)")
@@ -69,7 +72,9 @@ def run(args: argparse.Namespace) -> int:
             "kva": args.kva, "rating_a": args.rating, "notes": args.notes}
     for key, value in (("main_a", args.main), ("spaces", args.spaces),
                        ("impedance_pct", args.impedance), ("protection", args.protection),
-                       ("secondary_ocpd_a", args.secondary_ocpd)):
+                       ("secondary_ocpd_a", args.secondary_ocpd),
+                       ("nonlinear_loads", None if args.nonlinear is None
+                        else args.nonlinear == "yes")):
         if value is not None:
             data[key] = value
     try:

@@ -31,7 +31,7 @@ def neutral_for(i: int, neutral_amps: float, egc_size: str | None, material: str
     ``nonlinear``: the neutral of a 4-wire wye whose loads are mostly nonlinear, full size."""
     if nonlinear:
         return tab.sizes[i], (
-            f"NEC 220.61(C)(2), 310.15(E)(3): the loads taken as nonlinear (the job's setting): "
+            f"NEC 220.61(C)(2), 310.15(E)(3): the loads taken as nonlinear (the job's or its panel's setting): "
             f"the neutral full size, {tab.sizes[i]} {MAT[material]}, and counted as "
             "current-carrying (common practice: harmonics add on the neutral)",)
     floor = cmil(egc_size) if egc_size is not None else 0.0
