@@ -41,7 +41,7 @@ def build() -> Job:
                rating_a=400, notes="Column line C-14, aisle 11"),
         Source(id="H3", kind="panel", system="480Y/277V 3ph 4w", name="Dock and mechanical H3",
                rating_a=600, notes="Dock wall, between doors 12 and 13"),
-        Source(id="T1", kind="transformer", system="208Y/120V 3ph 4w", kva=225,
+        Source(id="T1", kind="transformer", system="208Y/120V 3ph 4w", kva=300,
                impedance_pct=4.6, name="Office transformer",
                notes="Electrical room 101, on the pad"),
         Source(id="L1", kind="panel", system="208Y/120V 3ph 4w", name="Office panel L1",
@@ -82,15 +82,18 @@ def build() -> Job:
     add("F-H2", "MSB", "H2", "520+18+2*6", material="al", raceway="EMT", bends=5,
         measured_on=WALKED.isoformat())
     add("F-H3", "MSB", "H3", "340+14+2*8", material="al", raceway="EMT", bends=4, sets=2,
-        measured_on=WALKED.isoformat())
+        measured_on=WALKED.isoformat(), max_drop_pct=1.5,
+        notes="Sized for 1.5 %: the dock transformer and its panels hang below it")
     add("F-T1", "MSB", "T1", "24", bends=2, notes="Primary, 480 V 3-wire")
     add("F-L1", "T1", "L1", "18", bends=2, sets=2, notes="Secondary, 208Y/120 V, two sets")
-    add("F-L1A", "L1", "L1A", "95+10", bends=3)
+    add("F-L1A", "L1", "L1A", "95+10", bends=3, max_drop_pct=1.0,
+        notes="Sized for 1 % so the office circuits keep their share of the total drop")
     add("F-L1B", "L1", "L1B", "140+10", bends=3, max_drop_pct=1.0,
         notes="Sized for 1 % so the break room circuits keep their share of the total drop")
     add("F-T2", "H3", "T2", "12", bends=2, notes="Primary, 480 V 3-wire")
     add("F-L2", "T2", "L2", "10", bends=1)
-    add("F-L2A", "L2", "L2A", "65+16", bends=3, notes="Up to the mezzanine")
+    add("F-L2A", "L2", "L2A", "65+16", bends=3, max_drop_pct=1.0,
+        notes="Up to the mezzanine; sized for 1 % so the office circuits keep their share")
 
     # high-bay LED lighting, 277 V, fixtures spread along each aisle
     for panel, first, count, reach in (("H1", 1, 72, 40), ("H2", 101, 72, 40)):

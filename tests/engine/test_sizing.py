@@ -293,7 +293,8 @@ def test_the_picked_size_passes_and_the_next_smaller_fails(circuit, amps, length
 
 @pytest.mark.parametrize("upstream, said", [
     (5.6, "already takes the whole 5% total target"),
-    (4.9, "leaves 0.10% of the 5% total target, less than any size of this run drops"),
+    (4.9, "leaves 0.10% of the 5% total target, less than this run drops on any size up to 2 "
+          "over what its own target asks (common practice)"),
 ])
 def test_a_run_behind_a_source_over_the_total_target_keeps_what_its_own_target_asks(upstream,
                                                                                     said):
@@ -327,3 +328,26 @@ def test_a_run_upsized_for_its_drop_says_how_much_the_sizes_it_passed_over_drop(
     assert evaluate(spec(amps=16, length_ft=150.0, method="dc")) == r
     # a size picked for its ampacity passed over nothing for its drop
     assert evaluate_picked(spec(amps=16, length_ft=20.0, method="dc"))[1] == math.inf
+
+
+@pytest.mark.parametrize("upstream, size", [(3.6, "3 AWG"), (3.8, "6 AWG")])
+def test_a_run_is_taken_at_most_two_sizes_over_its_own_target_for_the_total(upstream, size):
+    # 40 A at 240 V, 150 ft of Cu in steel at pf 0.85: drop % = 2 x 40 A x Z x 0.150 kft / 240 V
+    # x 100 = 5 Z, with Z = R cos + X sin from NEC Ch. 9 Table 9 (as the tables module reads it).
+    # Its own 3 % asks 6 AWG; 1.4 % left of the 5 % total (3.6 % upstream) is met by 3 AWG, two
+    # sizes over: taken. 1.2 % left (3.8 %) needs 2 AWG, three sizes over: the cure is upstream
+    # (pick.UPSIZE_FOR_TOTAL, common practice), so the run keeps 6 AWG and says so.
+    from gaugewalk.model.engine.drop import table9_rx
+
+    def pct(size: str) -> float:
+        r, x = table9_rx(size, "cu", "steel")
+        return 5 * (r * 0.85 + x * math.sqrt(1 - 0.85 ** 2))
+
+    assert pct("8 AWG") > 3.0 >= pct("6 AWG")                      # its own target: 6 AWG
+    assert pct("4 AWG") > 1.4 >= pct("3 AWG") and pct("3 AWG") > 1.2 >= pct("2 AWG")
+    r = evaluate(spec(amps=40, length_ft=150, upstream_drop_pct=upstream))
+    assert r.size == size and r.voltage_drop_pct == pytest.approx(pct(size), rel=1e-3)
+    if size == "6 AWG":
+        assert "the drop has to come down upstream" in r.problems[0] and not r.ok
+    else:
+        assert r.ok and r.governed_by == "voltage drop"

@@ -8,9 +8,10 @@ every rule it fails named.
 2. the device protects it: at most the conductor's ampacity, or the next standard rating up to
    800 A (240.4(B), (C)), and within the small-conductor limits of 240.4(D);
 3. the drop targets: this run's drop and the drop from the service (informational notes to
-   210.19(A) and 215.2(A); recommendations, made binding here as the job's targets). Where the
-   drop up to the source leaves less of the total than any size drops, a larger conductor here
-   cannot help: the run keeps the size its own target asks, and a problem says so;
+   210.19(A) and 215.2(A); recommendations, made binding here as the job's targets). For the
+   total target a run is taken up to ``UPSIZE_FOR_TOTAL`` sizes over what its own target asks;
+   where the drop up to the source leaves less than that (or than any size) drops, the cure is
+   upstream: the run keeps the size its own target asks, and a problem says so;
 4. the job's minimum size (a job specification; common practice);
 5. conductors in parallel are 1/0 AWG and larger (310.10(G));
 6. where a rule of the walk asks it (``RunSpec.min_ampacity_a``), an ampacity of at least that
@@ -46,6 +47,11 @@ from gaugewalk.model.engine.sizing.text import amps_text, pct_text
 from gaugewalk.tables.conductor.sizes import canonical, parse_size, size_index
 
 _EPS = 1e-9
+
+UPSIZE_FOR_TOTAL = 2
+"""Sizes over the one its own drop target asks that a run is taken up to so that the drop from the
+service stays within the total target; past that the drop is cured where it is lost, upstream
+(common practice: a 9 A branch is not run in 2/0 AWG because its panel's bus is at 4.9 %)."""
 
 class Candidates(NamedTuple):
     """What rules 1, 2, 4 and 6 leave for rule 3, for every length: ``floor_i`` the job's
@@ -115,7 +121,8 @@ def drop_scan(sizes: tuple[tuple[int, float], ...], volts_per_ohm_kft: float,
     drop is ``volts_per_ohm_kft`` [V] per ohm/kft of conductor impedance and ``pct_per_volt``
     [%/V]: ``(the first size index within the limit, the least drop [%] of the sizes before
     it, infinity where none, the first of those within the run's own target)``; None for the
-    index where no size is within the limit (``drop_limit`` of ``spec``)."""
+    index where no size is within the limit (``drop_limit`` of ``spec``), or where the first that
+    is lies more than ``UPSIZE_FOR_TOTAL`` sizes over the first within the run's own target."""
     limit = drop_limit(spec)
     own = spec.max_drop_pct + _EPS   # this run's own target: the limit, unless the total is
     passed = math.inf   # the least drop of a size meeting rules 1, 2 and 4 but not the limit
@@ -123,6 +130,8 @@ def drop_scan(sizes: tuple[tuple[int, float], ...], volts_per_ohm_kft: float,
     for i, zi in sizes:
         pct = volts_per_ohm_kft * zi * pct_per_volt
         if pct <= limit:
+            if own_i is not None and i > own_i + UPSIZE_FOR_TOTAL:
+                return None, passed, own_i   # the total asks too much of this run: upstream
             return i, passed, own_i
         if pct < passed:
             passed = pct
@@ -217,8 +226,9 @@ def _upstream_words(spec: RunSpec) -> str:
     if up >= total:
         said = f"already takes the whole {total:g}% total target"
     else:
-        said = (f"leaves {pct_text(total - up)} of the {total:g}% total target, less than any "
-                f"size of this run drops")
+        said = (f"leaves {pct_text(total - up)} of the {total:g}% total target, less than this "
+                f"run drops on any size up to {UPSIZE_FOR_TOTAL} over what its own target asks "
+                "(common practice)")
     return (f"the drop up to its source, {pct_text(up)}, {said}: sized for its own "
             f"{spec.max_drop_pct:g}% target; the drop has to come down upstream")
 
