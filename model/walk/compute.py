@@ -886,10 +886,11 @@ class WalkState:
             dips.clear()
             problems.clear()
             among = [rid for rid, rr in res.runs.items() if rr.starting_drop_pct is not None]
-        job = self.job
+        job, runs = self.job, res.runs
         for rid in among:
-            r = job.run(rid)
-            dip = start_dip(walk, res, r) if r is not None and rid in res.runs else None
+            rr = runs.get(rid)
+            r = job.run(rid) if rr is not None and rr.starting_drop_pct is not None else None
+            dip = start_dip(walk, res, r) if r is not None else None
             if dip is None:
                 dips.pop(rid, None)
                 problems.pop(rid, None)

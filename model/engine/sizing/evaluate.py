@@ -189,7 +189,9 @@ def _evaluate_pick(spec: RunSpec, hint: bool) -> tuple[RunResult, float]:
 class Prepared:
     """What sizing a run takes that depends neither on its length nor on the drop up to its
     source (``prepare``): the same for every run whose spec is otherwise equal. ``parts`` holds
-    what follows from each size picked by the rules (``_Part``), made once for all of them."""
+    what follows from each size picked by the rules (``_Part``), made once for all of them, and
+    from the size a run's own target asks where the total target is left to upstream (keyed by
+    that size and the drop up to the source, which its problem quotes)."""
 
     __slots__ = ("amps", "cur", "need", "notes", "problems", "st", "protect", "cand",
                  "pct_per_volt", "parts")
@@ -206,7 +208,7 @@ class Prepared:
         self.protect = protect            # [A] the device each size permits; None: 240.4
         self.cand = cand                  # rules 1, 2, 4 and 6 (``pick.candidates``)
         self.pct_per_volt = pct_per_volt  # [%/V]
-        self.parts: dict[int, _Part] = {}
+        self.parts: dict[int | tuple[int, float], _Part] = {}
 
 
 def prepare(spec: RunSpec) -> Prepared:
@@ -308,9 +310,15 @@ def finish(prep: Prepared, spec: RunSpec, hint: bool = True) -> tuple[RunResult,
         part = prep.parts.get(key)
         if part is None:
             part = prep.parts[key] = _part(prep, spec, pick_i, None, None)
+    elif own_i is not None:
+        # the own target's size, with a problem quoting the drop up to the source: the same for
+        # every run alike on one bus
+        own_key = (own_i, spec.upstream_drop_pct)
+        part = prep.parts.get(own_key)
+        if part is None:
+            part = prep.parts[own_key] = _part(prep, spec, None, own_i, None)
     else:
-        # the own target's size (a problem quotes the drop up to the source) or none fits (a
-        # hint of parallel sets reads the length): this run's own
+        # none fits (a hint of parallel sets reads the length): this run's own
         part = _part(prep, spec, None, own_i, _parallel_hint if hint else None)
 
     vd_v = volts_per_z * part.z
