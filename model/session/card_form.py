@@ -782,8 +782,21 @@ def _check_place(r: _Reading) -> None:
     """Where the run lands in its panel: a breaker position (the circuit number), or a phase
     (``A``, ``BC``, ``ABC`` ...); blank: placed by the tool to balance the lines. The hint
     names the lines a position takes (rows A, B, C; common practice)."""
-    from gaugewalk.model.walk.phases import line_count, phase_name, position_lines
+    from gaugewalk.model.engine.circuits import SYSTEMS
+    from gaugewalk.model.walk.phases import (
+        HIGH_LEG,
+        HIGH_LEG_WORDS,
+        line_count,
+        phase_name,
+        position_lines,
+    )
     from gaugewalk.model.walk.vocabulary import MAX_POSITION, PHASES
+
+    def on_high_leg(lines: tuple[int, ...]) -> bool:   # NEC 110.15 (``phases.place`` too)
+        circuit = r.got.get("circuit")
+        return ("from" not in r.errors and isinstance(circuit, Circuit) and circuit.neutral
+                and circuit.hots < 3 and HIGH_LEG in lines
+                and SYSTEMS[r.job.source(r.got["from"]).system].high_leg)
 
     text = r.v["place"].strip().upper()
     r.got["position"] = r.got["phase"] = None
@@ -803,12 +816,16 @@ def _check_place(r: _Reading) -> None:
             lines = position_lines(position, poles, n)
             span = "-".join(str(position + 2 * k) for k in range(poles))
             r.hints["place"] = f"{span} on {phase_name(lines)}"
+            if on_high_leg(lines):
+                r.errors["place"] = f"position {position} {HIGH_LEG_WORDS}"
         return
     if text not in PHASES:
         r.errors["place"] = ("a breaker position (a number) or a phase: "
                              + ", ".join(PHASES) + " (blank: placed by the tool)")
         return
     r.got["phase"] = text
+    if on_high_leg(PHASES[text]):
+        r.errors["place"] = f"phase {text} {HIGH_LEG_WORDS}"
 
 
 def _check_raceway_id(r: _Reading) -> None:

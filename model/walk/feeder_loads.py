@@ -61,6 +61,7 @@ from gaugewalk.model.walk.equipment import feeder_share
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.model.walk.phases import (
+    HIGH_LEG,
     PlaceItem,
     PlaceOutcome,
     Share,
@@ -354,6 +355,8 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
     items: list[PlaceItem] = []
     whose: list[tuple[Run, OwnLoad | None]] = []   # each item's run and own load (groups)
     has_neutral = SYSTEMS[source.system].has_neutral
+    # a circuit using the neutral with fewer than three hots stays off a delta's high leg
+    high = HIGH_LEG if SYSTEMS[source.system].high_leg else None
     back: list[tuple[str, complex]] = []   # own loads returning on the neutral (220.61(A))
     back_fed: list[tuple[str, tuple[complex, ...]]] = []   # feeders: their panels' neutral sums
     va = cva = watts = 0.0
@@ -376,8 +379,9 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
             va += load.va
             cva += load.continuous_va
             watts += load.watts
+            avoid = high if high is not None and mine.neutral and hots < 3 else None
             items.append(_tuple_new(PlaceItem, (rid, poles, rf["position"], rf["phase"], share,
-                                                mine.size, mine.mags, poles == n, each)))
+                                                mine.size, mine.mags, poles == n, each, avoid)))
             if has_neutral and mine.neutral:
                 fed = None
                 if hots > 1:   # a feeder at a stated load: its panel's own neutral sums
@@ -412,7 +416,9 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
             back_fed.append((rid, f.neutral))
         if groups:
             whose.append((r, mine))
-        items.append(PlaceItem(rid, poles, rf["position"], rf["phase"], share, size, mags))
+        avoid = high if high is not None and circuit.neutral and circuit.hots < 3 else None
+        items.append(PlaceItem(rid, poles, rf["position"], rf["phase"], share, size, mags,
+                               avoid=avoid))
     outcome = place(items, n, source.spaces)
     kinds = _group_sums(items, whose, outcome, feeds, u, has_neutral) if groups else ()
     neutral = _neutral_sums(back, back_fed, outcome, u) if has_neutral else ()

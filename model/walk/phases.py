@@ -122,7 +122,9 @@ class PlaceItem(NamedTuple):
     without a share, whose current on each line k it takes is ``phasor * u[k]`` (a run's own
     load, unless it lies between its two lines), (``phasor`` [A, against its line's
     voltage], whether it is continuous, ``u`` the source's line phasors), worked out only for
-    the lines it is placed on (the usual run, placed fastest)."""
+    the lines it is placed on (the usual run, placed fastest); ``avoid``: a line it must not
+    take (the high leg of a 4-wire delta, for a circuit with a neutral and fewer than three
+    hots: NEC 110.15; ``HIGH_LEG``)."""
 
     key: str
     poles: int
@@ -133,7 +135,15 @@ class PlaceItem(NamedTuple):
     mags: tuple[float, ...]
     balanced: bool = False
     each: tuple[complex, bool, tuple[complex, ...]] | None = None
+    avoid: int | None = None
 
+
+HIGH_LEG = 1
+"""The line of the high leg on a 4-wire delta: phase B (about 208 V to neutral on 240/120 V,
+marked orange, NEC 110.15; common practice)."""
+HIGH_LEG_WORDS = ("puts it on the high leg (phase B of the 4-wire delta, about 208 V to "
+                   "neutral, NEC 110.15): a circuit using the neutral with fewer than three hots "
+                   "goes on A and C")
 
 def share_on(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, complex, complex]]:
     """The line currents of ``it`` on ``lines``: (line, current, continuous part) [A, phasors],
@@ -253,20 +263,27 @@ def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> Place
     total, cont = out.total, out.continuous
     owner: dict[int, str] = {}
     rest: list[PlaceItem] = []
+    off_high: list[PlaceItem] = []   # placed here, but never on the high leg
     by_phase: list[tuple[PlaceItem, tuple[int, ...]]] = []
     for it in items:
         if it.phase is None and it.position is None:   # the usual run: placed here
-            rest.append(it)
+            (rest if it.avoid is None else off_high).append(it)
             continue
         stated = _stated_lines(it, n_lines, out.problems)
+        if it.avoid is not None and stated is not None and it.avoid in stated:
+            out.problems.append((it.key, "phase", f"phase {it.phase} {HIGH_LEG_WORDS}"))
         if it.position is None:
             if stated is not None:
                 by_phase.append((it, stated))
             else:
-                rest.append(it)
+                (rest if it.avoid is None else off_high).append(it)
             continue
         span = position_span(it.position, it.poles)
         lines = position_lines(it.position, it.poles, n_lines)
+        if it.avoid is not None and it.avoid in lines and (stated is None
+                                                           or it.avoid not in stated):
+            out.problems.append((it.key, "position", f"position {it.position} "
+                                 f"{HIGH_LEG_WORDS}"))
         if stated is not None and sorted(stated) != sorted(lines):
             out.problems.append((it.key, "phase", f"phase {it.phase} does not agree with "
                                  f"position {it.position}, which is on {phase_name(lines)} "
@@ -294,9 +311,46 @@ def place(items: Sequence[PlaceItem], n_lines: int, spaces: int | None) -> Place
             positions = position_span(p, it.poles)
         out.placements[it.key] = Placement(lines, positions, phase_name(lines), "phase")
         _add(total, cont, share_on(it, lines))
+    if off_high:
+        _place_off_high(off_high, n_lines, free, out)
     if rest:
         _place_rest(rest, n_lines, spaces, free, out)
     return out
+
+
+def _place_off_high(items: list[PlaceItem], n_lines: int, free: "_Spaces",
+                    out: PlaceOutcome) -> None:
+    """The runs that must stay off the high leg, largest first, each onto the lines without it
+    that leave the heaviest of them lightest, at the lowest free position (before the rest,
+    which then balance around them)."""
+    total, cont = out.total, out.continuous
+    load = [design_line(t, c) for t, c in zip(total, cont, strict=True)]
+    for it in sorted(items, key=_SIZE, reverse=True):
+        best = None
+        best_worst = 0.0
+        for lines in options(it.poles, n_lines):
+            if it.avoid in lines:
+                continue
+            p = free.first_free(lines[0], it.poles)
+            if p is None:
+                continue
+            new = load[:]
+            for k, m in zip(lines, it.mags, strict=False):
+                new[k] += m
+            if best is None or max(new) < best_worst - _EPS:
+                best, best_worst = (lines, p), max(new)
+        if best is None:
+            lines = next(o for o in options(it.poles, n_lines) if it.avoid not in o)
+            out.problems.append((it.key, "position", _no_space(it.poles, lines, free.spaces)))
+            positions: tuple[int, ...] = ()
+        else:
+            lines, p = best
+            free.take(p, it.poles)
+            positions = position_span(p, it.poles)
+        for k, m in zip(lines, it.mags, strict=False):
+            load[k] += m
+        out.placements[it.key] = Placement(lines, positions, phase_name(lines), "placed")
+        _add(total, cont, share_on(it, lines))
 
 
 def _stated_lines(it: PlaceItem, n_lines: int,

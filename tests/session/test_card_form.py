@@ -663,3 +663,24 @@ def test_a_fresh_card_shows_the_jobs_raceway_not_the_last_runs_but_ctrl_r_copies
     assert (form.values["raceway"], form.values["material"]) == ("", "")
     form.like(form.session.job.run("R1"))
     assert (form.values["raceway"], form.values["material"]) == ("PVC-40", "al")
+
+
+def test_the_card_refuses_a_120_v_circuit_on_a_deltas_high_leg(tmp_path):
+    # NEC 110.15: phase B of a 240/120 V 4-wire delta is about 208 V to neutral
+    from tests.support.walks import walk_text
+
+    text = walk_text("shop", sources=[{"id": "SVC", "kind": "service",
+                                       "system": "240/120V 3ph 4w delta"}])
+    session = WalkSession.open(write_walk(tmp_path, text))
+    form = CardForm(session)
+    form.start()
+    _typed(form, **{"from": "SVC", "to": "Bench", "length": "30", "load": "12A",
+                    "circuit": "LN", "place": "3"})
+    assert "high leg" in form.check().errors["place"]
+    form.type("place", "B")
+    assert "high leg" in form.check().errors["place"]
+    form.type("place", "5")   # 5-6 on C
+    assert "place" not in form.check().errors
+    form.type("circuit", "LL")   # 240 V without the neutral may use B
+    form.type("place", "3")
+    assert "place" not in form.check().errors

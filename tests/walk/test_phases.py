@@ -84,6 +84,38 @@ def test_a_phase_c_on_a_single_phase_panel_is_a_problem():
     assert any(p.field == "phase" and "single-phase" in p.message for p in result.problems)
 
 
+DELTA = "240/120V 3ph 4w delta"
+
+
+def test_no_circuit_using_the_neutral_is_placed_on_a_deltas_high_leg():
+    # NEC 110.15: on a 240/120 V 4-wire delta, phase B (the high leg, marked orange) is about
+    # 208 V to neutral: 120 V loads and 120/240 V loads with a neutral go on A and C only
+    # (common practice); 240 V loads without the neutral and three-phase loads may use B
+    runs = [_b(f"R{i}", 8 + i) for i in range(1, 9)] + [
+        _b("R20", 12, "LLN"), _b("R21", 20, "LL"), _b("R22", 15, "3P")]
+    result = compute_job(_panel(*runs, system=DELTA))
+    p = result.placements
+    for i in range(1, 9):
+        assert p[f"R{i}"].phase in ("A", "C"), (i, p[f"R{i}"])
+    assert p["R20"].phase in ("CA", "AC")
+    assert p["R22"].phase == "ABC" and not result.problems
+    # the sheet's positions agree with the lines (1-2 on A, 3-4 on B, 5-6 on C)
+    for i in range(1, 9):
+        (pos,) = p[f"R{i}"].positions
+        assert position_lines(pos, 1, 3) != (1,)
+
+
+@pytest.mark.parametrize(("keys", "field"), [({"phase": "B"}, "phase"),
+                                             ({"position": 4}, "position")])
+def test_a_120_v_circuit_the_walk_puts_on_the_high_leg_is_a_problem(keys, field):
+    result = compute_job(_panel(_b("R1", **keys), system=DELTA))
+    said = [q for q in result.problems if q.id == "R1" and q.field == field]
+    assert said and "high leg" in said[0].message and "NEC 110.15" in said[0].message
+    assert not result.ok
+    # the same on a 208Y/120 V wye is fine: every phase is 120 V to neutral
+    assert compute_job(_panel(_b("R1", **keys))).ok
+
+
 # -- the placement's properties, against an independent sum of the same currents --------------
 _U3 = (1, cmath.rect(1, -2 * math.pi / 3), cmath.rect(1, 2 * math.pi / 3))
 _U2 = (1, -1)
