@@ -48,7 +48,7 @@ class Circuit(NamedTuple):
 
 class Equipment(NamedTuple):
     """What a load is, with the nameplate values its kind's rules read (NEC Articles 422, 424,
-    430, 440, 625, 630); see ``gaugewalk.model.engine.sizing.kinds``. None of a field: not given.
+    430, 440, 625, 630, 695); see ``gaugewalk.model.engine.sizing.kinds``. None of a field: not given.
     Units in brackets."""
 
     kind: LoadKind = "general"
@@ -66,6 +66,7 @@ class Equipment(NamedTuple):
     tank_gal: float | None = None           # [gal] water heater storage (422.13)
     yokes: int | None = None                # receptacle yokes at 180 VA each (220.14(I))
     continuous: bool | None = None          # the run's own say; None: the kind's default
+    lra_a: float | None = None              # [A] nameplate locked-rotor current, where stated
 
 
 @dataclass(frozen=True)

@@ -14,7 +14,8 @@ Public API (each a ``Literal`` type and its values, in the order they are offere
   horsepower, turned into amps by NEC Tables 430.248 and 430.250, not by a multiplier).
 - ``LoadKind``, ``LOAD_KINDS``: what a load is, with a line on each; each kind brings the rules
   of its article (``gaugewalk.model.engine.sizing.kinds``). ``RESISTIVE_KINDS`` take power factor
-  1 unless the run gives one; ``CONTINUOUS_KINDS`` are continuous by their article.
+  1 unless the run gives one; ``CONTINUOUS_KINDS`` are continuous by their article;
+  ``MOTOR_KINDS`` are motors by horsepower (a fire pump is one, with Article 695's rules).
 - ``MotorDevice``, ``MOTOR_DEVICES``: the motor branch short-circuit and ground-fault device
   types of NEC Table 430.52(C)(1); ``MotorDesign``, ``MOTOR_DESIGNS`` (NEMA design letters the
   locked-rotor table covers); ``CODE_LETTERS`` (Table 430.7(B)).
@@ -64,11 +65,13 @@ tables instead)."""
 POWER_UNITS = ("A", "VA", "kVA", "W", "kW")
 """The units a load of any kind may be given in (``hp`` is for motors)."""
 
-LoadKind = Literal["general", "motor", "hvac", "ev-charger", "water-heater", "heater", "welder",
-                   "lighting", "receptacle"]
+LoadKind = Literal["general", "motor", "fire-pump", "hvac", "ev-charger", "water-heater", "heater",
+                   "welder", "lighting", "receptacle"]
 LOAD_KINDS: dict[LoadKind, str] = {
     "general": "any load no article of its own covers (NEC 210.19(A), 210.20(A), 215.2, 215.3)",
     "motor": "a motor by horsepower (NEC 430.6(A)(1), 430.22, 430.52, 250.122(D)(1))",
+    "fire-pump": "a fire pump motor: device carries its locked-rotor current, its own drop "
+                 "limits (NEC 695.4(B)(2), 695.6(C), 695.7)",
     "hvac": "air-conditioning or refrigerating equipment by its nameplate MCA and MOCP "
             "(NEC 440.4(B), 440.22)",
     "ev-charger": "electric vehicle supply equipment, a continuous load (NEC 625.41, 625.42)",
@@ -102,8 +105,14 @@ one of them may use the 75 C column (NEC 110.14(C)(1)(a)(4))."""
 CODE_LETTERS: tuple[str, ...] = tuple(_locked_rotor.CODE_LETTERS)
 """Locked-rotor indicating code letters, NEC Table 430.7(B) (I, O and Q are not used)."""
 
+MOTOR_KINDS: tuple[LoadKind, ...] = ("motor", "fire-pump")
+"""Kinds that are a motor by horsepower (NEC Tables 430.248, 430.250): a load in hp is one of
+them (``motor`` unless it says ``fire-pump``), and each reads a motor's nameplate (code letter,
+design letter, locked-rotor current)."""
+
 NAMEPLATE_KEYS: dict[str, tuple[LoadKind, ...]] = {
-    "motor_device": ("motor",), "code_letter": ("motor",), "design": ("motor",),
+    "motor_device": ("motor",), "code_letter": MOTOR_KINDS, "design": MOTOR_KINDS,
+    "lra": MOTOR_KINDS,
     "mca": ("hvac",), "mocp": ("hvac",),
     "i1eff": ("welder",), "i1max": ("welder",), "rated_a": ("welder",),
     "duty_cycle_pct": ("welder",), "welder_type": ("welder",),

@@ -328,7 +328,11 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         defaults=_defaults(job) + (
             (("Motor starting drop target [%]",
               f"{job.defaults.starting_drop_pct:g} (common practice: 10 to 15)"),)
-            if any(r[1] == "motor" for r in equipment_rows) else ()),
+            if any(r[1] == "motor" for r in equipment_rows) else ())
+        + ((("Fire pump drop targets [%]",
+             "5 running, at 115 % of full-load current, from the service (NEC 695.7(B)); 15 "
+             "while starting (695.7(A)); whatever the job's targets"),)
+           if any(r[1] == "fire-pump" for r in equipment_rows) else ()),
         runs=tuple(rows),
         one_line=buses,
         shared=_shared(job_result),

@@ -35,6 +35,7 @@ from gaugewalk.model.session.session import WalkSession, fmt_ft
 from gaugewalk.model.walk.job import Load, Run, Source
 from gaugewalk.model.walk.plain_text import shown as shown_plain
 from gaugewalk.model.walk.plausible import long_length
+from gaugewalk.model.walk.vocabulary import kind_in_name
 from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C, rooftop_excepted
 from gaugewalk.tables.equipment.horsepower import hp_text
 
@@ -86,7 +87,8 @@ FOLLOWING = (*COPIED_FROM_PREVIOUS, "id", "kind")
 LOAD_KEYS = ("load", "kind", "plate")
 """The fields a run's load is read from (the load, its kind, its nameplate)."""
 PLATE_PLACEHOLDERS = {
-    "motor": "dual-element code G", "hvac": "mca 28 mocp 45", "welder": "i1eff 25 i1max 50",
+    "motor": "dual-element code G", "fire-pump": "code G (or lra 363)",
+    "hvac": "mca 28 mocp 45", "welder": "i1eff 25 i1max 50",
     "water-heater": "tank 50", "receptacle": "yokes 8",
 }
 """The nameplate field's hint for each kind that reads one (other kinds hide the field)."""
@@ -137,7 +139,8 @@ def kind_named(text: str) -> vocab.LoadKind | None:
 
 def kind_in(values: dict[str, str]) -> vocab.LoadKind:
     """The load's kind as the texts say: the kind field (``kind_named``), else motor for a load
-    in hp, else the kind whose nameplate words the load field holds (``mca 38 mocp 50``: hvac),
+    in hp or a motor's nameplate (a fire pump where its name says so, ``kind_in_name``), else
+    the kind whose nameplate words the load field holds (``mca 38 mocp 50``: hvac),
     else, for a run with a load and no new panel, the kind its name says (``kind_in_name``),
     else general (an unknown word: general, and the kind field says what is wrong)."""
     kind = values.get("kind", "").strip().lower()
@@ -148,13 +151,16 @@ def kind_in(values: dict[str, str]) -> vocab.LoadKind:
         text = values.get("load", "")
         try:
             if read_load_field(text).unit == "hp":
-                return "motor"
+                return ("fire-pump" if kind_in_name(values.get("to", "")) == "fire-pump"
+                        else "motor")
         except LoadError:
             pass
         try:
             plate_kind = nameplate_kind(read_nameplate(split_load(text)[1]))
         except ValueError:
             plate_kind = None
+        if plate_kind == "motor" and kind_in_name(values.get("to", "")) == "fire-pump":
+            return "fire-pump"
         if plate_kind is not None:
             return plate_kind
         if text.strip() and not values.get("panel", "").strip():
@@ -162,28 +168,13 @@ def kind_in(values: dict[str, str]) -> vocab.LoadKind:
     return "general"
 
 
-_NAME_KINDS: tuple[tuple[re.Pattern[str], vocab.LoadKind], ...] = (
-    (re.compile(r"\bwater[ -]?heaters?\b"), "water-heater"),
-    (re.compile(r"\bheaters?\b"), "heater"),
-    (re.compile(r"\bev[ -]?chargers?\b|\bevse\b|\bev charging\b"), "ev-charger"),
-    (re.compile(r"\blights?\b|\blighting\b|\bluminaires?\b"), "lighting"),
-)
-"""Words of a load's name that say its kind where the article decides more than its current
-(continuous by 422.13, 424.4(B), 625.42, or lighting by common practice), in the order tried."""
-
-
-def kind_in_name(name: str) -> vocab.LoadKind | None:
-    """The kind a load's name says (``_NAME_KINDS``: ``Taproom lights`` is lighting, ``Unit
-    heater 3`` a heater), or None. The card fills it in as it fills in motor for a load in hp:
-    shown in the Kind field, followed while nobody types there."""
-    low = name.lower()
-    return next((kind for words, kind in _NAME_KINDS if words.search(low)), None)
-
-
 def nameplate_kind(plate: dict[str, object]) -> vocab.LoadKind | None:
     """The one kind of load that reads every key of ``plate`` (``vocab.NAMEPLATE_KEYS``), or
-    None (no key, or keys of different kinds)."""
+    None (no key, or keys of different kinds); keys a motor and a fire pump both read
+    (``code G``) are a motor's (the name may say fire pump, ``kind_in``)."""
     kinds = {kind for key in plate for kind in vocab.NAMEPLATE_KEYS[key]}
+    if kinds == set(vocab.MOTOR_KINDS):
+        return "motor"
     return kinds.pop() if len(kinds) == 1 else None
 
 
@@ -206,7 +197,7 @@ def placeholder(key: str, values: dict[str, str]) -> str:
 
 _PLATE_WORDS: dict[str, str] = {
     "mca": "mca", "mocp": "mocp", "device": "motor_device", "code": "code_letter",
-    "letter": "code_letter", "design": "design", "i1eff": "i1eff", "i1max": "i1max",
+    "letter": "code_letter", "design": "design", "lra": "lra", "i1eff": "i1eff", "i1max": "i1max",
     "rated": "rated_a", "duty": "duty_cycle_pct", "type": "welder_type", "tank": "tank_gal",
     "gal": "tank_gal", "yokes": "yokes", "yoke": "yokes", "duplex": "yokes",
 }
@@ -219,6 +210,7 @@ _PLATE_FLAGS: dict[str, tuple[str, str]] = {
 }
 """Words that stand alone: a motor device type or a welder type."""
 _PLATE_TEXT = {"mca": "mca", "mocp": "mocp", "code_letter": "code", "design": "design",
+               "lra": "lra",
                "i1eff": "i1eff", "i1max": "i1max", "rated_a": "rated", "duty_cycle_pct": "duty",
                "tank_gal": "tank", "yokes": "yokes"}
 """The walk file's key -> the word ``plate_text`` writes."""
@@ -724,7 +716,7 @@ def _check_continuous(r: _Reading) -> None:
     load = r.got.get("load")
     kind = load.kind if load is not None else kind_in(r.v)
     tank = load.tank_gal if load is not None else None
-    if kind in ("motor", "hvac", "welder"):
+    if kind in ("motor", "fire-pump", "hvac", "welder"):
         r.hints["continuous"] = f"no: the {kind} rules"
     elif kind != "general" and kind_continuous(kind, tank):
         r.hints["continuous"] = f"{kind}: continuous"

@@ -68,7 +68,7 @@ def branch_circuit_for_kind(system_id: str, kind: str = "general",
     every_hot = "3P" if system.phases == 3 else "LL"
     small_motor_ln = (hp is not None and hp < 1 and system.line_to_neutral_v is not None
                       and system.line_to_neutral_v <= _SMALL_MOTOR_MAX_LN_V)
-    if kind == "hvac" or (kind == "motor" and not small_motor_ln):
+    if kind in ("hvac", "fire-pump") or (kind == "motor" and not small_motor_ln):
         return every_hot
     if kind in _TWO_POLE_KINDS or not system.has_neutral:
         return "LL"

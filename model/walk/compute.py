@@ -46,6 +46,7 @@ from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
 from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.currents import design_current
 from gaugewalk.model.engine.sizing.evaluate import Prepared, finish_prepared, prepared_for
+from gaugewalk.model.engine.sizing.kinds import drop_targets
 from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import (
@@ -66,6 +67,7 @@ from gaugewalk.model.walk.feeder_loads import (
     own_load,
     sum_source,
 )
+from gaugewalk.model.walk.fire_pumps import feeder_check, named_fire_pump, supply_notes
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.motor_feeders import (
@@ -430,6 +432,11 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
     values["max_drop_pct"] = max_drop
     values["upstream_drop_pct"] = upstream_drop_pct
     values["equipment"] = equipment
+    if equipment is not None and equipment.kind == "fire-pump":   # NEC 695.7
+        (values["max_drop_pct"], values["max_total_drop_pct"],
+         values["starting_drop_pct"]) = drop_targets(
+            equipment, rf["max_drop_pct"], max_drop, values["max_total_drop_pct"],
+            values["starting_drop_pct"])
     if load is not None:
         values["load_notes"] = pf_assumed(load, d["pf"])
     if continuous_amps is not None and circuit.neutral and feed.frame == "lines":
@@ -626,7 +633,7 @@ class WalkState:
             load = rf["load"]
             if load is not None:
                 kind = load.__dict__["kind"]
-                if kind not in ("motor", "hvac"):
+                if kind not in ("motor", "fire-pump", "hvac"):
                     only = False   # a load of another kind: no motor of this run
                     if kind == "welder":
                         welders += 1
@@ -736,6 +743,9 @@ class WalkState:
                 self.forget(r)
                 self.fail(r, str(exc))
                 return
+            kind = result.load_kind
+            if kind == "fire-pump" or kind == "motor":
+                result = self.fire_pump_words(r, result)
             res._specs[rid] = spec
             res._passed[rid] = passed
             self.store(r, result, False, spec)
@@ -776,8 +786,16 @@ class WalkState:
             problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "
                          f"{limit:.0f} A it permits for the motors it supplies",)
                         if motors.only_motors and result.ocpd_a > limit + _EPS else ())
-            if result.ocpd_a + _EPS < motors.device_a:
+            fp_notes, fp_problems = ((), ())
+            if motors.fire_pumps:   # NEC 695.4(B)(2)(a)(1)
+                fp_notes, fp_problems = feeder_check(motors.fire_pumps, spec.amps,
+                                                     result.ocpd_a)
+            if result.ocpd_a + _EPS < motors.device_a and not (
+                    fp_problems and any(f[0] == motors.device_run for f in motors.fire_pumps)):
+                # (a fire pump's device the largest: its own problem says more)
                 problems += (below_branch_device(motors, result.ocpd_a, limit),)
+            notes += fp_notes
+            problems += fp_problems
             result = with_fields(result, notes=result.notes + notes,
                                  problems=result.problems + problems)
         if is_feeder and r.load is None and res.welders.get(r.to, 0) > 1 and rule is None:
@@ -785,6 +803,8 @@ class WalkState:
         if is_feeder and r.load is None and r.to in res.left_out:
             result = with_fields(result, problems=result.problems + (
                 _left_out_problem(r.to, res.left_out[r.to]),))
+        if not is_feeder and result.load_kind in ("fire-pump", "motor"):
+            result = self.fire_pump_words(r, result)
         res._specs[r.id] = spec
         res._passed[r.id] = passed
         if is_feeder:
@@ -848,6 +868,19 @@ class WalkState:
         if rule is not None and rule.amps is not None:
             return FeederInfo(rule.basis, rule.amps, spec.amps, line, beside, limit)
         return FeederInfo(words, spec.amps, spec.amps, line, beside, limit)
+
+    def fire_pump_words(self, r: Run, result: RunResult) -> RunResult:
+        """A fire pump's run with what the walk shows of its supply (NEC 695.3, 230.82(5),
+        695.5); a motor named as a fire pump with its problem
+        (``gaugewalk.model.walk.fire_pumps``)."""
+        if result.load_kind == "fire-pump":
+            if self.walk is None:
+                return result
+            return with_fields(result, notes=result.notes + supply_notes(self.walk, r))
+        problem = named_fire_pump(r)
+        if problem is None:
+            return result
+        return with_fields(result, problems=result.problems + (problem,))
 
     def forget(self, r: Run) -> None:
         res = self.result

@@ -20,7 +20,7 @@ Public API:
   the current its branch is sized from (motor FLC, HVAC MCA, welder 630.11(A) current), and its
   branch device. None for a run without a load of its own.
 
-Feeders: a motor adds its full-load current (noncontinuous: NEC 430.24 takes the motors at
+Feeders: a motor (a fire pump too) adds its full-load current (noncontinuous: NEC 430.24 takes the motors at
 100 % and the largest once more at 25 %, which ``gaugewalk.model.walk.motor_feeders`` adds);
 HVAC equipment known by its MCA adds MCA / 1.25 as its rated-load current (440.33, the 25 % of
 the largest unit added once the same way; assumed, and said), or its running current where a
@@ -40,7 +40,7 @@ from gaugewalk.model.engine.sizing.kinds import (
     running_amps,
     welder_current,
 )
-from gaugewalk.model.engine.vocabulary import MOTOR_DEVICES
+from gaugewalk.model.engine.vocabulary import MOTOR_DEVICES, MOTOR_KINDS
 from gaugewalk.model.walk.job import Load, Run
 from gaugewalk.tables.equipment.horsepower import hp_text
 
@@ -59,7 +59,7 @@ def _equipment(load: Load, continuous: bool | None) -> Equipment:
         i1eff_a=load.i1eff, i1max_a=load.i1max, rated_a=load.rated_a,
         duty_cycle_pct=load.duty_cycle_pct, welder_type=load.welder_type or "nonmotor",
         tank_gal=load.tank_gal, yokes=load.yokes,
-        continuous=continuous,
+        continuous=continuous, lra_a=load.lra,
     )
 
 
@@ -117,7 +117,7 @@ def _feeder_amps(facts: LoadFacts, given: bool) -> tuple[float, bool]:
     eq = facts.equipment
     if eq is None:
         return facts.amps, facts.continuous
-    if eq.kind == "motor":
+    if eq.kind in MOTOR_KINDS:
         return facts.amps, False
     if eq.kind == "hvac" and eq.mca_a is not None:
         return (facts.amps if given else eq.mca_a / HVAC_RLA_FACTOR), False
@@ -146,7 +146,7 @@ def run_kind_load(run: Run, circuit: Circuit, default_pf: float) -> KindLoad | N
     return kind_load(eq, facts.amps, run.ocpd_a, circuit.volts, circuit.phases)
 
 
-_KIND_WORDS = {"general": "", "motor": "motor", "hvac": "HVAC", "ev-charger": "EV charger",
+_KIND_WORDS = {"general": "", "motor": "motor", "fire-pump": "fire pump", "hvac": "HVAC", "ev-charger": "EV charger",
                "water-heater": "water heater", "heater": "heater", "welder": "welder",
                "lighting": "lighting", "receptacle": "receptacles"}
 
@@ -185,13 +185,15 @@ def load_words(load: Load) -> str:
     if kind:
         words = [f"{words[0]} {kind}".strip()]
     extra = []
-    if load.kind == "motor":
+    if load.kind in MOTOR_KINDS:
         if load.motor_device is not None and load.motor_device != "inverse-time":
             extra.append(MOTOR_DEVICES[load.motor_device].split(" (")[0])
         if load.code_letter is not None:
             extra.append(f"code {load.code_letter}")
         if load.design is not None and load.design != "B":
             extra.append(f"design {load.design}")
+        if load.lra is not None:
+            extra.append(f"LRA {_n(load.lra)} A")
     if load.mca is not None and load.value is not None:
         extra.append(f"MCA {_n(load.mca)} A")
     if load.mocp is not None:

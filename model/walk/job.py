@@ -64,6 +64,7 @@ from gaugewalk.model.engine.vocabulary import (
     CODE_LETTERS,
     MAX_SETS,
     MIN_SETS,
+    MOTOR_KINDS,
     NAMEPLATE_KEYS,
     Connection,
     LoadKind,
@@ -317,7 +318,7 @@ class Load(_Strict, defer_build=True):
     """A load as the walker wrote it: a value and a unit (a power factor for watts), what kind of
     load it is, and the nameplate values its kind reads (``gaugewalk.model.engine.sizing.kinds``).
 
-    A load in ``hp`` is a motor (``kind`` may be left out). HVAC equipment given its ``mca``, a
+    A load in ``hp`` is a motor (``kind`` may be left out) or a fire pump (``kind = "fire-pump"``). HVAC equipment given its ``mca``, a
     welder its ``i1eff`` or ``rated_a``, receptacles their ``yokes`` may leave ``value`` and
     ``unit`` out; every other load gives both."""
 
@@ -329,14 +330,18 @@ class Load(_Strict, defer_build=True):
     """Power factor; None: the job default (1 for a water heater or space heater). Used for
     W/kW and the AC drop method."""
     kind: LoadKind = "general"
-    """What the load is: ``general``, ``motor``, ``hvac``, ``ev-charger``, ``water-heater``,
+    """What the load is: ``general``, ``motor``, ``fire-pump``, ``hvac``, ``ev-charger``, ``water-heater``,
     ``heater``, ``welder``, ``lighting`` or ``receptacle``; each brings its article's rules."""
     motor_device: MotorDevice | None = None
     """Motor branch short-circuit and ground-fault device (NEC Table 430.52(C)(1)):
     ``inverse-time`` (None), ``dual-element``, ``nontime-delay`` or ``instantaneous``."""
     code_letter: str | None = Field(None, min_length=1, max_length=1)
     """Motor nameplate locked-rotor code letter, A to V (NEC Table 430.7(B)), for the starting
-    drop; None: Table 430.251(A)/(B) by horsepower."""
+    drop (and a fire pump's device); None: Table 430.251(A)/(B) by horsepower."""
+    lra: float | None = Field(None, gt=0.0, le=60_000.0)
+    """Motor nameplate locked-rotor current [A], where it states one: taken before the code
+    letter and the tables (a motor's starting drop; a fire pump's device, NEC
+    695.4(B)(2)(a)(1))."""
     design: MotorDesign | None = None
     """Motor NEMA design letter ``B`` (None), ``C`` or ``D``."""
     mca: float | None = Field(None, gt=0.0, le=6000.0)
@@ -368,9 +373,9 @@ class Load(_Strict, defer_build=True):
     @field_validator("kind")
     @classmethod
     def _kind_fits_unit(cls, value: str, info: ValidationInfo) -> str:
-        if info.data.get("unit") == "hp" and value != "motor":
-            raise ValueError(f"a load in hp is a motor, not {value}: set kind = \"motor\" or give "
-                             f"the load in A, VA or W")
+        if info.data.get("unit") == "hp" and value not in MOTOR_KINDS:
+            raise ValueError(f"a load in hp is a motor, not {value}: set kind = \"motor\" (or "
+                             f"\"fire-pump\") or give the load in A, VA or W")
         return value
 
     @field_validator(*NAMEPLATE_KEYS)

@@ -59,7 +59,9 @@ class MotorGroup(NamedTuple):
     and HVAC equipment alone (``only_motors``), the run of that largest device
     (``device_run``), and the runs whose instantaneous-trip breaker counts at the feeder
     device's Table 430.52(C)(1) percentage instead of its setting (``instantaneous``, each with
-    the current it counts at [A]; 430.62(A) Exception No. 1)."""
+    the current it counts at [A]; 430.62(A) Exception No. 1), and the fire pumps among them
+    whose locked-rotor current is known (``fire_pumps``: run, locked-rotor and full-load
+    currents [A]; NEC 695.4(B)(2)(a)(1), ``gaugewalk.model.walk.fire_pumps``)."""
 
     largest_a: float
     largest_run: str
@@ -69,13 +71,15 @@ class MotorGroup(NamedTuple):
     only_motors: bool = True
     device_run: str = ""
     instantaneous: tuple[tuple[str, float], ...] = ()
+    fire_pumps: tuple[tuple[str, float, float], ...] = ()
 
 
 def run_motor(run: Run, circuit: Circuit, default_pf: float) -> MotorGroup | None:
-    """The run's motor or HVAC unit as a group of one; None for any other load (or one whose
+    """The run's motor (a fire pump too: its branch device the one that carries its
+    locked-rotor current) or HVAC unit as a group of one; None for any other load (or one whose
     kind cannot be read: the run itself says why)."""
     load = run.load
-    if load is None or load.kind not in ("motor", "hvac"):
+    if load is None or load.kind not in ("motor", "fire-pump", "hvac"):
         return None
     try:
         kl = run_kind_load(run, circuit, default_pf)
@@ -90,8 +94,10 @@ def run_motor(run: Run, circuit: Circuit, default_pf: float) -> MotorGroup | Non
             counted = current * t_mp.branch_device_percent(kind, FEEDER_DEVICE) / 100.0
             return MotorGroup(current, run.id, counted, current, device_run=run.id,
                               instantaneous=((run.id, counted),))
+        fire = (((run.id, kl.lra_a, current),) if load.kind == "fire-pump"
+                and kl.lra_a is not None else ())
         return MotorGroup(current, run.id, float(kl.branch_device_a), current,
-                          device_run=run.id)
+                          device_run=run.id, fire_pumps=fire)
     if kl.mca_a is None:
         return None
     current = kl.mca_a / HVAC_RLA_FACTOR
@@ -112,7 +118,8 @@ def largest(groups: Iterable[MotorGroup | None]) -> MotorGroup | None:
         dev = g if g.device_a > out.device_a else out
         out = MotorGroup(big.largest_a, big.largest_run, dev.device_a, dev.device_motor_a,
                          out.hvac_assumed or g.hvac_assumed, out.only_motors and g.only_motors,
-                         dev.device_run, out.instantaneous + g.instantaneous)
+                         dev.device_run, out.instantaneous + g.instantaneous,
+                         out.fire_pumps + g.fire_pumps)
     return out
 
 

@@ -142,7 +142,7 @@ def _size_stays(old: RunResult, spec: RunSpec, new: RunSpec, is_feeder: bool,
     a looser limit below ``passed``, the least drop of the smaller sizes its evaluation passed
     over for their drop (``evaluate_picked``; the drop of a size does not depend on the drop up
     to its source). Its notes name its own drop only, so they stay too."""
-    if not old.ok:
+    if not old.ok or old.load_kind == "fire-pump":   # its supply notes read the walk above it
         return False
     if old.governed_by != "voltage drop":
         return new.upstream_drop_pct + old.voltage_drop_pct <= spec.max_total_drop_pct + _EPS

@@ -15,13 +15,19 @@ Public API:
 - ``Demand``, ``DEMANDS``: the load a feeder is sized for: the ``connected`` load, or with the
   demand factors of NEC Article 220 (``nec-220``: 220.44 receptacles, 220.60 noncoincident
   heating and cooling).
+- ``kind_in_name(name)``: the kind of load a run's name says (``Fire pump 1``, ``Taproom
+  lights``), for the run card and the walk's check of a motor named as a fire pump.
 - ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
   ``primary`` only, or on the primary and the secondary (``both``).
 """
 
 from __future__ import annotations
 
+import re
+from functools import lru_cache
 from typing import Literal, get_args
+
+from gaugewalk.model.engine.vocabulary import LoadKind
 
 SourceKind = Literal["service", "switchboard", "panel", "transformer"]
 SOURCE_KINDS: tuple[SourceKind, ...] = get_args(SourceKind)
@@ -59,3 +65,29 @@ for _literal, _values in ((Phase, PHASES), (FeederBasis, FEEDER_BASES),
                           (Demand, DEMANDS), (Protection, PROTECTIONS)):
     if get_args(_literal) != tuple(_values):  # keep each Literal and its table in step
         raise TypeError(f"{_literal} and its table differ: {tuple(_values)}")
+
+
+_NAME_KINDS: tuple[tuple[str, LoadKind], ...] = (
+    (r"\bfire[ -]?pumps?\b", "fire-pump"),
+    (r"\bwater[ -]?heaters?\b", "water-heater"),
+    (r"\bheaters?\b", "heater"),
+    (r"\bev[ -]?chargers?\b|\bevse\b|\bev charging\b", "ev-charger"),
+    (r"\blights?\b|\blighting\b|\bluminaires?\b", "lighting"),
+)
+"""Words of a load's name that say its kind where the article decides more than its current
+(a fire pump by Article 695; continuous by 422.13, 424.4(B), 625.42, or lighting by common
+practice), in the order tried."""
+
+
+@lru_cache(maxsize=1)
+def _name_patterns() -> tuple[tuple[re.Pattern[str], LoadKind], ...]:
+    """``_NAME_KINDS`` compiled on first use (a ``check`` of a walk without a motor never
+    compiles them)."""
+    return tuple((re.compile(words), kind) for words, kind in _NAME_KINDS)
+
+
+def kind_in_name(name: str) -> LoadKind | None:
+    """The kind a load's name says (``Taproom lights`` is lighting, ``Unit heater 3`` a heater,
+    ``Fire pump 1`` a fire pump), or None."""
+    low = name.lower()
+    return next((kind for words, kind in _name_patterns() if words.search(low)), None)

@@ -444,6 +444,26 @@ def test_a_load_named_for_lights_or_a_heater_is_filled_in_as_that_kind(session):
     assert form.values["kind"] == ""
 
 
+def test_a_load_named_fire_pump_is_filled_in_as_a_fire_pump_even_in_hp(session):
+    # a 25 hp motor named a fire pump is one: NEC Article 695, not 430, sizes it
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="Fire pump 1", length="60", load="25hp").check()
+    assert form.values["kind"] == "fire-pump" and form.values["continuous"] == "no"
+    assert form.values["circuit"] == "3P"   # every hot, as a motor's
+    assert checked.run.load.kind == "fire-pump" and checked.errors == {}
+    # NEC 2023 Table 430.250, 208 V: 74.8 A; Table 430.251(B) 208 V: 404 A (from memory, as
+    # tables/ has it); 695.4(B)(2)(a)(1), 240.6(A): 450 A
+    assert (checked.result.flc_a, checked.result.ocpd_a) == (74.8, 450)
+    # the nameplate's locked-rotor current, typed after the load, decides the device instead
+    checked = _typed(form, load="25hp lra 380").check()
+    assert checked.run.load.lra == 380 and checked.result.ocpd_a == 400
+    assert form.values["kind"] == "fire-pump"
+    # the person's kind decides (and the walk then says the name reads as a fire pump)
+    checked = _typed(form, load="25hp", kind="motor").check()
+    assert checked.run.load.kind == "motor"
+
+
 def test_the_card_says_the_power_factor_a_load_in_kw_is_taken_at(session):
     # 10 kW at the job's 0.85: S = P / pf = 11.76 kVA (the power triangle), said as it is typed
     form = CardForm(session)

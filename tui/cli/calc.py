@@ -19,6 +19,7 @@ from gaugewalk.model.engine.sizing import SizingError, evaluate, resolve_raceway
 from gaugewalk.model.engine.sizing.kinds import (
     continuous_of,
     continuous_refusal,
+    drop_targets,
     load_pf,
     running_amps,
 )
@@ -52,6 +53,9 @@ NAME = "calc"
 HELP = "Size one run: conductor, device, voltage drop, EGC and raceway."
 
 _MAT_WORD = {"cu": "Cu", "al": "Al"}
+_BRANCH_DROP_PCT = 3.0
+"""[%] the run's own drop target unless --max-drop gives one (the informational note to NEC
+210.19; a fire-pump's is 695.7(B)'s 5, ``kinds.drop_targets``)."""
 
 
 # ------------------------------------------------------------------ option types
@@ -132,13 +136,15 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         help="check this size instead of picking one (e.g. 10, 3/0, 350kcmil)")
     parser.add_argument("--sets", type=_whole(MIN_SETS, MAX_SETS), default=1, metavar="N",
                         help="conductors in parallel per phase (default 1)")
-    parser.add_argument("--max-drop", type=_number(), default=3.0, metavar="PCT",
-                        help="drop target for this run [%%] (default 3)")
+    parser.add_argument("--max-drop", type=_number(), metavar="PCT",
+                        help="drop target for this run [%%] (default 3; a fire-pump 5, NEC "
+                        "695.7(B))")
     parser.add_argument("--upstream-drop", type=_number(0.0, allow_equal=True), default=0.0,
                         metavar="PCT",
                         help="drop already taken from the service to the source [%%]")
     parser.add_argument("--max-total-drop", type=_number(), default=5.0, metavar="PCT",
-                        help="drop target from the service to the load [%%] (default 5)")
+                        help="drop target from the service to the load [%%] (default 5; a "
+                        "fire-pump never above 5, NEC 695.7(B))")
     parser.add_argument("--method", choices=tuple(METHODS), default="ac",
                         help="drop method: ac (Table 9 impedance, default), dc (Table 8), kfactor")
     parser.add_argument("--pf", type=_number(0.0, high=1.0), metavar="PF",
@@ -153,7 +159,7 @@ def add_arguments(parser: argparse.ArgumentParser) -> None:
                         "water heaters and heaters are by their article, lighting by default)")
     parser.add_argument("--starting-drop", type=_number(), default=15.0, metavar="PCT",
                         help="motor starting-drop target [%%] (default 15; common practice 10 "
-                        "to 15)")
+                        "to 15; a fire-pump 15, NEC 695.7(A))")
     parser.add_argument("--distributed", action="store_true",
                         help="the load is spread evenly along the run (drop at half length)")
     parser.add_argument("--terminal-temp", type=int, choices=TERMINAL_TEMPS,
@@ -224,6 +230,8 @@ def run(args) -> int:
         ambient_factor(ambient, insulation_rating(args.insulation))
     except TableLookupError as exc:
         raise UsageError(f"gaugewalk calc: argument --ambient: {exc}") from None
+    max_drop, max_total, starting = drop_targets(eq, args.max_drop, _BRANCH_DROP_PCT,
+                                                 args.max_total_drop, args.starting_drop)
     spec = RunSpec(
         circuit=circuit,
         amps=amps,
@@ -244,13 +252,13 @@ def run(args) -> int:
         size=args.size,
         ocpd_a=args.ocpd,
         min_size=args.min_size,
-        max_drop_pct=args.max_drop,
+        max_drop_pct=max_drop,
         upstream_drop_pct=args.upstream_drop,
-        max_total_drop_pct=args.max_total_drop,
+        max_total_drop_pct=max_total,
         egc=not args.no_egc,
         egc_bare=args.bare_egc,
         equipment=eq,
-        starting_drop_pct=args.starting_drop,
+        starting_drop_pct=starting,
         load_notes=(pf_taken(value, unit, pf, "the default (--pf)")
                     if args.pf is None and value is not None and unit is not None else ()),
     )
@@ -284,12 +292,12 @@ def run(args) -> int:
         "ccc": args.ccc,
         "conductor_temp_c": args.temp,
         "ocpd_a": args.ocpd,
-        "max_drop_pct": args.max_drop,
+        "max_drop_pct": spec.max_drop_pct,
         "upstream_drop_pct": args.upstream_drop,
-        "max_total_drop_pct": args.max_total_drop,
+        "max_total_drop_pct": spec.max_total_drop_pct,
         "egc": not args.no_egc,
         "egc_bare": args.bare_egc,
-        "starting_drop_pct": args.starting_drop,
+        "starting_drop_pct": spec.starting_drop_pct,
     }
     if args.json:
         data = result.to_dict()

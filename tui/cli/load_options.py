@@ -1,8 +1,8 @@
 """The load options ``calc`` and ``add`` share: the load itself (``--amps``, ``--va``, ``--kva``,
 ``--watts``, ``--kw``, ``--hp``), its power factor, its kind (``--kind``) and the nameplate
 values the kind reads (``--mca``, ``--mocp``, ``--motor-device``, ``--code-letter``,
-``--design``, ``--i1eff``, ``--i1max``, ``--rated-amps``, ``--duty-cycle``, ``--welder-type``,
-``--tank-gal``, ``--yokes``). Not a command: no ``NAME``.
+``--design``, ``--lra``, ``--i1eff``, ``--i1max``, ``--rated-amps``, ``--duty-cycle``,
+``--welder-type``, ``--tank-gal``, ``--yokes``). Not a command: no ``NAME``.
 
 ``load_table(args)`` gives the walk file's ``[run.load]`` keys (``add`` validates them with the
 walk model); ``equipment(args)`` the engine's ``Equipment`` for ``calc``, which never imports the
@@ -20,6 +20,7 @@ from gaugewalk.model.engine.vocabulary import (
     LOAD_KINDS,
     MOTOR_DESIGNS,
     MOTOR_DEVICES,
+    MOTOR_KINDS,
     NAMEPLATE_KEYS,
     WELDER_TYPES,
     LoadKind,
@@ -33,7 +34,7 @@ LOADS: tuple[tuple[str, str], ...] = (("amps", "A"), ("va", "VA"), ("kva", "kVA"
 
 NAMEPLATE_OPTIONS: dict[str, str] = {
     "mca": "--mca", "mocp": "--mocp", "motor_device": "--motor-device",
-    "code_letter": "--code-letter", "design": "--design", "i1eff": "--i1eff",
+    "code_letter": "--code-letter", "design": "--design", "lra": "--lra", "i1eff": "--i1eff",
     "i1max": "--i1max", "rated_a": "--rated-amps", "duty_cycle_pct": "--duty-cycle",
     "welder_type": "--welder-type", "tank_gal": "--tank-gal", "yokes": "--yokes",
 }
@@ -103,11 +104,11 @@ def add_load_options(parser: argparse.ArgumentParser, *, checked: bool = True) -
                        help="load in kilowatts (turned into kVA by --pf)")
     which.add_argument("--hp", type=_hp, metavar="HP",
                        help="a motor's horsepower: 10, 7.5, 1/2, 1-1/2 (NEC Tables 430.248, "
-                       "430.250); implies --kind motor")
+                       "430.250); implies --kind motor unless --kind fire-pump")
     kind = parser.add_argument_group("the load's kind and nameplate")
     kind.add_argument("--kind", choices=tuple(LOAD_KINDS), metavar="KIND",
                       help="what the load is: " + ", ".join(LOAD_KINDS) + " (default general; "
-                      "motor with --hp)")
+                      "motor with --hp; fire-pump: NEC Article 695)")
     kind.add_argument("--mca", type=_positive(6000, checked), metavar="A",
                       help="hvac: nameplate minimum circuit ampacity [A] (NEC 440.4(B))")
     kind.add_argument("--mocp", type=_positive(6000, checked), metavar="A",
@@ -116,9 +117,14 @@ def add_load_options(parser: argparse.ArgumentParser, *, checked: bool = True) -
                       help="motor: branch device, " + ", ".join(MOTOR_DEVICES)
                       + " (default inverse-time; NEC Table 430.52(C)(1))")
     kind.add_argument("--code-letter", type=_letter, metavar="L",
-                      help="motor: nameplate locked-rotor code letter A-V (NEC Table 430.7(B))")
+                      help="motor, fire-pump: nameplate locked-rotor code letter A-V (NEC "
+                      "Table 430.7(B))")
     kind.add_argument("--design", choices=MOTOR_DESIGNS,
-                      help="motor: NEMA design letter (default B)")
+                      help="motor, fire-pump: NEMA design letter (default B)")
+    kind.add_argument("--lra", type=_positive(60_000, checked), metavar="A",
+                      help="motor, fire-pump: nameplate locked-rotor current [A], taken before "
+                      "the code letter and Table 430.251 (a fire pump's device carries it, NEC "
+                      "695.4(B)(2)(a)(1))")
     kind.add_argument("--i1eff", type=_positive(6000, checked), metavar="A",
                       help="welder: rating plate I1eff [A] (NEC 630.11(A))")
     kind.add_argument("--i1max", type=_positive(6000, checked), metavar="A",
@@ -156,8 +162,8 @@ def kind_of(args: argparse.Namespace) -> LoadKind:
 def kind_refusal(args: argparse.Namespace) -> str | None:
     """Why the options do not fit the kind, naming the option, or None."""
     kind = kind_of(args)
-    if args.hp is not None and kind != "motor":
-        return f"argument --hp: a load in hp is a motor, not --kind {kind}"
+    if args.hp is not None and kind not in MOTOR_KINDS:
+        return f"argument --hp: a load in hp is a motor (or a fire-pump), not --kind {kind}"
     for key, option in NAMEPLATE_OPTIONS.items():
         if getattr(args, key, None) is not None and kind not in NAMEPLATE_KEYS[key]:
             return (f"argument {option}: is for --kind {' or '.join(NAMEPLATE_KEYS[key])}, not "
@@ -195,4 +201,4 @@ def equipment(args: argparse.Namespace, continuous: bool | None) -> Equipment | 
         code_letter=args.code_letter, design=args.design or "B", mca_a=args.mca,
         mocp_a=args.mocp, i1eff_a=args.i1eff, i1max_a=args.i1max, rated_a=args.rated_a,
         duty_cycle_pct=args.duty_cycle_pct, welder_type=args.welder_type or "nonmotor",
-        tank_gal=args.tank_gal, yokes=args.yokes, continuous=continuous)
+        tank_gal=args.tank_gal, yokes=args.yokes, continuous=continuous, lra_a=args.lra)

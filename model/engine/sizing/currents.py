@@ -65,7 +65,10 @@ class Currents(NamedTuple):
     ``BY_ARTICLE``, ``WELDER_CONDUCTORS``); ``terminal_col`` a terminal column [C] the article
     permits, with ``terminal_why``; ``egc_basis_a`` the rating Table 250.122 is read at [A]
     (default the device); ``device_max_a`` the most the rule permits for the device [A], for its
-    margin; ``flc_a`` the motor full-load current [A]; ``rule`` the sections that sized it."""
+    margin; ``flc_a`` the motor full-load current [A]; ``rule`` the sections that sized it;
+    ``drop_amps_a`` the current the running drop is taken at [A] (default the load; a fire
+    pump's 115 % of its full-load current, NEC 695.7(B)); ``lra_a`` the locked-rotor current
+    its device is sized to carry [A] (a fire pump, NEC 695.4(B)(2)(a)(1))."""
 
     design_a: float
     ocpd_a: int
@@ -79,6 +82,8 @@ class Currents(NamedTuple):
     device_max_a: float | None = None
     flc_a: float | None = None
     rule: str = ""
+    drop_amps_a: float | None = None
+    lra_a: float | None = None
 
 
 class LoadRule(Protocol):

@@ -60,6 +60,7 @@ from gaugewalk.model.engine.sizing.pick import (
 from gaugewalk.model.engine.sizing.raceway import raceway_fill, resolve_raceway
 from gaugewalk.model.engine.sizing.spec import SizingError, check_run_drop, check_spec
 from gaugewalk.model.engine.sizing.text import amps_text, pct_text
+from gaugewalk.model.engine.vocabulary import MOTOR_KINDS
 from gaugewalk.tables.conductor import properties as t_cond
 from gaugewalk.tables.conductor.ampacity import rooftop_ambient
 from gaugewalk.tables.errors import TableLookupError
@@ -193,13 +194,15 @@ class Prepared:
     from the size a run's own target asks where the total target is left to upstream (keyed by
     that size and the drop up to the source, which its problem quotes)."""
 
-    __slots__ = ("amps", "cur", "need", "notes", "problems", "st", "protect", "cand",
-                 "pct_per_volt", "parts")
+    __slots__ = ("amps", "drop_amps", "cur", "need", "notes", "problems", "st", "protect",
+                 "cand", "pct_per_volt", "parts")
 
     def __init__(self, amps: float, cur: Currents, need: float, notes: tuple[str, ...],
                  st: Setting, protect: tuple[float, ...] | None, cand: Candidates,
                  pct_per_volt: float) -> None:
         self.amps = amps                  # [A] the load
+        # [A] the current the running drop is taken at (a fire pump's 115 %, NEC 695.7(B))
+        self.drop_amps = amps if cur.drop_amps_a is None else cur.drop_amps_a
         self.cur = cur                    # the design current and device (the load's rule)
         self.need = need                  # [A] what the conductors carry after corrections
         self.notes = notes                # the circuit's, the rule's and the columns' notes
@@ -299,7 +302,7 @@ def finish(prep: Prepared, spec: RunSpec, hint: bool = True) -> tuple[RunResult,
     pass over 2..12 sets, not a tree of searches)."""
     circuit = spec.circuit
     # VD = k I z L / 1000 / sets is linear in z: the drop per ohm/kft, once for the run
-    volts_per_z = drop_volts(circuit.drop_factor, prep.amps, 1.0,
+    volts_per_z = drop_volts(circuit.drop_factor, prep.drop_amps, 1.0,
                              drop_length_ft(spec.length_ft, spec.distributed), spec.sets)
     pct_per_volt = prep.pct_per_volt
     pick_i, passed, own_i = drop_scan(prep.cand.sizes, volts_per_z, pct_per_volt, spec)
@@ -431,7 +434,7 @@ def _part(prep: Prepared, spec: RunSpec, pick_i: int | None, own_i: int | None,
     # --- a motor starting --------------------------------------------------------------------
     eq = spec.equipment
     lra = start_z = None
-    if eq is not None and eq.kind == "motor":
+    if eq is not None and eq.kind in MOTOR_KINDS:
         lra, start_z = _starting(spec, eq, i, st.family, st.z, notes)
     notes_a, problems_a = tuple(notes), tuple(problems)
 
@@ -500,7 +503,8 @@ def _starting(spec: RunSpec, eq: Equipment, i: int, family: str, z: tuple,
     starting drop is then worked)."""
     circuit = spec.circuit
     lra, why = locked_rotor(eq, circuit.volts, circuit.phases)
-    notes.append(why)
+    if eq.kind != "fire-pump":   # a fire pump's rule said it, with its device
+        notes.append(why)
     if lra is None:
         return None, None
     zs = _starting_z(spec, family, i, circuit.drop_angle_deg)
@@ -544,10 +548,14 @@ def _starting_drop(spec: RunSpec, lra: float, zs: float, notes: list[str],
     pct = 100.0 * vd / circuit.volts
     how = (f"at power factor {STARTING_PF:g} (common practice)" if spec.method == "ac"
            else "on resistance alone (the drop method has no reactance)")
+    eq = spec.equipment
+    why = ("NEC 695.7(A): at the fire pump controller's line terminals, not more than 15% below "
+           "normal while the motor starts" if eq is not None and eq.kind == "fire-pump"
+           else "common practice: 10 to 15%")
     notes.append(f"starting drop {pct_text(pct)} ({vd:.1f} V) at {amps_text(lra)} locked-rotor, "
                  f"{how}, on this run alone (in a walk, the starting dip from the service adds "
                  f"the feeders and any transformer above it); target "
-                 f"{spec.starting_drop_pct:g}% (common practice: 10 to 15%)")
+                 f"{spec.starting_drop_pct:g}% ({why})")
     if pct > spec.starting_drop_pct + 1e-9:
         problems.append(f"the motor starting drop {pct_text(pct)} on this run is over the "
                         f"{spec.starting_drop_pct:g}% starting target (a larger size, or a "

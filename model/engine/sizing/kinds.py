@@ -20,6 +20,16 @@ current it draws running, and its article's rules for the conductors and the dev
   (Table 430.7(B), the top of its range) or Table 430.251(A)/(B), at ``STARTING_PF``.
   A motor given in amperes: that current is taken as its full-load current, and a note says
   430.6(A)(1) wants the horsepower.
+- ``fire-pump`` (Art. 695; section numbers from memory): the motor's full-load current as for a
+  motor (Tables 430.248/430.250 by horsepower); conductors not less than 125 % of it
+  (695.6(C)), a pressure maintenance pump or accessory load on the same conductors not
+  modelled (said); the device rated to carry the locked-rotor current indefinitely, the next
+  standard rating up where that is none (695.4(B)(2)(a)(1), 240.6(A)): the current the
+  nameplate states (``lra``), else its code letter, else Table 430.251(B) by horsepower, as a
+  motor's starting drop reads it; none of them known, a problem. The conductors are protected
+  against short circuit only (695.6(D), 240.4(A)), so 240.4 does not hold them to the device.
+  Drop (``drop_targets``): running at 115 % of the full-load current within 5 % from the source
+  (695.7(B)), starting within 15 % (695.7(A)), whatever the job's targets.
 - ``hvac`` (Art. 440): conductors at the nameplate minimum circuit ampacity, which already holds
   125 % of the largest motor (440.4(B), 440.32): no further 125 %; the device the largest
   standard rating not above the nameplate maximum overcurrent protection (440.22(A), (C)); a
@@ -47,7 +57,7 @@ a water heater of 120 gal or less or a space heater noncontinuous.
 
 Public API: ``STARTING_PF``; ``continuous_default(eq)``, ``kind_continuous(kind, tank_gal)``,
 ``continuous_refusal(kind, tank_gal, given)``, ``continuous_of(eq)``, ``load_pf(kind, given, default)``; ``running_amps(eq, value,
-unit, circuit, pf)``; ``welder_current(eq)``; ``locked_rotor(eq, volts, phases)``;
+unit, circuit, pf)``; ``welder_current(eq)``; ``drop_targets(eq, own_given, own, total, starting)``; ``locked_rotor(eq, volts, phases)``;
 ``rule_for(eq, volts, phases)``; ``forget_loads()``; ``KindLoad`` and ``kind_load(eq, amps, ocpd_a, volts,
 phases)``, what a feeder's rules need of a branch run (``gaugewalk.model.walk.equipment``).
 """
@@ -71,6 +81,7 @@ from gaugewalk.model.engine.sizing.text import amps_text
 from gaugewalk.model.engine.vocabulary import (
     CONTINUOUS_KINDS,
     MOTOR_DEVICES,
+    MOTOR_KINDS,
     RESISTIVE_KINDS,
     LoadKind,
 )
@@ -105,6 +116,20 @@ _DEVICE_KEYS = {"inverse-time": "inverse-time", "dual-element": "dual-element-fu
 _WELDER_KEYS = {"nonmotor": "nonmotor-generator", "motor-generator": "motor-generator"}
 """Run words for the welder type -> the columns of ``tables.equipment.welders``."""
 
+FIRE_PUMP_DROP_FLC = 1.15
+"""NEC 695.7(B): the running drop of a fire pump is taken with the motor at 115 % of its
+full-load current."""
+FIRE_PUMP_RUNNING_DROP_PCT = 5.0
+"""[%] NEC 695.7(B): at the motor terminals, not more than 5 % below the motor's rated voltage
+(at ``FIRE_PUMP_DROP_FLC``): the run's own and its total drop target."""
+FIRE_PUMP_STARTING_DROP_PCT = 15.0
+"""[%] NEC 695.7(A): at the controller's line terminals, not more than 15 % below normal while
+the motor starts: the starting target of a fire pump, whatever the job's."""
+FIRE_PUMP_PROTECTION_NOTE = (
+    "NEC 240.4(A), 695.6(D): a fire pump's conductors are protected against short circuit "
+    "only, never overload (opening the circuit is the greater hazard), so 240.4 does not "
+    "hold them to a device at their ampacity; the device above it is as 695.4(B)(2) asks")
+
 _BY_ARTICLE_NOTE = ("NEC 240.4(G): the conductors of {what} are protected from overload as "
                     "Article {art} says, so 240.4(B)-(D) do not limit them by the device")
 
@@ -116,7 +141,9 @@ _CONTINUOUS_WHY = {"ev-charger": "NEC 625.42", "heater": "NEC 424.4(B)",
 _ARTICLE_OF = {"motor": "NEC 430.22 sizes a motor's conductors at 125% of its full-load current",
                "hvac": "NEC 440.4(B): the nameplate MCA already includes 125% of the largest "
                        "motor",
-               "welder": "NEC 630.11 sizes a welder's conductors by its duty cycle"}
+               "welder": "NEC 630.11 sizes a welder's conductors by its duty cycle",
+               "fire-pump": "NEC 695.6(C) sizes a fire pump's conductors at 125% of its "
+                            "full-load current"}
 
 
 def _large_tank(kind: str, tank_gal: float | None) -> bool:
@@ -156,7 +183,8 @@ def continuous_refusal(kind: LoadKind, tank_gal: float | None, given: bool | Non
         return (f"{_CONTINUOUS_WHY[kind]} makes {what} continuous; leave continuous out or set "
                 f"it true")
     if given is True and kind in _ARTICLE_OF:
-        what = {"motor": "a motor", "hvac": "HVAC equipment", "welder": "a welder"}[kind]
+        what = {"motor": "a motor", "hvac": "HVAC equipment", "welder": "a welder",
+                "fire-pump": "a fire pump"}[kind]
         return f"continuous does not apply to {what}: {_ARTICLE_OF[kind]}; leave it out"
     return None
 
@@ -172,6 +200,22 @@ def load_pf(kind: str, given: float | None, default: float) -> float:
     if given is not None:
         return given
     return 1.0 if kind in RESISTIVE_KINDS else default
+
+
+def drop_targets(eq: Equipment | None, own_given: float | None, own_pct: float,
+                 total_pct: float, starting_pct: float) -> tuple[float, float, float]:
+    """The run's drop targets [%] (its own, from the service, while a motor starts) as its kind
+    holds them: ``own_given`` the run's own target where it gives one, else ``own_pct`` the
+    job's; ``total_pct`` and ``starting_pct`` the job's. A fire pump: 5 % from the service
+    (NEC 695.7(B); the job's total where that is lower) and its own target 5 % unless the run
+    gives one (the 3 % of the informational note to 210.19 is a recommendation at the running
+    load; 695.7(B) is the requirement, at 115 % of it), and 15 % while it starts whatever the
+    job says (695.7(A)). Any other kind: the job's (the run's own where given)."""
+    own = own_given if own_given is not None else own_pct
+    if eq is None or eq.kind != "fire-pump":
+        return own, total_pct, starting_pct
+    return (own_given if own_given is not None else FIRE_PUMP_RUNNING_DROP_PCT,
+            min(total_pct, FIRE_PUMP_RUNNING_DROP_PCT), FIRE_PUMP_STARTING_DROP_PCT)
 
 
 # -- the current drawn ----------------------------------------------------------------------------
@@ -242,13 +286,16 @@ def running_amps(eq: Equipment, value: float | None, unit: str | None, circuit: 
 
 @lru_cache(maxsize=1024)
 def locked_rotor(eq: Equipment, volts: float, phases: int) -> tuple[float | None, str]:
-    """A motor's locked-rotor current [A] for the starting drop, and where it came from: the
+    """A motor's locked-rotor current [A] for the starting drop (and a fire pump's device), and
+    where it came from: the current the nameplate states (``lra_a``), else the
     nameplate code letter by Table 430.7(B) (the top of its range, the worst case), else Table
     430.251(A) (single-phase) or 430.251(B) (polyphase design B, C, D) by horsepower and voltage
     (a planning estimate: the code prints those tables for disconnect and controller ratings).
     The code letter's kVA/hp is read at the motor's rated voltage, the column of Table 430.248
     or 430.250 that the system voltage ``volts`` [V] reads (460 V on a 480 V system, by their
     headnotes). None, with the reason, when neither can be read."""
+    if eq.lra_a is not None:
+        return eq.lra_a, f"{amps_text(eq.lra_a)} locked-rotor, as the nameplate states it"
     if eq.hp is None:
         return None, "no horsepower given, so no locked-rotor current: starting drop not worked"
     try:
@@ -460,6 +507,76 @@ def _motor(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
                     rule="NEC 430.6(A)(1), 430.22, Table 430.52(C)(1), 250.122(D)(1)")
 
 
+def _fire_pump(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
+               ocpd_a: int | None) -> Currents:
+    """NEC 2023 Article 695 for the run to a fire pump motor (section numbers as the module
+    docstring gives them, from memory)."""
+    notes: list[str] = []
+    problems: list[str] = []
+    flc = amps
+    if eq.hp is not None:
+        found = _motor_flc(eq, volts, phases)
+        flc = found.amps
+        notes.append(f"NEC {found.table}: {hp_text(eq.hp)} hp, {found.column} V column, "
+                     f"{amps_text(flc)} full-load current (430.6(A)(1): the table, not the "
+                     f"nameplate)")
+    else:
+        notes.append(f"the {amps_text(amps)} given is taken as the fire pump motor's full-load "
+                     f"current; NEC 430.6(A)(1) reads it from Table 430.248 or 430.250 by "
+                     f"horsepower: give the horsepower")
+    design = 1.25 * flc
+    notes.append(f"NEC 695.6(C): conductors not less than 125% of {amps_text(flc)} = "
+                 f"{amps_text(design)}; the run is taken to supply the fire pump motor alone "
+                 f"(a pressure maintenance pump or accessory equipment on the same conductors "
+                 f"adds to it, 695.6(C)(1): not modelled, give them as runs of their own)")
+    lra, why = locked_rotor(eq, volts, phases)
+    need: int | None = None
+    if lra is None:
+        problems.append("the fire pump's device cannot be sized: NEC 695.4(B)(2)(a)(1) rates it "
+                        "to carry the motor's locked-rotor current indefinitely; give the "
+                        "horsepower, the nameplate code letter or its locked-rotor current (lra)")
+    else:
+        notes.append(why)   # (the starting drop's notes leave it out for a fire pump)
+        need = (int(round(lra)) if t_ocpd.is_standard_rating(round(lra, 6))
+                else next_rating(lra))
+    if ocpd_a is not None:
+        ocpd = ocpd_a
+        if lra is not None and ocpd + _EPS < lra:
+            problems.append(f"the {ocpd} A device is below the fire pump's {amps_text(lra)} "
+                            f"locked-rotor current: NEC 695.4(B)(2)(a)(1) asks it to carry that "
+                            f"indefinitely ({need} A, the next standard rating up, 240.6(A))")
+        elif need is not None and ocpd > need:
+            notes.append(f"the {ocpd} A device is above the {need} A that NEC 695.4(B)(2)(a)(1) "
+                         f"names (the locked-rotor current, or the next standard rating up)")
+    elif need is not None:
+        ocpd = need
+        notes.append(f"NEC 695.4(B)(2)(a)(1): {ocpd} A device, rated to carry the "
+                     f"{amps_text(lra or 0.0)} locked-rotor current indefinitely"
+                     + ("" if ocpd == lra else " (the next standard rating up, 240.6(A))")
+                     + "; a pressure maintenance pump or accessory load on it adds to that "
+                       "(not modelled)")
+    else:
+        ocpd = next_rating(design)
+        notes.append(f"meanwhile the {ocpd} A of the conductors' 125% only, so the run can be "
+                     f"sized: not a fire pump device")
+    notes.append(FIRE_PUMP_PROTECTION_NOTE)
+    drop_a = FIRE_PUMP_DROP_FLC * flc
+    notes.append(f"NEC 695.7(B): running drop taken at 115% of {amps_text(flc)} = "
+                 f"{amps_text(drop_a)}, against {FIRE_PUMP_RUNNING_DROP_PCT:g}% below the "
+                 f"motor's rated voltage at its terminals: this run's drop plus the drop up to "
+                 f"its source (worked at the feeders' own loads) within "
+                 f"{FIRE_PUMP_RUNNING_DROP_PCT:g}% of the system voltage, the run taken to end "
+                 f"at the motor (common practice: the controller beside it)")
+    term, twhy = None, None
+    if phases == 3:
+        term = 75
+        twhy = f"design {eq.design} motor, NEC 110.14(C)(1)(a)(4)"
+    return Currents(design, ocpd, tuple(notes), tuple(problems), corrected_a=design,
+                    protection=BY_ARTICLE, terminal_col=term, terminal_why=twhy,
+                    device_max_a=float(ocpd), flc_a=flc, drop_amps_a=drop_a, lra_a=lra,
+                    rule="NEC 695.6(C), 695.4(B)(2)(a)(1), 695.7, 240.4(A)")
+
+
 def _welder(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
             ocpd_a: int | None) -> Currents:
     current, wnotes = welder_current(eq)
@@ -498,7 +615,7 @@ def _welder(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
                     rule="NEC 630.11(A), 630.12")
 
 
-_RULES = {"motor": _motor, "hvac": _hvac, "ev-charger": _ev, "water-heater": _water_heater,
+_RULES = {"motor": _motor, "fire-pump": _fire_pump, "hvac": _hvac, "ev-charger": _ev, "water-heater": _water_heater,
           "heater": _heater, "welder": _welder, "lighting": _general_kind,
           "receptacle": _general_kind, "general": _general_kind}
 
@@ -551,7 +668,8 @@ class KindLoad(NamedTuple):
     any 125 % (a motor's table full-load current, the HVAC nameplate MCA, a welder's 630.11(A)
     current, else the load) [A]; ``flc_a``, ``mca_a``, ``mocp_a`` where they apply [A];
     ``branch_device_a`` the branch device its rule picks, or the one the run fixes [A];
-    ``continuous`` by the kind and the run."""
+    ``continuous`` by the kind and the run; ``lra_a`` a fire pump's locked-rotor current [A]
+    (None: not a fire pump, or not known)."""
 
     kind: str
     is_motor: bool
@@ -562,6 +680,7 @@ class KindLoad(NamedTuple):
     mocp_a: float | None
     branch_device_a: int
     continuous: bool
+    lra_a: float | None = None
 
 
 def kind_load(eq: Equipment, amps: float, ocpd_a: int | None, volts: float,
@@ -572,12 +691,12 @@ def kind_load(eq: Equipment, amps: float, ocpd_a: int | None, volts: float,
     continuous = continuous_of(eq)
     cur = rule_for(eq, volts, phases).currents(amps, amps if continuous else 0.0, ocpd_a)
     basis = amps
-    if eq.kind == "motor":
+    if eq.kind in MOTOR_KINDS:
         basis = cur.flc_a if cur.flc_a is not None else amps
     elif eq.kind == "hvac" and eq.mca_a is not None:
         basis = eq.mca_a
     elif eq.kind == "welder":
         current, _notes = welder_current(eq)
         basis = current if current is not None else amps
-    return KindLoad(eq.kind, eq.kind == "motor", amps, basis, cur.flc_a, eq.mca_a, eq.mocp_a,
-                    cur.ocpd_a, continuous)
+    return KindLoad(eq.kind, eq.kind in MOTOR_KINDS, amps, basis, cur.flc_a, eq.mca_a,
+                    eq.mocp_a, cur.ocpd_a, continuous, cur.lra_a)
