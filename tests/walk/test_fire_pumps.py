@@ -145,3 +145,13 @@ def test_a_load_in_hp_may_say_it_is_a_fire_pump_but_no_other_kind():
     assert Load(value=50, unit="hp", kind="fire-pump", lra=363).lra == 363
     with pytest.raises(ValidationError, match="lra is for a load of kind motor or fire-pump"):
         Load(value=16, unit="A", lra=100)
+
+
+def test_the_starting_dip_from_the_service_is_held_to_695_7_a_whatever_the_job_says():
+    # NEC 695.7(A): 15 % at the controller's line terminals while the motor starts; the walk's
+    # dip from the service (the bus, the feeders above at the locked-rotor current, the run)
+    # is held to it, not to the job's 10 %
+    result = compute_job(_job(_fire_pump(), defaults={"starting_drop_pct": 10.0}))
+    dip = result.start_dips["FP"]
+    assert dip.target_pct == 15.0 and dip.total_pct is not None
+    assert dip.total_pct == pytest.approx(dip.bus_pct + dip.above_pct + dip.run_pct)
