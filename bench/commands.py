@@ -2,7 +2,7 @@
 baseline process taken in turn with it.
 
 - ``gaugewalk calc`` sizing one run (the README's example); baseline: a bare ``python -c pass``.
-- ``gaugewalk check`` of the sample walk (384 runs); baseline: a process that only parses the
+- ``gaugewalk check`` of the sample walk (385 runs); baseline: a process that only parses the
   same file with ``tomllib``.
 - For information: a process that imports pydantic and builds one model, as the walk model does
   (pydantic's plugin loader spared as ``job.py`` spares it): what ``check`` pays before any code of

@@ -8,7 +8,7 @@ from pathlib import Path
 from bench.timing import ROOT
 
 SAMPLE = ROOT / "sample_walks" / "warehouse_dc2.toml"
-"""The largest sample walk (384 runs): the headless commands and the app start are measured on
+"""The largest sample walk (385 runs): the headless commands and the app start are measured on
 it."""
 
 

@@ -1,7 +1,8 @@
 """Write ``warehouse_dc2.toml``: an invented mid-size warehouse walk with a few hundred runs.
 
 Invented job: distribution centre "DC-2" for Pellham Logistics, 1800 Quarry Flats Road, Tessaly.
-480Y/277 V service into a main switchboard; three 480Y/277 V distribution panels (high-bay
+480Y/277 V service into a main switchboard (with the sprinkler system's fire pump tapped ahead
+of its disconnect); three 480Y/277 V distribution panels (high-bay
 lighting on 277 V, dock doors, chargers and unit heaters on 480 V); two step-down transformers to
 208Y/120 V, each feeding a panel and subpanels for the offices, the break room and the docks.
 The transformers carry their nameplate impedance and primary-only protection (NEC Table
@@ -190,6 +191,10 @@ def build() -> Job:
         continuous=True, distributed=True, bends=3)
     add("L2A-HP", "L2A", "Shipping office heat pump", "25+8",
         plate={"kind": "hvac", "mca": 18, "mocp": 30}, connection="LL", bends=3)
+    # the sprinkler system's fire pump, fed from the service ahead of its disconnect
+    add("MSB-FP", "MSB", "Fire pump FP-1", "85+10+2*4", load=(50, "hp"),
+        plate={"kind": "fire-pump", "code_letter": "G"}, connection="3P", bends=3,
+        notes="Fire pump room 104; tapped ahead of the service disconnect")
 
     return Job(
         job=JobHeader(

@@ -67,7 +67,7 @@ def test_the_head_start_sizes_without_textual():
             "print(n, 'textual' in sys.modules, 'rich' in sys.modules)")
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                           check=True)
-    assert done.stdout.split() == ["384", "False", "False"]
+    assert done.stdout.split() == ["385", "False", "False"]
 
 
 def test_no_head_start_without_a_file_or_while_another_thread_runs(tmp_path):

@@ -85,3 +85,14 @@ def test_the_office_runs_its_home_runs_in_five_shared_raceways_counted_once():
     assert {r.id: r.length_ft for r in shared} == {
         "HR1": 55.0, "HR2": 60.0, "HR3": 50.0, "HR4": 65.0, "HR5": 45.0}
     assert len(shared) == 5
+
+
+def test_the_warehouse_fire_pump_is_tapped_at_the_service_and_its_device_carries_its_lra():
+    result = compute_job(load_walk(SAMPLES / "warehouse_dc2.toml"))
+    fp = result.runs["MSB-FP"]
+    # NEC 2023 Table 430.7(B): code G, 6.29 kVA/hp x 50 hp / (sqrt(3) x 460 V) = 394.7 A;
+    # 695.4(B)(2)(a)(1) (from memory), 240.6(A): 400 A. 695.6(C): 1.25 x 65 A (Table 430.250)
+    # = 81.25 A -> 4 AWG Cu, 85 A in the 75 C column (Table 310.16)
+    assert (fp.load_kind, fp.locked_rotor_a, fp.ocpd_a, fp.size) == (
+        "fire-pump", pytest.approx(394.7, abs=0.05), 400, "4 AWG")
+    assert fp.ok and any("230.82(5)" in n for n in fp.notes)
