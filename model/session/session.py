@@ -203,8 +203,18 @@ class WalkSession:
         return self.result.source_drop_pct.get(source_id)
 
     def targets(self, run: Run) -> tuple[float, float]:
-        """(drop target for this run, total target) [%]."""
+        """(drop target for this run, total target) [%], as its spec holds them: a fire pump's
+        by NEC 695.7(B) (``kinds.drop_targets``)."""
         d = self.job.defaults
+        load = run.load
+        if load is not None and load.kind == "fire-pump":
+            from gaugewalk.model.engine.sizing.kinds import drop_targets
+            from gaugewalk.model.walk.equipment import equipment_of
+
+            own, total, _start = drop_targets(equipment_of(run), run.max_drop_pct,
+                                              d.branch_drop_pct, d.total_drop_pct,
+                                              d.starting_drop_pct)
+            return own, total
         if run.max_drop_pct is not None:
             own = run.max_drop_pct
         else:

@@ -97,3 +97,21 @@ def test_the_preview_sizes_a_run_without_storing_it(session):
     bad = session.preview(_run(**{"from": "LP9"}))
     assert bad.result is None
     assert bad.problems[0].field == "from" and "LP9" in bad.problems[0].message
+
+
+def test_a_fire_pump_is_judged_against_695_7_not_the_branch_target(session):
+    # NEC 695.7(B) (from memory): 5 % from the source at 115 % of full-load current; the 3 %
+    # branch target (informational note to 210.19) does not hold it. Table 430.250: 25 hp 208 V
+    # 74.8 A; 695.6(C) 93.5 A -> 3 AWG Cu (100 A, 75 C); Ch. 9 Table 8 0.245 ohm/kft: at 86.02 A
+    # over 180 ft, sqrt(3) x 86.02 x 0.245 x 0.18 = 6.57 V = 3.16 % of 208 V
+    run = make_run("FP", "LP1", "Fire pump 1", "180", connection="3P",
+                   load={"value": 25, "unit": "hp", "kind": "fire-pump"})
+    assert session.put_run(run) is None
+    res = session.result_for("FP")
+    assert res.size == "3 AWG" and res.voltage_drop_pct == pytest.approx(3.16, abs=0.01)
+    assert session.targets(session.job.run("FP")) == (5.0, 5.0)
+    status = session.status(session.job.run("FP"))
+    assert status.words != STATUS_DROP
+    # what does hold it: starting, 404 A (Table 430.251(B), from memory) is about 4.7 times the
+    # 86 A, so about 14.9 % on the run alone, over 695.7(A)'s 15 % with the feeder's dip
+    assert any("starting" in p for p in status.problems)
