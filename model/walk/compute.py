@@ -67,7 +67,12 @@ from gaugewalk.model.walk.feeder_loads import (
     own_load,
     sum_source,
 )
-from gaugewalk.model.walk.fire_pumps import feeder_check, named_fire_pump, supply_notes
+from gaugewalk.model.walk.fire_pumps import (
+    feeder_check,
+    fire_pump_device,
+    named_fire_pump,
+    supply_notes,
+)
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.motor_feeders import (
@@ -768,6 +773,17 @@ class WalkState:
                     spec = with_fields(spec, motor_feeder_max_a=limit,
                                        lugs_bus_a=lugs_bus(self.walk.sources[r.to]))
             result, passed = evaluate_picked(spec, self.prepared)
+            raised = None
+            if (motors is not None and motors.fire_pumps and motors.only_motors
+                    and rule is None and r.ocpd_a is None):
+                # NEC 695.4(B)(2)(a)(1): the device picked within 430.62(A) may fall short
+                # of the fire pumps' locked-rotor current; 695 rules the fire pump's supply
+                raised = fire_pump_device(motors.fire_pumps, spec.amps)
+                if raised is not None and result.ocpd_a < raised:
+                    spec = with_fields(spec, ocpd_a=raised)
+                    result, passed = evaluate_picked(spec, self.prepared)
+                else:
+                    raised = None
             beside = None
             if rule is not None and rule.beside:
                 beside = evaluate(_spec(self.spec_base, self.job, r, upstream, circuit,
@@ -785,7 +801,14 @@ class WalkState:
             notes = notes_for(motors, extra, limit, result.ocpd_a)
             problems = ((f"NEC 430.62(A): the {result.ocpd_a} A feeder device is over the "
                          f"{limit:.0f} A it permits for the motors it supplies",)
-                        if motors.only_motors and result.ocpd_a > limit + _EPS else ())
+                        if motors.only_motors and result.ocpd_a > limit + _EPS
+                        and raised is None else ())
+            if raised is not None:
+                notes += (f"NEC 695.4(B)(2)(a)(1): the feeder device is raised to {raised} A, "
+                          f"above the {limit:.0f} A of 430.62(A), so it carries the fire pumps' "
+                          f"locked-rotor current (Article 695 rules a fire pump's supply; "
+                          f"240.4(G) and 695.6(D): its conductors are protected against short "
+                          f"circuit)",)
             fp_notes, fp_problems = ((), ())
             if motors.fire_pumps:   # NEC 695.4(B)(2)(a)(1)
                 fp_notes, fp_problems = feeder_check(motors.fire_pumps, spec.amps,

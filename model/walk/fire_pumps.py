@@ -15,7 +15,10 @@ above it, and a motor whose name says it is a fire pump. Section numbers from me
   transformer, as its motors are gathered: ``gaugewalk.model.walk.motor_feeders``) is checked
   for the sum of their locked-rotor currents plus the rest of its heaviest line's load at
   100 % (the larger reading of the two sections): a device below that is a problem (a feeder
-  device the code requires, which the walk can check), one at or above it a note. Its
+  device the code requires, which the walk can check), one at or above it a note. A feeder of
+  motors alone whose device the tool picks within 430.62(A) is raised to the rating that
+  carries it (``fire_pump_device``; said in its notes): Article 695 rules the fire pump's
+  supply, and such a feeder's conductors are protected against short circuit only (240.4(G)). Its
   conductors stay held to 240.4 by that device where the feeder serves other loads too (240.4(A)
   covers the fire pump's circuit only), which is why a fire pump is normally fed ahead of the
   service disconnect.
@@ -23,8 +26,8 @@ above it, and a motor whose name says it is a fire pump. Section numbers from me
   a 250 % breaker, 3 % / 5 % at its running current) is a problem on the run: that answer would
   be confidently wrong for life-safety equipment.
 
-Public API: ``supply_notes(walk, run) -> tuple[str, ...]``, ``feeder_check(group, load_a,
-ocpd_a) -> (notes, problems)``, ``named_fire_pump(run) -> str | None``.
+Public API: ``supply_notes(walk, run) -> tuple[str, ...]``, ``feeder_check(fire_pumps, load_a,
+ocpd_a) -> (notes, problems)``, ``fire_pump_device(fire_pumps, load_a) -> int | None``, ``named_fire_pump(run) -> str | None``.
 """
 
 from gaugewalk.model.engine.sizing.currents import next_rating
@@ -94,14 +97,32 @@ def supply_notes(walk: SupplyGraph, run: Run) -> tuple[str, ...]:
     return tuple(notes)
 
 
+def fire_pump_device(fire_pumps: tuple[tuple[str, float, float], ...],
+                     load_a: float) -> int | None:
+    """The smallest standard rating (240.6(A)) that carries ``feeder_check``'s figure for a
+    feeder with ``load_a`` on its heaviest line [A]: what a feeder of motors alone is raised to
+    where 430.62(A)'s figure falls short of it (NEC 695.4(B)(2)(a)(1)); None past the table."""
+    need = _need(fire_pumps, load_a)[0]
+    try:
+        return next_rating(need - _EPS)
+    except TableLookupError:
+        return None
+
+
+def _need(fire_pumps: tuple[tuple[str, float, float], ...],
+          load_a: float) -> tuple[float, float]:
+    """(the sum of the fire pumps' locked-rotor currents plus the rest of the line's load at
+    100 %, that rest) [A]."""
+    rest = max(0.0, load_a - sum(f[2] for f in fire_pumps))
+    return sum(f[1] for f in fire_pumps) + rest, rest
+
+
 def feeder_check(fire_pumps: tuple[tuple[str, float, float], ...], load_a: float,
                  ocpd_a: int) -> tuple[tuple[str, ...], tuple[str, ...]]:
     """A feeder supplying the fire pumps ``fire_pumps`` (run id, locked-rotor current [A],
     full-load current [A] each) with ``load_a`` on its heaviest line [A], on a device of
     ``ocpd_a`` [A] (NEC 695.4(B)(2)(a)(1), 695.3(C)(3)): ``(notes, problems)``."""
-    lra = sum(f[1] for f in fire_pumps)
-    rest = max(0.0, load_a - sum(f[2] for f in fire_pumps))
-    need = lra + rest
+    need, rest = _need(fire_pumps, load_a)
     named = ", ".join(f"{rid} {a:.0f} A" for rid, a, _flc in fire_pumps[:4])
     if len(fire_pumps) > 4:
         named += f" and {len(fire_pumps) - 4} more"

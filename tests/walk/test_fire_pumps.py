@@ -155,3 +155,20 @@ def test_the_starting_dip_from_the_service_is_held_to_695_7_a_whatever_the_job_s
     dip = result.start_dips["FP"]
     assert dip.target_pct == 15.0 and dip.total_pct is not None
     assert dip.total_pct == pytest.approx(dip.bus_pct + dip.above_pct + dip.run_pct)
+
+
+def test_a_feeder_of_motors_alone_is_raised_past_430_62_to_carry_the_fire_pump():
+    # NEC 2023 Table 430.250, 460 V: 50 hp 65 A, 75 hp 96 A. The 75 hp motor's inverse-time
+    # breaker: 250 % x 96 = 240 A -> 250 A (Table 430.52(C)(1), 430.52(C)(1)(a)). The fire
+    # pump's device 400 A (Table 430.251(B) 363 A, from memory; 695.4(B)(2)(a)(1)).
+    # 430.62(A): 400 + 96 = 496 A -> 450 A, the largest standard rating within it (240.6(A)).
+    # 695.4(B)(2)(a)(1), 695.3(C)(3): 363 + 96 = 459 A to carry: 450 A falls short, so 500 A.
+    motor = run_table("M1", "MCC", "Chiller", "60", load={"value": 75, "unit": "hp"},
+                      connection="3P")
+    result = compute_job(_job(_fire_pump(), motor))
+    f1 = result.runs["F1"]
+    assert result.runs["M1"].ocpd_a == 250
+    assert result.feeders["F1"].max_ocpd_a == pytest.approx(496.0)
+    assert f1.ocpd_a == 500 and not f1.problems, f1.problems
+    assert any("raised to 500 A" in n and "430.62(A)" in n for n in f1.notes)
+    assert any("695.4(B)(2)(a)(1)" in n and "459 A" in n and "carries" in n for n in f1.notes)
