@@ -430,22 +430,34 @@ def _hvac(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
                     protection=BY_ARTICLE, device_max_a=mocp, rule="NEC 440.4(B), 440.32, 440.22")
 
 
-def _motor(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
-           ocpd_a: int | None) -> Currents:
-    notes: list[str] = []
-    problems: list[str] = []
-    flc = amps
+def _full_load(eq: Equipment, volts: float, phases: int, amps: float,
+               whose: str) -> tuple[float, str]:
+    """A motor's full-load current [A] and the note saying where it came from: Table 430.248
+    or 430.250 by horsepower (430.6(A)(1)), else the ``amps`` given, taken as it."""
     if eq.hp is not None:
         found = _motor_flc(eq, volts, phases)
-        flc = found.amps
-        notes.append(f"NEC {found.table}: {hp_text(eq.hp)} hp, {found.column} V column, "
-                     f"{amps_text(flc)} full-load current (430.6(A)(1): the table, not the "
-                     f"nameplate)")
-    else:
-        notes.append(f"the {amps_text(amps)} given is taken as the motor's full-load current; NEC "
-                     f"430.6(A)(1) reads it from Table 430.248 or 430.250 by horsepower (the "
-                     f"nameplate only for low-speed, high-torque and multispeed motors): give "
-                     f"the horsepower")
+        return found.amps, (f"NEC {found.table}: {hp_text(eq.hp)} hp, {found.column} V column, "
+                            f"{amps_text(found.amps)} full-load current (430.6(A)(1): the table, "
+                            f"not the nameplate)")
+    return amps, (f"the {amps_text(amps)} given is taken as the {whose} full-load current; NEC "
+                  f"430.6(A)(1) reads it from Table 430.248 or 430.250 by horsepower (the "
+                  f"nameplate only for low-speed, high-torque and multispeed motors): give "
+                  f"the horsepower")
+
+
+def _motor_terminals(eq: Equipment, phases: int) -> tuple[int | None, str | None]:
+    """The 75 C terminal column a polyphase motor of design B, C or D may use (NEC
+    110.14(C)(1)(a)(4)), with the reason; (None, None) for a single-phase motor."""
+    if phases != 3:
+        return None, None
+    return 75, f"design {eq.design} motor, NEC 110.14(C)(1)(a)(4)"
+
+
+def _motor(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
+           ocpd_a: int | None) -> Currents:
+    flc, said = _full_load(eq, volts, phases, amps, "motor's")
+    notes: list[str] = [said]
+    problems: list[str] = []
     design = 1.25 * flc
     notes.append(f"NEC 430.22: conductors at 125% of {amps_text(flc)} = {amps_text(design)}")
     motor_type = "single-phase" if phases == 1 else "squirrel-cage"
@@ -497,10 +509,7 @@ def _motor(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
         notes.append(f"NEC 250.122(D)(1): EGC by the motor branch device rating, {ocpd} A")
     notes.append(_BY_ARTICLE_NOTE.format(what="a motor branch circuit", art="430 (Part III "
                                          "overload protection)"))
-    term, why = None, None
-    if phases == 3:
-        term = 75
-        why = f"design {eq.design} motor, NEC 110.14(C)(1)(a)(4)"
+    term, why = _motor_terminals(eq, phases)
     return Currents(design, ocpd, tuple(notes), tuple(problems), corrected_a=design,
                     protection=BY_ARTICLE, terminal_col=term, terminal_why=why,
                     egc_basis_a=egc_basis, device_max_a=device_max, flc_a=flc,
@@ -511,19 +520,9 @@ def _fire_pump(eq: Equipment, volts: float, phases: int, amps: float, cont: floa
                ocpd_a: int | None) -> Currents:
     """NEC 2023 Article 695 for the run to a fire pump motor (section numbers as the module
     docstring gives them, from memory)."""
-    notes: list[str] = []
+    flc, said = _full_load(eq, volts, phases, amps, "fire pump motor's")
+    notes: list[str] = [said]
     problems: list[str] = []
-    flc = amps
-    if eq.hp is not None:
-        found = _motor_flc(eq, volts, phases)
-        flc = found.amps
-        notes.append(f"NEC {found.table}: {hp_text(eq.hp)} hp, {found.column} V column, "
-                     f"{amps_text(flc)} full-load current (430.6(A)(1): the table, not the "
-                     f"nameplate)")
-    else:
-        notes.append(f"the {amps_text(amps)} given is taken as the fire pump motor's full-load "
-                     f"current; NEC 430.6(A)(1) reads it from Table 430.248 or 430.250 by "
-                     f"horsepower: give the horsepower")
     design = 1.25 * flc
     notes.append(f"NEC 695.6(C): conductors not less than 125% of {amps_text(flc)} = "
                  f"{amps_text(design)}; the run is taken to supply the fire pump motor alone "
@@ -567,10 +566,7 @@ def _fire_pump(eq: Equipment, volts: float, phases: int, amps: float, cont: floa
                  f"its source (worked at the feeders' own loads) within "
                  f"{FIRE_PUMP_RUNNING_DROP_PCT:g}% of the system voltage, the run taken to end "
                  f"at the motor (common practice: the controller beside it)")
-    term, twhy = None, None
-    if phases == 3:
-        term = 75
-        twhy = f"design {eq.design} motor, NEC 110.14(C)(1)(a)(4)"
+    term, twhy = _motor_terminals(eq, phases)
     return Currents(design, ocpd, tuple(notes), tuple(problems), corrected_a=design,
                     protection=BY_ARTICLE, terminal_col=term, terminal_why=twhy,
                     device_max_a=float(ocpd), flc_a=flc, drop_amps_a=drop_a, lra_a=lra,
