@@ -9,12 +9,13 @@ above it, and a motor whose name says it is a fire pump. Section numbers from me
   supplies it, or saying the walk shows none: 695.3 permits a fire pump on a feeder only in the
   arrangements it lists, so it is stated, not a problem. A transformer on the way to the
   service gets a note that 695.5 rules it (not checked here).
-- Feeders above a fire pump (695.4(B)(2)(a)(1); 695.3(C)(3) for a feeder source): every
-  overcurrent device in the fire pump's supply carries its locked-rotor current indefinitely.
+- Feeders above a fire pump (695.4(B)(2)): every overcurrent device in the fire pump's supply
+  carries its locked-rotor current indefinitely; where the device serves other loads too, the
+  figure is that plus 100 % of the rest, as 695.5(C) words it for a transformer that does.
   A feeder in the walk that supplies fire pumps (directly or through panels, not through a
   transformer, as its motors are gathered: ``gaugewalk.model.walk.motor_feeders``) is checked
-  for the sum of their locked-rotor currents plus the rest of its heaviest line's load at
-  100 % (the larger reading of the two sections): a device below that is a problem (a feeder
+  for the sum of their locked-rotor currents (all of them: the larger reading) plus the rest
+  of its heaviest line's load at 100 %: a device below that is a problem (a feeder
   device the code requires, which the walk can check), one at or above it a note. A feeder of
   motors alone whose device the tool picks within 430.62(A) is raised to the rating that
   carries it (``fire_pump_device``; said in its notes): Article 695 rules the fire pump's
@@ -121,7 +122,8 @@ def feeder_check(fire_pumps: tuple[tuple[str, float, float], ...], load_a: float
                  ocpd_a: int) -> tuple[tuple[str, ...], tuple[str, ...]]:
     """A feeder supplying the fire pumps ``fire_pumps`` (run id, locked-rotor current [A],
     full-load current [A] each) with ``load_a`` on its heaviest line [A], on a device of
-    ``ocpd_a`` [A] (NEC 695.4(B)(2)(a)(1), 695.3(C)(3)): ``(notes, problems)``."""
+    ``ocpd_a`` [A] (NEC 695.4(B)(2), the rest at 100 % as 695.5(C) words it):
+    ``(notes, problems)``."""
     need, rest = _need(fire_pumps, load_a)
     named = ", ".join(f"{rid} {a:.0f} A" for rid, a, _flc in fire_pumps[:4])
     if len(fire_pumps) > 4:
@@ -132,13 +134,12 @@ def feeder_check(fire_pumps: tuple[tuple[str, float, float], ...], load_a: float
         bigger = f"{next_rating(need)} A, the next standard rating up, would carry it"
     except TableLookupError:
         bigger = "no standard rating of 240.6(A) carries it"
+    cite = ("NEC 695.4(B)(2)(a)(1) (from memory; the other loads at 100 % as 695.5(C) words it "
+            "for a transformer that serves them too)")
     if ocpd_a + _EPS >= need:
-        return ((f"NEC 695.4(B)(2)(a)(1), 695.3(C)(3) (from memory): this feeder's {ocpd_a} A "
-                 f"device carries {figure}, as a device in a fire pump's supply must "
-                 f"indefinitely",), ())
-    return ((), (f"NEC 695.4(B)(2)(a)(1), 695.3(C)(3) (from memory): a device in a fire pump's "
-                 f"supply must carry {figure}, indefinitely; this feeder's {ocpd_a} A device is "
-                 f"below it ({bigger}; "
-                 f"its conductors would then need protecting from the other loads by 240.4, so "
-                 f"a fire pump is normally fed ahead of the service disconnect, 695.3(A)(1), "
-                 f"230.82(5))",))
+        return ((f"{cite}: this feeder's {ocpd_a} A device carries {figure}, as a device in a "
+                 f"fire pump's supply must indefinitely",), ())
+    return ((), (f"{cite}: a device in a fire pump's supply must carry {figure}, indefinitely; "
+                 f"this feeder's {ocpd_a} A device is below it ({bigger}; its conductors would "
+                 f"then need protecting from the other loads by 240.4, so a fire pump is "
+                 f"normally fed ahead of the service disconnect, 695.3(A)(1), 230.82(5))",))

@@ -1,7 +1,7 @@
 """A fire pump in a walk (``gaugewalk.model.walk.fire_pumps``): its drop targets, what the walk
 shows of its supply (NEC 695.3, 230.82(5), 695.5), the feeders above it (695.4(B)(2)(a)(1),
-695.3(C)(3)) and a motor named as a fire pump. Article 695's and 230.82's section numbers from
-memory. Every walk here is invented."""
+the other loads at 100 % as 695.5(C) words it) and a motor named as a fire pump. Article 695's
+and 230.82's section numbers from memory. Every walk here is invented."""
 
 from __future__ import annotations
 
@@ -81,7 +81,7 @@ def test_a_fire_pump_below_a_transformer_names_695_5():
 def test_a_feeder_whose_device_cannot_carry_the_locked_rotor_current_has_a_problem():
     # F1 supplies a 50 hp fire pump (Table 430.250 65 A; Table 430.251(B) 363 A, from memory)
     # and 40 A of other load. Its device by 215.3 and 430.63: 430.24 1.25 x 65 + 40 = 121.25 A
-    # -> 125 A (240.6(A)). NEC 695.4(B)(2)(a)(1), 695.3(C)(3): it must carry 363 + 40 = 403 A
+    # -> 125 A (240.6(A)). NEC 695.4(B)(2)(a)(1), 695.5(C): it must carry 363 + 40 = 403 A
     # indefinitely: a problem, naming the 450 A that would.
     lights = run_table("L1", "MCC", "Pump room heat", "50", load=(40, "A"), connection="3P")
     result = compute_job(_job(_fire_pump(), lights))
@@ -162,7 +162,7 @@ def test_a_feeder_of_motors_alone_is_raised_past_430_62_to_carry_the_fire_pump()
     # breaker: 250 % x 96 = 240 A -> 250 A (Table 430.52(C)(1), 430.52(C)(1)(a)). The fire
     # pump's device 400 A (Table 430.251(B) 363 A, from memory; 695.4(B)(2)(a)(1)).
     # 430.62(A): 400 + 96 = 496 A -> 450 A, the largest standard rating within it (240.6(A)).
-    # 695.4(B)(2)(a)(1), 695.3(C)(3): 363 + 96 = 459 A to carry: 450 A falls short, so 500 A.
+    # 695.4(B)(2)(a)(1), 695.5(C): 363 + 96 = 459 A to carry: 450 A falls short, so 500 A.
     motor = run_table("M1", "MCC", "Chiller", "60", load={"value": 75, "unit": "hp"},
                       connection="3P")
     result = compute_job(_job(_fire_pump(), motor))

@@ -553,7 +553,8 @@ def _fire_pump(eq: Equipment, volts: float, phases: int, amps: float, cont: floa
                      f"{amps_text(lra or 0.0)} locked-rotor current indefinitely"
                      + ("" if ocpd == lra else " (the next standard rating up, 240.6(A))")
                      + "; a pressure maintenance pump or accessory load on it adds to that "
-                       "(not modelled)")
+                       "(not modelled); the source taken as the utility's (an on-site standby "
+                       "generator's device is sized otherwise, 695.4(B)(2))")
     else:
         ocpd = next_rating(design)
         notes.append(f"meanwhile the {ocpd} A of the conductors' 125% only, so the run can be "
