@@ -565,8 +565,9 @@ def _fire_pump(eq: Equipment, volts: float, phases: int, amps: float, cont: floa
                  f"{amps_text(drop_a)}, against {FIRE_PUMP_RUNNING_DROP_PCT:g}% below the "
                  f"motor's rated voltage at its terminals: this run's drop plus the drop up to "
                  f"its source (worked at the feeders' own loads) within "
-                 f"{FIRE_PUMP_RUNNING_DROP_PCT:g}% of the system voltage, the run taken to end "
-                 f"at the motor (common practice: the controller beside it)")
+                 f"{FIRE_PUMP_RUNNING_DROP_PCT:g}% of the system voltage (on the safe side "
+                 f"where the motor is rated below it, 460 V on 480 V), the run taken to end at "
+                 f"the motor (common practice: the controller beside it)")
     term, twhy = _motor_terminals(eq, phases)
     return Currents(design, ocpd, tuple(notes), tuple(problems), corrected_a=design,
                     protection=BY_ARTICLE, terminal_col=term, terminal_why=twhy,
