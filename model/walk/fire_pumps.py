@@ -11,24 +11,25 @@ above it, and a motor whose name says it is a fire pump. Section numbers from me
   service gets a note that 695.5 rules it (not checked here).
 - Feeders above a fire pump (695.4(B)(2)): every overcurrent device in the fire pump's supply
   carries its locked-rotor current indefinitely; where the device serves other loads too, the
-  figure is that plus 100 % of the rest, as 695.5(C) words it for a transformer that does.
-  A feeder in the walk that supplies fire pumps (directly or through panels, not through a
+  figure is that plus 100 % of the rest, as 695.5(C) words it for a transformer that does. A
+  feeder in the walk that supplies fire pumps (directly or through panels, not through a
   transformer, as its motors are gathered: ``gaugewalk.model.walk.motor_feeders``) is checked
-  for the sum of their locked-rotor currents (all of them: the larger reading) plus the rest
-  of its heaviest line's load at 100 %: a device below that is a problem (a feeder
-  device the code requires, which the walk can check), one at or above it a note. A feeder of
-  motors alone whose device the tool picks within 430.62(A) is raised to the rating that
-  carries it (``fire_pump_device``; said in its notes): Article 695 rules the fire pump's
-  supply, and such a feeder's conductors are protected against short circuit only (240.4(G)). Its
-  conductors stay held to 240.4 by that device where the feeder serves other loads too (240.4(A)
-  covers the fire pump's circuit only), which is why a fire pump is normally fed ahead of the
-  service disconnect.
-- A motor whose name reads as a fire pump (``gaugewalk.model.walk.vocabulary.kind_in_name``) sized as a plain motor (Article 430:
-  a 250 % breaker, 3 % / 5 % at its running current) is a problem on the run: that answer would
-  be confidently wrong for life-safety equipment.
+  for the sum of their locked-rotor currents (all of them: the larger reading) plus the rest of
+  its heaviest line's load at 100 %: a device below that is a problem (a device the code
+  requires, which the walk can check), one at or above it a note. A feeder of motors alone
+  whose device the tool picks within 430.62(A) is raised to the rating that carries it
+  (``fire_pump_device``; said in its notes): Article 695 rules the fire pump's supply, and such
+  a feeder's conductors are protected against short circuit only (240.4(G)). A feeder with
+  other loads too keeps its conductors held to 240.4 by its device (240.4(A) covers the fire
+  pump's circuit only), which is why a fire pump is normally fed ahead of the service
+  disconnect.
+- A motor whose name reads as a fire pump (``gaugewalk.model.walk.vocabulary.kind_in_name``)
+  sized as a plain motor (Article 430: a 250 % breaker, 3 % / 5 % at its running current) is a
+  problem on the run: that answer would be confidently wrong for life-safety equipment.
 
 Public API: ``supply_notes(walk, run) -> tuple[str, ...]``, ``feeder_check(fire_pumps, load_a,
-ocpd_a) -> (notes, problems)``, ``fire_pump_device(fire_pumps, load_a) -> int | None``, ``named_fire_pump(run) -> str | None``.
+ocpd_a) -> (notes, problems)``, ``fire_pump_device(fire_pumps, load_a) -> int | None``,
+``named_fire_pump(run) -> str | None``.
 """
 
 from gaugewalk.model.engine.sizing.currents import next_rating
