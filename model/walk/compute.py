@@ -120,10 +120,13 @@ class FeederInfo(NamedTuple):
     load_amps: float
     line: str | None
     beside: RunResult | None = None
-    max_ocpd_a: float | None = None   # NEC 430.62(A) for a feeder supplying motors
+    max_ocpd_a: float | None = None   # [A] NEC 430.62(A): the largest device, a feeder of
+    #                                   motors (and HVAC) alone
     demand: tuple[DemandStep, ...] = ()   # demand factors taken (Defaults.demand)
     served_a: float | None = None  # [A] design current the loads below need, where a stated
     # feeder load is smaller (NEC 215.2(A)(1)); ``basis`` says so in words
+    ocpd_430_63_a: float | None = None   # [A] NEC 430.63: with other loads, the figure the
+    #                                      device is "not less than" (a floor, not a maximum)
 
 
 @dataclass
@@ -888,9 +891,14 @@ class WalkState:
                          f"125 % of the largest motor (NEC 430.24)")
         else:
             words = "its own load"
+        # 430.62(A) is a ceiling for motors alone; 430.63's figure with other loads is a floor
+        floor = None
+        if limit is not None and motors is not None and not motors.only_motors:
+            limit, floor = None, limit
         if rule is not None and rule.amps is not None:
-            return FeederInfo(rule.basis, rule.amps, spec.amps, line, beside, limit)
-        return FeederInfo(words, spec.amps, spec.amps, line, beside, limit)
+            return FeederInfo(rule.basis, rule.amps, spec.amps, line, beside, limit,
+                              ocpd_430_63_a=floor)
+        return FeederInfo(words, spec.amps, spec.amps, line, beside, limit, ocpd_430_63_a=floor)
 
     def fire_pump_words(self, r: Run, result: RunResult) -> RunResult:
         """A fire pump's run with what the walk shows of its supply (NEC 695.3, 230.82(5),

@@ -242,7 +242,9 @@ def test_a_feeder_device_below_the_430_63_figure_says_how_that_figure_was_read()
     # NEC 2023 Table 430.250: 25 hp, 460 V, 34 A; Table 430.52(C)(1): 250 % -> 85 A -> 90 A.
     # 430.63 (from memory: "not less than" the other loads plus the rating 430.62 permits):
     # 90 A + 125 % of the 20 A heater (215.3) = 115 A; the 90 A device is below that figure
-    assert result.feeders["F1"].max_ocpd_a == pytest.approx(115.0)
+    # a floor, not a maximum: check --json gives it as ocpd_430_63_a, max_ocpd_a is None
+    assert result.feeders["F1"].ocpd_430_63_a == pytest.approx(115.0)
+    assert result.feeders["F1"].max_ocpd_a is None
     note = next(n for n in f1.notes if n.startswith("NEC 430.63"))
     assert "90 A device" in note and "below" in note and "authority having jurisdiction" in note
     assert result.ok   # a stated reading, not a problem
@@ -250,3 +252,27 @@ def test_a_feeder_device_below_the_430_63_figure_says_how_that_figure_was_read()
     job.runs[0].ocpd_a = 125
     note = next(n for n in compute_job(job).runs["F1"].notes if n.startswith("NEC 430.63"))
     assert "below" not in note
+
+
+def test_check_json_gives_430_62_as_a_maximum_and_430_63_as_a_floor(tmp_path, capsys):
+    import json
+
+    from gaugewalk.model.walkfile.write import dumps_walk
+    from gaugewalk.tui.cli.main import main
+
+    # NEC 2023 Table 430.250, 460 V, and Table 430.52(C)(1) as in the tests above: motors alone
+    # -> 430.62(A)'s 125 A maximum; with a 20 A heater -> 430.63's 115 A, "not less than"
+    alone = _motors_job(_motor("M1", 25), _motor("M2", 15), _motor("M3", 10))
+    mixed = _motors_job(_motor("M1", 25),
+                        run_table("H1", "MCC", "Heater", "40", load=(20, "A"), connection="3P",
+                                  continuous=True))
+    mixed.runs[0].ocpd_a = 90
+    got = {}
+    for name, job in (("alone", alone), ("mixed", mixed)):
+        path = tmp_path / f"{name}.toml"
+        path.write_text(dumps_walk(job), encoding="utf-8")
+        main(["check", str(path), "--json"])
+        runs = json.loads(capsys.readouterr().out)["runs"]
+        got[name] = next(r for r in runs if r["id"] == "F1")
+    assert (got["alone"]["max_ocpd_a"], got["alone"]["ocpd_430_63_a"]) == (125.0, None)
+    assert (got["mixed"]["max_ocpd_a"], got["mixed"]["ocpd_430_63_a"]) == (None, 115.0)

@@ -91,8 +91,10 @@ def results_json(path: str, job: Job, result: JobResult) -> dict:
             if feeder is not None:  # the current it is sized for, by its basis
                 entry["amps"] = round(feeder.amps, 3)
                 entry["load_amps"] = round(feeder.load_amps, 3)
-                entry["max_ocpd_a"] = (None if feeder.max_ocpd_a is None
-                                       else round(feeder.max_ocpd_a, 1))
+                # NEC 430.62(A): the largest device for motors alone; 430.63: with other
+                # loads, the figure the device is "not less than" (never both)
+                entry["max_ocpd_a"] = _round(feeder.max_ocpd_a, 1)
+                entry["ocpd_430_63_a"] = _round(feeder.ocpd_430_63_a, 1)
                 beside = feeder.beside   # the connected-load answer beside an equipment basis
                 entry["load_answer"] = None if beside is None else {
                     "amps": round(beside.amps, 3), "size": beside.size, "sets": beside.sets,
