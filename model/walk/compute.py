@@ -56,7 +56,7 @@ from gaugewalk.model.walk.checks import (
     unstated_circuit_note,
 )
 from gaugewalk.model.walk.demand import DemandStep, apply_demand
-from gaugewalk.model.walk.equipment import load_facts, pf_assumed
+from gaugewalk.model.walk.equipment import load_facts, named_duty_motor, pf_assumed
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
     Feed,
@@ -902,16 +902,20 @@ class WalkState:
 
     def fire_pump_words(self, r: Run, result: RunResult) -> RunResult:
         """A fire pump's run with what the walk shows of its supply (NEC 695.3, 230.82(5),
-        695.5); a motor named as a fire pump with its problem
-        (``gaugewalk.model.walk.fire_pumps``)."""
+        695.5); a motor named as a fire pump with its problem, one named as an elevator, crane
+        or hoist with the note that it was sized as continuous duty
+        (``gaugewalk.model.walk.fire_pumps``, ``equipment.named_duty_motor``)."""
         if result.load_kind == "fire-pump":
             if self.walk is None:
                 return result
             return with_fields(result, notes=result.notes + supply_notes(self.walk, r))
         problem = named_fire_pump(r)
-        if problem is None:
+        if problem is not None:
+            return with_fields(result, problems=result.problems + (problem,))
+        duty = named_duty_motor(r)   # an elevator, crane or hoist: an assumption, said
+        if duty is None:
             return result
-        return with_fields(result, problems=result.problems + (problem,))
+        return with_fields(result, notes=result.notes + (duty,))
 
     def forget(self, r: Run) -> None:
         res = self.result

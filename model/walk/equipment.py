@@ -15,6 +15,8 @@ Public API:
   was taken at where it gives none (its kind's, else the job's), or nothing.
 - ``load_short(load)`` (``16 A``, ``25 hp``, ``MCA 28 A``) and ``load_words(load)`` (the kind and
   nameplate too: ``25 hp motor, dual-element fuse``): a load in words for every face.
+- ``named_duty_motor(run) -> str | None``: the note of a motor named as an elevator, crane or
+  hoist, sized as continuous duty (NEC 430.22(E), 610.14, 620.13).
 - ``run_kind_load(run, circuit, default_pf) -> KindLoad | None``: for a feeder's rules (NEC
   430.24, 430.62, 440.33, 630.11(B)): the kind, whether it is a motor, its running current,
   the current its branch is sized from (motor FLC, HVAC MCA, welder 630.11(A) current), and its
@@ -42,6 +44,7 @@ from gaugewalk.model.engine.sizing.kinds import (
 )
 from gaugewalk.model.engine.vocabulary import MOTOR_DEVICES, MOTOR_KINDS
 from gaugewalk.model.walk.job import Load, Run
+from gaugewalk.model.walk.vocabulary import duty_in_name
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 HVAC_RLA_FACTOR = 1.25
@@ -213,3 +216,17 @@ def load_words(load: Load) -> str:
     if load.yokes is not None and load.value is not None:
         extra.append(f"{load.yokes} yokes")
     return ", ".join(words + extra)
+
+
+def named_duty_motor(run: Run) -> str | None:
+    """The stated assumption of a motor whose name reads as an elevator, crane or hoist
+    (``vocabulary.duty_in_name``): it is sized as a continuous-duty motor, which its article and
+    Table 430.22(E) may not allow; or None."""
+    said = duty_in_name(run.to)
+    if said is None:
+        return None
+    what, rule = said
+    return (f"'{run.to}' reads as {what}: sized here as a continuous-duty motor (NEC 430.22, "
+            f"125 % of the table current); {rule} (430.22(E), Table 430.22(E): up to 140 % of "
+            "the nameplate current for intermittent duty, 200 % for varying duty; from memory): "
+            "confirm the conductors with its duty rating and nameplate")

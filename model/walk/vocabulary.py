@@ -16,7 +16,8 @@ Public API:
   demand factors of NEC Article 220 (``nec-220``: 220.44 receptacles, 220.60 noncoincident
   heating and cooling).
 - ``kind_in_name(name)``: the kind of load a run's name says (``Fire pump 1``, ``Taproom
-  lights``), for the run card and the walk's check of a motor named as a fire pump.
+  lights``), for the run card and the walk's check of a motor named as a fire pump;
+  ``duty_in_name(name)``: a motor named as an elevator, crane or hoist (not continuous duty).
 - ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
   ``primary`` only, or on the primary and the secondary (``both``).
 """
@@ -91,3 +92,26 @@ def kind_in_name(name: str) -> LoadKind | None:
     ``Fire pump 1`` a fire pump), or None."""
     low = name.lower()
     return next((kind for words, kind in _name_patterns() if words.search(low)), None)
+
+
+DUTY_NAMES: tuple[tuple[str, str, str], ...] = (
+    (r"\belevators?\b|\bescalators?\b|\bdumbwaiters?\b|\bwheelchair lifts?\b", "an elevator",
+     "NEC 620.13 sizes an elevator's conductors from its motor's nameplate current and duty"),
+    (r"\bcranes?\b|\bhoists?\b|\bmonorails?\b", "a crane or hoist",
+     "NEC 610.14 sizes a crane's or hoist's conductors by its motors' short-time ratings"),
+)
+"""Words of a motor's name that say it is not continuous duty (NEC 430.22(E)): (the words, what
+they name, the article that sizes it; section numbers from memory)."""
+
+
+@lru_cache(maxsize=1)
+def _duty_patterns() -> tuple[tuple[re.Pattern[str], str, str], ...]:
+    return tuple((re.compile(words), what, rule) for words, what, rule in DUTY_NAMES)
+
+
+def duty_in_name(name: str) -> tuple[str, str] | None:
+    """(what it names, the article's rule) where a motor's name reads as equipment of a duty
+    other than continuous (``Freight elevator 2``, ``Dock hoist``), or None."""
+    low = name.lower()
+    return next(((what, rule) for words, what, rule in _duty_patterns() if words.search(low)),
+                None)

@@ -276,3 +276,24 @@ def test_check_json_gives_430_62_as_a_maximum_and_430_63_as_a_floor(tmp_path, ca
         got[name] = next(r for r in runs if r["id"] == "F1")
     assert (got["alone"]["max_ocpd_a"], got["alone"]["ocpd_430_63_a"]) == (125.0, None)
     assert (got["mixed"]["max_ocpd_a"], got["mixed"]["ocpd_430_63_a"]) == (None, 115.0)
+
+
+@pytest.mark.parametrize(("name", "what", "rule"), [
+    ("Freight elevator 2", "an elevator", "NEC 620.13"),
+    ("Dock hoist", "a crane or hoist", "NEC 610.14"),
+])
+def test_a_motor_named_as_an_elevator_or_hoist_says_it_was_sized_as_continuous_duty(name, what,
+                                                                                      rule):
+    # NEC 430.22(E) and Table 430.22(E) (from memory): a motor of other than continuous duty is
+    # sized from its nameplate current by its duty (intermittent up to 140 %, varying up to
+    # 200 %); the walk lacks the duty, so the 125 % it took is a stated assumption
+    job = _motors_job(run_table("M1", "MCC", name, "40", load={"value": 25, "unit": "hp"},
+                                connection="3P"))
+    result = compute_job(job)
+    m1 = result.runs["M1"]
+    note = next(n for n in m1.notes if n.startswith(f"'{name}' reads as {what}"))
+    assert rule in note and "Table 430.22(E)" in note and "continuous-duty" in note
+    assert m1.design_amps == pytest.approx(1.25 * 34)   # NEC 2023 Table 430.250, 460 V: 34 A
+    # a plain motor's name says nothing of the kind
+    plain = compute_job(_motors_job(_motor("M1", 25))).runs["M1"]
+    assert not any("reads as" in n for n in plain.notes)
