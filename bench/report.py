@@ -88,6 +88,11 @@ def table(r: dict, targets) -> str:
             f"pydantic imported and one model built, a process: "
             f"{r['pydantic_floor_s'] / r['check_parse_s']:.2f}x the check baseline "
             f"({_s(r['pydantic_floor_s'])}), the part of check's ratio before any code of ours")
+    if "walk_model_s" in r:
+        info.append(
+            f"the walk model imported (its pydantic classes built), a process: "
+            f"{r['walk_model_s'] / r['check_parse_s']:.2f}x the check baseline "
+            f"({_s(r['walk_model_s'])}), what check pays before it reads the walk")
     if "app_edit_ms" in r:
         info.append(
             f"app store step median {_ms(r['app_edit_median_ms'])}, "
