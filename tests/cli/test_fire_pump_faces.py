@@ -7,8 +7,6 @@ from __future__ import annotations
 
 import json
 
-import pytest
-
 from gaugewalk.model.walkfile.read import load_walk
 from gaugewalk.model.walkfile.write import dumps_walk
 from gaugewalk.tui.cli.main import main
@@ -46,14 +44,6 @@ def test_calc_refuses_an_lra_for_a_general_load(capsys):
     err = capsys.readouterr().err
     assert "argument --lra: is for --kind motor or fire-pump, not general" in err
     assert "Traceback" not in err
-
-
-@pytest.fixture
-def shop(tmp_path, capsys):
-    path = tmp_path / "shop.toml"
-    assert main(["new", str(path), "--service", "480Y/277"]) == 0
-    capsys.readouterr()
-    return path
 
 
 def test_add_check_and_report_carry_the_fire_pump(shop, tmp_path, capsys):

@@ -98,14 +98,6 @@ def test_calc_refuses_options_that_do_not_fit_the_kind(capsys, argv, words):
     assert words in err
 
 
-@pytest.fixture
-def shop(tmp_path, capsys):
-    path = tmp_path / "shop.toml"
-    assert main(["new", str(path), "--service", "480Y/277"]) == 0
-    capsys.readouterr()
-    return path
-
-
 def test_add_takes_every_load_option_and_the_walk_keeps_them(shop, capsys):
     assert main(["add", str(shop), "--from", "SVC", "--to", "Baler", "--length", "100",
                  "--hp", "25", "--motor-device", "dual-element", "--code-letter", "G"]) == 0
