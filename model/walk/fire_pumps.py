@@ -40,6 +40,7 @@ from gaugewalk.tables.errors import TableLookupError
 
 _EPS = 1e-9
 
+
 def named_fire_pump(run: Run) -> str | None:
     """The problem of a run whose load is a plain motor while its name reads as a fire pump,
     or None."""
