@@ -37,6 +37,7 @@ from gaugewalk.model.engine.loads import load_amps, pf_taken
 from gaugewalk.model.engine.sizing.kinds import (
     KindLoad,
     continuous_of,
+    evse_feeder_va,
     kind_load,
     load_pf,
     running_amps,
@@ -136,6 +137,8 @@ def feeder_share(run: Run, circuit: Circuit, default_pf: float) -> tuple[float, 
     facts = load_facts(run, circuit, default_pf)
     amps, continuous = _feeder_amps(facts, run.load is not None and run.load.value is not None)
     va = amps * circuit.line_volts * (1.7320508075688772 if circuit.phases == 3 else 1.0)
+    if facts.equipment is not None and facts.equipment.kind == "ev-charger":
+        va = evse_feeder_va(va)   # NEC 220.57: 7,200 VA or its nameplate, the larger
     return va, va if continuous else 0.0, va * facts.pf
 
 

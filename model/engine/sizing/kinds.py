@@ -59,7 +59,8 @@ Public API: ``STARTING_PF``; ``continuous_default(eq)``, ``kind_continuous(kind,
 ``continuous_refusal(kind, tank_gal, given)``, ``continuous_of(eq)``, ``load_pf(kind, given, default)``; ``running_amps(eq, value,
 unit, circuit, pf)``; ``welder_current(eq)``; ``drop_targets(eq, own_given, own, total, starting)``; ``locked_rotor(eq, volts, phases)``;
 ``rule_for(eq, volts, phases)``; ``forget_loads()``; ``KindLoad`` and ``kind_load(eq, amps, ocpd_a, volts,
-phases)``, what a feeder's rules need of a branch run (``gaugewalk.model.walk.equipment``).
+phases)``, what a feeder's rules need of a branch run (``gaugewalk.model.walk.equipment``);
+``evse_feeder_va(va)`` (NEC 220.57).
 """
 
 import math
@@ -109,6 +110,15 @@ it, at most 150 % of its rated current."""
 
 YOKE_VA = 180.0
 """[VA] 220.14(I): each single or multiple receptacle on one yoke."""
+
+EVSE_MIN_VA = 7200.0
+"""[VA] 220.57: an EV charger's load in a feeder or service calculation is 7,200 W (VA) or its
+nameplate rating, the larger (from memory)."""
+
+
+def evse_feeder_va(nameplate_va: float) -> float:
+    """What a feeder counts of an EV charger of ``nameplate_va`` [VA] (NEC 220.57)."""
+    return max(EVSE_MIN_VA, nameplate_va)
 
 _DEVICE_KEYS = {"inverse-time": "inverse-time", "dual-element": "dual-element-fuse",
                 "nontime-delay": "nontime-delay-fuse", "instantaneous": "instantaneous-trip"}
@@ -353,7 +363,11 @@ def _general_kind(eq: Equipment, volts: float, phases: int, amps: float, cont: f
 
 def _ev(eq: Equipment, volts: float, phases: int, amps: float, cont: float,
         ocpd_a: int | None) -> Currents:
-    design, ocpd, notes, problems = _continuous(amps, ocpd_a, "NEC 625.42", "NEC 625.41")
+    va = amps * volts * (math.sqrt(3.0) if phases == 3 else 1.0)
+    said = (f"its nameplate, {va:,.0f} VA, over the 7,200 VA least" if evse_feeder_va(va) == va
+            else f"7,200 VA, the least it may count, over its {va:,.0f} VA nameplate")
+    design, ocpd, notes, problems = _continuous(
+        amps, ocpd_a, "NEC 625.42", "NEC 625.41", (f"NEC 220.57: its feeder counts {said}",))
     return Currents(design, ocpd, tuple(notes), tuple(problems),
                     rule="NEC 625.42, 625.41, 210.19(A)(1)")
 

@@ -1,0 +1,44 @@
+"""EV chargers in a feeder's load: NEC 2023 220.57 (from memory: "the EVSE load shall be
+calculated at either 7200 watts (volt-amperes) or the nameplate rating of the equipment,
+whichever is larger"), continuous by 625.42. Every walk here is invented."""
+
+from __future__ import annotations
+
+import pytest
+
+from gaugewalk.model.walk.compute import compute_job
+from tests.support.walks import make_job, run_table, source_table
+
+S240 = "120/240V 1ph 3w"
+
+
+def _garage(*amps):
+    """A 120/240 V service feeding panel GP (50 ft), an EV charger of each of ``amps`` on it."""
+    return make_job("garage", sources=[source_table("SVC", "service", S240),
+                                       source_table("GP", "panel", S240, rating_a=200)],
+                    runs=[run_table("F1", "SVC", "GP", "50"),
+                          *(run_table(f"EV{i}", "GP", f"Charger {i}", "30",
+                                      load={"value": a, "unit": "A", "kind": "ev-charger"},
+                                      connection="LL")
+                            for i, a in enumerate(amps, 1))])
+
+
+def test_a_small_charger_counts_7200_va_in_its_feeder_and_its_nameplate_on_its_branch():
+    result = compute_job(_garage(16))
+    # its branch: 16 A continuous, 125 % = 20 A (625.42, 210.19(A)(1)), a 20 A device (625.41)
+    ev = result.runs["EV1"]
+    assert (ev.amps, ev.design_amps, ev.ocpd_a) == (16.0, 20.0, 20)
+    assert any("NEC 220.57" in n and "7,200 VA" in n and "3,840 VA" in n for n in ev.notes)
+    # its feeder: 7,200 VA / 240 V = 30 A, continuous: 37.5 A design (215.2(A)(1)), 40 A device
+    # (240.6(A)); NEC 2023 Table 310.16, 60 C column (110.14(C)(1)(a)): 8 AWG Cu 40 A
+    f1 = result.runs["F1"]
+    assert f1.amps == pytest.approx(30.0) and f1.design_amps == pytest.approx(37.5)
+    assert (f1.ocpd_a, f1.size) == (40, "8 AWG")
+
+
+def test_a_charger_over_7200_va_counts_its_nameplate():
+    # 48 A x 240 V = 11,520 VA > 7,200 VA; two of them: 96 A on each line, 120 A design
+    result = compute_job(_garage(48, 48))
+    assert result.runs["F1"].amps == pytest.approx(96.0)
+    assert result.runs["F1"].design_amps == pytest.approx(120.0)
+    assert any("its nameplate, 11,520 VA" in n for n in result.runs["EV1"].notes)
