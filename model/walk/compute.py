@@ -56,7 +56,12 @@ from gaugewalk.model.walk.checks import (
     unstated_circuit_note,
 )
 from gaugewalk.model.walk.demand import DemandStep, apply_demand
-from gaugewalk.model.walk.equipment import load_facts, named_duty_motor, pf_assumed
+from gaugewalk.model.walk.equipment import (
+    load_facts,
+    named_duty_motor,
+    named_unit_load,
+    pf_assumed,
+)
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
     Feed,
@@ -468,6 +473,10 @@ def _with_rule(result: RunResult, rule: FeederRule | None) -> RunResult:
                        problems=result.problems + rule.problems)
 
 
+_NAMED_KINDS = frozenset({"fire-pump", "motor", "lighting", "general"})
+"""Kinds of branch run whose name may say more than the kind (``WalkState.name_words``)."""
+
+
 class WalkState:
     """One computation over a walk, writing into a JobResult."""
 
@@ -752,8 +761,10 @@ class WalkState:
                 self.fail(r, str(exc))
                 return
             kind = result.load_kind
-            if kind == "fire-pump" or kind == "motor":
+            if kind == "motor" or kind == "fire-pump":
                 result = self.fire_pump_words(r, result)
+            elif "rack" in rf["to"] or "indow" in rf["to"]:   # track, show window: any case
+                result = self.name_words(r, result)
             res._specs[rid] = spec
             res._passed[rid] = passed
             self.store(r, result, False, spec)
@@ -829,8 +840,8 @@ class WalkState:
         if is_feeder and r.load is None and r.to in res.left_out:
             result = with_fields(result, problems=result.problems + (
                 _left_out_problem(r.to, res.left_out[r.to]),))
-        if not is_feeder and result.load_kind in ("fire-pump", "motor"):
-            result = self.fire_pump_words(r, result)
+        if not is_feeder and result.load_kind in _NAMED_KINDS:   # the same as a branch above
+            result = self.name_words(r, result)
         res._specs[r.id] = spec
         res._passed[r.id] = passed
         if is_feeder:
@@ -899,6 +910,17 @@ class WalkState:
             return FeederInfo(rule.basis, rule.amps, spec.amps, line, beside, limit,
                               ocpd_430_63_a=floor)
         return FeederInfo(words, spec.amps, spec.amps, line, beside, limit, ocpd_430_63_a=floor)
+
+    def name_words(self, r: Run, result: RunResult) -> RunResult:
+        """A branch run with what its name says beside its kind: a fire pump's or motor's
+        (``fire_pump_words``), or lighting a feeder counts by its length (NEC 220.43,
+        ``equipment.named_unit_load``)."""
+        if result.load_kind in ("fire-pump", "motor"):
+            return self.fire_pump_words(r, result)
+        unit = named_unit_load(r)
+        if unit is None:
+            return result
+        return with_fields(result, notes=result.notes + (unit,))
 
     def fire_pump_words(self, r: Run, result: RunResult) -> RunResult:
         """A fire pump's run with what the walk shows of its supply (NEC 695.3, 230.82(5),

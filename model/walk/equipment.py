@@ -16,7 +16,8 @@ Public API:
 - ``load_short(load)`` (``16 A``, ``25 hp``, ``MCA 28 A``) and ``load_words(load)`` (the kind and
   nameplate too: ``25 hp motor, dual-element fuse``): a load in words for every face.
 - ``named_duty_motor(run) -> str | None``: the note of a motor named as an elevator, crane or
-  hoist, sized as continuous duty (NEC 430.22(E), 610.14, 620.13).
+  hoist, sized as continuous duty (NEC 430.22(E), 610.14, 620.13); ``named_unit_load(run)``:
+  that of track or show-window lighting, counted as given (NEC 220.43).
 - ``run_kind_load(run, circuit, default_pf) -> KindLoad | None``: for a feeder's rules (NEC
   430.24, 430.62, 440.33, 630.11(B)): the kind, whether it is a motor, its running current,
   the current its branch is sized from (motor FLC, HVAC MCA, welder 630.11(A) current), and its
@@ -45,7 +46,7 @@ from gaugewalk.model.engine.sizing.kinds import (
 )
 from gaugewalk.model.engine.vocabulary import MOTOR_DEVICES, MOTOR_KINDS
 from gaugewalk.model.walk.job import Load, Run
-from gaugewalk.model.walk.vocabulary import duty_in_name
+from gaugewalk.model.walk.vocabulary import duty_in_name, unit_load_in_name
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 HVAC_RLA_FACTOR = 1.25
@@ -233,3 +234,16 @@ def named_duty_motor(run: Run) -> str | None:
             f"125 % of the table current); {rule} (430.22(E), Table 430.22(E): up to 140 % of "
             "the nameplate current for intermittent duty, 200 % for varying duty; from memory): "
             "confirm the conductors with its duty rating and nameplate")
+
+
+def named_unit_load(run: Run) -> str | None:
+    """The stated assumption of a load whose name reads as track or show-window lighting
+    (``vocabulary.unit_load_in_name``): its feeder counts the load the run gives, where NEC
+    220.43 counts it by length, which the walk does not give; or None."""
+    said = unit_load_in_name(run.to)
+    if said is None or run.load is None:
+        return None
+    what, rule = said
+    return (f"'{run.to}' reads as {what}: {rule} (from memory); the walk gives its load "
+            f"({load_short(run.load)}), not that length, so its feeder counts the load given: "
+            "confirm it is not less")

@@ -17,7 +17,8 @@ Public API:
   heating and cooling).
 - ``kind_in_name(name)``: the kind of load a run's name says (``Fire pump 1``, ``Taproom
   lights``), for the run card and the walk's check of a motor named as a fire pump;
-  ``duty_in_name(name)``: a motor named as an elevator, crane or hoist (not continuous duty).
+  ``duty_in_name(name)``: a motor named as an elevator, crane or hoist (not continuous duty);
+  ``unit_load_in_name(name)``: lighting a feeder counts by its length (NEC 220.43).
 - ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
   ``primary`` only, or on the primary and the secondary (``both``).
 """
@@ -107,6 +108,26 @@ they name, the article that sizes it; section numbers from memory)."""
 @lru_cache(maxsize=1)
 def _duty_patterns() -> tuple[tuple[re.Pattern[str], str, str], ...]:
     return tuple((re.compile(words), what, rule) for words, what, rule in DUTY_NAMES)
+
+
+UNIT_LOAD_NAMES: tuple[tuple[str, str, str], ...] = (
+    (r"\btrack[ -]?light", "track lighting",
+     "NEC 220.43(B) has a feeder count track lighting at 150 VA for every 2 ft of track"),
+    (r"\bshow[ -]?windows?\b", "show-window lighting",
+     "NEC 220.43(A) has a feeder count show-window lighting at 200 VA per foot of window"),
+)
+"""Words of a load's name for which Article 220 sets a feeder's load by length, not by what is
+connected: (the words, what they name, the rule; section numbers from memory)."""
+
+
+def unit_load_in_name(name: str) -> tuple[str, str] | None:
+    """(what it names, the rule) where a load's name reads as lighting a feeder counts by its
+    length (``Track lighting, front wall``), or None."""
+    low = name.lower()
+    if "track" not in low and "window" not in low:   # most names: no pattern tried
+        return None
+    return next(((what, rule) for words, what, rule in UNIT_LOAD_NAMES
+                 if re.search(words, low)), None)
 
 
 def duty_in_name(name: str) -> tuple[str, str] | None:

@@ -1,6 +1,7 @@
-"""EV chargers in a feeder's load: NEC 2023 220.57 (from memory: "the EVSE load shall be
-calculated at either 7200 watts (volt-amperes) or the nameplate rating of the equipment,
-whichever is larger"), continuous by 625.42. Every walk here is invented."""
+"""Loads a feeder counts by a rule of NEC 2023 Article 220 rather than as connected: an EV
+charger at 7,200 VA or its nameplate rating, the larger (220.57, from memory; continuous by
+625.42), and lighting counted by its length (220.43, from memory), said where the walk gives no
+length. Every walk here is invented."""
 
 from __future__ import annotations
 
@@ -42,3 +43,19 @@ def test_a_charger_over_7200_va_counts_its_nameplate():
     assert result.runs["F1"].amps == pytest.approx(96.0)
     assert result.runs["F1"].design_amps == pytest.approx(120.0)
     assert any("its nameplate, 11,520 VA" in n for n in result.runs["EV1"].notes)
+
+
+@pytest.mark.parametrize(("name", "rule"), [("Track lighting, gallery", "NEC 220.43(B)"),
+                                            ("Show window 3", "NEC 220.43(A)")])
+def test_lighting_a_feeder_counts_by_length_says_the_load_given_was_counted(name, rule):
+    # NEC 220.43 (from memory): track lighting at 150 VA per 2 ft of track, show windows at
+    # 200 VA per foot; the walk gives the load, not the length: a stated assumption
+    job = make_job("shop", sources=[source_table("SVC", "service", S240)], runs=[
+        run_table("L1", "SVC", name, "40", load={"value": 900, "unit": "VA",
+                                                 "kind": "lighting"}, connection="LN"),
+        run_table("L2", "SVC", "Aisle lights", "40", load={"value": 900, "unit": "VA",
+                                                         "kind": "lighting"}, connection="LN")])
+    result = compute_job(job)
+    note = next(n for n in result.runs["L1"].notes if rule in n)
+    assert "900 VA" in note and "counts the load given" in note
+    assert not any("220.43" in n for n in result.runs["L2"].notes)
