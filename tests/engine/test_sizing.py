@@ -293,8 +293,9 @@ def test_the_picked_size_passes_and_the_next_smaller_fails(circuit, amps, length
 
 @pytest.mark.parametrize("upstream, said", [
     (5.6, "already takes the whole 5% total target"),
-    (4.9, "leaves 0.10% of the 5% total target, less than this run drops on any size up to 2 "
-          "over what its own target asks (common practice)"),
+    (4.9, "leaves 0.10% of the 5% total target, less than this run drops on any size within "
+          "2 sizes of the one its own target asks (common practice: the drop is cured where "
+          "it is lost)"),
 ])
 def test_a_run_behind_a_source_over_the_total_target_keeps_what_its_own_target_asks(upstream,
                                                                                     said):

@@ -227,8 +227,9 @@ def _upstream_words(spec: RunSpec) -> str:
         said = f"already takes the whole {total:g}% total target"
     else:
         said = (f"leaves {pct_text(total - up)} of the {total:g}% total target, less than this "
-                f"run drops on any size up to {UPSIZE_FOR_TOTAL} over what its own target asks "
-                "(common practice)")
+                f"run drops on any size within {UPSIZE_FOR_TOTAL} sizes "
+                "of the one its own target asks (common practice: the drop is cured where it is "
+                "lost)")
     return (f"the drop up to its source, {pct_text(up)}, {said}: sized for its own "
             f"{spec.max_drop_pct:g}% target; the drop has to come down upstream")
 
