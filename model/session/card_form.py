@@ -22,7 +22,7 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass, field
 from datetime import date
-from typing import Callable, Iterable, cast
+from typing import TYPE_CHECKING, Callable, Iterable, cast
 
 from gaugewalk.model.engine import vocabulary as vocab
 from gaugewalk.model.engine.contract import Circuit, RunResult
@@ -38,6 +38,9 @@ from gaugewalk.model.walk.plausible import long_length
 from gaugewalk.model.walk.vocabulary import kind_in_name
 from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C, rooftop_excepted
 from gaugewalk.tables.equipment.horsepower import hp_text
+
+if TYPE_CHECKING:   # the walk's computation is imported when a card is sized
+    from gaugewalk.model.walk.starting import StartDip
 
 
 @dataclass(frozen=True)
@@ -499,7 +502,7 @@ class CardCheck:
     connection: str = ""        # the circuit field's connection ("": every hot and the neutral)
     taken: tuple[str, ...] = ()  # what sizing the run took as given that the card could say
     #                              (a load in kW without its power factor: ``pf_assumed``)
-    dip: object | None = None   # a motor's starting dip from the service (``StartDip``)
+    dip: StartDip | None = None   # a motor's starting dip from the service
 
 
 @dataclass
@@ -520,13 +523,14 @@ class _Reading:
 def _check_from(r: _Reading) -> None:
     src = r.v["from"].strip()
     r.got["from"] = src
+    source = r.job.source(src) if src else None
+    r.got["from_source"] = source   # the later checks read its system from here
     if not src:
         r.errors["from"] = "give the source the run starts at"
-    elif r.job.source(src) is None:
+    elif source is None:
         known = ", ".join(r.form.session.source_ids()[:8]) or "none yet"
         r.errors["from"] = f"no source '{src}' in this walk (sources: {known})"
     else:
-        source = r.job.source(src)
         r.hints["from"] = f"{source.kind} {source.system.split()[0]}"
 
 
@@ -633,7 +637,7 @@ def _check_panel(r: _Reading) -> None:
         r.errors["panel"] = f"'{r.got['to']}' is already a {dest.kind}; leave this blank"
         return
     try:
-        feeding = r.job.source(str(r.got.get("from", "")))
+        feeding = r.got.get("from_source")
         new = new_source_from(str(r.got["to"]), text,
                               feeding.system if feeding is not None else None)
     except ValueError as exc:
@@ -662,7 +666,7 @@ def _check_circuit(r: _Reading) -> None:
         return
     if "from" in r.errors:
         return
-    system = r.job.source(r.got["from"]).system
+    system = r.got["from_source"].system
     dest = r.got.get("dest") or r.got.get("new_source")   # a source of the walk, or declared here
     conn = circuit or default_connection(system, dest is not None and dest.kind == "transformer")
     try:
@@ -779,16 +783,17 @@ def _check_place(r: _Reading) -> None:
         HIGH_LEG,
         HIGH_LEG_WORDS,
         line_count,
+        off_high_leg,
         phase_name,
         position_lines,
     )
     from gaugewalk.model.walk.vocabulary import MAX_POSITION, PHASES
 
-    def on_high_leg(lines: tuple[int, ...]) -> bool:   # NEC 110.15 (``phases.place`` too)
+    def on_high_leg(lines: tuple[int, ...]) -> bool:   # NEC 110.15, as ``phases.place`` says
         circuit = r.got.get("circuit")
-        return ("from" not in r.errors and isinstance(circuit, Circuit) and circuit.neutral
-                and circuit.hots < 3 and HIGH_LEG in lines
-                and SYSTEMS[r.job.source(r.got["from"]).system].high_leg)
+        return ("from" not in r.errors and isinstance(circuit, Circuit) and HIGH_LEG in lines
+                and off_high_leg(circuit.neutral, circuit.hots)
+                and SYSTEMS[r.got["from_source"].system].high_leg)
 
     text = r.v["place"].strip().upper()
     r.got["position"] = r.got["phase"] = None
@@ -803,7 +808,7 @@ def _check_place(r: _Reading) -> None:
         r.got["position"] = position
         circuit = r.got.get("circuit")
         if "from" not in r.errors and isinstance(circuit, Circuit):
-            n = line_count(r.job.source(r.got["from"]).system)
+            n = line_count(r.got["from_source"].system)
             poles = min(circuit.hots, n) if n > 1 else 1
             lines = position_lines(position, poles, n)
             span = "-".join(str(position + 2 * k) for k in range(poles))

@@ -27,11 +27,17 @@ _FULL_CONNECTION = {(3, True): "3PN", (3, False): "3P", (1, True): "LLN", (1, Fa
 
 def nonlinear_of(job: Job, run: Run) -> bool:
     """Whether ``run``'s loads are taken as mostly nonlinear (NEC 310.15(E)(3), 220.61(C)(2)):
-    as the source it feeds says (a feeder), else the source it starts at, else the job
+    ``nonlinear_said`` of the source it feeds and the one it starts at."""
+    return nonlinear_said(job.source(run.to), job.source(run.from_),
+                          job.defaults.nonlinear_loads)
+
+
+def nonlinear_said(fed: Source | None, start: Source | None, job_says: bool) -> bool:
+    """As the source a run feeds says (a feeder), else the source it starts at, else the job
     (``Source.nonlinear_loads``, ``Defaults.nonlinear_loads``)."""
-    source = job.source(run.to) or job.source(run.from_)
-    said = source.nonlinear_loads if source is not None else None
-    return job.defaults.nonlinear_loads if said is None else said
+    source = fed if fed is not None else start
+    said = source.__dict__["nonlinear_loads"] if source is not None else None
+    return job_says if said is None else said
 
 
 def default_connection(system_id: str, to_transformer: bool = False) -> str:

@@ -47,12 +47,13 @@ from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.currents import design_current
 from gaugewalk.model.engine.sizing.evaluate import Prepared, finish_prepared, prepared_for
 from gaugewalk.model.engine.sizing.kinds import drop_targets
-from gaugewalk.model.engine.vocabulary import LOAD_UNITS, or_words
+from gaugewalk.model.engine.vocabulary import LOAD_UNITS, MOTOR_KINDS, or_words
 from gaugewalk.model.walk.chain import secondary_bus_drop
 from gaugewalk.model.walk.checks import (
     connection_of,
     default_connection,
     nonlinear_of,
+    nonlinear_said,
     unstated_circuit_note,
 )
 from gaugewalk.model.walk.demand import DemandStep, apply_demand
@@ -108,7 +109,7 @@ from gaugewalk.model.walk.ratings import (
 )
 from gaugewalk.model.walk.starting import StartDip, start_dip
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
-from gaugewalk.model.walk.vocabulary import LINE_NAMES
+from gaugewalk.model.walk.vocabulary import LINE_NAMES, may_count_by_length
 
 _EPS = 1e-9
 _GONE = object()
@@ -473,10 +474,6 @@ def _with_rule(result: RunResult, rule: FeederRule | None) -> RunResult:
                        problems=result.problems + rule.problems)
 
 
-_NAMED_KINDS = frozenset({"fire-pump", "motor", "lighting", "general"})
-"""Kinds of branch run whose name may say more than the kind (``WalkState.name_words``)."""
-
-
 class WalkState:
     """One computation over a walk, writing into a JobResult."""
 
@@ -518,9 +515,7 @@ class WalkState:
             to = 0 if target is None else 2 if target.kind == "transformer" else 1
         else:
             to = 0
-        # NEC 310.15(E)(3): as the source it feeds or starts at says, else the job (nonlinear_of)
-        said = (target if target is not None else start).__dict__["nonlinear_loads"]
-        nonlinear = self.job.defaults.nonlinear_loads if said is None else said
+        nonlinear = nonlinear_said(target, start, self.job.defaults.nonlinear_loads)
         key = (system, conn, to, nonlinear)
         res = self.result
         c = self._circuit_cache.get(key)
@@ -761,9 +756,7 @@ class WalkState:
                 self.fail(r, str(exc))
                 return
             kind = result.load_kind
-            if kind == "motor" or kind == "fire-pump":
-                result = self.fire_pump_words(r, result)
-            elif "rack" in rf["to"] or "indow" in rf["to"]:   # track, show window: any case
+            if kind == "motor" or kind == "fire-pump" or may_count_by_length(rf["to"]):
                 result = self.name_words(r, result)
             res._specs[rid] = spec
             res._passed[rid] = passed
@@ -840,7 +833,7 @@ class WalkState:
         if is_feeder and r.load is None and r.to in res.left_out:
             result = with_fields(result, problems=result.problems + (
                 _left_out_problem(r.to, res.left_out[r.to]),))
-        if not is_feeder and result.load_kind in _NAMED_KINDS:   # the same as a branch above
+        if not is_feeder:   # what its name says, as for a branch above
             result = self.name_words(r, result)
         res._specs[r.id] = spec
         res._passed[r.id] = passed
@@ -913,16 +906,16 @@ class WalkState:
 
     def name_words(self, r: Run, result: RunResult) -> RunResult:
         """A branch run with what its name says beside its kind: a fire pump's or motor's
-        (``fire_pump_words``), or lighting a feeder counts by its length (NEC 220.43,
+        (``motor_words``), or lighting a feeder counts by its length (NEC 220.43,
         ``equipment.named_unit_load``)."""
-        if result.load_kind in ("fire-pump", "motor"):
-            return self.fire_pump_words(r, result)
+        if result.load_kind in MOTOR_KINDS:
+            return self.motor_words(r, result)
         unit = named_unit_load(r)
         if unit is None:
             return result
         return with_fields(result, notes=result.notes + (unit,))
 
-    def fire_pump_words(self, r: Run, result: RunResult) -> RunResult:
+    def motor_words(self, r: Run, result: RunResult) -> RunResult:
         """A fire pump's run with what the walk shows of its supply (NEC 695.3, 230.82(5),
         695.5); a motor named as a fire pump with its problem, one named as an elevator, crane
         or hoist with the note that it was sized as continuous duty

@@ -67,6 +67,7 @@ from gaugewalk.model.walk.phases import (
     Share,
     design_line,
     line_phasors,
+    off_high_leg,
     place,
     share_on,
 )
@@ -354,9 +355,9 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
     n = len(u)
     items: list[PlaceItem] = []
     whose: list[tuple[Run, OwnLoad | None]] = []   # each item's run and own load (groups)
-    has_neutral = SYSTEMS[source.system].has_neutral
-    # a circuit using the neutral with fewer than three hots stays off a delta's high leg
-    high = HIGH_LEG if SYSTEMS[source.system].high_leg else None
+    system = SYSTEMS[source.system]
+    has_neutral = system.has_neutral
+    high = HIGH_LEG if system.high_leg else None   # some circuits stay off it (off_high_leg)
     back: list[tuple[str, complex]] = []   # own loads returning on the neutral (220.61(A))
     back_fed: list[tuple[str, tuple[complex, ...]]] = []   # feeders: their panels' neutral sums
     va = cva = watts = 0.0
@@ -379,7 +380,7 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
             va += load.va
             cva += load.continuous_va
             watts += load.watts
-            avoid = high if high is not None and mine.neutral and hots < 3 else None
+            avoid = high if high is not None and off_high_leg(mine.neutral, hots) else None
             items.append(_tuple_new(PlaceItem, (rid, poles, rf["position"], rf["phase"], share,
                                                 mine.size, mine.mags, poles == n, each, avoid)))
             if has_neutral and mine.neutral:
@@ -416,7 +417,8 @@ def sum_source(graph: SupplyGraph, source_id: str, circuits: Mapping[str, Circui
             back_fed.append((rid, f.neutral))
         if groups:
             whose.append((r, mine))
-        avoid = high if high is not None and circuit.neutral and circuit.hots < 3 else None
+        avoid = (high if high is not None and off_high_leg(circuit.neutral, circuit.hots)
+                 else None)
         items.append(PlaceItem(rid, poles, rf["position"], rf["phase"], share, size, mags,
                                avoid=avoid))
     outcome = place(items, n, source.spaces)

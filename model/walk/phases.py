@@ -142,8 +142,16 @@ HIGH_LEG = 1
 """The line of the high leg on a 4-wire delta: phase B (about 208 V to neutral on 240/120 V,
 marked orange, NEC 110.15; common practice)."""
 HIGH_LEG_WORDS = ("puts it on the high leg (phase B of the 4-wire delta, about 208 V to "
-                   "neutral, NEC 110.15): a circuit using the neutral with fewer than three hots "
-                   "goes on A and C")
+                  "neutral, NEC 110.15): a circuit using the neutral with fewer than three hots "
+                  "goes on A and C")
+"""Why a phase or position on the high leg is refused (the walk's problem, the card's error)."""
+
+
+def off_high_leg(neutral: bool, hots: int) -> bool:
+    """Whether a circuit on a 4-wire delta stays off its high leg (NEC 110.15): one that uses the
+    neutral with fewer than three hots (its line-to-neutral part would get about 208 V)."""
+    return neutral and hots < 3
+
 
 def share_on(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, complex, complex]]:
     """The line currents of ``it`` on ``lines``: (line, current, continuous part) [A, phasors],

@@ -34,12 +34,12 @@ from __future__ import annotations
 import math
 from typing import NamedTuple
 
-from gaugewalk.model.engine.drop import drop_length_ft
+from gaugewalk.model.engine.drop import drop_length_ft, drop_volts
 from gaugewalk.model.engine.sizing.evaluate import starting_impedance
 from gaugewalk.model.engine.sizing.kinds import STARTING_PF
 from gaugewalk.model.engine.sizing.text import pct_text
+from gaugewalk.model.walk.transformers import drop_through
 
-_SIN_START = math.sqrt(1.0 - STARTING_PF * STARTING_PF)
 _SQRT3 = math.sqrt(3.0)
 
 
@@ -141,12 +141,12 @@ def _feeder_part(result, feeder, lra: float, start_kva: float, motor, same_level
     z = starting_impedance(spec, fr.size)
     if z is None:
         return None
-    ohms = z * drop_length_ft(spec.length_ft, spec.distributed) / 1000.0 / fr.sets
+    length = drop_length_ft(spec.length_ft, spec.distributed)
     if same_level:
-        return 100.0 * motor.drop_factor * lra * ohms / motor.volts
+        return 100.0 * drop_volts(motor.drop_factor, lra, z, length, fr.sets) / motor.volts
     own = spec.circuit
     amps = start_kva * 1000.0 / ((_SQRT3 if own.phases == 3 else 1.0) * own.line_volts)
-    return 100.0 * own.drop_factor * amps * ohms / own.volts
+    return 100.0 * drop_volts(own.drop_factor, amps, z, length, fr.sets) / own.volts
 
 
 def _transformer_part(info, start_kva: float, motor, same_level: bool
@@ -157,9 +157,8 @@ def _transformer_part(info, start_kva: float, motor, same_level: bool
         return None, "has no kVA"
     if info.impedance_pct is None or info.x_r is None:
         return None, "has no impedance"
-    r_pct = info.impedance_pct / math.hypot(1.0, info.x_r)
-    x_pct = r_pct * info.x_r
     share = 1.0
     if same_level and info.phases == 3 and motor.phases == 1:
         share = 2.0 if motor.hots == 2 else 3.0   # its current on two or one of three windings
-    return share * start_kva / info.kva * (r_pct * STARTING_PF + x_pct * _SIN_START), ""
+    return drop_through(share * start_kva / info.kva, info.impedance_pct, info.x_r,
+                        STARTING_PF), ""

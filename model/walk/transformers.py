@@ -34,7 +34,9 @@ its secondary conductors follow (240.21(C)), its loading and the drop through it
   assumed and said so); an unknown %Z is the typical value for the size, marked assumed.
 
 Public API: ``TransformerInfo``; ``transformer_info(source, lines, primary, feeder, fed)``;
-``primary_device(rated_a, method)``; ``secondary_rule(...)``.
+``primary_device(rated_a, method)``; ``secondary_rule(...)``; ``impedance_parts(z_pct, x_r)``
+and ``drop_through(loading, z_pct, x_r, pf)``, the approximation above (a motor's starting dip
+reads it too, ``gaugewalk.model.walk.starting``).
 """
 
 import math
@@ -50,6 +52,19 @@ from gaugewalk.tables.errors import TableLookupError
 from gaugewalk.tables.protection.ocpd import ALL_RATINGS
 
 _METHOD = {"primary": "primary-only", "both": "primary-and-secondary"}
+
+
+def impedance_parts(z_pct: float, x_r: float) -> tuple[float, float]:
+    """(%R, %X) of an impedance ``z_pct`` [%] with reactance ``x_r`` times its resistance."""
+    r_pct = z_pct / math.hypot(1.0, x_r)
+    return r_pct, r_pct * x_r
+
+
+def drop_through(loading: float, z_pct: float, x_r: float, pf: float) -> float:
+    """The drop through a transformer [%] carrying ``loading`` times its rated current at power
+    factor ``pf``: IEEE Std 141 approximation, loading (%R cos(phi) + %X sin(phi))."""
+    r_pct, x_pct = impedance_parts(z_pct, x_r)
+    return loading * (r_pct * pf + x_pct * math.sqrt(max(0.0, 1 - pf * pf)))
 
 
 class TransformerInfo(NamedTuple):
@@ -193,9 +208,8 @@ def transformer_info(source: Source, lines: Lines, primary: Circuit | None, feed
     x_r, row = t_xfmr.typical_x_r(kva, phases)
     load = lines.load
     pf = min(1.0, load.watts / load.va) if load.va > 0 else 1.0
-    r_pct = z / math.hypot(1.0, x_r)
-    x_pct = r_pct * x_r
-    drop = load_amps / sec_fla * (r_pct * pf + x_pct * math.sqrt(max(0.0, 1 - pf * pf)))
+    r_pct, x_pct = impedance_parts(z, x_r)
+    drop = drop_through(load_amps / sec_fla, z, x_r, pf)
     notes.append(f"drop through it {drop:.2f} % at {_a(load_amps)} on its heaviest line, power "
                  f"factor {pf:.2f}: IEEE Std 141 approximation with %R {r_pct:.2f} and %X "
                  f"{x_pct:.2f} from %Z {z:g} and X/R {x_r:g} (assumed, typical of {row:g} kVA "

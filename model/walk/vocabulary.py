@@ -18,7 +18,8 @@ Public API:
 - ``kind_in_name(name)``: the kind of load a run's name says (``Fire pump 1``, ``Taproom
   lights``), for the run card and the walk's check of a motor named as a fire pump;
   ``duty_in_name(name)``: a motor named as an elevator, crane or hoist (not continuous duty);
-  ``unit_load_in_name(name)``: lighting a feeder counts by its length (NEC 220.43).
+  ``unit_load_in_name(name)``: lighting a feeder counts by its length (NEC 220.43), with
+  ``may_count_by_length(name)`` its cheap first look.
 - ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
   ``primary`` only, or on the primary and the secondary (``both``).
 """
@@ -105,11 +106,6 @@ DUTY_NAMES: tuple[tuple[str, str, str], ...] = (
 they name, the article that sizes it; section numbers from memory)."""
 
 
-@lru_cache(maxsize=1)
-def _duty_patterns() -> tuple[tuple[re.Pattern[str], str, str], ...]:
-    return tuple((re.compile(words), what, rule) for words, what, rule in DUTY_NAMES)
-
-
 UNIT_LOAD_NAMES: tuple[tuple[str, str, str], ...] = (
     (r"\btrack[ -]?light", "track lighting",
      "NEC 220.43(B) has a feeder count track lighting at 150 VA for every 2 ft of track"),
@@ -120,19 +116,33 @@ UNIT_LOAD_NAMES: tuple[tuple[str, str, str], ...] = (
 connected: (the words, what they name, the rule; section numbers from memory)."""
 
 
+def may_count_by_length(name: str) -> bool:
+    """A cheap first look for ``unit_load_in_name``: the name holds 'track' or 'window' in any
+    case (most names do not, and are not lowered or searched)."""
+    return "rack" in name or "indow" in name
+
+
 def unit_load_in_name(name: str) -> tuple[str, str] | None:
     """(what it names, the rule) where a load's name reads as lighting a feeder counts by its
     length (``Track lighting, front wall``), or None."""
-    low = name.lower()
-    if "track" not in low and "window" not in low:   # most names: no pattern tried
-        return None
-    return next(((what, rule) for words, what, rule in UNIT_LOAD_NAMES
-                 if re.search(words, low)), None)
+    return _said_in(name, UNIT_LOAD_NAMES) if may_count_by_length(name) else None
 
 
 def duty_in_name(name: str) -> tuple[str, str] | None:
     """(what it names, the article's rule) where a motor's name reads as equipment of a duty
     other than continuous (``Freight elevator 2``, ``Dock hoist``), or None."""
+    return _said_in(name, DUTY_NAMES)
+
+
+@lru_cache(maxsize=None)
+def _compiled(table: tuple[tuple[str, str, str], ...]
+              ) -> tuple[tuple[re.Pattern[str], str, str], ...]:
+    """A table of (words, what, rule) with its words compiled, on first use."""
+    return tuple((re.compile(words), what, rule) for words, what, rule in table)
+
+
+def _said_in(name: str, table: tuple[tuple[str, str, str], ...]) -> tuple[str, str] | None:
+    """(what, rule) of the first row of ``table`` whose words the name holds, or None."""
     low = name.lower()
-    return next(((what, rule) for words, what, rule in _duty_patterns() if words.search(low)),
+    return next(((what, rule) for words, what, rule in _compiled(table) if words.search(low)),
                 None)
