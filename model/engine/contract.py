@@ -8,9 +8,10 @@ that consumes it: the walk file's job computation, the app, the takeoff, the rep
 ``gaugewalk calc --json``. Units are in the field names or comments: [A], [V], [ft], [%], [C].
 """
 
-from dataclasses import asdict, dataclass, field
+from dataclasses import asdict, field
 from typing import Literal, NamedTuple, TypeVar
 
+from gaugewalk.model.engine.record import record
 from gaugewalk.model.engine.vocabulary import (
     LoadKind,
     Material,
@@ -69,7 +70,7 @@ class Equipment(NamedTuple):
     lra_a: float | None = None              # [A] nameplate locked-rotor current, where stated
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class RunSpec:
     """Everything needed to size one run. Defaults are the job defaults gaugewalk ships."""
 
@@ -126,7 +127,7 @@ class RunSpec:
                                            # (NEC 250.30(A)(2), (3), Table 250.102(C)(1))
 
 
-@dataclass(frozen=True)
+@record(frozen=True)
 class RunResult:
     """The answer for one run. ``problems`` are sentences a foreman understands; ``ok`` is
     True when there are none."""

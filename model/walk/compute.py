@@ -35,7 +35,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterable
-from dataclasses import MISSING, dataclass, field, fields
+from dataclasses import MISSING, field, fields
 from operator import itemgetter
 from typing import NamedTuple
 
@@ -43,6 +43,7 @@ from gaugewalk.model.engine.circuits import CircuitError, resolve_circuit
 from gaugewalk.model.engine.collector import collector_held
 from gaugewalk.model.engine.contract import Circuit, RunResult, RunSpec, with_fields
 from gaugewalk.model.engine.loads import UNITS, LoadError, load_amps
+from gaugewalk.model.engine.record import record
 from gaugewalk.model.engine.sizing import evaluate, evaluate_picked
 from gaugewalk.model.engine.sizing.currents import design_current
 from gaugewalk.model.engine.sizing.evaluate import Prepared, finish_prepared, prepared_for
@@ -135,7 +136,7 @@ class FeederInfo(NamedTuple):
     #                                      device is "not less than" (a floor, not a maximum)
 
 
-@dataclass
+@record()
 class JobResult:
     """Everything computed for a walk."""
 

@@ -35,11 +35,12 @@ Public API:
 import cmath
 import math
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass, field
+from dataclasses import field
 from operator import attrgetter
 from typing import NamedTuple
 
 from gaugewalk.model.engine.circuits import SYSTEMS
+from gaugewalk.model.engine.record import record
 from gaugewalk.model.walk.vocabulary import LINE_NAMES, PHASES
 
 _EPS = 1e-9
@@ -167,7 +168,7 @@ def share_on(it: PlaceItem, lines: tuple[int, ...]) -> Sequence[tuple[int, compl
     return out
 
 
-@dataclass
+@record()
 class PlaceOutcome:
     """``placements`` {key: Placement}; ``total`` and ``continuous`` per line [A, phasors];
     ``problems`` as (key, field, sentence)."""

@@ -107,3 +107,31 @@ def test_a_command_run_in_process_gives_the_collector_back_what_it_froze(capsys)
     assert main(["check", str(REPO / "sample_walks" / "warehouse_dc2.toml")]) == 0
     capsys.readouterr()
     assert gc.get_freeze_count() == 0 and gc.isenabled()
+
+
+def test_a_command_process_ending_at_once_leaves_its_output_and_files_whole(tmp_path):
+    # a headless command's process ends with os._exit once its output is flushed (main's
+    # _end_now): every byte of a large output reaches the pipe, the exit status is the
+    # command's, and a file it wrote is complete on disk
+    cli = [sys.executable, "-m", "gaugewalk.tui.cli.main"]
+    sample = str(REPO / "sample_walks" / "warehouse_dc2.toml")
+    done = subprocess.run([*cli, "check", "--json", sample], capture_output=True, text=True,
+                          timeout=120)
+    assert done.returncode == 0, done.stderr
+    assert len(done.stdout) > 100_000   # bigger than any pipe's buffer
+    assert json.loads(done.stdout)["summary"]["runs"] == 385
+    walk = tmp_path / "w.toml"
+    steps = [["new", str(walk), "--name", "Quick exit"],
+             ["source", str(walk), "MSB", "--kind", "service", "--system", "208Y/120V 3ph 4w"],
+             ["add", str(walk), "--id", "R1", "--from", "MSB", "--to", "Bench lights",
+              "--length", "60", "--amps", "12"]]
+    for step in steps:
+        ran = subprocess.run([*cli, *step], capture_output=True, text=True, timeout=120)
+        assert ran.returncode == 0, (step, ran.stdout, ran.stderr)
+    checked = subprocess.run([*cli, "check", "--json", str(walk)], capture_output=True,
+                             text=True, timeout=120)
+    assert checked.returncode == 0, checked.stderr
+    assert [r["id"] for r in json.loads(checked.stdout)["runs"]] == ["R1"]
+    bad = subprocess.run([*cli, "check", str(tmp_path / "missing.toml")], capture_output=True,
+                         text=True, timeout=120)
+    assert bad.returncode == 2 and "missing.toml" in bad.stderr
