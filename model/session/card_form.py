@@ -710,11 +710,14 @@ def _check_rooftop(r: _Reading) -> None:
 
 
 def _check_continuous(r: _Reading) -> None:
-    """Yes or no; the hint says what the load's kind makes it (the walk refuses what its
-    article does not allow, at this field)."""
+    """Yes or no; left blank, what the load's kind makes it (``Run.continuous`` None: an EV
+    charger continuous by NEC 625.42, a general load not). The hint says what the kind makes
+    it (the walk refuses what its article does not allow, at this field)."""
     _check_yes_no("continuous", "continuous")(r)
     if "continuous" in r.errors:
         return
+    if not r.v["continuous"].strip():
+        r.got["continuous"] = None
     from gaugewalk.model.engine.sizing.kinds import kind_continuous
 
     load = r.got.get("load")

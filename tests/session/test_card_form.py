@@ -509,6 +509,21 @@ def test_a_stored_run_given_another_kind_takes_that_kinds_continuous(session):
     assert edit.type("kind", "motor") == {} and edit.values["continuous"] == "yes"
 
 
+def test_a_blank_continuous_is_what_the_kind_makes_it(session):
+    # the field emptied on an EV charger's card: the run takes NEC 625.42's continuous load
+    # (125 % of 32 A = 40 A design, a 40 A device by 210.20(A)), not a "no" its article refuses
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="EV charger 1", length="90", load="32A 208V", kind="ev",
+                     continuous="").check()
+    assert checked.errors == {}
+    assert checked.run.continuous is None and checked.run.load.kind == "ev-charger"
+    assert (checked.result.design_amps, checked.result.ocpd_a) == (40.0, 40)
+    general = _typed(form, to="Bench", length="40", load="12A", kind="", circuit="LN",
+                     continuous=" ").check()
+    assert general.errors == {} and general.result.design_amps == 12.0   # not continuous
+
+
 @pytest.mark.parametrize("texts, key, reason", [
     ({"kind": "blender", "load": "5A"}, "kind", "one of general, motor"),
     ({"kind": "h", "load": "5A"}, "kind", "'h' starts hvac and heater; one of general"),
