@@ -59,10 +59,14 @@ from gaugewalk.model.walk.checks import (
 )
 from gaugewalk.model.walk.demand import DemandStep, apply_demand
 from gaugewalk.model.walk.equipment import (
+    is_sign_outlet,
     load_facts,
     named_duty_motor,
+    named_refrigerant_motor,
+    named_sign,
     named_unit_load,
     pf_assumed,
+    sign_outlet_device,
 )
 from gaugewalk.model.walk.feeder_loads import (
     SQRT3,
@@ -110,7 +114,7 @@ from gaugewalk.model.walk.ratings import (
 )
 from gaugewalk.model.walk.starting import StartDip, start_dip
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
-from gaugewalk.model.walk.vocabulary import LINE_NAMES, may_count_by_length
+from gaugewalk.model.walk.vocabulary import LINE_NAMES, may_be_sign, may_count_by_length
 
 _EPS = 1e-9
 _GONE = object()
@@ -286,7 +290,10 @@ def size_run_spec(job: Job, run: Run, upstream_drop_pct: float,
     is_feeder = job.source(run.to) is not None
     rule = state.feeder_rule(run, is_feeder)
     spec = run_spec_for(job, run, upstream_drop_pct, result=state.result, is_feeder=is_feeder)
-    return _with_rule(evaluate(spec), rule), spec
+    sized = _with_rule(evaluate(spec), rule)
+    if not is_feeder:   # what its name says, as the walk's computation adds it
+        sized = state.name_words(run, sized, spec.circuit)
+    return sized, spec
 
 
 def _state_for(job: Job, result: JobResult | None) -> WalkState:
@@ -444,6 +451,9 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
     values["sets"] = rf["sets"]
     values["size"] = rf["size"]
     values["ocpd_a"] = rf["ocpd_a"]
+    if not feeder and load is not None and may_be_sign(rf["to"]):   # NEC 600.5(A)
+        values["ocpd_a"] = sign_outlet_device(run, design_current(
+            amps, amps if values["continuous"] else 0.0)) or rf["ocpd_a"]
     values["max_drop_pct"] = max_drop
     values["upstream_drop_pct"] = upstream_drop_pct
     values["equipment"] = equipment
@@ -545,7 +555,8 @@ class WalkState:
         if ld["kind"] != "general":   # its kind's reading takes more of the run
             res._own[rid] = own_load(run, c, self.job.defaults.pf)
             return c
-        alike = (key, ld["value"], ld["unit"], ld["pf"], rf["continuous"])
+        alike = (key, ld["value"], ld["unit"], ld["pf"], rf["continuous"],
+                 may_be_sign(rf["to"]) and is_sign_outlet(run))   # a sign's 220.14(F)
         own = self._own_cache.get(alike, _GONE)
         if own is _GONE:
             own = self._own_cache[alike] = own_load(run, c, self.job.defaults.pf)
@@ -757,8 +768,10 @@ class WalkState:
                 self.fail(r, str(exc))
                 return
             kind = result.load_kind
-            if kind == "motor" or kind == "fire-pump" or may_count_by_length(rf["to"]):
-                result = self.name_words(r, result)
+            to = rf["to"]
+            if (kind == "motor" or kind == "fire-pump" or may_count_by_length(to)
+                    or may_be_sign(to)):
+                result = self.name_words(r, result, circuit)
             res._specs[rid] = spec
             res._passed[rid] = passed
             self.store(r, result, False, spec)
@@ -835,7 +848,7 @@ class WalkState:
             result = with_fields(result, problems=result.problems + (
                 _left_out_problem(r.to, res.left_out[r.to]),))
         if not is_feeder:   # what its name says, as for a branch above
-            result = self.name_words(r, result)
+            result = self.name_words(r, result, circuit)
         res._specs[r.id] = spec
         res._passed[r.id] = passed
         if is_feeder:
@@ -856,7 +869,7 @@ class WalkState:
         rf = r.__dict__
         load = rf["load"]
         key = (circuit, None if load is None else tuple(load.__dict__.values()),
-               _spec_inputs(rf))
+               _spec_inputs(rf), may_be_sign(rf["to"]) and is_sign_outlet(r))   # 600.5(A)
         alike = self.branch_specs.get(key)
         if alike is None:
             spec = _spec(self.spec_base, self.job, r, upstream, circuit, False, None)
@@ -905,22 +918,28 @@ class WalkState:
                               ocpd_430_63_a=floor)
         return FeederInfo(words, spec.amps, spec.amps, line, beside, limit, ocpd_430_63_a=floor)
 
-    def name_words(self, r: Run, result: RunResult) -> RunResult:
+    def name_words(self, r: Run, result: RunResult, circuit: Circuit) -> RunResult:
         """A branch run with what its name says beside its kind: a fire pump's or motor's
-        (``motor_words``), or lighting a feeder counts by its length (NEC 220.43,
-        ``equipment.named_unit_load``)."""
+        (``motor_words``), lighting a feeder counts by its length (NEC 220.43,
+        ``equipment.named_unit_load``), or a sign (NEC 600.5, 220.14(F),
+        ``equipment.named_sign``; its own load on ``circuit`` in VA)."""
         if result.load_kind in MOTOR_KINDS:
             return self.motor_words(r, result)
-        unit = named_unit_load(r)
-        if unit is None:
+        said = named_unit_load(r)
+        if said is None and may_be_sign(r.to):
+            said = named_sign(r, result.ocpd_a, result.amps * circuit.line_volts
+                              * (SQRT3 if circuit.phases == 3 else 1.0))
+        if said is None:
             return result
-        return with_fields(result, notes=result.notes + (unit,))
+        return with_fields(result, notes=result.notes + (said,))
 
     def motor_words(self, r: Run, result: RunResult) -> RunResult:
         """A fire pump's run with what the walk shows of its supply (NEC 695.3, 230.82(5),
         695.5); a motor named as a fire pump with its problem, one named as an elevator, crane
-        or hoist with the note that it was sized as continuous duty
-        (``gaugewalk.model.walk.fire_pumps``, ``equipment.named_duty_motor``)."""
+        or hoist with the note that it was sized as continuous duty, one named as a refrigerant
+        motor-compressor with the note that Article 440 takes its nameplate
+        (``gaugewalk.model.walk.fire_pumps``, ``equipment.named_duty_motor``,
+        ``equipment.named_refrigerant_motor``)."""
         if result.load_kind == "fire-pump":
             if self.walk is None:
                 return result
@@ -928,10 +947,11 @@ class WalkState:
         problem = named_fire_pump(r)
         if problem is not None:
             return with_fields(result, problems=result.problems + (problem,))
-        duty = named_duty_motor(r)   # an elevator, crane or hoist: an assumption, said
-        if duty is None:
+        # an elevator, crane or hoist; a refrigerant motor-compressor: assumptions, said
+        said = tuple(n for n in (named_duty_motor(r), named_refrigerant_motor(r)) if n)
+        if not said:
             return result
-        return with_fields(result, notes=result.notes + (duty,))
+        return with_fields(result, notes=result.notes + said)
 
     def forget(self, r: Run) -> None:
         res = self.result

@@ -17,7 +17,13 @@ Public API:
   nameplate too: ``25 hp motor, dual-element fuse``): a load in words for every face.
 - ``named_duty_motor(run) -> str | None``: the note of a motor named as an elevator, crane or
   hoist, sized as continuous duty (NEC 430.22(E), 610.14, 620.13); ``named_unit_load(run)``:
-  that of track or show-window lighting, counted as given (NEC 220.43).
+  that of track or show-window lighting, counted as given (NEC 220.43);
+  ``named_refrigerant_motor(run)``: a motor in horsepower named as a refrigerant
+  motor-compressor, sized by Article 430 where Article 440 takes its nameplate.
+- Signs (``is_sign_outlet``: a general or lighting load named as a sign): taken as the outlet
+  NEC 600.5(A) requires, at ``SIGN_CIRCUIT_A`` where the run gives no device
+  (``sign_outlet_device``), counted in its panel at no less than ``SIGN_OUTLET_VA``
+  (``sign_outlet_va``, 220.14(F)), the assumption said (``named_sign``).
 - ``run_kind_load(run, circuit, default_pf) -> KindLoad | None``: for a feeder's rules (NEC
   430.24, 430.62, 440.33, 630.11(B)): the kind, whether it is a motor, its running current,
   the current its branch is sized from (motor FLC, HVAC MCA, welder 630.11(A) current), and its
@@ -46,7 +52,12 @@ from gaugewalk.model.engine.sizing.kinds import (
 )
 from gaugewalk.model.engine.vocabulary import MOTOR_DEVICES, MOTOR_KINDS
 from gaugewalk.model.walk.job import Load, Run
-from gaugewalk.model.walk.vocabulary import duty_in_name, unit_load_in_name
+from gaugewalk.model.walk.vocabulary import (
+    duty_in_name,
+    refrigerant_in_name,
+    sign_in_name,
+    unit_load_in_name,
+)
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 HVAC_RLA_FACTOR = 1.25
@@ -234,6 +245,81 @@ def named_duty_motor(run: Run) -> str | None:
             f"125 % of the table current); {rule} (430.22(E), Table 430.22(E): up to 140 % of "
             "the nameplate current for intermittent duty, 200 % for varying duty; from memory): "
             "confirm the conductors with its duty rating and nameplate")
+
+
+def named_refrigerant_motor(run: Run) -> str | None:
+    """The stated assumption of a motor given by its horsepower whose name reads as a
+    refrigerant motor-compressor (``vocabulary.refrigerant_in_name``): sized by the Article 430
+    tables, where Article 440 takes its nameplate; or None."""
+    load = run.load
+    if load is None or load.kind != "motor" or not refrigerant_in_name(run.to):
+        return None
+    return (f"'{run.to}' reads as a refrigerant motor-compressor: sized here as a motor of its "
+            "horsepower (the Article 430 tables); NEC Article 440 sizes a hermetic "
+            "motor-compressor from its nameplate's rated-load or branch-circuit selection "
+            "current (440.6(A)) and the equipment's minimum circuit ampacity and maximum "
+            "overcurrent device (440.4(B), 440.22): give those as an HVAC load where it is one, "
+            "so its device stays within the nameplate maximum (from memory)")
+
+
+SIGN_CIRCUIT_A = 20
+"""[A] NEC 600.5(A): each commercial building and occupancy open to pedestrians has an outlet
+for a sign or outline lighting at the entrance of each tenant space, on a branch circuit rated
+at least 20 A that supplies no other load; 600.5(B)(1): a branch circuit supplying signs of
+incandescent, fluorescent or LED lamps is rated at most 20 A (600.5(B)(2): 30 A for neon tubing
+alone). Section numbers and figures from memory."""
+SIGN_OUTLET_VA = 1200.0
+"""[VA] NEC 220.14(F): a sign or outline lighting outlet counts at no less than 1,200 VA for each
+branch circuit 600.5(A) requires (from memory)."""
+_SIGN_KINDS = ("general", "lighting")
+"""The load kinds a sign is given as; a run of another kind named as a sign keeps its kind's
+rules."""
+
+
+def is_sign_outlet(run: Run) -> bool:
+    """Whether the run's load is a sign or outline lighting by its name
+    (``vocabulary.sign_in_name``), taken as the outlet NEC 600.5(A) requires: an assumption its
+    note states (``named_sign``)."""
+    load = run.load
+    return load is not None and load.kind in _SIGN_KINDS and sign_in_name(run.to)
+
+
+def sign_outlet_device(run: Run, design_a: float) -> int | None:
+    """The device a sign's branch circuit is taken at, ``SIGN_CIRCUIT_A`` (NEC 600.5(A)), where
+    the run gives none of its own and its design current [A] fits a circuit of that rating; else
+    None (the device is picked as for any load, and ``named_sign`` says what 600.5(B) allows)."""
+    if run.ocpd_a is not None or design_a > SIGN_CIRCUIT_A or not is_sign_outlet(run):
+        return None
+    return SIGN_CIRCUIT_A
+
+
+def sign_outlet_va(run: Run, va: float) -> float:
+    """What a sign's run adds to its panel's load [VA]: its own, and no less than
+    ``SIGN_OUTLET_VA`` (NEC 220.14(F))."""
+    return max(va, SIGN_OUTLET_VA) if is_sign_outlet(run) else va
+
+
+def named_sign(run: Run, ocpd_a: int, va: float) -> str | None:
+    """The stated assumption of a run named as a sign (``is_sign_outlet``), given the device
+    [A] it was sized with and its own load [VA]; or None."""
+    if not is_sign_outlet(run):
+        return None
+    counted = (f"; its panel counts it at {SIGN_OUTLET_VA:,.0f} VA, not its {va:,.0f} VA "
+               "(NEC 220.14(F))" if va < SIGN_OUTLET_VA else "")
+    if ocpd_a > SIGN_CIRCUIT_A:
+        return (f"'{run.to}' reads as a sign: NEC 600.5(B) rates a branch circuit supplying "
+                f"signs at no more than {SIGN_CIRCUIT_A} A (30 A for neon tubing alone), and "
+                f"this load takes a {ocpd_a} A device: split it, or confirm it is neon "
+                f"(from memory){counted}")
+    if ocpd_a < SIGN_CIRCUIT_A:
+        return (f"'{run.to}' reads as a sign: if it is the outlet NEC 600.5(A) requires at a "
+                f"tenant entrance, its branch circuit is rated at least {SIGN_CIRCUIT_A} A, not "
+                f"the {ocpd_a} A given, and supplies no other load (from memory){counted}")
+    other = ("" if run.ocpd_a is not None
+             else "; give the run its own device where it is another sign")
+    return (f"'{run.to}' reads as a sign: taken as the outlet NEC 600.5(A) requires at a tenant "
+            f"entrance, on a branch circuit of at least {SIGN_CIRCUIT_A} A that supplies no "
+            f"other load (from memory){counted}{other}")
 
 
 def named_unit_load(run: Run) -> str | None:

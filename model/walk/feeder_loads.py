@@ -57,7 +57,7 @@ from typing import NamedTuple
 from gaugewalk.model.engine.circuits import SYSTEMS
 from gaugewalk.model.engine.contract import Circuit
 from gaugewalk.model.engine.loads import UNITS, LoadError
-from gaugewalk.model.walk.equipment import feeder_share
+from gaugewalk.model.walk.equipment import feeder_share, sign_outlet_va
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Run, Source
 from gaugewalk.model.walk.phases import (
@@ -139,7 +139,8 @@ def own_load(run: Run, circuit: Circuit, default_pf: float) -> OwnLoad | None:
     cannot be read on the circuit: the run itself says why). A line-to-line load with a neutral
     (``LLN``) is taken between its two lines (its neutral current, from any 120 V parts, is not
     known). A load of a kind other than general is read by
-    ``gaugewalk.model.walk.equipment.feeder_share``."""
+    ``gaugewalk.model.walk.equipment.feeder_share``; a sign counts no less than 1,200 VA
+    (``equipment.sign_outlet_va``, NEC 220.14(F))."""
     load = run.load
     if load is None:
         return None
@@ -155,6 +156,10 @@ def own_load(run: Run, circuit: Circuit, default_pf: float) -> OwnLoad | None:
         pf = load.pf if load.pf is not None else default_pf
         va = va_of(load.value, load.unit, circuit, pf)
         watts = va * pf
+    counted = sign_outlet_va(run, va)   # a sign: no less than 1,200 VA, NEC 220.14(F)
+    if counted != va:
+        watts *= counted / va
+        va = counted
     amps = va / (circuit.line_volts * (SQRT3 if circuit.phases == 3 else 1.0))
     phasor = cmath.rect(amps, -math.acos(min(1.0, pf)))
     ll = circuit.hots == 2 and circuit.phases == 1 and circuit.drop_factor == 2.0

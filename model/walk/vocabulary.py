@@ -19,7 +19,9 @@ Public API:
   lights``), for the run card and the walk's check of a motor named as a fire pump;
   ``duty_in_name(name)``: a motor named as an elevator, crane or hoist (not continuous duty);
   ``unit_load_in_name(name)``: lighting a feeder counts by its length (NEC 220.43), with
-  ``may_count_by_length(name)`` its cheap first look.
+  ``may_count_by_length(name)`` its cheap first look; ``sign_in_name(name)``: a sign or outline
+  lighting (NEC Article 600; not an exit sign), with ``may_be_sign(name)`` its cheap first look;
+  ``refrigerant_in_name(name)``: a motor named as a refrigerant motor-compressor (Article 440).
 - ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
   ``primary`` only, or on the primary and the secondary (``both``).
 """
@@ -106,6 +108,20 @@ DUTY_NAMES: tuple[tuple[str, str, str], ...] = (
 they name, the article that sizes it; section numbers from memory)."""
 
 
+_REFRIGERANT_WORDS = re.compile(
+    r"\bcondensing units?\b|\brefrigerat|\bwalk-?in (?:cooler|freezer)s?\b|\bice machines?\b"
+    r"|\bchillers?\b|\b(?:cooler|freezer|refrigerant|reach-?in)s? compressors?\b")
+_NOT_REFRIGERANT = re.compile(r"\bair compressors?\b|\bcompressed air\b")
+"""A motor's name that reads as a refrigerant motor-compressor or the equipment around one
+(``Walk-in cooler compressor``, ``Condensing unit CU-2``), not an air compressor."""
+
+
+def refrigerant_in_name(name: str) -> bool:
+    """Whether a motor's name reads as a refrigerant motor-compressor (NEC Article 440)."""
+    low = name.lower()
+    return _REFRIGERANT_WORDS.search(low) is not None and _NOT_REFRIGERANT.search(low) is None
+
+
 UNIT_LOAD_NAMES: tuple[tuple[str, str, str], ...] = (
     (r"\btrack[ -]?light", "track lighting",
      "NEC 220.43(B) has a feeder count track lighting at 150 VA for every 2 ft of track"),
@@ -126,6 +142,27 @@ def unit_load_in_name(name: str) -> tuple[str, str] | None:
     """(what it names, the rule) where a load's name reads as lighting a feeder counts by its
     length (``Track lighting, front wall``), or None."""
     return _said_in(name, UNIT_LOAD_NAMES) if may_count_by_length(name) else None
+
+
+_SIGN_WORDS = re.compile(r"\bsigns?\b|\bsignage\b|\boutline lighting\b")
+_NOT_A_SIGN_OUTLET = re.compile(r"\bexit\b|\begress\b|\bemergency\b|\bsign[ -]in\b")
+"""A sign or outline lighting in a load's name (``Blade sign over entrance``, ``Tenant A
+signage``), and the words that make it a sign of another article (exit signs: egress lighting,
+NEC 700; a sign-in desk)."""
+
+
+def may_be_sign(name: str) -> bool:
+    """A cheap first look for ``sign_in_name``: the name holds 'ign', 'IGN' or 'utline'."""
+    return "ign" in name or "IGN" in name or "utline" in name
+
+
+def sign_in_name(name: str) -> bool:
+    """Whether a load's name reads as a sign or outline lighting (NEC Article 600), not an exit
+    or emergency sign."""
+    if not may_be_sign(name):
+        return False
+    low = name.lower()
+    return _SIGN_WORDS.search(low) is not None and _NOT_A_SIGN_OUTLET.search(low) is None
 
 
 def duty_in_name(name: str) -> tuple[str, str] | None:

@@ -297,3 +297,22 @@ def test_a_motor_named_as_an_elevator_or_hoist_says_it_was_sized_as_continuous_d
     # a plain motor's name says nothing of the kind
     plain = compute_job(_motors_job(_motor("M1", 25))).runs["M1"]
     assert not any("reads as" in n for n in plain.notes)
+
+
+@pytest.mark.parametrize(("name", "said"), [
+    ("Walk-in cooler compressor", True), ("Condensing unit CU-2", True), ("Ice machine", True),
+    ("Shop air compressor", False), ("Exhaust fan 3", False)])
+def test_a_motor_named_as_a_refrigerant_compressor_says_article_440_takes_its_nameplate(name,
+                                                                                       said):
+    # NEC 440.6(A), 440.4(B), 440.22 (from memory): a hermetic refrigerant motor-compressor is
+    # sized from its nameplate (rated-load or branch-circuit selection current, the equipment's
+    # MCA and maximum device), not the horsepower tables; given in hp, the walk's sizing by
+    # Table 430.250 is a stated assumption
+    job = _motors_job(run_table("M1", "MCC", name, "40", load={"value": 5, "unit": "hp"},
+                                connection="3P"))
+    m1 = compute_job(job).runs["M1"]
+    notes = [n for n in m1.notes if "refrigerant motor-compressor" in n]
+    assert bool(notes) is said
+    if said:
+        assert notes[0].startswith(f"'{name}' reads as") and "440.6(A)" in notes[0]
+    assert m1.design_amps == pytest.approx(1.25 * 7.6)   # NEC 2023 Table 430.250, 460 V, 5 hp
