@@ -63,6 +63,7 @@ from gaugewalk.model.walk.equipment import (
     load_facts,
     named_duty_motor,
     named_refrigerant_motor,
+    named_roof_run,
     named_sign,
     named_unit_load,
     pf_assumed,
@@ -114,7 +115,12 @@ from gaugewalk.model.walk.ratings import (
 )
 from gaugewalk.model.walk.starting import StartDip, start_dip
 from gaugewalk.model.walk.transformers import TransformerInfo, secondary_rule, transformer_info
-from gaugewalk.model.walk.vocabulary import LINE_NAMES, may_be_sign, may_count_by_length
+from gaugewalk.model.walk.vocabulary import (
+    LINE_NAMES,
+    may_be_on_roof,
+    may_be_sign,
+    may_count_by_length,
+)
 
 _EPS = 1e-9
 _GONE = object()
@@ -770,7 +776,7 @@ class WalkState:
             kind = result.load_kind
             to = rf["to"]
             if (kind == "motor" or kind == "fire-pump" or may_count_by_length(to)
-                    or may_be_sign(to)):
+                    or may_be_sign(to) or may_be_on_roof(to)):
                 result = self.name_words(r, result, circuit)
             res._specs[rid] = spec
             res._passed[rid] = passed
@@ -922,16 +928,22 @@ class WalkState:
         """A branch run with what its name says beside its kind: a fire pump's or motor's
         (``motor_words``), lighting a feeder counts by its length (NEC 220.43,
         ``equipment.named_unit_load``), or a sign (NEC 600.5, 220.14(F),
-        ``equipment.named_sign``; its own load on ``circuit`` in VA)."""
+        ``equipment.named_sign``; its own load on ``circuit`` in VA); and equipment on a roof
+        the walk does not mark rooftop (NEC 310.15(B)(2), ``equipment.named_roof_run``)."""
         if result.load_kind in MOTOR_KINDS:
-            return self.motor_words(r, result)
-        said = named_unit_load(r)
-        if said is None and may_be_sign(r.to):
-            said = named_sign(r, result.ocpd_a, result.amps * circuit.line_volts
-                              * (SQRT3 if circuit.phases == 3 else 1.0))
-        if said is None:
-            return result
-        return with_fields(result, notes=result.notes + (said,))
+            result = self.motor_words(r, result)
+        else:
+            said = named_unit_load(r)
+            if said is None and may_be_sign(r.to):
+                said = named_sign(r, result.ocpd_a, result.amps * circuit.line_volts
+                                  * (SQRT3 if circuit.phases == 3 else 1.0))
+            if said is not None:
+                result = with_fields(result, notes=result.notes + (said,))
+        if may_be_on_roof(r.to):
+            roof = named_roof_run(r, self.job.effective(r, "insulation"))
+            if roof is not None:
+                result = with_fields(result, notes=result.notes + (roof,))
+        return result
 
     def motor_words(self, r: Run, result: RunResult) -> RunResult:
         """A fire pump's run with what the walk shows of its supply (NEC 695.3, 230.82(5),

@@ -19,7 +19,9 @@ Public API:
   hoist, sized as continuous duty (NEC 430.22(E), 610.14, 620.13); ``named_unit_load(run)``:
   that of track or show-window lighting, counted as given (NEC 220.43);
   ``named_refrigerant_motor(run)``: a motor in horsepower named as a refrigerant
-  motor-compressor, sized by Article 430 where Article 440 takes its nameplate.
+  motor-compressor, sized by Article 430 where Article 440 takes its nameplate;
+  ``named_roof_run(run, insulation)``: a run to equipment named as on a roof, not marked
+  rooftop (NEC 310.15(B)(2) not taken).
 - Signs (``is_sign_outlet``: a general or lighting load named as a sign): taken as the outlet
   NEC 600.5(A) requires, at ``SIGN_CIRCUIT_A`` where the run gives no device
   (``sign_outlet_device``), counted in its panel at no less than ``SIGN_OUTLET_VA``
@@ -55,9 +57,11 @@ from gaugewalk.model.walk.job import Load, Run
 from gaugewalk.model.walk.vocabulary import (
     duty_in_name,
     refrigerant_in_name,
+    roof_in_name,
     sign_in_name,
     unit_load_in_name,
 )
+from gaugewalk.tables.conductor.ampacity import ROOFTOP_ADDER_C, rooftop_excepted
 from gaugewalk.tables.equipment.horsepower import hp_text
 
 HVAC_RLA_FACTOR = 1.25
@@ -260,6 +264,19 @@ def named_refrigerant_motor(run: Run) -> str | None:
             "current (440.6(A)) and the equipment's minimum circuit ampacity and maximum "
             "overcurrent device (440.4(B), 440.22): give those as an HVAC load where it is one, "
             "so its device stays within the nameplate maximum (from memory)")
+
+
+def named_roof_run(run: Run, insulation: str) -> str | None:
+    """The stated assumption of a run to equipment whose name reads as on a roof
+    (``vocabulary.roof_in_name``) that the walk does not mark ``rooftop``: its raceway was taken
+    off the roof's sunlit surface, without NEC 310.15(B)(2)'s adder; or None (marked, or its
+    ``insulation``, the run's own or the job's, is excepted from the adder)."""
+    if run.rooftop or rooftop_excepted(insulation) or not roof_in_name(run.to):
+        return None
+    return (f"'{run.to}' reads as equipment on a roof: its raceway is taken as not run in "
+            f"sunlight less than 7/8 in above the roof; where it is, NEC 310.15(B)(2) adds "
+            f"{ROOFTOP_ADDER_C} C to the ambient, which can take a larger size: mark the run "
+            "rooftop")
 
 
 SIGN_CIRCUIT_A = 20

@@ -21,7 +21,8 @@ Public API:
   ``unit_load_in_name(name)``: lighting a feeder counts by its length (NEC 220.43), with
   ``may_count_by_length(name)`` its cheap first look; ``sign_in_name(name)``: a sign or outline
   lighting (NEC Article 600; not an exit sign), with ``may_be_sign(name)`` its cheap first look;
-  ``refrigerant_in_name(name)``: a motor named as a refrigerant motor-compressor (Article 440).
+  ``refrigerant_in_name(name)``: a motor named as a refrigerant motor-compressor (Article 440);
+  ``roof_in_name(name)``: equipment on a roof, with ``may_be_on_roof(name)`` its cheap first look.
 - ``Protection``, ``PROTECTIONS``: a transformer's protection by NEC Table 450.3(B): on the
   ``primary`` only, or on the primary and the secondary (``both``).
 """
@@ -106,6 +107,20 @@ DUTY_NAMES: tuple[tuple[str, str, str], ...] = (
 )
 """Words of a motor's name that say it is not continuous duty (NEC 430.22(E)): (the words, what
 they name, the article that sizes it; section numbers from memory)."""
+
+
+_ROOF_WORDS = re.compile(r"\broof|\brtu\b|\brtu-?\d")
+"""Equipment on a roof in a load's name (``RTU-1 rooftop unit``, ``Roof exhaust fan 2``)."""
+
+
+def may_be_on_roof(name: str) -> bool:
+    """A cheap first look for ``roof_in_name``: the name holds 'oof', 'OOF', 'RTU' or 'rtu'."""
+    return "oof" in name or "OOF" in name or "RTU" in name or "rtu" in name
+
+
+def roof_in_name(name: str) -> bool:
+    """Whether a load's name reads as equipment on a roof (its run may cross the roof)."""
+    return may_be_on_roof(name) and _ROOF_WORDS.search(name.lower()) is not None
 
 
 _REFRIGERANT_WORDS = re.compile(
