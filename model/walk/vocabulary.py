@@ -109,8 +109,10 @@ DUTY_NAMES: tuple[tuple[str, str, str], ...] = (
 they name, the article that sizes it; section numbers from memory)."""
 
 
-_ROOF_WORDS = re.compile(r"\broof|\brtu\b|\brtu-?\d")
-"""Equipment on a roof in a load's name (``RTU-1 rooftop unit``, ``Roof exhaust fan 2``)."""
+def _words(name: str) -> list[str]:
+    """The words of a name, lowered, split at every character that is not a letter or a digit
+    (no regular expression: their compiler is Python code, run when a pattern is first made)."""
+    return "".join(c if c.isalnum() else " " for c in name.lower()).split()
 
 
 def may_be_on_roof(name: str) -> bool:
@@ -119,22 +121,39 @@ def may_be_on_roof(name: str) -> bool:
 
 
 def roof_in_name(name: str) -> bool:
-    """Whether a load's name reads as equipment on a roof (its run may cross the roof)."""
-    return may_be_on_roof(name) and _ROOF_WORDS.search(name.lower()) is not None
+    """Whether a load's name reads as equipment on a roof, its run perhaps across the roof
+    (``RTU-1 rooftop unit``, ``Roof exhaust fan 2``, ``RTU3``)."""
+    if not may_be_on_roof(name):
+        return False
+    return any(w.startswith("roof") or w in ("rtu", "rtus")
+               or (w.startswith("rtu") and w[3:].isdigit()) for w in _words(name))
 
 
-_REFRIGERANT_WORDS = re.compile(
-    r"\bcondensing units?\b|\brefrigerat|\bwalk-?in (?:cooler|freezer)s?\b|\bice machines?\b"
-    r"|\bchillers?\b|\b(?:cooler|freezer|refrigerant|reach-?in)s? compressors?\b")
-_NOT_REFRIGERANT = re.compile(r"\bair compressors?\b|\bcompressed air\b")
-"""A motor's name that reads as a refrigerant motor-compressor or the equipment around one
-(``Walk-in cooler compressor``, ``Condensing unit CU-2``), not an air compressor."""
+_REFRIGERANT_PAIRS = frozenset({("condensing", "unit"), ("condensing", "units"),
+                                 ("ice", "machine"), ("ice", "machines"), ("in", "cooler"),
+                                 ("in", "freezer"), ("walkin", "cooler"),
+                                 ("walkin", "freezer")})
+_COMPRESSED = frozenset({"cooler", "coolers", "freezer", "freezers", "refrigerant", "reach",
+                         "in"})
+"""Words of a motor's name that read as a refrigerant motor-compressor or the equipment around
+one: a pair in a row (``Condensing unit CU-2``, ``Walk-in cooler``), a chiller or refrigeration,
+or a compressor after one of ``_COMPRESSED`` (``Freezer compressor``); never an air
+compressor."""
 
 
 def refrigerant_in_name(name: str) -> bool:
-    """Whether a motor's name reads as a refrigerant motor-compressor (NEC Article 440)."""
-    low = name.lower()
-    return _REFRIGERANT_WORDS.search(low) is not None and _NOT_REFRIGERANT.search(low) is None
+    """Whether a motor's name reads as a refrigerant motor-compressor (NEC Article 440), not an
+    air compressor."""
+    words = _words(name)
+    if "air" in words:   # an air compressor, compressed air
+        return False
+    for i, w in enumerate(words):
+        if w.startswith(("refrigerat", "chiller")):
+            return True
+        if i and ((words[i - 1], w) in _REFRIGERANT_PAIRS
+                  or (w.startswith("compressor") and words[i - 1] in _COMPRESSED)):
+            return True
+    return False
 
 
 UNIT_LOAD_NAMES: tuple[tuple[str, str, str], ...] = (
@@ -159,11 +178,8 @@ def unit_load_in_name(name: str) -> tuple[str, str] | None:
     return _said_in(name, UNIT_LOAD_NAMES) if may_count_by_length(name) else None
 
 
-_SIGN_WORDS = re.compile(r"\bsigns?\b|\bsignage\b|\boutline lighting\b")
-_NOT_A_SIGN_OUTLET = re.compile(r"\bexit\b|\begress\b|\bemergency\b|\bsign[ -]in\b")
-"""A sign or outline lighting in a load's name (``Blade sign over entrance``, ``Tenant A
-signage``), and the words that make it a sign of another article (exit signs: egress lighting,
-NEC 700; a sign-in desk)."""
+_NOT_A_SIGN_OUTLET = frozenset({"exit", "egress", "emergency"})
+"""Words that make a sign one of another article (exit signs: egress lighting, NEC 700)."""
 
 
 def may_be_sign(name: str) -> bool:
@@ -172,12 +188,21 @@ def may_be_sign(name: str) -> bool:
 
 
 def sign_in_name(name: str) -> bool:
-    """Whether a load's name reads as a sign or outline lighting (NEC Article 600), not an exit
-    or emergency sign."""
+    """Whether a load's name reads as a sign or outline lighting (NEC Article 600: ``Blade sign
+    over entrance``, ``Storefront signage``, ``Outline lighting, parapet``), not an exit or
+    emergency sign, nor a sign-in desk."""
     if not may_be_sign(name):
         return False
-    low = name.lower()
-    return _SIGN_WORDS.search(low) is not None and _NOT_A_SIGN_OUTLET.search(low) is None
+    words = _words(name)
+    if _NOT_A_SIGN_OUTLET.intersection(words):
+        return False
+    for i, w in enumerate(words):
+        if w in ("sign", "signs", "signage") and not (
+                w == "sign" and i + 1 < len(words) and words[i + 1] == "in"):
+            return True
+        if w == "outline" and i + 1 < len(words) and words[i + 1] == "lighting":
+            return True
+    return False
 
 
 def duty_in_name(name: str) -> tuple[str, str] | None:

@@ -15,6 +15,7 @@ W480 = "480Y/277V 3ph 4w"
 
 @pytest.mark.parametrize(("name", "on_roof"), [
     ("RTU-1 rooftop unit", True), ("Roof exhaust fan EF-2", True), ("RTU3", True),
+    ("RTU", True),
     ("Office rooftop unit", True), ("Proofing oven", False), ("Dock door 3", False),
     ("Virtual desk", False)])
 def test_names_that_read_as_on_a_roof(name, on_roof):
