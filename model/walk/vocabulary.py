@@ -78,11 +78,12 @@ _NAME_KINDS: tuple[tuple[str, LoadKind], ...] = (
     (r"\bwater[ -]?heaters?\b", "water-heater"),
     (r"\bheaters?\b", "heater"),
     (r"\bev[ -]?chargers?\b|\bevse\b|\bev charging\b", "ev-charger"),
-    (r"\blights?\b|\blighting\b|\bluminaires?\b", "lighting"),
+    (r"\blights?\b|\blighting\b|\bluminaires?\b|\bsigns?\b(?![ -]in\b)|\bsignage\b",
+     "lighting"),
 )
 """Words of a load's name that say its kind where the article decides more than its current
 (a fire pump by Article 695; continuous by 422.13, 424.4(B), 625.42, or lighting by common
-practice), in the order tried."""
+practice: a sign's lamps, an exit sign's too, are lighting), in the order tried."""
 
 
 @lru_cache(maxsize=1)

@@ -113,6 +113,8 @@ def test_a_fixed_feeder_device_above_the_locked_rotor_current_is_a_note():
     ("Fire pump 1", "fire-pump"), ("FIRE PUMP", "fire-pump"), ("Fire-pump room", "fire-pump"),
     ("Jockey pump", None),   # a pressure maintenance pump is a motor (common practice)
     ("Firepump 2", "fire-pump"), ("Taproom lights", "lighting"),
+    ("Blade sign over entrance", "lighting"), ("Exit signs, rear", "lighting"),
+    ("Sign-in kiosk", None),
 ])
 def test_the_kind_a_name_says(to, kind):
     assert kind_in_name(to) == kind

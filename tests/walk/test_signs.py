@@ -98,3 +98,17 @@ def test_the_card_shows_the_sign_circuit_before_it_is_stored(tmp_path):
     assert stored.notes == checked.result.notes
     # and an edit in place agrees with a full computation
     assert session.result.runs == compute_job(session.job).runs
+
+
+def test_the_card_takes_a_sign_as_lighting_continuous_as_lighting_is(tmp_path):
+    # common practice: a sign's lamps burn 3 h and more, so the card reads the name as lighting
+    # (continuous unless the run says not): 125 % of 4 A = 5 A design (NEC 210.19(A)(1))
+    session = WalkSession.open(write_walk(tmp_path, panel_walk("strip")))
+    form = CardForm(session)
+    form.start()
+    for key, text in (("to", "Tenant C sign"), ("length", "60"), ("load", "4A"),
+                      ("circuit", "LN")):
+        form.type(key, text)
+    checked = form.check()
+    assert checked.errors == {} and checked.run.load.kind == "lighting"
+    assert checked.result.design_amps == pytest.approx(5.0) and checked.result.ocpd_a == 20
