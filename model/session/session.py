@@ -499,10 +499,29 @@ class WalkSession:
             return None
         snap = source.pop()
         target.append(self._snapshot(snap.label, snap.focus))
+        edited = self._only_run_changed(snap)
         self._restore(snap)
-        self.recompute()
+        self.recompute(edited)   # one run edited in place: only what it touches
         self._save_change()
         return snap
+
+    def _only_run_changed(self, snap: Snapshot) -> str | None:
+        """The id of the one run that differs between the walk now and ``snap`` (in the same
+        place, under the same id; every other run, every source and the settings the same
+        objects), or None: an undo or redo of one run's edit is then recomputed in place
+        (``recompute_run`` still computes the whole walk where that run was re-pointed)."""
+        job = self.job
+        if (snap.defaults is not job.defaults or snap.header is not job.job
+                or len(snap.sources) != len(job.sources) or len(snap.runs) != len(job.runs)
+                or any(a is not b for a, b in zip(snap.sources, job.sources, strict=True))):
+            return None
+        found = None
+        for a, b in zip(snap.runs, job.runs, strict=True):
+            if a is not b:
+                if found is not None or a.id != b.id:
+                    return None
+                found = a.id
+        return found
 
     # ----- saving -----------------------------------------------------------------------
     # With ``save_behind`` (the app) the writer thread only writes the walk it was handed through

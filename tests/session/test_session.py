@@ -48,6 +48,22 @@ def test_every_stored_change_is_on_disk_and_undo_redo_walk_through_them(session)
     assert path.read_text() == with_r2
 
 
+def test_undo_and_redo_of_one_runs_edit_recompute_in_place_and_equal_a_whole_computation(session):
+    from gaugewalk.model.walk.compute import compute_job
+
+    assert session.put_run(_run()) is None
+    assert session.put_run(_run(load=(9, "A")), replaces="R2") is None
+    for step in (session.undo, session.redo, session.undo):
+        assert step().focus == "R2"
+        # only what R2 touches was done again (an update in place says which rows it wrote)
+        assert session.changed is not None and "R2" in session.changed
+        full = compute_job(session.job)
+        assert session.result.runs == full.runs and session.result.problems == full.problems
+    assert session.result.runs["R2"].amps == 4.0
+    # an undo of an added run is no edit in place: the whole walk is computed
+    assert session.undo().label == "add R2" and session.changed is None
+
+
 def test_a_change_that_would_leave_the_walk_unreadable_is_refused_and_nothing_is_written(session):
     path = session.path
     before = path.read_bytes()

@@ -296,16 +296,18 @@ class WalkScreen(BoundInOrder, Screen):
     def reload(self, focus: str | None = None) -> None:
         """Show the session's walk as it is now: after one change that says which runs it
         touched (``WalkSession.changed``), only their rows are made again; after any other,
-        every row (results can move anywhere); after none, none."""
+        every row (results can move anywhere); after none, none. ``focus``: the run the cursor
+        goes to (an undo's or redo's)."""
         from gaugewalk.tui.app.sheet.rows import all_rows, changed_rows
 
         sheet = self.query_one(RunSheet)
         session = self.session
         if self._shown == session.version and focus is None:
             pass
-        elif (self._shown == session.version - 1 and session.changed is not None and focus is None
+        elif (self._shown == session.version - 1 and session.changed is not None
               and sheet.update_rows(changed_rows(session, session.changed))):
-            pass
+            if focus is not None:   # an undo or redo of one run's edit: the cursor to it
+                sheet.move_to(focus)
         else:
             sheet.set_rows(all_rows(session), keep_key=focus)
         self._shown = session.version
