@@ -328,6 +328,18 @@ def yes_no(text: str) -> bool | None:
     return None
 
 
+def _kind_text(run: Run) -> str:
+    """The kind field's text for a stored run: its kind; blank for a general load, or
+    ``general`` where its name says another kind (``kind_in_name``), which a blank field would
+    take instead (``kind_in``): a run edited on the card keeps the kind it was stored with."""
+    load = run.load
+    if load is None:
+        return ""
+    if load.kind != "general":
+        return load.kind
+    return "general" if kind_in_name(run.to) not in (None, "general") else ""
+
+
 def run_to_fields(run: Run) -> dict[str, str]:
     """The card's texts for an existing run."""
     from gaugewalk.model.walk.equipment import run_continuous
@@ -343,7 +355,7 @@ def run_to_fields(run: Run) -> dict[str, str]:
         "to": run.to,
         "length": run.length,
         "load": load.strip(),
-        "kind": run.load.kind if run.load is not None and run.load.kind != "general" else "",
+        "kind": _kind_text(run),
         "plate": plate_text(run.load),
         "panel": "",
         "circuit": run.connection or "",

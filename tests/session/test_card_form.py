@@ -719,3 +719,21 @@ def test_the_card_refuses_a_120_v_circuit_on_a_deltas_high_leg(tmp_path):
     form.type("circuit", "LL")   # 240 V without the neutral may use B
     form.type("place", "3")
     assert "place" not in form.check().errors
+
+
+def test_a_general_run_whose_name_says_a_kind_keeps_general_when_edited(session):
+    # a run stored as a general load though its name reads as lighting (a sign, lights): its
+    # card says 'general', so storing it again does not make it lighting (continuous, common
+    # practice) behind the person's back
+    form = CardForm(session)
+    form.start()
+    run = _typed(form, to="Shop lights", length="40", load="10A", kind="general",
+                 circuit="LN").check().run
+    assert run.load.kind == "general" and run.continuous is None
+    session.put_run(run)
+    edit = CardForm(session, run.id)
+    edit.start()
+    assert edit.values["kind"] == "general"
+    again = edit.check()
+    assert again.errors == {} and again.run.load.kind == "general"
+    assert again.result.design_amps == 10.0   # not 125 %: not continuous
