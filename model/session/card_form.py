@@ -581,6 +581,17 @@ def _check_load(r: _Reading) -> None:
             r.got["load_text"] = read_load_text(words, value_needed=not r.got["load_plate"])
         except LoadError as exc:
             r.errors["load"] = str(exc)
+            return
+        read = r.got["load_text"]
+        if (read.unit == "kVA" and r.got.get("dest") is None and not r.v["panel"].strip()
+                and _TRANSFORMER_NAME.match(r.got.get("to", ""))):
+            # 'T1' with '45kVA': a transformer, whose kVA goes in New panel, or a 45 kVA load
+            r.hints["load"] = "a transformer? ^o"
+
+
+_TRANSFORMER_NAME = re.compile(r"(?i)(?:t|tx|xf|xfmr|xfr)[ -]?\d+[a-z]?$|.*\b(?:transformer|xfmr)s?\b")
+"""A run's To that reads as a transformer (``T1``, ``XFMR-2``, ``Transformer T3``): with a load
+in kVA and no new panel, the card asks whether the kVA was meant for New panel."""
 
 
 def _check_kind(r: _Reading) -> None:

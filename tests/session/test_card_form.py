@@ -737,3 +737,14 @@ def test_a_general_run_whose_name_says_a_kind_keeps_general_when_edited(session)
     again = edit.check()
     assert again.errors == {} and again.run.load.kind == "general"
     assert again.result.design_amps == 10.0   # not 125 %: not continuous
+
+
+def test_a_kva_load_to_a_name_like_a_transformer_asks_whether_it_is_one(session):
+    # 'T1' with '45kVA' typed fast in Load: a 45 kVA load it may be (sized as one), but the card
+    # asks whether the kVA was meant for New panel (ctrl+o), where it makes a transformer
+    form = CardForm(session)
+    form.start()
+    checked = _typed(form, to="T1", length="40", load="45kVA").check()
+    assert checked.hints["load"] == "a transformer? ^o"
+    assert "load" not in _typed(form, to="Oven 2", load="45kVA").check().hints
+    assert "load" not in _typed(form, to="T1", load="16A").check().hints
