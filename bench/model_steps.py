@@ -12,8 +12,10 @@
 - save: ``dumps_walk``; baseline: ``tomli_w`` dumping the data ``tomllib`` read from the same file.
 - open and full recompute are cold: the caches keyed by a run's own inputs (a load's design
   current and device, ``gaugewalk.model.engine.sizing.forget_loads``; a length's text,
-  ``gaugewalk.model.walk.job.parse_length``) are emptied inside each timed repeat, so a repeat
-  of the same walk gains nothing from the one before; the caches keyed by the tables stay warm.
+  ``gaugewalk.model.walk.job.parse_length``; whether a name reads as a sign,
+  ``gaugewalk.model.walk.vocabulary.sign_in_name``) are emptied inside each timed repeat, so a
+  repeat of the same walk gains nothing from the one before; the caches keyed by the tables stay
+  warm.
 - for information: ``put_run`` with its save to disk, every run-sheet row rebuilt, ``save_walk``
   on its own, and the footage view's rebuild from the takeoff.
 """
@@ -40,6 +42,7 @@ def child_core(path: Path, repeat: int) -> dict:
     from gaugewalk.model.walk.compute import JobResult, compute_job
     from gaugewalk.model.walk.job import Run, parse_length
     from gaugewalk.model.walk.takeoff import build_takeoff
+    from gaugewalk.model.walk.vocabulary import sign_in_name
     from gaugewalk.model.walkfile.read import load_walk
     from gaugewalk.model.walkfile.write import dumps_walk, save_walk
     from gaugewalk.tui.app.sheet.rows import all_rows, sheet_row
@@ -47,6 +50,7 @@ def child_core(path: Path, repeat: int) -> dict:
     def cold() -> None:
         forget_loads()
         parse_length.cache_clear()
+        sign_in_name.cache_clear()
 
     def open_walk():
         cold()

@@ -119,7 +119,7 @@ from gaugewalk.model.walk.vocabulary import (
     LINE_NAMES,
     may_be_on_roof,
     may_be_sign,
-    may_count_by_length,
+    may_say_more,
 )
 
 _EPS = 1e-9
@@ -190,6 +190,9 @@ class JobResult:
     _source_problems: dict[str, list[Problem]] = field(default_factory=dict, repr=False)
     """{source id: its problems in ``_chain_problems``: its sums' and its lugs'}."""
     _raceway_problems: list[Problem] = field(default_factory=list, repr=False)
+    _signs: set[str] = field(default_factory=set, repr=False)
+    """The runs whose load is a sign (``equipment.is_sign_outlet``), found once a run as its
+    circuit is resolved (``WalkState.resolve_circuit``)."""
     _shape: tuple = field(default=(), repr=False)
     _touched: set[str] | None = field(default=None, repr=False, compare=False)
     """The runs whose rows the last update in place wrote (``recompute_run``); None: any."""
@@ -556,13 +559,18 @@ class WalkState:
         load = rf["load"]
         if load is None:
             res._own[rid] = None
+            res._signs.discard(rid)
             return c
+        sign = may_be_sign(rf["to"]) and is_sign_outlet(run)   # NEC 600.5(A), 220.14(F)
+        if sign:
+            res._signs.add(rid)
+        else:
+            res._signs.discard(rid)
         ld = load.__dict__
         if ld["kind"] != "general":   # its kind's reading takes more of the run
             res._own[rid] = own_load(run, c, self.job.defaults.pf)
             return c
-        alike = (key, ld["value"], ld["unit"], ld["pf"], rf["continuous"],
-                 may_be_sign(rf["to"]) and is_sign_outlet(run))   # a sign's 220.14(F)
+        alike = (key, ld["value"], ld["unit"], ld["pf"], rf["continuous"], sign)
         own = self._own_cache.get(alike, _GONE)
         if own is _GONE:
             own = self._own_cache[alike] = own_load(run, c, self.job.defaults.pf)
@@ -774,9 +782,8 @@ class WalkState:
                 self.fail(r, str(exc))
                 return
             kind = result.load_kind
-            to = rf["to"]
-            if (kind == "motor" or kind == "fire-pump" or may_count_by_length(to)
-                    or may_be_sign(to) or may_be_on_roof(to)):
+            if (kind == "motor" or kind == "fire-pump" or rid in res._signs
+                    or may_say_more(rf["to"])):
                 result = self.name_words(r, result, circuit)
             res._specs[rid] = spec
             res._passed[rid] = passed
@@ -875,7 +882,7 @@ class WalkState:
         rf = r.__dict__
         load = rf["load"]
         key = (circuit, None if load is None else tuple(load.__dict__.values()),
-               _spec_inputs(rf), may_be_sign(rf["to"]) and is_sign_outlet(r))   # 600.5(A)
+               _spec_inputs(rf), rf["id"] in self.result._signs)   # a sign: NEC 600.5(A)
         alike = self.branch_specs.get(key)
         if alike is None:
             spec = _spec(self.spec_base, self.job, r, upstream, circuit, False, None)

@@ -110,10 +110,19 @@ DUTY_NAMES: tuple[tuple[str, str, str], ...] = (
 they name, the article that sizes it; section numbers from memory)."""
 
 
+_SEPARATORS = "-,/()._:;&'+\u2019\u2013\u2014\u00b7"
+"""The punctuation taken as spaces between a name's words (hyphens, commas, slashes, brackets,
+full stops, colons, ampersands, apostrophes, dashes, middle dots)."""
+
+
 def _words(name: str) -> list[str]:
-    """The words of a name, lowered, split at every character that is not a letter or a digit
-    (no regular expression: their compiler is Python code, run when a pattern is first made)."""
-    return "".join(c if c.isalnum() else " " for c in name.lower()).split()
+    """The words of a name, lowered, split at white space and ``_SEPARATORS`` (no regular
+    expression: their compiler is Python code, run when a pattern is first made)."""
+    low = name.lower()
+    for c in _SEPARATORS:
+        if c in low:
+            low = low.replace(c, " ")
+    return low.split()
 
 
 def may_be_on_roof(name: str) -> bool:
@@ -167,6 +176,15 @@ UNIT_LOAD_NAMES: tuple[tuple[str, str, str], ...] = (
 connected: (the words, what they name, the rule; section numbers from memory)."""
 
 
+def may_say_more(name: str) -> bool:
+    """One cheap first look for the rules a branch run's name may call for beside its kind's:
+    lighting counted by length (``may_count_by_length``) or equipment on a roof
+    (``may_be_on_roof``), the two looks written out (this runs once a run of every
+    computation)."""
+    return ("rack" in name or "indow" in name or "oof" in name or "OOF" in name or "RTU" in name
+            or "rtu" in name)
+
+
 def may_count_by_length(name: str) -> bool:
     """A cheap first look for ``unit_load_in_name``: the name holds 'track' or 'window' in any
     case (most names do not, and are not lowered or searched)."""
@@ -188,10 +206,12 @@ def may_be_sign(name: str) -> bool:
     return "ign" in name or "IGN" in name or "utline" in name
 
 
+@lru_cache(maxsize=16384)
 def sign_in_name(name: str) -> bool:
     """Whether a load's name reads as a sign or outline lighting (NEC Article 600: ``Blade sign
     over entrance``, ``Storefront signage``, ``Outline lighting, parapet``), not an exit or
-    emergency sign, nor a sign-in desk."""
+    emergency sign, nor a sign-in desk. Cached by the name: a sign's run asks it at each step of
+    its computation (its load in the panel, its spec, its note)."""
     if not may_be_sign(name):
         return False
     words = _words(name)
