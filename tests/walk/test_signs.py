@@ -112,3 +112,22 @@ def test_the_card_takes_a_sign_as_lighting_continuous_as_lighting_is(tmp_path):
     checked = form.check()
     assert checked.errors == {} and checked.run.load.kind == "lighting"
     assert checked.result.design_amps == pytest.approx(5.0) and checked.result.ocpd_a == 20
+
+
+def test_a_sign_edited_in_place_is_updated_as_a_whole_computation(tmp_path):
+    # renamed (a new name is a run re-pointed: the walk is computed whole), then its load
+    # changed in place (recompute_run): its device, its panel's 1,200 VA and its note stay equal
+    # to a computation of the whole walk each time
+    session = WalkSession.open(write_walk(tmp_path, panel_walk(
+        "strip", run_table("R1", "LP1", "Bench", "55", load=(3, "A"), connection="LN"),
+        run_table("R2", "LP1", "Office lights", "40", load=(8, "A"), connection="LN"))))
+    steps = (({"to": "Tenant A sign"}, 20, False), ({"load": {"value": 5, "unit": "A"}}, 20, True),
+             ({"to": "Bench"}, 15, False), ({"load": {"value": 3, "unit": "A"}}, 15, True))
+    for update, device, in_place in steps:
+        run = session.job.run("R1")
+        data = run.model_dump(by_alias=True, exclude_defaults=True) | update
+        assert session.put_run(type(run).model_validate(data), replaces="R1") is None
+        assert (session.changed is not None) is in_place
+        full = compute_job(session.job)
+        assert session.result.runs == full.runs and session.result.run_va == full.run_va
+        assert session.result.runs["R1"].ocpd_a == device
