@@ -584,7 +584,7 @@ def _check_load(r: _Reading) -> None:
             return
         read = r.got["load_text"]
         if (read.unit == "kVA" and r.got.get("dest") is None and not r.v["panel"].strip()
-                and _TRANSFORMER_NAME.match(r.got.get("to", ""))):
+                and _TRANSFORMER_NAME.match(r.v["to"].strip())):
             # 'T1' with '45kVA': a transformer, whose kVA goes in New panel, or a 45 kVA load
             r.hints["load"] = "a transformer? ^o"
 
