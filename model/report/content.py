@@ -13,7 +13,7 @@ from gaugewalk.model.engine.contract import Circuit, RunResult
 from gaugewalk.model.report.oneline import Bus, one_line
 from gaugewalk.model.walk.checks import connection_of
 from gaugewalk.model.walk.compute import FeederInfo, JobResult
-from gaugewalk.model.walk.equipment import load_words, run_continuous
+from gaugewalk.model.walk.equipment import from_name, load_words, run_continuous
 from gaugewalk.model.walk.job import Job, Run, shared_ids
 from gaugewalk.model.walk.plausible import implausible, stated_loads
 from gaugewalk.model.walk.schedule import drop_basis, schedule_of, schedules
@@ -105,6 +105,9 @@ NOTES_HEADING = "Warnings and stated assumptions"
 """The section after the runs table: what is said about the walk without counting as a problem."""
 RUN_WARNINGS_HEADING = "Values to check"
 STATED_LOADS_HEADING = "Feeders sized for a stated load below what their panel's loads need"
+NAME_NOTES_HEADING = "Taken from a run's name"
+"""The assumptions a run's name made (a sign taken as the outlet 600.5(A) requires, a duty
+motor, equipment on a roof...), each also among its run's rules."""
 
 
 @dataclass(frozen=True)
@@ -132,6 +135,7 @@ class Report:
     drop_basis: str = ""
     run_warnings: tuple[str, ...] = ()   # values to check (``plausible.implausible``), said only
     stated_loads: tuple[str, ...] = ()   # feeders kept at a stated load below their panel's need
+    name_notes: tuple[str, ...] = ()     # what runs' names made taken (``NAME_NOTES_HEADING``)
     rules: tuple[RunRules, ...] = ()     # every sized run's rules (``RULES_HEADING``)
 
 
@@ -354,6 +358,9 @@ def build_report(job: Job, results: dict[str, RunResult | None], takeoff: Takeof
         stated_loads=tuple(f"run {rid}: {basis}" for rid, basis in
                            (stated_loads(job_result) if job_result is not None else ())),
         rules=tuple(rules),
+        name_notes=tuple(f"run {r.id}: {note}" for r in job.runs
+                         if job_result is not None and r.id in job_result.runs
+                         for note in from_name(r, job_result.runs[r.id].notes)),
     )
 
 

@@ -22,6 +22,8 @@ Public API:
   motor-compressor, sized by Article 430 where Article 440 takes its nameplate;
   ``named_roof_run(run, insulation)``: a run to equipment named as on a roof, not marked
   rooftop (NEC 310.15(B)(2) not taken).
+- ``name_says(run)``: how each of those notes opens; ``from_name(run, notes)``: the notes a
+  run's name made, for the report.
 - Signs (``is_sign_outlet``: a general or lighting load named as a sign): taken as the outlet
   NEC 600.5(A) requires, at ``SIGN_CIRCUIT_A`` where the run gives no device
   (``sign_outlet_device``), counted in its panel at no less than ``SIGN_OUTLET_VA``
@@ -245,10 +247,23 @@ def named_duty_motor(run: Run) -> str | None:
     if said is None:
         return None
     what, rule = said
-    return (f"'{run.to}' reads as {what}: sized here as a continuous-duty motor (NEC 430.22, "
+    return (f"{name_says(run)} {what}: sized here as a continuous-duty motor (NEC 430.22, "
             f"125 % of the table current); {rule} (430.22(E), Table 430.22(E): up to 140 % of "
             "the nameplate current for intermittent duty, 200 % for varying duty; from memory): "
             "confirm the conductors with its duty rating and nameplate")
+
+
+def name_says(run: Run) -> str:
+    """How every note taken from a run's name opens (``'Blade sign' reads as``), so the report
+    can list them together (``from_name``)."""
+    return f"'{run.to}' reads as"
+
+
+def from_name(run: Run, notes: tuple[str, ...]) -> tuple[str, ...]:
+    """The notes among ``notes`` (a run's) that its name made: assumptions stated because of
+    what the name says (a sign, a duty motor, equipment on a roof...)."""
+    opening = name_says(run)
+    return tuple(n for n in notes if n.startswith(opening))
 
 
 def named_refrigerant_motor(run: Run) -> str | None:
@@ -258,7 +273,7 @@ def named_refrigerant_motor(run: Run) -> str | None:
     load = run.load
     if load is None or load.kind != "motor" or not refrigerant_in_name(run.to):
         return None
-    return (f"'{run.to}' reads as a refrigerant motor-compressor: sized here as a motor of its "
+    return (f"{name_says(run)} a refrigerant motor-compressor: sized here as a motor of its "
             "horsepower (the Article 430 tables); NEC Article 440 sizes a hermetic "
             "motor-compressor from its nameplate's rated-load or branch-circuit selection "
             "current (440.6(A)) and the equipment's minimum circuit ampacity and maximum "
@@ -273,7 +288,7 @@ def named_roof_run(run: Run, insulation: str) -> str | None:
     ``insulation``, the run's own or the job's, is excepted from the adder)."""
     if run.rooftop or rooftop_excepted(insulation) or not roof_in_name(run.to):
         return None
-    return (f"'{run.to}' reads as equipment on a roof: its raceway is taken as not run in "
+    return (f"{name_says(run)} equipment on a roof: its raceway is taken as not run in "
             f"sunlight less than 7/8 in above the roof; where it is, NEC 310.15(B)(2) adds "
             f"{ROOFTOP_ADDER_C} C to the ambient, which can take a larger size: mark the run "
             "rooftop")
@@ -324,17 +339,17 @@ def named_sign(run: Run, ocpd_a: int, va: float) -> str | None:
     counted = (f"; its panel counts it at {SIGN_OUTLET_VA:,.0f} VA, not its {va:,.0f} VA "
                "(NEC 220.14(F))" if va < SIGN_OUTLET_VA else "")
     if ocpd_a > SIGN_CIRCUIT_A:
-        return (f"'{run.to}' reads as a sign: NEC 600.5(B) rates a branch circuit supplying "
+        return (f"{name_says(run)} a sign: NEC 600.5(B) rates a branch circuit supplying "
                 f"signs at no more than {SIGN_CIRCUIT_A} A (30 A for neon tubing alone), and "
                 f"this load takes a {ocpd_a} A device: split it, or confirm it is neon "
                 f"(from memory){counted}")
     if ocpd_a < SIGN_CIRCUIT_A:
-        return (f"'{run.to}' reads as a sign: if it is the outlet NEC 600.5(A) requires at a "
+        return (f"{name_says(run)} a sign: if it is the outlet NEC 600.5(A) requires at a "
                 f"tenant entrance, its branch circuit is rated at least {SIGN_CIRCUIT_A} A, not "
                 f"the {ocpd_a} A given, and supplies no other load (from memory){counted}")
     other = ("" if run.ocpd_a is not None
              else "; give the run its own device where it is another sign")
-    return (f"'{run.to}' reads as a sign: taken as the outlet NEC 600.5(A) requires at a tenant "
+    return (f"{name_says(run)} a sign: taken as the outlet NEC 600.5(A) requires at a tenant "
             f"entrance, on a branch circuit of at least {SIGN_CIRCUIT_A} A that supplies no "
             f"other load (from memory){counted}{other}")
 
@@ -347,6 +362,6 @@ def named_unit_load(run: Run) -> str | None:
     if said is None or run.load is None:
         return None
     what, rule = said
-    return (f"'{run.to}' reads as {what}: {rule} (from memory); the walk gives its load "
+    return (f"{name_says(run)} {what}: {rule} (from memory); the walk gives its load "
             f"({load_short(run.load)}), not that length, so its feeder counts the load given: "
             "confirm it is not less")

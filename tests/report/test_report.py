@@ -373,3 +373,25 @@ def test_a_raceway_cell_keeps_its_trade_size_whole_and_lets_the_words_after_it_w
     assert _cell("Raceway", "EMT 1-1/4") == '<td class="nw">EMT 1-1/4</td>'
     assert _cell("Raceway", "EMT 3/4, rooftop: +33 C ambient (NEC 310.15(B)(2))") == (
         '<td><span class="nw">EMT 3/4</span>, rooftop: +33 C ambient (NEC 310.15(B)(2))</td>')
+
+
+def test_what_runs_names_made_taken_is_listed_with_the_warnings(tmp_path):
+    # the retail sample's blade sign (NEC 600.5(A), 220.14(F), from memory) and rooftop units
+    # (310.15(B)(2)): each assumption its name made is listed once, under its own heading, as
+    # well as among the run's rules
+    retail = Path(__file__).resolve().parents[2] / "sample_walks" / "retail_fitout.toml"
+    for name in ("r.html", "r.md"):
+        assert gaugewalk(cmd_report, [str(retail), "-o", str(tmp_path / name)]) == 0
+    md = (tmp_path / "r.md").read_text(encoding="utf-8")
+    named = md.split("### Taken from a run's name", 1)[1].split("\n## ", 1)[0]
+    items = [line for line in named.splitlines() if line.startswith("- run ")]
+    assert any(i.startswith("- run LP1-M06: 'Blade sign over entrance' reads as a sign") and
+               "NEC 600.5(A)" in i for i in items)
+    assert any(i.startswith("- run LP1-M01: 'RTU-1 rooftop unit' reads as equipment on a roof")
+               for i in items)
+    assert len(items) == len(set(items))
+    parsed = _Page()
+    parsed.feed((tmp_path / "r.html").read_text(encoding="utf-8"))
+    text_of_page = "".join(parsed.text)
+    assert "Taken from a run's name" in text_of_page
+    assert "run LP1-M06: 'Blade sign over entrance' reads as a sign" in text_of_page

@@ -9,6 +9,7 @@ import html
 from collections.abc import Set as AbstractSet
 
 from gaugewalk.model.report.content import (
+    NAME_NOTES_HEADING,
     NOTES_HEADING,
     RULES_HEADING,
     RULES_INTRO,
@@ -163,10 +164,11 @@ def render_html(report: Report) -> str:
            if r.problems}
     out.append(_table(RUN_COLUMNS, [r.cells() for r in report.runs],
                       problem_rows=problem_rows, label="Runs", why=why))
-    if report.run_warnings or report.stated_loads:
+    if report.run_warnings or report.stated_loads or report.name_notes:
         out.append(f"<h2>{escape(NOTES_HEADING)}</h2>")
         for heading, items in ((RUN_WARNINGS_HEADING, report.run_warnings),
-                               (STATED_LOADS_HEADING, report.stated_loads)):
+                               (STATED_LOADS_HEADING, report.stated_loads),
+                               (NAME_NOTES_HEADING, report.name_notes)):
             if items:
                 out.append(f"<h3>{escape(heading)}</h3>")
                 out.append("<ul>" + "".join(f"<li>{escape(t)}</li>" for t in items) + "</ul>")

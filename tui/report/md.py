@@ -7,6 +7,7 @@ and its control characters are shown as ``\x1b`` (``gaugewalk.model.walk.plain_t
 from __future__ import annotations
 
 from gaugewalk.model.report.content import (
+    NAME_NOTES_HEADING,
     NOTES_HEADING,
     RULES_HEADING,
     RULES_INTRO,
@@ -83,10 +84,11 @@ def render_md(report: Report) -> str:
     out += ["## Runs", ""] + _table(RUN_COLUMNS + ("Problems",),
                                     [r.cells() + ("; ".join(r.problems),) for r in report.runs])
     out += [""]
-    if report.run_warnings or report.stated_loads:
+    if report.run_warnings or report.stated_loads or report.name_notes:
         out += [f"## {NOTES_HEADING}", ""]
         for heading, items in ((RUN_WARNINGS_HEADING, report.run_warnings),
-                               (STATED_LOADS_HEADING, report.stated_loads)):
+                               (STATED_LOADS_HEADING, report.stated_loads),
+                               (NAME_NOTES_HEADING, report.name_notes)):
             if items:
                 out += [f"### {heading}", ""] + [f"- {md_escape(t)}" for t in items] + [""]
     if report.shared:
