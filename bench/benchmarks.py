@@ -110,10 +110,11 @@ def ratios(r: dict) -> None:
 
 
 def measure(n: int, repeat: int, starts: int, app: bool, stores: int, whole: bool, tmp: Path,
-            log) -> dict:
+            log, instructions: bool = False) -> dict:
     """Every figure at ``n`` runs; ``whole`` adds those that do not depend on ``n`` (the
-    headless commands and the app start on the sample walk)."""
-    from bench.commands import command_figures
+    headless commands and the app start on the sample walk), and with ``instructions`` the
+    headless check's instruction count beside its baseline's, for information."""
+    from bench.commands import command_figures, instruction_figures
     from bench.walks import SAMPLE, config_dir, sample_copy, synthetic_file
 
     path = synthetic_file(tmp, n)
@@ -127,6 +128,12 @@ def measure(n: int, repeat: int, starts: int, app: bool, stores: int, whole: boo
         log(f"  headless commands on {SAMPLE.name}, {starts * 2} processes each...")
         out.update(command_figures(SAMPLE, starts * 2))
         out["sample_walk"] = str(SAMPLE.relative_to(ROOT))
+        if instructions:
+            log(f"  check of {SAMPLE.name} and its baseline under valgrind (callgrind)...")
+            counted = instruction_figures(SAMPLE)
+            if not counted:
+                log("  (valgrind is not installed or counted nothing: no instruction figures)")
+            out.update(counted)
     if app:
         config = config_dir(tmp)
         if whole:
@@ -209,6 +216,9 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("--stores", type=int, default=4,
                         help="runs stored from the run card per app process")
     parser.add_argument("--no-app", action="store_true", help="skip the app figures")
+    parser.add_argument("--instructions", action="store_true",
+                        help="also count the instructions of check and its baseline under "
+                             "valgrind, for information (about a minute more)")
     parser.add_argument("--scale", type=int, metavar="N",
                         help="also measure the model figures (open, recompute, edit, save, memory) "
                              "at N runs and print their cost per run against --runs, PASS within "
@@ -249,7 +259,7 @@ def main(argv: list[str] | None = None) -> int:
                 repeat = args.repeat if at else (max(2, args.repeat // 3) if n < TARGET_RUNS else 2)
                 results.append(measure(
                     n, repeat, args.starts if at else 2, not args.no_app, args.stores if at else 2,
-                    at, Path(tempfile.mkdtemp(dir=tmp)), log))
+                    at, Path(tempfile.mkdtemp(dir=tmp)), log, args.instructions and at))
             text, verdicts = scaling_table(results, LINEAR_SLACK)
             at_target = next(r for r in results if r["runs"] == TARGET_RUNS)
             print(table(at_target, TARGETS))
@@ -257,7 +267,7 @@ def main(argv: list[str] | None = None) -> int:
             summary = dict(at_target, scaling=results, linear=verdicts)
         else:
             summary = measure(args.runs, args.repeat, args.starts, not args.no_app, args.stores,
-                              True, tmp, log)
+                              True, tmp, log, args.instructions)
             print(table(summary, TARGETS))
             if args.scale:
                 text, scale = model_scale(summary, args.scale, args.repeat,

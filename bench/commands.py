@@ -4,6 +4,10 @@ baseline process taken in turn with it.
 - ``gaugewalk calc`` sizing one run (the README's example); baseline: a bare ``python -c pass``.
 - ``gaugewalk check`` of the sample walk (385 runs); baseline: a process that only parses the
   same file with ``tomllib``.
+- With ``--instructions`` (where valgrind is installed), for information: the instructions
+  ``check`` and its baseline execute under valgrind's callgrind, one process each with
+  ``PYTHONHASHSEED=0``: a count that does not move with the machine's load, as wall-clock times
+  do (``instruction_figures``).
 - For information: a process that imports pydantic and builds one model, as the walk model does
   (pydantic's plugin loader spared as ``job.py`` spares it): what ``check`` pays before any code of
   ours, in the same ratio to the same baseline; and a process that only imports the walk model
@@ -13,6 +17,10 @@ baseline process taken in turn with it.
 
 from __future__ import annotations
 
+import os
+import re
+import shutil
+import subprocess
 import sys
 from pathlib import Path
 
@@ -69,3 +77,38 @@ def command_figures(sample: Path, starts: int) -> dict:
         "check_parse_s": best["parse"], "check_s": best["check"],
         "pydantic_floor_s": best["pydantic"], "walk_model_s": best["model"],
     }
+
+
+_COLLECTED = re.compile(r"^==\d+== Collected : (\d+)\s*$", re.MULTILINE)
+
+
+def collected_instructions(report: str) -> int | None:
+    """The instructions callgrind says it collected (``==PID== Collected : N`` in its standard
+    error), or None where it says none."""
+    found = _COLLECTED.search(report)
+    return int(found.group(1)) if found else None
+
+
+def instruction_figures(sample: Path) -> dict:
+    """The instructions ``gaugewalk check`` of ``sample`` and its baseline (a process only
+    parsing it with tomllib) execute under valgrind's callgrind (``check_instructions``,
+    ``parse_instructions``); empty where valgrind is not installed or says nothing."""
+    valgrind = shutil.which("valgrind")
+    if valgrind is None:
+        return {}
+    commands = {
+        "check_instructions": [*_gaugewalk(), "check", str(sample)],
+        "parse_instructions": [sys.executable, "-c",
+                               "import sys, tomllib\nwith open(sys.argv[1], 'rb') as f: "
+                               "tomllib.load(f)", str(sample)],
+    }
+    out = {}
+    for key, command in commands.items():
+        done = subprocess.run([valgrind, "--tool=callgrind", "--callgrind-out-file=/dev/null",
+                               *command], capture_output=True, text=True,
+                              env={**os.environ, "PYTHONHASHSEED": "0"}, check=False)
+        count = collected_instructions(done.stderr)
+        if count is None:
+            return {}
+        out[key] = count
+    return out

@@ -93,6 +93,12 @@ def table(r: dict, targets) -> str:
             f"the walk model imported (its pydantic classes built), a process: "
             f"{r['walk_model_s'] / r['check_parse_s']:.2f}x the check baseline "
             f"({_s(r['walk_model_s'])}), what check pays before it reads the walk")
+    if "check_instructions" in r:
+        info.append(
+            f"instructions under valgrind (independent of the load): check "
+            f"{r['check_instructions'] / 1e6:,.0f} M, a process only parsing it "
+            f"{r['parse_instructions'] / 1e6:,.0f} M: "
+            f"{r['check_instructions'] / r['parse_instructions']:.2f}x")
     if "app_edit_ms" in r:
         info.append(
             f"app store step median {_ms(r['app_edit_median_ms'])}, "
