@@ -46,6 +46,9 @@ WALK_MODEL = (
 """The walk model imported as ``check`` imports its modules (the collector held,
 ``gaugewalk.tui.cli.main``)."""
 
+PARSE_ONLY = "import sys, tomllib\nwith open(sys.argv[1], 'rb') as f: tomllib.load(f)"
+"""``check``'s baseline: a process that only parses the walk with tomllib (``python -c``)."""
+
 CALC_ARGS = ("calc", "--amps", "40", "--length", "120+35+2*12", "--volts", "240", "--continuous")
 
 
@@ -63,9 +66,7 @@ def command_figures(sample: Path, starts: int) -> dict:
     commands = {
         "python": [sys.executable, "-c", "pass"],
         "calc": [*cli, *CALC_ARGS],
-        "parse": [sys.executable, "-c",
-                  "import sys, tomllib\nwith open(sys.argv[1], 'rb') as f: tomllib.load(f)",
-                  str(sample)],
+        "parse": [sys.executable, "-c", PARSE_ONLY, str(sample)],
         "check": [*cli, "check", str(sample)],
         "pydantic": [sys.executable, "-c", PYDANTIC_FLOOR],
         "model": [sys.executable, "-c", WALK_MODEL],
@@ -98,9 +99,7 @@ def instruction_figures(sample: Path) -> dict:
         return {}
     commands = {
         "check_instructions": [*_gaugewalk(), "check", str(sample)],
-        "parse_instructions": [sys.executable, "-c",
-                               "import sys, tomllib\nwith open(sys.argv[1], 'rb') as f: "
-                               "tomllib.load(f)", str(sample)],
+        "parse_instructions": [sys.executable, "-c", PARSE_ONLY, str(sample)],
     }
     out = {}
     for key, command in commands.items():

@@ -337,7 +337,7 @@ def _kind_text(run: Run) -> str:
         return ""
     if load.kind != "general":
         return load.kind
-    return "general" if kind_in_name(run.to) not in (None, "general") else ""
+    return "general" if kind_in_name(run.to) is not None else ""
 
 
 def run_to_fields(run: Run) -> dict[str, str]:

@@ -78,6 +78,7 @@ from gaugewalk.model.walk.feeder_loads import (
     neutral_load,
     own_load,
     sum_source,
+    va_of,
 )
 from gaugewalk.model.walk.fire_pumps import (
     feeder_check,
@@ -461,8 +462,10 @@ def _spec(base: dict, job: Job, run: Run, upstream_drop_pct: float, circuit: Cir
     values["size"] = rf["size"]
     values["ocpd_a"] = rf["ocpd_a"]
     if not feeder and load is not None and may_be_sign(rf["to"]):   # NEC 600.5(A)
-        values["ocpd_a"] = sign_outlet_device(run, design_current(
-            amps, amps if values["continuous"] else 0.0)) or rf["ocpd_a"]
+        device = sign_outlet_device(run, design_current(
+            amps, amps if values["continuous"] else 0.0))
+        if device is not None:
+            values["ocpd_a"] = device
     values["max_drop_pct"] = max_drop
     values["upstream_drop_pct"] = upstream_drop_pct
     values["equipment"] = equipment
@@ -942,8 +945,7 @@ class WalkState:
         else:
             said = named_unit_load(r)
             if said is None and may_be_sign(r.to):
-                said = named_sign(r, result.ocpd_a, result.amps * circuit.line_volts
-                                  * (SQRT3 if circuit.phases == 3 else 1.0))
+                said = named_sign(r, result.ocpd_a, va_of(result.amps, "A", circuit, 1.0))
             if said is not None:
                 result = with_fields(result, notes=result.notes + (said,))
         if may_be_on_roof(r.to):

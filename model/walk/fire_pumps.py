@@ -33,6 +33,7 @@ ocpd_a) -> (notes, problems)``, ``fire_pump_device(fire_pumps, load_a) -> int | 
 """
 
 from gaugewalk.model.engine.sizing.currents import next_rating
+from gaugewalk.model.walk.equipment import name_says
 from gaugewalk.model.walk.graph import SupplyGraph
 from gaugewalk.model.walk.job import Run
 from gaugewalk.model.walk.vocabulary import kind_in_name
@@ -46,7 +47,7 @@ def named_fire_pump(run: Run) -> str | None:
     or None."""
     if kind_in_name(run.to) != "fire-pump":
         return None
-    return (f"'{run.to}' reads as a fire pump, but its load is sized as a plain motor (NEC "
+    return (f"{name_says(run)} a fire pump, but its load is sized as a plain motor (NEC "
             f"430: a device at the Table 430.52(C)(1) percentage, the drop at its running "
             f"current): a fire pump's device must carry its locked-rotor current indefinitely "
             f"(695.4(B)(2)(a)(1)) and its drop is held by 695.7; set the load's kind to "

@@ -177,12 +177,10 @@ connected: (the words, what they name, the rule; section numbers from memory).""
 
 
 def may_say_more(name: str) -> bool:
-    """One cheap first look for the rules a branch run's name may call for beside its kind's:
-    lighting counted by length (``may_count_by_length``) or equipment on a roof
-    (``may_be_on_roof``), the two looks written out (this runs once a run of every
-    computation)."""
-    return ("rack" in name or "indow" in name or "oof" in name or "OOF" in name or "RTU" in name
-            or "rtu" in name)
+    """One first look for the rules a branch run's name may call for beside its kind's and a
+    sign's: lighting counted by length (``may_count_by_length``) or equipment on a roof
+    (``may_be_on_roof``)."""
+    return may_count_by_length(name) or may_be_on_roof(name)
 
 
 def may_count_by_length(name: str) -> bool:
